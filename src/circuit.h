@@ -1,0 +1,197 @@
+/* circuit.h - the circuit model that the parser builds. See LICENSE.
+ *
+ * A gs_circuit is what a .gsc file says, after device lines are expanded
+ * into primitive elements (DESIGN.md, "The circuit language").  It is an
+ * object with identity: gs_circuit_new / gs_circuit_free; it owns every
+ * array and string inside it, and its symbol table.
+ *
+ * Nodes are dense ids; node 0 is the reference (gnd, 0, and every node a
+ * `ground` statement names are merged into it).  Elements keep the order
+ * of the file; an expanded device contributes its parts in a fixed order
+ * right where the device line stands.
+ */
+#ifndef GS_CIRCUIT_H
+#define GS_CIRCUIT_H
+
+#include <stddef.h>
+
+#include "diag.h"
+#include "rat.h"
+#include "sym.h"
+
+typedef enum gs_elem_kind {
+    GS_RESISTOR,     /* value R: stamps 1/R                                */
+    GS_CONDUCTANCE,  /* value G                                            */
+    GS_CAPACITOR,    /* value C: stamps s*C                                */
+    GS_INDUCTOR,     /* value L: branch current, v = s*L*i                 */
+    GS_VSOURCE,      /* amplitude: branch current                          */
+    GS_ISOURCE,      /* amplitude: current n[0] -> n[1] through it         */
+    GS_VCCS,         /* i(n0->n1) = value * v(n2, n3)                      */
+    GS_VCVS,         /* v(n0, n1) = value * v(n2, n3)                      */
+    GS_CCCS,         /* i(n0->n1) = value * i(ctrl)                        */
+    GS_CCVS,         /* v(n0, n1) = value * i(ctrl)                        */
+    GS_OPAMP         /* ideal: v(n1) = v(n2); output n0, no input current */
+} gs_elem_kind;
+
+/* A value that is a monomial: coeff * prod sym[i]^exp[i] (exp may be
+   negative: "R/2" is 1/2 * R^1, "1/G" is G^-1).  The symbols are ids in
+   the circuit's table; none is the Laplace variable. */
+typedef struct gs_monomial {
+    gs_rat coeff;
+    int n;
+    int *sym;
+    int *exp;
+} gs_monomial;
+
+void gs_monomial_init(gs_monomial *m);       /* m = 1 */
+void gs_monomial_clear(gs_monomial *m);
+void gs_monomial_set(gs_monomial *r, const gs_monomial *a);
+/* r = r * sym^exp (merging a repeated symbol; a zero exponent drops it) */
+void gs_monomial_mul_sym(gs_monomial *r, int sym, int exp);
+
+typedef struct gs_element {
+    gs_elem_kind kind;
+    char *name;          /* unique among elements ("M1.gm" for a part of a
+                            device M1; see device_parts in parse.c) */
+    int line, col;       /* where the defining text starts */
+    int node[4];         /* n0, n1 and, for VCCS/VCVS, control n2, n3;
+                            for OPAMP: out, +, - ; unused: -1 */
+    int ctrl;            /* CCCS/CCVS: index of the controlling element,
+                            whose current i(ctrl) is meant; else -1 */
+    gs_monomial value;   /* the element's value or gain; sources: amplitude */
+    int device;          /* index into devices[] it came from, or -1 */
+} gs_element;
+
+/* What a transfer or impedance asks for. */
+typedef enum gs_probe_kind {
+    GS_PROBE_V,          /* v(a) or v(a, b): node voltage difference */
+    GS_PROBE_I           /* i(element): current through an element */
+} gs_probe_kind;
+
+typedef struct gs_probe {
+    gs_probe_kind kind;
+    int a, b;            /* nodes for GS_PROBE_V (b = 0 for v(a)) */
+    int elem;            /* element for GS_PROBE_I */
+} gs_probe;
+
+typedef enum gs_output_kind {
+    GS_OUT_TRANSFER,     /* name = probe / source */
+    GS_OUT_IMPEDANCE     /* name = a, b: driving-point impedance */
+} gs_output_kind;
+
+typedef struct gs_output {
+    gs_output_kind kind;
+    char *name;
+    int line, col;
+    gs_probe out;        /* transfer: the output quantity */
+    int in;              /* transfer: index of the independent source */
+    int a, b;            /* impedance: the two nodes */
+} gs_output;
+
+/* Expressions of `value` lines: evaluated numerically (long double). */
+typedef enum gs_expr_kind {
+    GS_EX_NUM, GS_EX_SYM, GS_EX_NEG, GS_EX_ADD, GS_EX_SUB, GS_EX_MUL,
+    GS_EX_DIV, GS_EX_POW, GS_EX_CALL
+} gs_expr_kind;
+
+typedef struct gs_expr {
+    gs_expr_kind kind;
+    int line, col;
+    gs_rat num;              /* GS_EX_NUM: exact */
+    int sym;                 /* GS_EX_SYM: symbol id */
+    char *func;              /* GS_EX_CALL: "sqrt", "exp", "log", ... */
+    struct gs_expr *lhs;     /* operands (unary and call use lhs only) */
+    struct gs_expr *rhs;
+} gs_expr;
+
+void gs_expr_free(gs_expr *e);   /* the whole tree; NULL is fine */
+
+typedef struct gs_valuedef {
+    int sym;                 /* the symbol bound */
+    gs_expr *expr;           /* owned */
+    char *origin;            /* NULL for a value line; "bias M1" for
+                                values set by a bias line (owned) */
+    int line, col;
+} gs_valuedef;
+
+/* A device line (mosfet/bjt) as written, kept for bias lines and for
+   messages; its parts are ordinary elements with device = index here. */
+typedef struct gs_device {
+    char *name;
+    int is_bjt;
+    int line, col;
+    int nodes[4];            /* mosfet: d g s b; bjt: c b e (-1 unused) */
+    int nparams;
+    char **keys;             /* parameter names as written: "gm", "rds" */
+    char **vals;             /* their text as written */
+} gs_device;
+
+/* A bias line: raw key=value pairs; the device module interprets them. */
+typedef struct gs_bias {
+    int device;              /* index into devices[] */
+    int line, col;
+    int nparams;
+    char **keys;
+    char **vals;
+    int *val_col;            /* column of each value, for messages */
+} gs_bias;
+
+typedef struct gs_circuit {
+    char *file;              /* name used in messages ("-" is <stdin>) */
+    char *title;             /* NULL when none */
+    gs_symtab *syms;         /* owned; symbol 0 is "s", the Laplace var */
+    int s_sym;               /* id of s (always 0) */
+
+    int nnodes;              /* node 0 is the reference */
+    char **node_name;        /* node_name[0] = "gnd" */
+    int *node_line, *node_col;  /* first mention */
+
+    size_t nelems;
+    gs_element *elems;
+    size_t noutputs;
+    gs_output *outputs;
+    size_t nvalues;
+    gs_valuedef *values;
+    size_t ndevices;
+    gs_device *devices;
+    size_t nbiases;
+    gs_bias *biases;
+} gs_circuit;
+
+gs_circuit *gs_circuit_new(void);
+void gs_circuit_free(gs_circuit *c);         /* NULL is fine */
+
+/* Parse a whole file ("-" reads standard input) or a string.  Every
+   statement error is reported in d (up to d->max_errors), warnings too.
+   Returns GS_OK, GS_ESYNTAX (some statement was bad), GS_EINVAL (the
+   circuit is structurally unsound: see gs_circuit_check) or GS_EIO. */
+int gs_parse_file(gs_circuit *c, const char *path, gs_diag *d);
+int gs_parse_string(gs_circuit *c, const char *name, const char *text,
+                    gs_diag *d);
+
+/* Structural checks before any algebra (gs_parse_* runs them): loops of
+   voltage-defined elements, cut-sets of current sources, parts with no
+   path to the reference, a node touched by one element (warning), ...
+   Returns GS_OK or GS_EINVAL, with messages naming the elements. */
+int gs_circuit_check(const gs_circuit *c, gs_diag *d);
+
+int gs_circuit_find_element(const gs_circuit *c, const char *name);
+int gs_circuit_find_node(const gs_circuit *c, const char *name);
+int gs_circuit_find_output(const gs_circuit *c, const char *name);
+
+/* Evaluate every value line into vals[sym] (long double, indexed by symbol
+   id, gs_symtab_count entries; set[sym] = 1 where bound).  The arrays are
+   the caller's.  Reports cycles, unknown symbols, domain errors (sqrt of a
+   negative number, log of zero, division by zero) in d: GS_EINVAL. */
+int gs_circuit_eval_values(const gs_circuit *c, long double *vals,
+                           unsigned char *set, gs_diag *d);
+/* Evaluate one expression given values (set[] marks the bound ones). */
+int gs_expr_eval(long double *out, const gs_expr *e, const gs_circuit *c,
+                 const long double *vals, const unsigned char *set,
+                 gs_diag *d);
+/* Parse a standalone expression ("10k", "sqrt(2*k*id)") for --set; symbol
+   names are interned in c's table. */
+int gs_expr_parse_string(gs_expr **out, gs_circuit *c, const char *text,
+                         const char *what, gs_diag *d);
+
+#endif

@@ -1,0 +1,208 @@
+/* derive.c - circuit output -> transfer function in lowest terms.
+ * See LICENSE.
+ */
+#include "derive.h"
+#include "mem.h"
+#include "mna.h"
+
+#include <stdlib.h>
+#include <string.h>
+
+void gs_derive_opts_default(gs_derive_opts *o)
+{
+    gs_elim_opts_default(&o->elim);
+    o->limits = NULL;
+    o->nlimits = 0;
+    o->no_gcd = 0;
+}
+
+/* For each reciprocal symbol r = 1/B: e(r) = its largest degree in a or b.
+   Multiplying both by prod B^e(r) turns r^k into B^(e-k): the smallest
+   monomial that clears every reciprocal, so results read in R. */
+static void clear_reciprocals(gs_poly *a, gs_poly *b, const gs_symtab *st,
+                              const gs_polyctx *ctx)
+{
+    int nv = ctx->nvars, v, any = 0;
+    long *emax = gs_calloc((size_t)nv, sizeof *emax);
+    unsigned *ex = gs_malloc((size_t)(nv ? nv : 1) * sizeof *ex);
+    gs_poly *polys[2];
+    int w;
+
+    polys[0] = a;
+    polys[1] = b;
+    for (v = 0; v < nv; v++) {
+        if (!gs_symtab_is_recip(st, v))
+            continue;
+        emax[v] = gs_poly_degree(a, v, ctx);
+        if (gs_poly_degree(b, v, ctx) > emax[v])
+            emax[v] = gs_poly_degree(b, v, ctx);
+        if (emax[v] > 0)
+            any = 1;
+    }
+    for (w = 0; w < 2 && any; w++) {
+        gs_poly r;
+        size_t i;
+        gs_poly_init(&r);
+        for (i = 0; i < polys[w]->length; i++) {
+            gs_poly_get_term_exps(ex, polys[w], i, ctx);
+            for (v = 0; v < nv; v++) {
+                if (emax[v] <= 0)
+                    continue;
+                ex[gs_symtab_base(st, v)] += (unsigned)emax[v] - ex[v];
+                ex[v] = 0;
+            }
+            gs_poly_push_term(&r, &polys[w]->coeffs[i], ex, ctx);
+        }
+        gs_poly_canonicalise(&r, ctx);
+        gs_poly_swap(&r, polys[w]);
+        gs_poly_clear(&r);
+    }
+    free(ex);
+    free(emax);
+}
+
+static void remove_monomial_content(gs_poly *a, gs_poly *b,
+                                    const gs_polyctx *ctx)
+{
+    uint64_t *ea = gs_calloc((size_t)ctx->nwords, sizeof *ea);
+    uint64_t *eb = gs_calloc((size_t)ctx->nwords, sizeof *eb);
+    int w, f, any = 0;
+    gs_poly_monomial_content(ea, a, ctx);
+    gs_poly_monomial_content(eb, b, ctx);
+    /* componentwise minimum of the packed 16-bit fields */
+    for (w = 0; w < ctx->nwords; w++) {
+        uint64_t m = 0;
+        for (f = 0; f < 4; f++) {
+            uint64_t x = (ea[w] >> (16 * f)) & 0xFFFF;
+            uint64_t y = (eb[w] >> (16 * f)) & 0xFFFF;
+            m |= (x < y ? x : y) << (16 * f);
+        }
+        ea[w] = m;
+        any |= m != 0;
+    }
+    if (any) {
+        gs_poly_div_monomial(a, a, ea, ctx);
+        gs_poly_div_monomial(b, b, ea, ctx);
+    }
+    free(ea);
+    free(eb);
+}
+
+void gs_reduce_ratio(gs_poly *num, gs_poly *den, const gs_symtab *st,
+                     const gs_polyctx *ctx, int use_gcd, size_t *gcd_terms)
+{
+    gs_poly g;
+    gs_int cn, cd;
+
+    if (gcd_terms)
+        *gcd_terms = 0;
+    clear_reciprocals(num, den, st, ctx);
+    if (gs_poly_is_zero(num)) {
+        gs_poly_set_si(den, 1, ctx);
+        return;
+    }
+    remove_monomial_content(num, den, ctx);
+    gs_int_init(&cn);
+    gs_int_init(&cd);
+    gs_poly_content(&cn, num);
+    gs_poly_content(&cd, den);
+    gs_int_gcd(&cn, &cn, &cd);
+    if (gs_poly_sgn(den) < 0)
+        gs_int_neg(&cn, &cn);
+    gs_poly_divexact_int(num, num, &cn, ctx);
+    gs_poly_divexact_int(den, den, &cn, ctx);
+    gs_int_clear(&cd);
+    gs_int_clear(&cn);
+    if (!use_gcd)
+        return;
+    gs_poly_init(&g);
+    gs_poly_gcd(&g, num, den, ctx);
+    if (!gs_poly_is_const(&g, ctx)) {
+        if (gcd_terms)
+            *gcd_terms = g.length;
+        gs_poly_divexact(num, num, &g, ctx);
+        gs_poly_divexact(den, den, &g, ctx);
+        if (gs_poly_sgn(den) < 0) {
+            gs_poly_neg(num, num, ctx);
+            gs_poly_neg(den, den, ctx);
+        }
+    }
+    gs_poly_clear(&g);
+}
+
+static int apply_limits(gs_tf *tf, const gs_circuit *c, const gs_output *out,
+                        const gs_derive_opts *o, gs_diag *d)
+{
+    size_t i;
+    for (i = 0; i < o->nlimits; i++) {
+        const gs_limit *l = &o->limits[i];
+        gs_poly rn, rd;
+        int rc;
+        gs_poly_init(&rn);
+        gs_poly_init(&rd);
+        rc = gs_poly_limit_ratio(&rn, &rd, &tf->num, &tf->den, l->sym,
+                                 l->to_inf, tf->ctx);
+        if (rc == GS_OK) {
+            gs_poly_swap(&rn, &tf->num);
+            gs_poly_swap(&rd, &tf->den);
+            gs_reduce_ratio(&tf->num, &tf->den, c->syms, tf->ctx, 1, NULL);
+        } else {
+            gs_diag_add(d, GS_SEV_ERROR, c->file, out->line, out->col,
+                        NULL, "%s has no finite limit as %s -> %s",
+                        out->name, gs_symtab_name(c->syms, l->sym),
+                        l->to_inf ? "inf" : "0");
+        }
+        gs_poly_clear(&rn);
+        gs_poly_clear(&rd);
+        if (rc != GS_OK)
+            return GS_ERANGE;
+    }
+    return GS_OK;
+}
+
+/* H = scale * (c0 * detA - detM) / detA, scale = p/q: num and den. */
+static void assemble(gs_tf *tf, const gs_mna *m, gs_poly *det_a,
+                     gs_poly *det_m, const gs_polyctx *ctx)
+{
+    gs_poly_mul(&tf->num, &m->c0, det_a, ctx);
+    gs_poly_sub(&tf->num, &tf->num, det_m, ctx);
+    gs_poly_mul_int(&tf->num, &tf->num, &m->scale.num, ctx);
+    gs_poly_mul_int(&tf->den, det_a, &m->scale.den, ctx);
+}
+
+int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
+              const gs_polyctx *ctx, const gs_derive_opts *o,
+              gs_derive_stats *stats, gs_diag *d)
+{
+    const gs_output *op = &c->outputs[out];
+    gs_derive_stats local;
+    gs_mna m;
+    gs_poly det_a, det_m;
+    int rc;
+
+    if (stats == NULL)
+        stats = &local;
+    memset(stats, 0, sizeof *stats);
+    free(tf->name);
+    tf->name = gs_strdup(op->name);
+    tf->kind = op->kind == GS_OUT_IMPEDANCE ? GS_TF_IMPEDANCE
+                                            : GS_TF_TRANSFER;
+    memset(&m, 0, sizeof m);
+    rc = gs_mna_build(&m, c, out, ctx, d);
+    if (rc != GS_OK)
+        return rc;
+    gs_poly_init(&det_a);
+    gs_poly_init(&det_m);
+    rc = gs_elim_bordered(&det_a, &det_m, &m, ctx, &o->elim, &stats->elim,
+                          d);
+    if (rc == GS_OK) {
+        assemble(tf, &m, &det_a, &det_m, ctx);
+        gs_reduce_ratio(&tf->num, &tf->den, c->syms, ctx, !o->no_gcd,
+                        &stats->gcd_terms);
+        rc = apply_limits(tf, c, op, o, d);
+    }
+    gs_poly_clear(&det_a);
+    gs_poly_clear(&det_m);
+    gs_mna_clear(&m);
+    return rc;
+}

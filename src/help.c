@@ -1,0 +1,88 @@
+/* help.c - the manual text of each command. See LICENSE.
+ *
+ * Kept in step with docs/commands.md: every option a command's spec
+ * accepts is described here, and nothing else.
+ */
+#include "cmd.h"
+#include "gainsmith.h"
+
+#include <string.h>
+
+static const char overview[] =
+"gainsmith " GS_VERSION " - exact small-signal transfer functions of analog "
+"circuits\n"
+"\n"
+"usage: gainsmith COMMAND FILE [options]\n"
+"       gainsmith help [COMMAND]\n"
+"       gainsmith --version\n"
+"\n"
+"commands:\n"
+"  derive    the exact transfer functions of a circuit, in lowest terms\n"
+"  eval      their numbers: DC value, values at frequencies, coefficients\n"
+"  extract   device figures from a datasheet point -> model parameters\n"
+"  help      this text, or the manual of one command\n"
+"\n"
+"FILE is a circuit in the gainsmith language (.gsc; see docs/language.md),\n"
+"or '-' for standard input.  Exit status: 0 success, 1 the analysis\n"
+"failed (singular circuit, budget exceeded), 2 bad input or usage.\n"
+"Small-signal results are linear approximations: verify a design by\n"
+"simulation and measurement.\n";
+
+static const char derive_text[] =
+"usage: gainsmith derive FILE [options]\n"
+"\n"
+"Derives every transfer and impedance that FILE asks for, exactly, as a\n"
+"ratio of polynomials in the element symbols and s, in lowest terms\n"
+"(resistors read as R, not 1/R), and prints them.\n"
+"\n"
+"options:\n"
+"  --only NAME          derive only the transfer or impedance NAME\n"
+"  --limit SYM=inf|0    the limit as SYM goes to infinity or zero, e.g.\n"
+"                       --limit rds=inf; repeatable, applied in order\n"
+"  --format FORMAT      text (default: one line each, sympy-readable),\n"
+"                       pretty (2-D fraction), latex (equation\n"
+"                       environments), c (C99 functions), json\n"
+"  --collect SYM        group terms by powers of SYM instead of s\n"
+"  --max-terms N        stop with exit status 1 when an intermediate\n"
+"                       polynomial grows past N terms (default: no limit)\n"
+"  --pivot RULE         elimination pivot rule: markowitz (default),\n"
+"                       minterms or natural; the result is the same\n"
+"  --help               this text\n"
+"\n"
+"example:\n"
+"  gainsmith derive examples/cs_degen.gsc --limit rds_M1=inf\n";
+
+static const char eval_text[] =
+"usage: gainsmith eval FILE [options]\n"
+"\n"
+"Derives the outputs of FILE exactly, binds the numbers of its value\n"
+"lines, and prints for each output its DC value (with |H| in dB and the\n"
+"phase), its value at each --at frequency, and the numeric coefficients\n"
+"of numerator and denominator in powers of s.  Numbers are evaluated\n"
+"from the exact expression in long double (about 18 significant digits;\n"
+"fewer where terms of opposite sign cancel).  Every symbol without a\n"
+"value is named in one error.\n"
+"\n"
+"options:\n"
+"  --set SYM=VALUE      bind SYM (overrides its value line; values that\n"
+"                       depend on it follow); VALUE may use SI prefixes,\n"
+"                       arithmetic and other symbols; repeatable\n"
+"  --at FREQ            also evaluate at s = j*2*pi*FREQ; FREQ in Hz, SI\n"
+"                       prefixes allowed (--at 10k, --at 1MHz); repeatable\n"
+"  --only NAME          only the output NAME\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
+const char *gs_cmd_help_text(const char *command)
+{
+    if (command == NULL)
+        return overview;
+    if (strcmp(command, "derive") == 0)
+        return derive_text;
+    if (strcmp(command, "eval") == 0)
+        return eval_text;
+    if (strcmp(command, "extract") == 0)
+        return gs_cmd_extract_help();
+    return NULL;
+}

@@ -1,0 +1,215 @@
+/* job.c - one run over a circuit file: parse, derive, bind values.
+ * See LICENSE.
+ */
+#include "job.h"
+#include "mem.h"
+#include "mna.h"
+
+#include <stdlib.h>
+#include <string.h>
+
+void gs_job_init(gs_job *j)
+{
+    memset(j, 0, sizeof *j);
+}
+
+void gs_job_clear(gs_job *j)
+{
+    size_t i;
+    for (i = 0; i < j->ntf; i++)
+        gs_tf_clear(&j->tf[i]);
+    free(j->tf);
+    free(j->out_index);
+    free(j->vals);
+    free(j->set);
+    gs_polyctx_free(j->ctx);
+    gs_circuit_free(j->c);
+    gs_job_init(j);
+}
+
+int gs_job_load(gs_job *j, const char *path, gs_diag *d)
+{
+    int rc;
+    j->c = gs_circuit_new();
+    rc = gs_parse_file(j->c, path, d);
+    if (rc != GS_OK)
+        return rc;
+    gs_mna_intern_symbols(j->c);
+    j->ctx = gs_polyctx_new(j->c->syms, gs_symtab_count(j->c->syms));
+    return GS_OK;
+}
+
+static int derive_one(gs_job *j, size_t k, const gs_derive_opts *o,
+                      gs_diag *d)
+{
+    gs_tf *tf;
+    j->tf = gs_reallocarray(j->tf, j->ntf + 1, sizeof *j->tf);
+    j->out_index = gs_reallocarray(j->out_index, j->ntf + 1,
+                                   sizeof *j->out_index);
+    tf = &j->tf[j->ntf];
+    gs_tf_init(tf, j->ctx, j->c->s_sym);
+    j->out_index[j->ntf++] = k;
+    return gs_derive(tf, j->c, k, j->ctx, o, NULL, d);
+}
+
+int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,
+                  gs_diag *d)
+{
+    size_t k;
+    int rc = GS_OK;
+    if (only) {
+        int idx = gs_circuit_find_output(j->c, only);
+        if (idx < 0) {
+            gs_diag_add(d, GS_SEV_ERROR, j->c->file, 0, 0, NULL,
+                        "no transfer or impedance named '%s'", only);
+            return GS_EINVAL;
+        }
+        return derive_one(j, (size_t)idx, o, d);
+    }
+    if (j->c->noutputs == 0) {
+        gs_diag_add(d, GS_SEV_ERROR, j->c->file, 0, 0,
+                    "add a line such as 'transfer Av = v(out) / vin'",
+                    "the file asks for no transfer or impedance");
+        return GS_EINVAL;
+    }
+    for (k = 0; k < j->c->noutputs && rc == GS_OK; k++)
+        rc = derive_one(j, k, o, d);
+    return rc;
+}
+
+/* Replace (or add) the value definition of sym by expr (owned after). */
+static void override_value(gs_circuit *c, int sym, gs_expr *expr)
+{
+    size_t i;
+    for (i = 0; i < c->nvalues; i++) {
+        if (c->values[i].sym == sym) {
+            gs_expr_free(c->values[i].expr);
+            c->values[i].expr = expr;
+            free(c->values[i].origin);
+            c->values[i].origin = gs_strdup("--set");
+            return;
+        }
+    }
+    c->values = gs_reallocarray(c->values, c->nvalues + 1,
+                                sizeof *c->values);
+    c->values[c->nvalues].sym = sym;
+    c->values[c->nvalues].expr = expr;
+    c->values[c->nvalues].origin = gs_strdup("--set");
+    c->values[c->nvalues].line = 0;
+    c->values[c->nvalues].col = 0;
+    c->nvalues++;
+}
+
+static int apply_set(gs_job *j, const char *text, gs_diag *d)
+{
+    const char *eq = strchr(text, '=');
+    char *name;
+    gs_expr *e = NULL;
+    int sym, rc;
+    if (eq == NULL || eq == text) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                    "write it as --set NAME=VALUE, e.g. --set RD=10k",
+                    "--set '%s' is not NAME=VALUE", text);
+        return GS_ESYNTAX;
+    }
+    name = gs_strndup(text, (size_t)(eq - text));
+    sym = gs_symtab_find(j->c->syms, name);
+    if (sym < 0 || sym == j->c->s_sym) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                    "--set %s: the circuit has no symbol '%s'", name, name);
+        free(name);
+        return GS_EINVAL;
+    }
+    free(name);
+    rc = gs_expr_parse_string(&e, j->c, eq + 1, "--set", d);
+    if (rc != GS_OK)
+        return rc;
+    override_value(j->c, sym, e);
+    return GS_OK;
+}
+
+/* Every symbol of every derived output, other than s, must be bound. */
+static int check_bound(gs_job *j, gs_diag *d)
+{
+    int nv = j->ctx->nvars, v;
+    unsigned char *used = gs_calloc((size_t)nv, 1);
+    unsigned char *tmp = gs_calloc((size_t)nv, 1);
+    size_t i, len = 0, nmissing = 0;
+    char *list = gs_strdup("");
+    for (i = 0; i < j->ntf; i++) {
+        gs_poly_used_vars(tmp, &j->tf[i].num, j->ctx);
+        for (v = 0; v < nv; v++)
+            used[v] |= tmp[v];
+        gs_poly_used_vars(tmp, &j->tf[i].den, j->ctx);
+        for (v = 0; v < nv; v++)
+            used[v] |= tmp[v];
+    }
+    for (v = 0; v < nv; v++) {
+        const char *name = gs_symtab_name(j->c->syms, v);
+        if (!used[v] || v == j->c->s_sym || j->set[v])
+            continue;
+        list = gs_realloc(list, len + strlen(name) + 3);
+        len += (size_t)sprintf(list + len, "%s%s", nmissing ? ", " : "",
+                               name);
+        nmissing++;
+    }
+    if (nmissing)
+        gs_diag_add(d, GS_SEV_ERROR, j->c->file, 0, 0,
+                    "add 'value NAME = ...' lines to the file, or --set "
+                    "NAME=VALUE",
+                    "no value for %s %s", nmissing > 1 ? "symbols" : "symbol",
+                    list);
+    free(list);
+    free(tmp);
+    free(used);
+    return nmissing ? GS_EUNBOUND : GS_OK;
+}
+
+int gs_job_bind(gs_job *j, char *const *sets, size_t nsets, gs_diag *d)
+{
+    size_t i, n = (size_t)gs_symtab_count(j->c->syms);
+    int rc = GS_OK;
+    for (i = 0; i < nsets && rc == GS_OK; i++)
+        rc = apply_set(j, sets[i], d);
+    if (rc != GS_OK)
+        return rc;
+    free(j->vals);
+    free(j->set);
+    j->vals = gs_calloc(n, sizeof *j->vals);
+    j->set = gs_calloc(n, 1);
+    rc = gs_circuit_eval_values(j->c, j->vals, j->set, d);
+    if (rc != GS_OK)
+        return rc;
+    return check_bound(j, d);
+}
+
+long double *gs_job_coeffs(const gs_job *j, const gs_poly *p, int *deg)
+{
+    long dg = gs_poly_degree(p, j->c->s_sym, j->ctx);
+    long double *out = gs_calloc((size_t)(dg >= 0 ? dg + 1 : 1),
+                                 sizeof *out);
+    gs_poly cf;
+    long k;
+    gs_poly_init(&cf);
+    for (k = 0; k <= dg; k++) {
+        gs_poly_coeff_var(&cf, p, j->c->s_sym, (unsigned)k, j->ctx);
+        out[k] = gs_poly_eval_ld(&cf, j->vals, j->ctx);
+    }
+    gs_poly_clear(&cf);
+    *deg = (int)dg;
+    return out;
+}
+
+int gs_job_exit_status(int rc)
+{
+    switch (rc) {
+    case GS_OK:
+        return 0;
+    case GS_ESINGULAR:
+    case GS_EBUDGET:
+    case GS_ERANGE:
+        return 1;
+    default:
+        return 2;
+    }
+}

@@ -1,0 +1,51 @@
+/* job.h - one run over a circuit file: parse, derive, bind values.
+ * See LICENSE.
+ *
+ * The commands that analyse a circuit share these steps; a gs_job holds
+ * what they produce.  The caller owns the struct (gs_job_init /
+ * gs_job_clear); the job owns everything it points to.
+ */
+#ifndef GS_JOB_H
+#define GS_JOB_H
+
+#include "circuit.h"
+#include "derive.h"
+#include "diag.h"
+#include "tf.h"
+
+typedef struct gs_job {
+    gs_circuit *c;
+    gs_polyctx *ctx;
+    size_t ntf;
+    gs_tf *tf;              /* derived outputs, in file order */
+    size_t *out_index;      /* tf[i] is c->outputs[out_index[i]] */
+    long double *vals;      /* per symbol, after gs_job_bind */
+    unsigned char *set;     /* per symbol: 1 when bound */
+} gs_job;
+
+void gs_job_init(gs_job *j);
+void gs_job_clear(gs_job *j);
+
+/* Parse the file ("-" is standard input) and make the polynomial context.
+   GS_OK, or the parser's code with messages in d. */
+int gs_job_load(gs_job *j, const char *path, gs_diag *d);
+
+/* Derive every output, or only the one named `only` (NULL for all). */
+int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,
+                  gs_diag *d);
+
+/* Bind numbers: value lines, bias lines, then the overrides "SYM=EXPR"
+   (sets[0 .. nsets-1]), which win over value lines and feed the values
+   that depend on them.  Then every symbol of every derived output other
+   than s must have a value: the missing ones are named in one error. */
+int gs_job_bind(gs_job *j, char *const *sets, size_t nsets, gs_diag *d);
+
+/* Numeric coefficients of p in powers of s (ascending: out[k] is the
+   coefficient of s^k, deg+1 entries, allocated, caller frees), from the
+   bound values.  *deg gets the degree (-1 for p = 0). */
+long double *gs_job_coeffs(const gs_job *j, const gs_poly *p, int *deg);
+
+/* Exit status for a library status code: 2 for bad input, 1 otherwise. */
+int gs_job_exit_status(int rc);
+
+#endif

@@ -1,0 +1,25 @@
+/* mem.h - allocation that never returns NULL. See LICENSE. */
+#ifndef GS_MEM_H
+#define GS_MEM_H
+
+#include <stddef.h>
+
+/* These behave like malloc, calloc, realloc and strdup, except that on
+   exhaustion they print one message to stderr and exit with status 1: the
+   single place where the library stops the process (STYLE.md). A zero size
+   returns a valid unique pointer.  Free with free(). */
+void *gs_malloc(size_t size);
+void *gs_calloc(size_t count, size_t size);
+void *gs_realloc(void *ptr, size_t size);
+/* realloc to count*size bytes, failing cleanly if the product overflows */
+void *gs_reallocarray(void *ptr, size_t count, size_t size);
+char *gs_strdup(const char *s);
+char *gs_strndup(const char *s, size_t n);
+/* printf into a fresh string the caller frees */
+char *gs_asprintf(const char *fmt, ...)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 1, 2)))
+#endif
+    ;
+
+#endif

@@ -1,0 +1,57 @@
+#!/bin/sh
+# run_tests.sh - runs every test suite and sums the counts. See LICENSE.
+#
+# usage: tests/run_tests.sh BUILD [MODULE]
+# Each suite prints a line "NAME: N passed, N failed"; a suite that exits
+# non-zero without saying so (a crash) counts as one failure.  The last line
+# is the total, "N passed, N failed"; the exit status is 1 on any failure.
+build=${1:-build}
+only=${2:-}
+passed=0
+failed=0
+log=$(mktemp)
+trap 'rm -f "$log"' EXIT
+
+run_suite() {
+    name=$1
+    shift
+    "$@" >"$log" 2>&1
+    rc=$?
+    cat "$log"
+    line=$(grep -E '^[A-Za-z0-9_.-]+: [0-9]+ passed, [0-9]+ failed' "$log" | tail -n 1)
+    if [ -n "$line" ]; then
+        p=$(echo "$line" | sed -E 's/.*: ([0-9]+) passed, ([0-9]+) failed.*/\1/')
+        f=$(echo "$line" | sed -E 's/.*: ([0-9]+) passed, ([0-9]+) failed.*/\2/')
+    else
+        p=0
+        f=0
+    fi
+    if [ "$rc" -ne 0 ] && [ "$f" -eq 0 ]; then
+        echo "$name: exited with status $rc without reporting a failure"
+        f=1
+    fi
+    passed=$((passed + p))
+    failed=$((failed + f))
+}
+
+for t in "$build"/tests/test_*; do
+    [ -x "$t" ] || continue
+    mod=${t##*/test_}
+    if [ -n "$only" ] && [ "$mod" != "$only" ]; then
+        continue
+    fi
+    run_suite "test_$mod" "$t"
+done
+
+if [ -z "$only" ]; then
+    if [ -f tests/run_cli.sh ]; then
+        run_suite cli sh tests/run_cli.sh "$build/gainsmith"
+    fi
+    for py in tests/sympy/*.py; do
+        [ -f "$py" ] || continue
+        run_suite "${py##*/}" sh tests/sympy/run.sh "$build" "$py"
+    done
+fi
+
+echo "$passed passed, $failed failed"
+[ "$failed" -eq 0 ]
