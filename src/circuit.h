@@ -33,6 +33,9 @@ typedef enum gs_elem_kind {
     GS_OPAMP         /* ideal: v(n1) = v(n2); output n0, no input current */
 } gs_elem_kind;
 
+/* "resistor", "vccs", ...: the keyword of the kind */
+const char *gs_elem_kind_name(gs_elem_kind k);
+
 /* A value that is a monomial: coeff * prod sym[i]^exp[i] (exp may be
    negative: "R/2" is 1/2 * R^1, "1/G" is G^-1).  The symbols are ids in
    the circuit's table; none is the Laplace variable. */
@@ -48,12 +51,24 @@ void gs_monomial_clear(gs_monomial *m);
 void gs_monomial_set(gs_monomial *r, const gs_monomial *a);
 /* r = r * sym^exp (merging a repeated symbol; a zero exponent drops it) */
 void gs_monomial_mul_sym(gs_monomial *r, int sym, int exp);
+/* The symbols of a monomial are kept sorted by id, so equal monomials are
+   equal structurally.  r may alias a or b. */
+void gs_monomial_mul(gs_monomial *r, const gs_monomial *a,
+                     const gs_monomial *b);
+/* r = a^e.  Returns GS_EDIVZERO (r unchanged) for a zero coefficient and
+   e < 0. r may alias a. */
+int gs_monomial_pow_si(gs_monomial *r, const gs_monomial *a, long e);
+int gs_monomial_equal(const gs_monomial *a, const gs_monomial *b);
+/* "3/2*R^2*C^-1" (the coefficient only when not 1, or when there are no
+   symbols): a new string the caller frees. */
+char *gs_monomial_get_str(const gs_monomial *m, const gs_symtab *st);
 
 typedef struct gs_element {
     gs_elem_kind kind;
     char *name;          /* unique among elements ("M1.gm" for a part of a
                             device M1; see device_parts in parse.c) */
-    int line, col;       /* where the defining text starts */
+    int line, col;       /* where the defining text starts: its name in
+                            its line (a device part: the device's name) */
     int node[4];         /* n0, n1 and, for VCCS/VCVS, control n2, n3;
                             for OPAMP: out, +, - ; unused: -1 */
     int ctrl;            /* CCCS/CCVS: index of the controlling element,
@@ -99,7 +114,9 @@ typedef struct gs_expr {
     int line, col;
     gs_rat num;              /* GS_EX_NUM: exact */
     int sym;                 /* GS_EX_SYM: symbol id */
-    char *func;              /* GS_EX_CALL: "sqrt", "exp", "log", ... */
+    char *func;              /* GS_EX_CALL: "sqrt", "exp", "log",
+                                "log10", "abs"; and "pi", the constant,
+                                as a call without an operand */
     struct gs_expr *lhs;     /* operands (unary and call use lhs only) */
     struct gs_expr *rhs;
 } gs_expr;
@@ -120,7 +137,10 @@ typedef struct gs_device {
     char *name;
     int is_bjt;
     int line, col;
-    int nodes[4];            /* mosfet: d g s b; bjt: c b e (-1 unused) */
+    int nodes[4];            /* mosfet: d g s b; bjt: c b e (-1 unused;
+                                a mosfet's b is -1 also when it was
+                                written but no part and no other line
+                                uses it) */
     int nparams;
     char **keys;             /* parameter names as written: "gm", "rds" */
     char **vals;             /* their text as written */
@@ -145,6 +165,8 @@ typedef struct gs_circuit {
     int nnodes;              /* node 0 is the reference */
     char **node_name;        /* node_name[0] = "gnd" */
     int *node_line, *node_col;  /* first mention */
+    size_t nref_alias;       /* names `ground` statements merged into */
+    char **ref_alias;        /*   node 0 ("vdd", "vss"), in file order */
 
     size_t nelems;
     gs_element *elems;
@@ -175,22 +197,39 @@ int gs_parse_string(gs_circuit *c, const char *name, const char *text,
    Returns GS_OK or GS_EINVAL, with messages naming the elements. */
 int gs_circuit_check(const gs_circuit *c, gs_diag *d);
 
+/* Index of the element, node ("gnd", "0" and every ground alias give 0),
+   output or device of that name, or -1. */
 int gs_circuit_find_element(const gs_circuit *c, const char *name);
 int gs_circuit_find_node(const gs_circuit *c, const char *name);
 int gs_circuit_find_output(const gs_circuit *c, const char *name);
+int gs_circuit_find_device(const gs_circuit *c, const char *name);
+
+/* Append a value definition (expr is owned from then on; origin may be
+   NULL and is copied) and return its index. */
+size_t gs_circuit_add_value(gs_circuit *c, int sym, gs_expr *expr,
+                            const char *origin, int line, int col);
 
 /* Evaluate every value line into vals[sym] (long double, indexed by symbol
    id, gs_symtab_count entries; set[sym] = 1 where bound).  The arrays are
    the caller's.  Reports cycles, unknown symbols, domain errors (sqrt of a
-   negative number, log of zero, division by zero) in d: GS_EINVAL. */
+   negative number, log of zero, division by zero) in d: GS_EINVAL.
+   A symbol whose set[] is already 1 on entry keeps the caller's value and
+   its value lines are skipped (zero set[] for a plain evaluation).  Values
+   are computed in dependency order, so a line may use one further down;
+   one bad value does not stop the others, only those that depend on it.
+   Expressions are evaluated in long double (C11 7.12). */
 int gs_circuit_eval_values(const gs_circuit *c, long double *vals,
                            unsigned char *set, gs_diag *d);
-/* Evaluate one expression given values (set[] marks the bound ones). */
+/* Evaluate one expression given values (set[] marks the bound ones).
+   GS_OK, GS_EUNBOUND (a symbol without a value) or GS_EINVAL (a domain
+   error or an overflow), with the message in d. */
 int gs_expr_eval(long double *out, const gs_expr *e, const gs_circuit *c,
                  const long double *vals, const unsigned char *set,
                  gs_diag *d);
 /* Parse a standalone expression ("10k", "sqrt(2*k*id)") for --set; symbol
-   names are interned in c's table. */
+   names are interned in c's table.  Messages carry no location and start
+   with "WHAT: ".  GS_OK (*out is the caller's, gs_expr_free) or
+   GS_ESYNTAX (*out = NULL). */
 int gs_expr_parse_string(gs_expr **out, gs_circuit *c, const char *text,
                          const char *what, gs_diag *d);
 

@@ -1,24 +1,20 @@
-/* cmd.h - the subcommands of the gainsmith command. See LICENSE.
+/* cmd.h - the commands of the gainsmith program. See LICENSE.
  *
- * Each command is a function of one shape: it takes the arguments after
- * the command name (argv[0] is the command name itself), writes results to
- * out and diagnostics to err, and returns the exit status: 0 success,
- * 1 the analysis failed, 2 bad input or usage.  Only src/main.c turns that
- * into the process's exit status.
+ * Each command is a function of one shape:
+ *
+ *     int gs_cmd_NAME(int argc, char **argv, FILE *out, FILE *err);
+ *
+ * argv[0] is the command's own word ("extract") and argv[1..argc-1] its
+ * arguments.  Results go to out, messages to err; the return value is the
+ * exit status: 0 success, 1 the analysis failed, 2 bad input or usage.
  */
 #ifndef GS_CMD_H
 #define GS_CMD_H
 
 #include <stdio.h>
 
-int gs_cmd_derive(int argc, char **argv, FILE *out, FILE *err);
-int gs_cmd_eval(int argc, char **argv, FILE *out, FILE *err);
+/* gainsmith extract mos|bjt --KEY=VAL...: device figures to model
+   parameters (docs/devices.md). */
 int gs_cmd_extract(int argc, char **argv, FILE *out, FILE *err);
-
-/* The manual text of `extract` (cmd_extract.c). */
-const char *gs_cmd_extract_help(void);
-
-/* The manual text of a command ("derive"), or NULL when unknown. */
-const char *gs_cmd_help_text(const char *command);
 
 #endif

@@ -11,7 +11,8 @@
 
 static const gs_cli_opt derive_spec[] = {
     {"only", 1, 0}, {"limit", 1, 1}, {"format", 1, 0}, {"collect", 1, 0},
-    {"max-terms", 1, 0}, {"pivot", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
+    {"max-terms", 1, 0}, {"pivot", 1, 0}, {"stats", 0, 0}, {"help", 0, 0},
+    {NULL, 0, 0}
 };
 
 static const gs_cli_opt eval_spec[] = {
@@ -81,8 +82,7 @@ static int parse_pivot(gs_pivot_rule *rule, const char *text, FILE *err)
     return 0;
 }
 
-/* Shared front half of derive and eval: options, load, derive. */
-static int load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
+int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
                            FILE *err)
 {
     gs_derive_opts o;
@@ -176,6 +176,20 @@ static int print_results(const gs_job *j, const char *format, int var,
     return 0;
 }
 
+/* --stats: how each derivation went, one machine-readable line each */
+static void print_stats(const gs_job *j, FILE *err)
+{
+    size_t i;
+    for (i = 0; i < j->ntf; i++) {
+        const gs_derive_stats *st = &j->stats[i];
+        fprintf(err, "stats %s terms_N=%zu terms_D=%zu unknowns=%d "
+                "max_entry_terms=%zu big_divisions=%zu gcd_terms=%zu\n",
+                j->tf[i].name, j->tf[i].num.length, j->tf[i].den.length,
+                st->elim.steps, st->elim.max_entry_terms,
+                st->elim.big_divisions, st->gcd_terms);
+    }
+}
+
 int gs_cmd_derive(int argc, char **argv, FILE *out, FILE *err)
 {
     gs_cli cl;
@@ -189,12 +203,14 @@ int gs_cmd_derive(int argc, char **argv, FILE *out, FILE *err)
         fputs(gs_cmd_help_text("derive"), out);
     } else if (status == 0) {
         format = gs_cli_get(&cl, "format", 0);
-        status = load_and_derive(&j, &cl, "derive", err);
+        status = gs_cmd_load_and_derive(&j, &cl, "derive", err);
         if (status == 0)
             status = collect_var(&var, &cl, &j, err);
         if (status == 0)
             status = print_results(&j, format ? format : "text", var, out,
                                    err);
+        if (status == 0 && gs_cli_has(&cl, "stats"))
+            print_stats(&j, err);
     }
     gs_cli_clear(&cl);
     gs_job_clear(&j);
@@ -284,7 +300,7 @@ int gs_cmd_eval(int argc, char **argv, FILE *out, FILE *err)
     if (status == 0 && gs_cli_has(&cl, "help")) {
         fputs(gs_cmd_help_text("eval"), out);
     } else if (status == 0) {
-        status = load_and_derive(&j, &cl, "eval", err);
+        status = gs_cmd_load_and_derive(&j, &cl, "eval", err);
         if (status == 0) {
             size_t nset = gs_cli_count(&cl, "set");
             char **sets = gs_malloc((nset ? nset : 1) * sizeof *sets);

@@ -1188,7 +1188,7 @@ long double gs_int_round_2exp(long *e, const gs_int *a, unsigned prec,
 
 double gs_int_get_d(const gs_int *a)
 {
-    long e;
+    long e = 0;
     double x;
     if (a->size == 0)
         return (double)a->u.v;
@@ -1199,7 +1199,7 @@ double gs_int_get_d(const gs_int *a)
 
 long double gs_int_get_ld(const gs_int *a)
 {
-    long e;
+    long e = 0;
     long double x;
     if (a->size == 0)
         return (long double)a->u.v;

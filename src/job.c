@@ -20,6 +20,7 @@ void gs_job_clear(gs_job *j)
         gs_tf_clear(&j->tf[i]);
     free(j->tf);
     free(j->out_index);
+    free(j->stats);
     free(j->vals);
     free(j->set);
     gs_polyctx_free(j->ctx);
@@ -46,10 +47,11 @@ static int derive_one(gs_job *j, size_t k, const gs_derive_opts *o,
     j->tf = gs_reallocarray(j->tf, j->ntf + 1, sizeof *j->tf);
     j->out_index = gs_reallocarray(j->out_index, j->ntf + 1,
                                    sizeof *j->out_index);
+    j->stats = gs_reallocarray(j->stats, j->ntf + 1, sizeof *j->stats);
     tf = &j->tf[j->ntf];
     gs_tf_init(tf, j->ctx, j->c->s_sym);
-    j->out_index[j->ntf++] = k;
-    return gs_derive(tf, j->c, k, j->ctx, o, NULL, d);
+    j->out_index[j->ntf] = k;
+    return gs_derive(tf, j->c, k, j->ctx, o, &j->stats[j->ntf++], d);
 }
 
 int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,

@@ -19,6 +19,7 @@ typedef struct gs_job {
     size_t ntf;
     gs_tf *tf;              /* derived outputs, in file order */
     size_t *out_index;      /* tf[i] is c->outputs[out_index[i]] */
+    gs_derive_stats *stats; /* how each derivation went */
     long double *vals;      /* per symbol, after gs_job_bind */
     unsigned char *set;     /* per symbol: 1 when bound */
 } gs_job;

@@ -19,7 +19,6 @@
    ((x | GUARD) - y) & GUARD has a field's guard bit set exactly where
    x >= y in that field: the usual SIMD-within-a-register trick. */
 #define GUARD UINT64_C(0x8000800080008000)
-#define FIELD_ONES UINT64_C(0x0001000100010001)
 
 static int field_shift(int var)
 {

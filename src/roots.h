@@ -65,9 +65,10 @@ int gs_roots_mult(int *mult, long double *relerr,
                   const long double complex *roots, int nroots,
                   const long double *a, int degree);
 
-/* Value of p at z by Horner's rule in long double complex. */
-long double complex gs_poly_eval_roots_lc(const long double *a, int degree,
-                                          long double complex z);
+/* p(z) = a[0] + ... + a[degree] z^degree by Horner's rule in long double
+   complex; 0 when degree < 0. */
+long double complex gs_roots_horner(const long double *a, int degree,
+                                    long double complex z);
 
 /* --- Poles and zeros of H(s) = N(s) / D(s) --------------------------- */
 

@@ -36,6 +36,8 @@ static const unit_entry units[] = {
     {"V^-1", GS_Q_INV_VOLTAGE, 0},
     {"1/V", GS_Q_INV_VOLTAGE, 0},
     {"/V", GS_Q_INV_VOLTAGE, 0},
+    {"V^0.5", GS_Q_SQRT_VOLTAGE, 0},
+    {"V^1/2", GS_Q_SQRT_VOLTAGE, 0},
     {"V", GS_Q_VOLTAGE, 0},
     {"Ohm", GS_Q_RESISTANCE, 0},
     {"ohm", GS_Q_RESISTANCE, 0},
@@ -238,6 +240,7 @@ const char *gs_quantity_name(gs_quantity q)
     case GS_Q_TEMPERATURE: return "a temperature";
     case GS_Q_KPARAM:      return "A/V^2";
     case GS_Q_INV_VOLTAGE: return "1/V";
+    case GS_Q_SQRT_VOLTAGE: return "V^0.5";
     default:               return "a plain number";
     }
 }
@@ -254,6 +257,7 @@ const char *gs_quantity_unit(gs_quantity q)
     case GS_Q_TEMPERATURE: return "K";
     case GS_Q_KPARAM:      return "A/V^2";
     case GS_Q_INV_VOLTAGE: return "1/V";
+    case GS_Q_SQRT_VOLTAGE: return "V^0.5";
     default:               return "";
     }
 }
@@ -270,6 +274,7 @@ static const char *example(gs_quantity q)
     case GS_Q_TEMPERATURE: return "300K or 27C";
     case GS_Q_KPARAM:      return "4.5mA/V^2";
     case GS_Q_INV_VOLTAGE: return "0.04/V";
+    case GS_Q_SQRT_VOLTAGE: return "0.4V^0.5";
     default:               return "100";
     }
 }
@@ -385,7 +390,7 @@ char *gs_units_format(long double v, gs_quantity q)
         return gs_asprintf("%sinf%s%s", v < 0 ? "-" : "", *unit ? " " : "",
                            unit);
     if (q == GS_Q_NUMBER || q == GS_Q_TEMPERATURE || q == GS_Q_INV_VOLTAGE
-        || v == 0 || isnan(v))
+        || q == GS_Q_SQRT_VOLTAGE || v == 0 || isnan(v))
         return gs_asprintf("%.6Lg%s%s", v, *unit ? " " : "", unit);
     return format_prefixed(v, unit);
 }

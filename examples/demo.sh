@@ -1,0 +1,21 @@
+#!/bin/sh
+# demo.sh - runs gainsmith on the bundled examples. See LICENSE.
+# usage: examples/demo.sh path/to/gainsmith
+bin=${1:-build/gainsmith}
+status=0
+run() {
+    echo "\$ gainsmith $*"
+    "$bin" "$@" || status=1
+    echo
+}
+run derive examples/cs_degen.gsc
+run derive examples/cs_degen.gsc --only Av --limit ro1=inf
+run derive examples/cs_degen.gsc --only Av --format pretty
+run eval examples/cs_degen.gsc --at 1k
+run derive examples/cascode.gsc
+run derive examples/source_follower.gsc
+run derive examples/inverting_amp.gsc --limit A=inf
+run derive examples/sallen_key.gsc --format latex
+run eval examples/sallen_key.gsc --at 10k
+run derive examples/bjt_ce_degen.gsc
+exit $status

@@ -1,0 +1,584 @@
+/* poly_mul.c - products and powers of sparse polynomials. See LICENSE.
+ *
+ * One method with a knob.  The variables are cut into a prefix 0 .. m-1
+ * and a suffix m .. nvars-1; the terms of an operand that share their
+ * prefix exponents form a block (they are contiguous, since the order is
+ * lexicographic).  The blocks of the product come out in decreasing order
+ * from a heap of block pairs, the heap method of Johnson ("Sparse
+ * polynomial arithmetic", SIGSAM Bulletin 8(3), 1974) as refined by
+ * Monagan and Pearce ("Parallel sparse polynomial multiplication using
+ * heaps", ISSAC 2009: a pair (i, j+1) enters only when (i, j) leaves, and
+ * (i+1, 0) when (i, 0) leaves, so the heap holds at most one pair per
+ * block of the first operand).  Within a block the suffix exponents are
+ * read as the digits of a mixed-radix number, radix deg_a + deg_b + 1 per
+ * variable (Kronecker's substitution), so a term product lands at the sum
+ * of two indices in a dense accumulator and the digits never carry.
+ *
+ * m = nvars makes every block one term: the plain heap method, right for
+ * very sparse operands.  Small m gives few large blocks: a dense product
+ * whose inner loop is a multiply-add into an array, right for products
+ * with many coinciding monomials (Fateman's benchmark).  mul_plan picks m
+ * by a cost estimate.  Coefficients accumulate in a signed 128-bit word
+ * when a bound proves it cannot overflow, else in gs_ints.
+ */
+#include "poly.h"
+#include "poly_heap.h"
+
+#include "gainsmith.h"
+#include "mem.h"
+
+#include <assert.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define GUARD UINT64_C(0x8000800080008000)
+
+/* Largest dense accumulator, in entries: 2^16 entries of 16 bytes stay
+   within the 1-2 MiB second-level cache of current processors. */
+#define DENSE_CAP 65536.0
+
+static int field_shift(int var)
+{
+    return 48 - 16 * (var % GS_POLY_VARS_PER_WORD);
+}
+
+static unsigned get_exp(const uint64_t *e, int var)
+{
+    return (unsigned)(e[var / GS_POLY_VARS_PER_WORD] >> field_shift(var))
+        & 0xFFFFu;
+}
+
+/* One operand cut into blocks. */
+typedef struct side {
+    size_t nterms, nblocks;
+    size_t *start;          /* block k is terms start[k] .. start[k+1]-1 */
+    uint64_t *key;          /* nblocks * nw: prefix exponents */
+    uint32_t *idx;          /* per term: dense index of suffix exponents */
+    int64_t *small;         /* per term coefficient, or NULL */
+    const gs_int *coeffs;
+} side;
+
+typedef struct mulstate {
+    const gs_polyctx *ctx;
+    int nw, m;
+    size_t dsize;           /* entries of the dense accumulator */
+    unsigned *radix;        /* nvars */
+    size_t *stride;         /* nvars; suffix variables only */
+    uint64_t *premask;      /* nw words: all-ones fields over the prefix */
+    side a, b;
+    gs_poly out;
+    uint64_t *cur;          /* nw: prefix of the block being produced */
+    gs_int tmp;
+} mulstate;
+
+/* hist[f] = number of consecutive term pairs whose first differing
+   variable is f: a pair starts a new block exactly when f < m. */
+static void diff_hist(size_t *hist, const gs_poly *a, const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords, w;
+    for (i = 1; i < a->length; i++) {
+        const uint64_t *x = a->exps + (i - 1) * nw, *y = x + nw;
+        uint64_t d;
+        int f = 0;
+        for (w = 0; w < nw && x[w] == y[w]; w++)
+            ;
+        assert(w < nw);     /* canonical: no repeated monomials */
+        d = x[w] ^ y[w];
+        while (((d >> field_shift(f)) & 0xFFFFu) == 0)
+            f++;
+        hist[w * GS_POLY_VARS_PER_WORD + (size_t)f]++;
+    }
+}
+
+static double log2_approx(double x)
+{
+    double l = 0;
+    while (x >= 2) {
+        x /= 2;
+        l += 1;
+    }
+    return l + (x - 1);
+}
+
+/* Estimated work for prefix length m, in units of one dense multiply-add:
+   every term pair costs one, every block pair a heap operation and loop
+   set-up, every output block a scan of its dense range.  The number of
+   output blocks is bounded by the block pairs and by the prefix box. */
+static double plan_cost(double na, double nb, double ablocks,
+                        double bblocks, double box, double dsize)
+{
+    double pairs = ablocks * bblocks;
+    double outb = pairs < box ? pairs : box;
+    double prod = dsize > 4096 ? 1.5 : 1.0;    /* beyond the first level
+                                                  cache */
+    return na * nb * prod + pairs * (12 + 3 * log2_approx(ablocks + 1))
+        + outb * (10 + 0.25 * dsize);
+}
+
+static int mul_plan(const gs_poly *a, const gs_poly *b, const unsigned *radix,
+                    int method, const gs_polyctx *ctx)
+{
+    int n = ctx->nvars, m, best = n;
+    size_t sz = (size_t)ctx->nwords * GS_POLY_VARS_PER_WORD + 1;
+    size_t *ha = gs_calloc(sz, sizeof *ha), *hb = gs_calloc(sz, sizeof *hb);
+    size_t *ca = gs_calloc(sz + 1, sizeof *ca), *cb = gs_calloc(sz + 1,
+                                                               sizeof *cb);
+    double dsize = 1, box = 1, bestcost;
+    diff_hist(ha, a, ctx);
+    diff_hist(hb, b, ctx);
+    for (m = 0; m < n; m++) {
+        ca[m + 1] = ca[m] + ha[m];
+        cb[m + 1] = cb[m] + hb[m];
+        box *= radix[m];
+    }
+    bestcost = plan_cost((double)a->length, (double)b->length,
+                         (double)a->length, (double)b->length, box, 1);
+    for (m = n - 1; m >= 0 && method != GS_POLY_MUL_HEAP; m--) {
+        double cost;
+        dsize *= radix[m];
+        box /= radix[m];
+        if (dsize > DENSE_CAP)
+            break;
+        cost = plan_cost((double)a->length, (double)b->length,
+                         (double)(ca[m] + 1), (double)(cb[m] + 1), box, dsize);
+        if (method == GS_POLY_MUL_DENSE || cost < bestcost) {
+            best = m;
+            bestcost = cost;
+        }
+    }
+    free(ha);
+    free(hb);
+    free(ca);
+    free(cb);
+    return best;
+}
+
+static void side_build(side *s, const gs_poly *p, const mulstate *st,
+                       int small)
+{
+    size_t i, n = p->length, nw = (size_t)st->nw, w, nb = 0;
+    int v, nvars = st->ctx->nvars;
+    s->nterms = n;
+    s->start = gs_malloc((n + 1) * sizeof *s->start);
+    s->key = gs_malloc((n + 1) * nw * 8);
+    s->idx = gs_malloc((n + 1) * sizeof *s->idx);
+    s->small = small ? gs_malloc((n + 1) * sizeof *s->small) : NULL;
+    s->coeffs = p->coeffs;
+    for (i = 0; i < n; i++) {
+        const uint64_t *e = p->exps + i * nw;
+        uint64_t *k = s->key + nb * nw;
+        size_t x = 0;
+        for (w = 0; w < nw; w++)
+            k[w] = e[w] & st->premask[w];
+        if (nb == 0 || memcmp(k - nw, k, nw * 8) != 0)
+            s->start[nb++] = i;
+        for (v = st->m; v < nvars; v++)
+            x += get_exp(e, v) * st->stride[v];
+        s->idx[i] = (uint32_t)x;
+        if (small)
+            s->small[i] = gs_int_get_si(&p->coeffs[i]);
+    }
+    s->start[nb] = n;
+    s->nblocks = nb;
+}
+
+static void side_free(side *s)
+{
+    free(s->start);
+    free(s->key);
+    free(s->idx);
+    free(s->small);
+}
+
+/* Append the term (prefix cur, suffix index k) to the product; returns
+   its coefficient slot, initialised to 0. */
+static gs_int *emit(mulstate *st, size_t k)
+{
+    gs_poly *o = &st->out;
+    size_t nw = (size_t)st->nw, w;
+    uint64_t *e;
+    int v;
+    gs_poly_fit(o, o->length + 1, st->ctx);
+    e = o->exps + o->length * nw;
+    for (w = 0; w < nw; w++)
+        e[w] = st->cur[w];
+    if (st->dsize > 1)
+        for (v = st->m; v < st->ctx->nvars; v++) {
+            uint64_t d = (k / st->stride[v]) % st->radix[v];
+            e[v / GS_POLY_VARS_PER_WORD] |= d << field_shift(v);
+        }
+    gs_int_init(&o->coeffs[o->length]);
+    return &o->coeffs[o->length++];
+}
+
+#if GS_HAVE_I128
+static void set_i128(gs_int *r, gs_i128 x, gs_int *tmp)
+{
+    gs_u128 u;
+    if (x >= -(gs_i128)INT64_MAX && x <= (gs_i128)INT64_MAX) {
+        gs_int_set_si(r, (int64_t)x);
+        return;
+    }
+    u = x < 0 ? -(gs_u128)x : (gs_u128)x;
+    gs_int_set_ui(r, (uint64_t)(u >> 64));
+    gs_int_mul_2exp(r, r, 64);
+    gs_int_set_ui(tmp, (uint64_t)u);
+    gs_int_add(r, r, tmp);
+    if (x < 0)
+        gs_int_neg(r, r);
+}
+
+/* acc[ia + ib] += ca * cb over one block pair: the hot loop. */
+static void pair_small(gs_i128 *acc, const side *a, size_t i, const side *b,
+                       size_t j)
+{
+    size_t s, t, b0 = b->start[j], nb = b->start[j + 1] - b0;
+    const uint32_t *ib = b->idx + b0;
+    const int64_t *cb = b->small + b0;
+    for (s = a->start[i]; s < a->start[i + 1]; s++) {
+        gs_i128 *row = acc + a->idx[s];
+        int64_t c = a->small[s];
+        for (t = 0; t < nb; t++)
+            row[ib[t]] += (gs_i128)c * cb[t];
+    }
+}
+
+static void flush_small(mulstate *st, gs_i128 *acc, size_t lo, size_t hi)
+{
+    size_t k;
+    for (k = hi + 1; k-- > lo;)
+        if (acc[k] != 0) {
+            set_i128(emit(st, k), acc[k], &st->tmp);
+            acc[k] = 0;
+        }
+}
+#endif
+
+static void pair_big(gs_int *acc, const side *a, size_t i, const side *b,
+                     size_t j)
+{
+    size_t s, t, b0 = b->start[j], b1 = b->start[j + 1];
+    for (s = a->start[i]; s < a->start[i + 1]; s++) {
+        gs_int *row = acc + a->idx[s];
+        const gs_int *c = &a->coeffs[s];
+        for (t = b0; t < b1; t++)
+            gs_int_addmul(&row[b->idx[t]], c, &b->coeffs[t]);
+    }
+}
+
+static void flush_big(mulstate *st, gs_int *acc, size_t lo, size_t hi)
+{
+    size_t k;
+    for (k = hi + 1; k-- > lo;)
+        if (!gs_int_is_zero(&acc[k]))
+            gs_int_swap(emit(st, k), &acc[k]);
+}
+
+static void pair_key(uint64_t *key, const mulstate *st, size_t i, size_t j)
+{
+    const uint64_t *x = st->a.key + i * (size_t)st->nw;
+    const uint64_t *y = st->b.key + j * (size_t)st->nw;
+    int w;
+    for (w = 0; w < st->nw; w++)
+        key[w] = x[w] + y[w];
+}
+
+/* Pop every block pair of the top prefix, accumulate it, queue its
+   successors; then write out that output block.  acc is the dense
+   accumulator of the chosen kind. */
+static void mul_loop(mulstate *st, void *acc, int small)
+{
+    gs_pheap h;
+    uint64_t *key = gs_malloc(((size_t)st->nw + 1) * 8 * 2), *tmp;
+    const side *a = &st->a, *b = &st->b;
+    tmp = key + st->nw + 1;
+    gs_pheap_init(&h, st->nw, a->nblocks + 1);
+    pair_key(key, st, 0, 0);
+    gs_pheap_push(&h, key, 0);
+    while (h.n > 0) {
+        size_t lo = SIZE_MAX, hi = 0;
+        memcpy(st->cur, gs_pheap_at(&h, 0), (size_t)st->nw * 8);
+        do {
+            uint64_t pl = gs_pheap_at(&h, 0)[st->nw];
+            size_t i = (size_t)(pl >> 32), j = (size_t)(pl & 0xFFFFFFFFu);
+            size_t l = a->idx[a->start[i + 1] - 1] + b->idx[b->start[j + 1] - 1];
+            size_t u = a->idx[a->start[i]] + b->idx[b->start[j]];
+#if GS_HAVE_I128
+            if (small)
+                pair_small(acc, a, i, b, j);
+            else
+#endif
+                pair_big(acc, a, i, b, j);
+            lo = l < lo ? l : lo;
+            hi = u > hi ? u : hi;
+            if (j + 1 < b->nblocks) {
+                pair_key(key, st, i, j + 1);
+                gs_pheap_replace_top(&h, key, pl + 1);
+            } else {
+                gs_pheap_pop(&h, tmp);
+            }
+            if (j == 0 && i + 1 < a->nblocks) {
+                pair_key(key, st, i + 1, 0);
+                gs_pheap_push(&h, key, (uint64_t)(i + 1) << 32);
+            }
+        } while (h.n > 0 && gs_pheap_cmp(gs_pheap_at(&h, 0), st->cur,
+                                         st->nw) == 0);
+#if GS_HAVE_I128
+        if (small)
+            flush_small(st, acc, lo, hi);
+        else
+#endif
+            flush_big(st, acc, lo, hi);
+    }
+    gs_pheap_clear(&h);
+    free(key);
+}
+
+/* Can a 128-bit accumulator hold every coefficient sum?  |a_i| < 2^ba,
+   |b_j| < 2^bb and at most min(len a, len b) products meet in one
+   coefficient, so the sums stay below 2^(ba + bb + ceil log2 min). */
+static int small_ok(const gs_poly *a, const gs_poly *b)
+{
+    size_t i, n = a->length < b->length ? a->length : b->length;
+    size_t ba = 0, bb = 0, lg = 0;
+    for (i = 0; i < a->length; i++) {
+        if (!gs_int_is_small(&a->coeffs[i]))
+            return 0;
+        if (gs_int_bits(&a->coeffs[i]) > ba)
+            ba = gs_int_bits(&a->coeffs[i]);
+    }
+    for (i = 0; i < b->length; i++) {
+        if (!gs_int_is_small(&b->coeffs[i]))
+            return 0;
+        if (gs_int_bits(&b->coeffs[i]) > bb)
+            bb = gs_int_bits(&b->coeffs[i]);
+    }
+    while (((size_t)1 << lg) < n)
+        lg++;
+    return GS_HAVE_I128 && ba + bb + lg <= 126;
+}
+
+static void state_init(mulstate *st, const gs_polyctx *ctx, int m,
+                       const unsigned *radix)
+{
+    int v;
+    size_t d = 1;
+    st->ctx = ctx;
+    st->nw = ctx->nwords;
+    st->m = m;
+    st->radix = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *st->radix);
+    st->stride = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *st->stride);
+    st->premask = gs_calloc((size_t)st->nw, 8);
+    st->cur = gs_malloc((size_t)st->nw * 8);
+    for (v = ctx->nvars - 1; v >= 0; v--) {
+        st->radix[v] = radix[v];
+        st->stride[v] = v >= m ? d : 0;
+        if (v >= m)
+            d *= radix[v];
+        else
+            st->premask[v / GS_POLY_VARS_PER_WORD] |=
+                (uint64_t)0xFFFFu << field_shift(v);
+    }
+    st->dsize = d;
+    gs_poly_init(&st->out);
+    gs_int_init(&st->tmp);
+}
+
+static void state_clear(mulstate *st)
+{
+    side_free(&st->a);
+    side_free(&st->b);
+    free(st->radix);
+    free(st->stride);
+    free(st->premask);
+    free(st->cur);
+    gs_poly_clear(&st->out);
+    gs_int_clear(&st->tmp);
+}
+
+/* r = a * b with prefix length m; the blocks of a go in the heap. */
+static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
+                       const unsigned *radix, int small,
+                       const gs_polyctx *ctx)
+{
+    mulstate st;
+    size_t k;
+    state_init(&st, ctx, m, radix);
+    side_build(&st.a, a, &st, small);
+    side_build(&st.b, b, &st, small);
+    assert(st.a.nblocks < ((size_t)1 << 31) && st.b.nblocks < ((size_t)1 << 31));
+    gs_poly_fit(&st.out, a->length + b->length, ctx);
+#if GS_HAVE_I128
+    if (small) {
+        gs_i128 *acc = gs_calloc(st.dsize, sizeof *acc);
+        mul_loop(&st, acc, 1);
+        free(acc);
+    } else
+#endif
+    {
+        gs_int *acc = gs_malloc(st.dsize * sizeof *acc);
+        for (k = 0; k < st.dsize; k++)
+            gs_int_init(&acc[k]);
+        mul_loop(&st, acc, 0);
+        for (k = 0; k < st.dsize; k++)
+            gs_int_clear(&acc[k]);
+        free(acc);
+    }
+    gs_poly_swap(r, &st.out);
+    state_clear(&st);
+}
+
+/* r = a * (c x^e) for a one-term b. */
+static void mul_term(gs_poly *r, const gs_poly *a, const gs_poly *b,
+                     const gs_polyctx *ctx)
+{
+    gs_int c;
+    uint64_t *e = gs_malloc((size_t)ctx->nwords * 8);
+    gs_int_init(&c);
+    gs_int_set(&c, &b->coeffs[0]);
+    memcpy(e, b->exps, (size_t)ctx->nwords * 8);
+    gs_poly_mul_monomial(r, a, e, ctx);
+    gs_poly_mul_int(r, r, &c, ctx);
+    gs_int_clear(&c);
+    free(e);
+}
+
+void gs_poly_mul_method(gs_poly *r, const gs_poly *a, const gs_poly *b,
+                        int method, const gs_polyctx *ctx)
+{
+    unsigned *da, *db, *radix;
+    int v, m, alg = method & 7;
+    if (a->length == 0 || b->length == 0) {
+        gs_poly_zero(r);
+        return;
+    }
+    if (alg == GS_POLY_MUL_AUTO && (a->length == 1 || b->length == 1)) {
+        if (b->length == 1)
+            mul_term(r, a, b, ctx);
+        else
+            mul_term(r, b, a, ctx);
+        return;
+    }
+    da = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *da);
+    db = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *db);
+    radix = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *radix);
+    gs_poly_degrees(da, a, ctx);
+    gs_poly_degrees(db, b, ctx);
+    for (v = 0; v < ctx->nvars; v++) {
+        assert(da[v] + db[v] <= GS_POLY_MAX_EXP);  /* precondition */
+        radix[v] = da[v] + db[v] + 1;
+    }
+    m = mul_plan(a, b, radix, alg, ctx);
+    mul_blocks(r, a, b, m, radix,
+               !(method & GS_POLY_MUL_BIGACC) && small_ok(a, b), ctx);
+    free(da);
+    free(db);
+    free(radix);
+}
+
+void gs_poly_mul(gs_poly *r, const gs_poly *a, const gs_poly *b,
+                 const gs_polyctx *ctx)
+{
+    gs_poly_mul_method(r, a, b, GS_POLY_MUL_AUTO, ctx);
+}
+
+/* (c x^u)^e */
+static void pow_term(gs_poly *r, const gs_poly *a, unsigned long e,
+                     const gs_polyctx *ctx)
+{
+    size_t w;
+    gs_poly_set(r, a, ctx);
+    gs_int_pow_ui(&r->coeffs[0], &r->coeffs[0], e);
+    for (w = 0; w < (size_t)ctx->nwords; w++)
+        r->exps[w] *= e;    /* fields stay below 2^15: no carries */
+}
+
+/* (u + v)^e = sum_k C(e, k) u^(e-k) v^k (binomial theorem); u > v, so the
+   terms come out in decreasing order as k grows. */
+static void pow_binomial(gs_poly *r, const gs_poly *a, unsigned long e,
+                         const gs_polyctx *ctx)
+{
+    size_t nw = (size_t)ctx->nwords, w;
+    unsigned long k;
+    gs_int *up = gs_malloc((e + 1) * sizeof *up), binom, vk, kk;
+    gs_poly t;
+    gs_poly_init(&t);
+    gs_poly_fit(&t, e + 1, ctx);
+    gs_int_init(&binom);
+    gs_int_init(&vk);
+    gs_int_init(&kk);
+    gs_int_set_si(&binom, 1);
+    gs_int_set_si(&vk, 1);
+    for (k = 0; k <= e; k++) {
+        gs_int_init(&up[k]);
+        if (k == 0)
+            gs_int_set_si(&up[0], 1);
+        else
+            gs_int_mul(&up[k], &up[k - 1], &a->coeffs[0]);
+    }
+    for (k = 0; k <= e; k++) {
+        gs_int *c = &t.coeffs[k];
+        gs_int_init(c);
+        gs_int_mul(c, &binom, &up[e - k]);
+        gs_int_mul(c, c, &vk);
+        for (w = 0; w < nw; w++)
+            t.exps[k * nw + w] = a->exps[w] * (e - k) + a->exps[nw + w] * k;
+        gs_int_mul(&vk, &vk, &a->coeffs[1]);
+        /* C(e, k+1) = C(e, k) (e - k) / (k + 1), exactly */
+        gs_int_mul_si(&binom, &binom, (int64_t)(e - k));
+        gs_int_set_si(&kk, (int64_t)(k + 1));
+        gs_int_divexact(&binom, &binom, &kk);
+    }
+    t.length = e + 1;
+    gs_poly_swap(r, &t);
+    gs_poly_clear(&t);
+    for (k = 0; k <= e; k++)
+        gs_int_clear(&up[k]);
+    free(up);
+    gs_int_clear(&binom);
+    gs_int_clear(&vk);
+    gs_int_clear(&kk);
+}
+
+/* Powers by repeated multiplication: for sparse multivariate operands it
+   does less work than repeated squaring (Gentleman, "Optimal
+   multiplication chains for computing a power of a symbolic polynomial",
+   Math. Comp. 26, 1972; Fateman, SIAM J. Comput. 3, 1974). */
+void gs_poly_pow_ui(gs_poly *r, const gs_poly *a, unsigned long e,
+                    const gs_polyctx *ctx)
+{
+    gs_poly base, t;
+    unsigned long k;
+    int v;
+    if (e == 0) {
+        gs_poly_set_si(r, 1, ctx);
+        return;
+    }
+    for (v = 0; v < ctx->nvars; v++) {
+        long d = gs_poly_degree(a, v, ctx);
+        assert(d <= 0 || e <= GS_POLY_MAX_EXP / (unsigned long)d);
+        (void)d;
+    }
+    if (a->length <= 1 || e == 1) {
+        if (a->length == 0)
+            gs_poly_zero(r);
+        else if (e == 1)
+            gs_poly_set(r, a, ctx);
+        else
+            pow_term(r, a, e, ctx);
+        return;
+    }
+    if (a->length == 2) {
+        pow_binomial(r, a, e, ctx);
+        return;
+    }
+    gs_poly_init(&base);
+    gs_poly_init(&t);
+    gs_poly_set(&base, a, ctx);
+    gs_poly_set(&t, a, ctx);
+    for (k = 1; k < e; k++)
+        gs_poly_mul(&t, &t, &base, ctx);
+    gs_poly_swap(r, &t);
+    gs_poly_clear(&t);
+    gs_poly_clear(&base);
+}

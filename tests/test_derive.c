@@ -1,0 +1,226 @@
+/* test_derive.c - exact derivations against published closed forms.
+ * See LICENSE.
+ *
+ * Each case is a small circuit whose transfer function a standard textbook
+ * gives in closed form.  The comparison is an exact polynomial identity,
+ * N * D_book == N_book * D, not a check at a point; and our result must be
+ * in lowest terms with the denominator's leading term positive.
+ */
+#include "check.h"
+#include "circuit.h"
+#include "derive.h"
+#include "job.h"
+#include "mna.h"
+#include "poly.h"
+
+#include <stdlib.h>
+#include <string.h>
+
+/* Derive output `name` of circuit text and compare with book_n/book_d
+   (in the syntax of gs_poly_set_str).  Returns 1 when identical. */
+static int same_ratio(const char *text, const char *name, const char *book_n,
+                      const char *book_d, const char *limit_sym, int to_inf)
+{
+    gs_circuit *c = gs_circuit_new();
+    gs_polyctx *ctx = NULL;
+    gs_diag d;
+    gs_tf tf;
+    gs_poly bn, bd, l, r;
+    gs_derive_opts o;
+    gs_limit lim;
+    int ok = 0, idx;
+
+    gs_diag_init(&d);
+    gs_poly_init(&bn);
+    gs_poly_init(&bd);
+    gs_poly_init(&l);
+    gs_poly_init(&r);
+    if (gs_parse_string(c, "case.gsc", text, &d) != GS_OK) {
+        gs_diag_print(stderr, &d);
+        goto done;
+    }
+    gs_mna_intern_symbols(c);
+    ctx = gs_polyctx_new(c->syms, gs_symtab_count(c->syms));
+    gs_tf_init(&tf, ctx, c->s_sym);
+    gs_derive_opts_default(&o);
+    if (limit_sym) {
+        lim.sym = gs_symtab_find(c->syms, limit_sym);
+        lim.to_inf = to_inf;
+        o.limits = &lim;
+        o.nlimits = 1;
+    }
+    idx = gs_circuit_find_output(c, name);
+    if (idx >= 0 && gs_derive(&tf, c, (size_t)idx, ctx, &o, NULL, &d) == GS_OK
+        && gs_poly_set_str(&bn, book_n, ctx) == GS_OK
+        && gs_poly_set_str(&bd, book_d, ctx) == GS_OK) {
+        gs_poly_mul(&l, &tf.num, &bd, ctx);
+        gs_poly_mul(&r, &bn, &tf.den, ctx);
+        ok = gs_poly_equal(&l, &r, ctx) && gs_poly_sgn(&tf.den) > 0;
+        if (!ok) {
+            char *n = gs_poly_get_str(&tf.num, ctx);
+            char *dd = gs_poly_get_str(&tf.den, ctx);
+            fprintf(stderr, "%s: got (%s)/(%s), book (%s)/(%s)\n", name, n,
+                    dd, book_n, book_d);
+            free(n);
+            free(dd);
+        }
+    } else {
+        gs_diag_print(stderr, &d);
+    }
+    gs_tf_clear(&tf);
+done:
+    gs_poly_clear(&bn);
+    gs_poly_clear(&bd);
+    gs_poly_clear(&l);
+    gs_poly_clear(&r);
+    gs_polyctx_free(ctx);
+    gs_circuit_free(c);
+    gs_diag_clear(&d);
+    return ok;
+}
+
+static void test_passive(void)
+{
+    /* Voltage divider: R2/(R1+R2) (Ohm's law; any circuits text). */
+    CHECK(same_ratio("vsource vin in gnd\nresistor R1 in out\n"
+                     "resistor R2 out gnd\ntransfer H = v(out) / vin\n",
+                     "H", "R2", "R1 + R2", NULL, 0));
+    /* First-order RC low-pass: 1/(1 + sRC) (Nilsson & Riedel, Electric
+       Circuits, first-order circuits, from memory). */
+    CHECK(same_ratio("vsource vin in gnd\nresistor R in out\n"
+                     "capacitor C out gnd\ntransfer H = v(out) / vin\n",
+                     "H", "1", "R*C*s + 1", NULL, 0));
+    /* RL high-pass: sL/(R + sL). */
+    CHECK(same_ratio("vsource vin in gnd\nresistor R in out\n"
+                     "inductor L out gnd\ntransfer H = v(out) / vin\n",
+                     "H", "L*s", "L*s + R", NULL, 0));
+    /* Wheatstone bridge: v(a,b)/vin = R2/(R1+R2) - R4/(R3+R4). */
+    CHECK(same_ratio("vsource vin t gnd\nresistor R1 t a\nresistor R2 a gnd\n"
+                     "resistor R3 t b\nresistor R4 b gnd\n"
+                     "transfer H = v(a, b) / vin\n", "H",
+                     "R2*R3 - R1*R4", "(R1 + R2)*(R3 + R4)", NULL, 0));
+    /* Series RLC, output across R: sRC/(s^2 LC + sRC + 1) (band-pass
+       section; Nilsson & Riedel, from memory). */
+    CHECK(same_ratio("vsource vin a gnd\ninductor L a b\ncapacitor C b out\n"
+                     "resistor R out gnd\ntransfer H = v(out) / vin\n",
+                     "H", "R*C*s", "L*C*s^2 + R*C*s + 1", NULL, 0));
+    /* Parallel RC impedance: R/(1 + sRC). */
+    CHECK(same_ratio("resistor R a gnd\ncapacitor C a gnd\n"
+                     "impedance Z = a, gnd\n", "Z", "R", "R*C*s + 1",
+                     NULL, 0));
+    /* Current divider: i(R2)/iin = R1/(R1+R2). */
+    CHECK(same_ratio("isource iin gnd a\nresistor R1 a gnd\n"
+                     "resistor R2 a gnd\ntransfer H = i(R2) / iin\n",
+                     "H", "R1", "R1 + R2", NULL, 0));
+    /* Rational and product values: R1 = 2*Rx, R2 = Rx/2 gives
+       (Rx/2)/(2Rx + Rx/2) = 1/5. */
+    CHECK(same_ratio("vsource vin in gnd\nresistor R1 in out = 2*Rx\n"
+                     "resistor R2 out gnd = Rx/2\ntransfer H = v(out) / vin\n",
+                     "H", "1", "5", NULL, 0));
+}
+
+static void test_amplifiers(void)
+{
+    /* Inverting amplifier with finite open-loop gain A:
+       -A R2/(R1 + R2 + A R1) (Sedra & Smith, Microelectronic Circuits,
+       ch. 2, from memory). */
+    CHECK(same_ratio("vsource vin in gnd\nresistor R1 in n\n"
+                     "resistor R2 n out\nvcvs A out gnd gnd n\n"
+                     "transfer H = v(out) / vin\n", "H", "-A*R2",
+                     "A*R1 + R1 + R2", NULL, 0));
+    /* ... and its limit A -> inf: -R2/R1. */
+    CHECK(same_ratio("vsource vin in gnd\nresistor R1 in n\n"
+                     "resistor R2 n out\nvcvs A out gnd gnd n\n"
+                     "transfer H = v(out) / vin\n", "H", "-R2", "R1",
+                     "A", 1));
+    /* Non-inverting amplifier, finite A: A(R1+R2)/(R1 + R2 + A R1)
+       (Sedra & Smith, ch. 2, from memory). */
+    CHECK(same_ratio("vsource vin p gnd\nresistor R1 n gnd\n"
+                     "resistor R2 n out\nvcvs A out gnd p n\n"
+                     "transfer H = v(out) / vin\n", "H", "A*(R1 + R2)",
+                     "A*R1 + R1 + R2", NULL, 0));
+    /* Ideal op-amp (nullor) inverting amplifier: -R2/R1. */
+    CHECK(same_ratio("vsource vin in gnd\nresistor R1 in n\n"
+                     "resistor R2 n out\nopamp U1 out gnd n\n"
+                     "transfer H = v(out) / vin\n", "H", "-R2", "R1",
+                     NULL, 0));
+    /* Unity-gain Sallen-Key low-pass:
+       1/(s^2 R1 R2 C1 C2 + s C2 (R1 + R2) + 1) (Sallen & Key 1955;
+       Williams & Taylor, Electronic Filter Design Handbook, from memory). */
+    CHECK(same_ratio("vsource vin in gnd\nresistor R1 in a\n"
+                     "resistor R2 a b\ncapacitor C1 a out\n"
+                     "capacitor C2 b gnd\nopamp U1 out b out\n"
+                     "transfer H = v(out) / vin\n", "H", "1",
+                     "R1*R2*C1*C2*s^2 + C2*(R1 + R2)*s + 1", NULL, 0));
+}
+
+static void test_transistors(void)
+{
+    /* Degenerated common-source stage with rds:
+       -gm ro RD/(RD + RS + ro + gm ro RS) (Razavi, Design of Analog CMOS
+       Integrated Circuits, ch. 3, from memory). */
+    const char *cs = "vsource vin in gnd\nmosfet M1 out in src gm=gm "
+                     "rds=ro\nresistor RD out gnd\nresistor RS src gnd\n"
+                     "transfer Av = v(out) / vin\n";
+    CHECK(same_ratio(cs, "Av", "-gm*ro*RD", "RD + RS + ro + gm*ro*RS",
+                     NULL, 0));
+    /* ... rds -> inf gives -gm RD/(1 + gm RS) (same source). */
+    CHECK(same_ratio(cs, "Av", "-gm*RD", "gm*RS + 1", "ro", 1));
+    /* Cascode output resistance: ro1 + ro2 + gm2 ro2 ro1 (Razavi, ch. 3,
+       from memory; no body effect). */
+    CHECK(same_ratio("mosfet M1 mid gnd gnd gm=gm1 rds=ro1\n"
+                     "mosfet M2 out gnd mid gm=gm2 rds=ro2\n"
+                     "impedance Rout = out, gnd\n", "Rout",
+                     "ro1 + ro2 + gm2*ro1*ro2", "1", NULL, 0));
+    /* Source follower with body effect:
+       gm/(gm + gmb + 1/ro + 1/RL) (Razavi, ch. 3, from memory). */
+    CHECK(same_ratio("vsource vin in gnd\nmosfet M1 gnd in out gnd gm=gm "
+                     "rds=ro gmb=gmb\nresistor RL out gnd\n"
+                     "transfer Av = v(out) / vin\n", "Av", "gm*ro*RL",
+                     "ro + RL + (gm + gmb)*ro*RL", NULL, 0));
+    /* Common-source stage with Cgd, ideal gate drive:
+       RD (s Cgd - gm)/(1 + s RD (Cgd + CL)): a right-half-plane zero at
+       gm/Cgd (Razavi, ch. 6, from memory). */
+    CHECK(same_ratio("vsource vin g gnd\nmosfet M1 out g gnd gm=gm rds=inf "
+                     "cgd=Cgd\nresistor RD out gnd\ncapacitor CL out gnd\n"
+                     "transfer Av = v(out) / vin\n", "Av",
+                     "RD*(Cgd*s - gm)", "RD*(Cgd + CL)*s + 1", NULL, 0));
+    /* BJT common emitter with emitter degeneration, no ro:
+       -beta RC/(rpi + (beta + 1) RE) with beta = gm rpi (Sedra & Smith,
+       ch. on BJT amplifiers, from memory). */
+    CHECK(same_ratio("vsource vin b gnd\nbjt Q1 c b e gm=gm rpi=rpi\n"
+                     "resistor RC c gnd\nresistor RE e gnd\n"
+                     "transfer Av = v(c) / vin\n", "Av", "-gm*rpi*RC",
+                     "rpi + RE + gm*rpi*RE", NULL, 0));
+}
+
+static void test_controlled_sources(void)
+{
+    /* CCCS driven by the current of a resistor: i(R1) = vin/R1, the
+       output current beta*vin/R1 into RL gives v(out) = -beta RL/R1 with
+       the CCCS pulling current out of node out (KCL). */
+    CHECK(same_ratio("vsource vin in gnd\nresistor R1 in gnd\n"
+                     "cccs beta out gnd R1\nresistor RL out gnd\n"
+                     "transfer H = v(out) / vin\n", "H", "-beta*RL", "R1",
+                     NULL, 0));
+    /* CCVS (transresistance rm) controlled by a source's current: the
+       current of vin is -vin/R1 (it flows from in through R1 back into
+       the source's negative node), so v(out) = -rm/R1 * vin. */
+    CHECK(same_ratio("vsource vin in gnd\nresistor R1 in gnd\n"
+                     "ccvs rm out gnd vin\nresistor RL out gnd\n"
+                     "transfer H = v(out) / vin\n", "H", "-rm", "R1",
+                     NULL, 0));
+    /* VCCS into a load: -gm RL. */
+    CHECK(same_ratio("vsource vin in gnd\nvccs gm out gnd in gnd\n"
+                     "resistor RL out gnd\ntransfer H = v(out) / vin\n",
+                     "H", "-gm*RL", "1", NULL, 0));
+}
+
+int main(void)
+{
+    test_passive();
+    test_amplifiers();
+    test_transistors();
+    test_controlled_sources();
+    return check_report("derive");
+}
