@@ -1,20 +1,41 @@
-/* cmd.h - the commands of the gainsmith program. See LICENSE.
+/* cmd.h - the subcommands of the gainsmith command. See LICENSE.
  *
- * Each command is a function of one shape:
- *
- *     int gs_cmd_NAME(int argc, char **argv, FILE *out, FILE *err);
- *
- * argv[0] is the command's own word ("extract") and argv[1..argc-1] its
- * arguments.  Results go to out, messages to err; the return value is the
- * exit status: 0 success, 1 the analysis failed, 2 bad input or usage.
+ * Each command is a function of one shape: it takes the arguments after
+ * the command name (argv[0] is the command name itself), writes results to
+ * out and diagnostics to err, and returns the exit status: 0 success,
+ * 1 the analysis failed, 2 bad input or usage.  Only src/main.c turns that
+ * into the process's exit status.
  */
 #ifndef GS_CMD_H
 #define GS_CMD_H
 
 #include <stdio.h>
 
+struct gs_cli;
+struct gs_job;
+
+int gs_cmd_derive(int argc, char **argv, FILE *out, FILE *err);
+int gs_cmd_eval(int argc, char **argv, FILE *out, FILE *err);
+int gs_cmd_poles(int argc, char **argv, FILE *out, FILE *err);
+int gs_cmd_check(int argc, char **argv, FILE *out, FILE *err);
 /* gainsmith extract mos|bjt --KEY=VAL...: device figures to model
-   parameters (docs/devices.md). */
+   parameters (cmd_extract.c, docs/devices.md). */
 int gs_cmd_extract(int argc, char **argv, FILE *out, FILE *err);
+
+/* The steps derive, eval and check share (cmd_derive.c): read the file
+   argument and the derive options of cl, parse and derive into j.
+   Returns an exit status; messages go to err prefixed by cmd. */
+int gs_cmd_load_and_derive(struct gs_job *j, const struct gs_cli *cl,
+                           const char *cmd, FILE *err);
+
+/* Bind the numbers of j from its value lines and the --set options of cl;
+   prints diagnostics to err; returns an exit status. */
+int gs_cmd_bind(struct gs_job *j, const struct gs_cli *cl, FILE *err);
+
+/* The manual text of `extract` (cmd_extract.c). */
+const char *gs_cmd_extract_help(void);
+
+/* The manual text of a command ("derive"), or NULL when unknown. */
+const char *gs_cmd_help_text(const char *command);
 
 #endif

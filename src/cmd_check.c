@@ -103,8 +103,7 @@ int gs_cmd_check(int argc, char **argv, FILE *out, FILE *err)
     gs_job j;
     gs_diag d;
     check_opts o;
-    size_t i, nset;
-    char **sets = NULL;
+    size_t i;
     int status, rc = GS_OK, worst_rc = GS_OK;
 
     gs_job_init(&j);
@@ -120,11 +119,9 @@ int gs_cmd_check(int argc, char **argv, FILE *out, FILE *err)
         status = gs_cmd_load_and_derive(&j, &cl, "check", err);
     if (status != 0)
         goto done;
-    nset = gs_cli_count(&cl, "set");
-    sets = gs_malloc((nset ? nset : 1) * sizeof *sets);
-    for (i = 0; i < nset; i++)
-        sets[i] = (char *)gs_cli_get(&cl, "set", i);
-    rc = gs_job_bind(&j, sets, nset, &d);
+    status = gs_cmd_bind(&j, &cl, err);
+    if (status != 0)
+        goto done;
     for (i = 0; rc == GS_OK && i < j.ntf; i++) {
         int r = check_one(&j, i, &o, out, &d);
         if (r == GS_ESINGULAR)
@@ -135,7 +132,6 @@ int gs_cmd_check(int argc, char **argv, FILE *out, FILE *err)
     gs_diag_print(err, &d);
     status = rc != GS_OK ? gs_job_exit_status(rc) : worst_rc != GS_OK;
 done:
-    free(sets);
     gs_diag_clear(&d);
     gs_cli_clear(&cl);
     gs_job_clear(&j);

@@ -286,35 +286,40 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
     return status;
 }
 
+int gs_cmd_bind(gs_job *j, const gs_cli *cl, FILE *err)
+{
+    size_t i, nset = gs_cli_count(cl, "set");
+    char **sets = gs_malloc((nset ? nset : 1) * sizeof *sets);
+    gs_diag d;
+    int rc;
+    for (i = 0; i < nset; i++)
+        sets[i] = (char *)gs_cli_get(cl, "set", i);
+    gs_diag_init(&d);
+    rc = gs_job_bind(j, sets, nset, &d);
+    gs_diag_print(err, &d);
+    gs_diag_clear(&d);
+    free(sets);
+    return gs_job_exit_status(rc);
+}
+
 int gs_cmd_eval(int argc, char **argv, FILE *out, FILE *err)
 {
     gs_cli cl;
     gs_job j;
-    gs_diag d;
     size_t i;
-    int status, rc;
+    int status;
 
     gs_job_init(&j);
-    gs_diag_init(&d);
     status = gs_cli_parse(&cl, argc, argv, eval_spec, err);
     if (status == 0 && gs_cli_has(&cl, "help")) {
         fputs(gs_cmd_help_text("eval"), out);
     } else if (status == 0) {
         status = gs_cmd_load_and_derive(&j, &cl, "eval", err);
-        if (status == 0) {
-            size_t nset = gs_cli_count(&cl, "set");
-            char **sets = gs_malloc((nset ? nset : 1) * sizeof *sets);
-            for (i = 0; i < nset; i++)
-                sets[i] = (char *)gs_cli_get(&cl, "set", i);
-            rc = gs_job_bind(&j, sets, nset, &d);
-            free(sets);
-            gs_diag_print(err, &d);
-            status = gs_job_exit_status(rc);
-        }
+        if (status == 0)
+            status = gs_cmd_bind(&j, &cl, err);
         for (i = 0; status == 0 && i < j.ntf; i++)
             status = eval_one(&j, i, &cl, out, err);
     }
-    gs_diag_clear(&d);
     gs_cli_clear(&cl);
     gs_job_clear(&j);
     return status;

@@ -19,6 +19,7 @@ static const char overview[] =
 "commands:\n"
 "  derive    the exact transfer functions of a circuit, in lowest terms\n"
 "  eval      their numbers: DC value, values at frequencies, coefficients\n"
+"  poles     poles and zeros, w0, Q, stability, DC and HF gain\n"
 "  check     the exact result against an independent numeric solve\n"
 "  extract   device figures from a datasheet point -> model parameters\n"
 "  help      this text, or the manual of one command\n"
@@ -97,6 +98,29 @@ static const char check_text[] =
 "  --max-terms N        as for derive\n"
 "  --help               this text\n";
 
+static const char poles_text[] =
+"usage: gainsmith poles FILE [options]\n"
+"\n"
+"Derives each output exactly, binds the file's values, and finds the\n"
+"roots of numerator and denominator numerically (Aberth-Ehrlich\n"
+"iteration in long double with Newton-polygon starting points, polished\n"
+"on the original coefficients; docs/analysis.md).  For each output:\n"
+"the stability verdict, the DC gain and the high-frequency gain, then a\n"
+"row per pole and per zero: real and imaginary parts in rad/s, |p| in\n"
+"Hz, Q and zeta for complex pairs, the estimated multiplicity and the\n"
+"relative residual; right-half-plane roots are marked, and pole-zero\n"
+"pairs closer than --cancel-tol are reported as near-cancellations.\n"
+"\n"
+"options:\n"
+"  --format text|json   the table (default) or one JSON array\n"
+"  --cancel-tol X       relative distance for a near-cancellation\n"
+"                       (default 1e-3)\n"
+"  --set SYM=VALUE      as for eval; repeatable\n"
+"  --only NAME          only the output NAME\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
 const char *gs_cmd_help_text(const char *command)
 {
     if (command == NULL)
@@ -105,6 +129,8 @@ const char *gs_cmd_help_text(const char *command)
         return derive_text;
     if (strcmp(command, "eval") == 0)
         return eval_text;
+    if (strcmp(command, "poles") == 0)
+        return poles_text;
     if (strcmp(command, "check") == 0)
         return check_text;
     if (strcmp(command, "extract") == 0)

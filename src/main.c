@@ -15,6 +15,7 @@ typedef struct command {
 static const command commands[] = {
     {"derive", gs_cmd_derive},
     {"eval", gs_cmd_eval},
+    {"poles", gs_cmd_poles},
     {"check", gs_cmd_check},
     {"extract", gs_cmd_extract},
 };
