@@ -183,18 +183,30 @@ typedef struct gs_circuit {
 gs_circuit *gs_circuit_new(void);
 void gs_circuit_free(gs_circuit *c);         /* NULL is fine */
 
-/* Parse a whole file ("-" reads standard input) or a string.  Every
-   statement error is reported in d (up to d->max_errors), warnings too.
-   Returns GS_OK, GS_ESYNTAX (some statement was bad), GS_EINVAL (the
-   circuit is structurally unsound: see gs_circuit_check) or GS_EIO. */
+/* Parse a whole file ("-" reads standard input) or a string into c,
+   which must be fresh from gs_circuit_new.  The language is described in
+   docs/language.md.  Every statement error is reported in d (up to
+   d->max_errors), warnings too; names used before their line are looked
+   up at the end.  Returns GS_OK, GS_ESYNTAX (some statement was bad),
+   GS_EINVAL (the circuit is structurally unsound: gs_circuit_check runs
+   only on a file without statement errors) or GS_EIO. */
 int gs_parse_file(gs_circuit *c, const char *path, gs_diag *d);
 int gs_parse_string(gs_circuit *c, const char *name, const char *text,
                     gs_diag *d);
+/* The same for text[0 .. len), which may hold NUL bytes (reported as
+   unexpected characters). */
+int gs_parse_text(gs_circuit *c, const char *name, const char *text,
+                  size_t len, gs_diag *d);
 
 /* Structural checks before any algebra (gs_parse_* runs them): loops of
-   voltage-defined elements, cut-sets of current sources, parts with no
-   path to the reference, a node touched by one element (warning), ...
-   Returns GS_OK or GS_EINVAL, with messages naming the elements. */
+   voltage-defined elements (opamp outputs and inputs included), loops of
+   cccs, cut-sets of current sources, parts with no path to the
+   reference, nodes that only sense, transfer inputs that are not
+   independent sources, value cycles, and (when nothing else is wrong) MNA
+   equations singular by their pattern alone; a node touched by one
+   terminal is a warning.  Each error means the MNA matrix is singular for
+   every value of the elements.  Returns GS_OK or GS_EINVAL, with messages
+   naming the elements. */
 int gs_circuit_check(const gs_circuit *c, gs_diag *d);
 
 /* Index of the element, node ("gnd", "0" and every ground alias give 0),

@@ -17,6 +17,8 @@ struct gs_job;
 int gs_cmd_derive(int argc, char **argv, FILE *out, FILE *err);
 int gs_cmd_eval(int argc, char **argv, FILE *out, FILE *err);
 int gs_cmd_poles(int argc, char **argv, FILE *out, FILE *err);
+int gs_cmd_bode(int argc, char **argv, FILE *out, FILE *err);
+int gs_cmd_step(int argc, char **argv, FILE *out, FILE *err);
 int gs_cmd_check(int argc, char **argv, FILE *out, FILE *err);
 /* gainsmith extract mos|bjt --KEY=VAL...: device figures to model
    parameters (cmd_extract.c, docs/devices.md). */

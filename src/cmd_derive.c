@@ -286,6 +286,36 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
     return status;
 }
 
+/* The numbers the outputs use, with where they came from when not from
+   a value line. */
+static void print_values(FILE *out, const gs_job *j)
+{
+    int nv = j->ctx->nvars, v;
+    unsigned char *used = gs_calloc((size_t)nv, 1);
+    unsigned char *tmp = gs_calloc((size_t)nv, 1);
+    size_t i;
+    for (i = 0; i < j->ntf; i++) {
+        gs_poly_used_vars(tmp, &j->tf[i].num, j->ctx);
+        for (v = 0; v < nv; v++)
+            used[v] |= tmp[v];
+        gs_poly_used_vars(tmp, &j->tf[i].den, j->ctx);
+        for (v = 0; v < nv; v++)
+            used[v] |= tmp[v];
+    }
+    fputs("values\n", out);
+    for (v = 0; v < nv; v++) {
+        if (!used[v] || v == j->c->s_sym)
+            continue;
+        fprintf(out, "  %-12s  %.10Lg", gs_symtab_name(j->c->syms, v),
+                j->vals[v]);
+        if (j->origin[v])
+            fprintf(out, "  (%s)", j->origin[v]);
+        fputc('\n', out);
+    }
+    free(tmp);
+    free(used);
+}
+
 int gs_cmd_bind(gs_job *j, const gs_cli *cl, FILE *err)
 {
     size_t i, nset = gs_cli_count(cl, "set");
@@ -317,6 +347,8 @@ int gs_cmd_eval(int argc, char **argv, FILE *out, FILE *err)
         status = gs_cmd_load_and_derive(&j, &cl, "eval", err);
         if (status == 0)
             status = gs_cmd_bind(&j, &cl, err);
+        if (status == 0)
+            print_values(out, &j);
         for (i = 0; status == 0 && i < j.ntf; i++)
             status = eval_one(&j, i, &cl, out, err);
     }

@@ -116,7 +116,7 @@ static int check_model(long double k, long double lambda, long double vds,
    continuous at VDS = Vov:
      ID = K·(Vov·VDS - VDS²/2)·(1 + λ·VDS), gm = K·VDS·(1 + λ·VDS),
      gds = K·(Vov - VDS)·(1 + λ·VDS) + λ·K·(Vov·VDS - VDS²/2). */
-static void mos_small_signal(gs_mos_op *op)
+void gs_mos_eval(gs_mos_op *op)
 {
     long double f = 1 + op->lambda * op->vds, q;
 
@@ -155,7 +155,7 @@ int gs_mos_at_vov(gs_mos_op *op, long double k, long double lambda,
     op->vov = vov;
     op->vds = vds;
     op->region = gs_mos_region_of(vov, vds);
-    mos_small_signal(op);
+    gs_mos_eval(op);
     return GS_OK;
 }
 
@@ -305,8 +305,10 @@ int gs_mos_fit_point(gs_mos_op *op, long double id, long double gm,
                     fmt(v, GS_Q_VOLTAGE).s, fmt(vov, GS_Q_VOLTAGE).s);
     rc = gs_mos_at_vov(op, 2 * id / (vov * vov * (1 + lam * v)), lam, vov,
                        v, at, d);
-    if (rc == GS_OK && vds == NULL)
+    if (rc == GS_OK && vds == NULL) {
         op->region = GS_MOS_SAT;    /* assumed: no VDS to check it */
+        gs_mos_eval(op);
+    }
     return rc;
 }
 
@@ -362,7 +364,8 @@ int gs_mos_fit_two(gs_mos_op *op, long double id1, long double vgs1,
     op->has_vth = 1;
     op->vth = vgs1 - vov1;
     op->vgs = vgs1;
-    op->region = GS_MOS_SAT;
+    op->region = GS_MOS_SAT;        /* checked below, or assumed */
+    gs_mos_eval(op);
     if (vds)
         return check_two_sat(op, vgs2 - op->vth, at, d);
     return GS_OK;
@@ -691,12 +694,28 @@ static void commit(const assignments *as, const gs_circuit *c,
     }
 }
 
-/* Append item to a comma-separated list in buf. */
-static void list_add(char *buf, size_t size, const char *item)
+/* The missing figures of a bias line, said as "a, b and c". */
+typedef struct wordlist {
+    const char *w[8];
+    int n;
+} wordlist;
+
+static void words_add(wordlist *l, const char *word)
 {
-    if (*buf)
-        strncat(buf, ", ", size - strlen(buf) - 1);
-    strncat(buf, item, size - strlen(buf) - 1);
+    l->w[l->n++] = word;
+}
+
+static void words_join(char *buf, size_t size, const wordlist *l)
+{
+    int i;
+
+    *buf = '\0';
+    for (i = 0; i < l->n; i++) {
+        if (i > 0)
+            strncat(buf, i == l->n - 1 ? " and " : ", ",
+                    size - strlen(buf) - 1);
+        strncat(buf, l->w[i], size - strlen(buf) - 1);
+    }
 }
 
 /* The figures of a mosfet bias must fix the point exactly once: vds,
@@ -709,7 +728,8 @@ static int mos_check(const figure *f, int need_lambda, const char *name,
         || (f[M_VGS].given && f[M_VTH].given);
     const char *ovm = f[M_VGS].given ? "vth" : f[M_VTH].given ? "vgs"
                       : "vov (or vgs with vth)";
-    char miss[256] = "", tmp[64];
+    char miss[256], tmp[64];
+    wordlist l = {{NULL}, 0};
     int i;
 
     if (f[M_VOV].given && f[M_VGS].given && f[M_VTH].given)
@@ -722,22 +742,23 @@ static int mos_check(const figure *f, int need_lambda, const char *name,
                     "given, but any two of them fix the third", name,
                     f[M_VOV].given ? "vov" : "vgs with vth");
     if (!f[M_VDS].given)
-        list_add(miss, sizeof miss, "vds");
+        words_add(&l, "vds");
     if (need_lambda && !f[M_LAMBDA].given)
-        list_add(miss, sizeof miss, "lambda");
+        words_add(&l, "lambda");
     if (id + k + ov == 0) {
-        list_add(miss, sizeof miss, "two of id, k and vov (or vgs with vth)");
+        words_add(&l, "two of id, k and vov (or vgs with vth)");
     } else if (id + k + ov == 1) {
-        snprintf(tmp, sizeof tmp, "%s or %s", ov ? "id" : id ? "k" : "id",
-                 ov ? "k" : ovm);
-        list_add(miss, sizeof miss, tmp);
+        snprintf(tmp, sizeof tmp, "one of %s and %s",
+                 ov ? "id" : id ? "k" : "id", ov ? "k" : ovm);
+        words_add(&l, tmp);
     }
     if (f[M_GAMMA].given || f[M_PHI].given || f[M_VSB].given)
         for (i = M_GAMMA; i <= M_VSB; i++)
             if (!f[i].given)
-                list_add(miss, sizeof miss, mos_keys[i].key);
-    if (*miss == '\0')
+                words_add(&l, mos_keys[i].key);
+    if (l.n == 0)
         return GS_OK;
+    words_join(miss, sizeof miss, &l);
     return fail(d, GS_EINVAL, at,
                 need_lambda ? "a mosfet bias takes vds, lambda and two of "
                 "id, k and vov (or vgs with vth); rds=inf on the mosfet "
@@ -833,20 +854,22 @@ static int mos_bias(const gs_circuit *c, const gs_bias *b, const figure *f,
 static int bjt_check(const figure *f, int need_beta, int need_va,
                      const char *name, const gs_srcpos *at, gs_diag *d)
 {
-    char miss[128] = "";
+    char miss[128];
+    wordlist l = {{NULL}, 0};
 
     if (!f[B_IC].given)
-        list_add(miss, sizeof miss, "ic");
+        words_add(&l, "ic");
     if (!f[B_VCE].given && !(f[B_EARLY].given && f[B_EARLY].v == 1))
-        list_add(miss, sizeof miss, "vce");
+        words_add(&l, "vce");
     if (need_beta && !f[B_BETA].given)
-        list_add(miss, sizeof miss, "beta");
+        words_add(&l, "beta");
     if (need_va && !f[B_VA].given)
-        list_add(miss, sizeof miss, "va");
+        words_add(&l, "va");
     if (f[B_FT].given && !f[B_CMU].given)
-        list_add(miss, sizeof miss, "cmu (cmu=0 neglects it)");
-    if (*miss == '\0')
+        words_add(&l, "cmu (cmu=0 neglects it)");
+    if (l.n == 0)
         return GS_OK;
+    words_join(miss, sizeof miss, &l);
     return fail(d, GS_EINVAL, at,
                 "a bjt bias takes ic and vce, beta for rpi, va for ro, ft "
                 "and cmu for cpi, and temp (300 K unless given); "
@@ -878,7 +901,8 @@ static int bjt_bias(const gs_circuit *c, const gs_bias *b, const figure *f,
     const gs_device *dv = &c->devices[b->device];
     gs_srcpos at = {c->file, b->line, b->col};
     int pnp = f[B_TYPE].v == 1, plain = f[B_EARLY].v == 1, rc;
-    int need_va = device_sym(c, dv, "ro") >= 0;
+    int ro_sym = device_sym(c, dv, "ro");
+    int need_va = ro_sym >= 0;
     long double ic = mag(&f[B_IC], pnp), vce = mag(&f[B_VCE], pnp);
     long double vt, gm, rpi, re, ro, cpi;
 
@@ -899,7 +923,7 @@ static int bjt_bias(const gs_circuit *c, const gs_bias *b, const figure *f,
         put(as, "rpi", rpi);
         put(as, "re", re);
     }
-    if (f[B_VA].given && need_va) {
+    if (f[B_VA].given && (need_va || ro_sym == SYM_FIXED)) {
         rc = gs_bjt_ro(&ro, mag(&f[B_VA], pnp), vce, ic, plain, &at, d);
         if (rc != GS_OK)
             return rc;

@@ -59,6 +59,11 @@ typedef struct gs_mos_op {
    VDS = Vov belong to cut-off and saturation). */
 gs_mos_region gs_mos_region_of(long double vov, long double vds);
 
+/* ID, gm and gds of the model from op's k, lambda, vov, vds in the
+   region op->region says (which the caller may set, e.g. to evaluate a
+   point assumed saturated). */
+void gs_mos_eval(gs_mos_op *op);
+
 /* Forward model: given K, lambda, the overdrive and VDS, fill op (region,
    ID, gm, gds; has_vth = 0).  A cut-off point is not an error here: it
    has ID = gm = gds = 0.  GS_ERANGE for K <= 0, lambda < 0, VDS < 0. */

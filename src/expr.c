@@ -408,17 +408,14 @@ int gs_expr_parse_string(gs_expr **out, gs_circuit *c, const char *text,
 {
     gs_lexer lx;
     gs_cursor cur;
-    size_t before = d->nerrors;
     int rc = GS_ESYNTAX;
 
     *out = NULL;
     gs_lex_init(&lx, NULL, what ? what : "value", text, strlen(text));
-    gs_lex_run(&lx, d);
-    if (d->nerrors != before) {
-        gs_lex_clear(&lx);
-        return GS_ESYNTAX;
-    }
-    if (lx.nstmt != 1) {        /* empty, or more than one line */
+    gs_lex_run(&lx);
+    if (lx.nstmt == 1 && lx.stmt[0].bad) {
+        gs_lex_report_bad(&lx, d, &lx.stmt[0]);
+    } else if (lx.nstmt != 1) {        /* empty, or more than one line */
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL, "%s: expected one "
                     "expression, found %s", what ? what : "value",
                     lx.nstmt ? "several lines" : "nothing");

@@ -20,6 +20,8 @@ static const char overview[] =
 "  derive    the exact transfer functions of a circuit, in lowest terms\n"
 "  eval      their numbers: DC value, values at frequencies, coefficients\n"
 "  poles     poles and zeros, w0, Q, stability, DC and HF gain\n"
+"  bode      gain, phase and group delay over frequency; CSV and SVG\n"
+"  step      step response: rise time, overshoot, settling; CSV and SVG\n"
 "  check     the exact result against an independent numeric solve\n"
 "  extract   device figures from a datasheet point -> model parameters\n"
 "  help      this text, or the manual of one command\n"
@@ -121,6 +123,56 @@ static const char poles_text[] =
 "  --max-terms N        as for derive\n"
 "  --help               this text\n";
 
+static const char bode_text[] =
+"usage: gainsmith bode FILE --from F --to F [options]\n"
+"\n"
+"Derives each output exactly, binds the file's values, and sweeps s =\n"
+"j*2*pi*f over log-spaced frequencies: magnitude in dB, phase in degrees\n"
+"(unwrapped continuously from the low-frequency asymptote) and group\n"
+"delay in seconds.  Prints each output's -3 dB bandwidth and unity-gain\n"
+"frequency (and, with --loop, its phase and gain margins); the sweep\n"
+"itself goes to --csv, or to standard output when neither --csv nor\n"
+"--svg is given.\n"
+"\n"
+"options:\n"
+"  --from F, --to F     the sweep in Hz (required; SI prefixes allowed)\n"
+"  --points N           points in the sweep (default 201)\n"
+"  --per-decade N       points per decade instead of --points\n"
+"  --csv FILE           the sweep as CSV: freq_Hz, then NAME_mag_dB,\n"
+"                       NAME_phase_deg, NAME_group_delay_s per output\n"
+"  --svg FILE           a Bode plot: magnitude and phase panels, poles\n"
+"                       (x) and zeros (o) on the frequency axis, the\n"
+"                       bandwidth and unity-gain frequency marked, every\n"
+"                       output overlaid with a legend\n"
+"  --loop               the outputs are loop gains: report and mark the\n"
+"                       phase margin and gain margin\n"
+"  --set SYM=VALUE      as for eval; repeatable\n"
+"  --only NAME          only the output NAME\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
+static const char step_text[] =
+"usage: gainsmith step FILE [options]\n"
+"\n"
+"Derives each output exactly, binds the file's values, and computes the\n"
+"response to a unit step from the partial-fraction expansion of H(s)/s\n"
+"(repeated poles included).  Prints the final value, the 10-90 % rise\n"
+"time, the overshoot and the 1 % settling time, where they exist.\n"
+"\n"
+"options:\n"
+"  --until T            the time span in seconds (default: from the\n"
+"                       slowest pole)\n"
+"  --points N           samples written to --csv and --svg (default 1001)\n"
+"  --csv FILE           time_s, step, impulse_per_s\n"
+"  --svg FILE           a plot of the step response with the metrics\n"
+"                       marked (one output: use --only with several)\n"
+"  --set SYM=VALUE      as for eval; repeatable\n"
+"  --only NAME          only the output NAME\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
 const char *gs_cmd_help_text(const char *command)
 {
     if (command == NULL)
@@ -131,6 +183,10 @@ const char *gs_cmd_help_text(const char *command)
         return eval_text;
     if (strcmp(command, "poles") == 0)
         return poles_text;
+    if (strcmp(command, "bode") == 0)
+        return bode_text;
+    if (strcmp(command, "step") == 0)
+        return step_text;
     if (strcmp(command, "check") == 0)
         return check_text;
     if (strcmp(command, "extract") == 0)

@@ -2,6 +2,7 @@
  * See LICENSE.
  */
 #include "job.h"
+#include "device.h"
 #include "mem.h"
 #include "mna.h"
 
@@ -13,6 +14,17 @@ void gs_job_init(gs_job *j)
     memset(j, 0, sizeof *j);
 }
 
+static void free_origins(gs_job *j)
+{
+    int i;
+    if (j->origin == NULL)
+        return;
+    for (i = 0; i < gs_symtab_count(j->c->syms); i++)
+        free(j->origin[i]);
+    free(j->origin);
+    j->origin = NULL;
+}
+
 void gs_job_clear(gs_job *j)
 {
     size_t i;
@@ -21,6 +33,7 @@ void gs_job_clear(gs_job *j)
     free(j->tf);
     free(j->out_index);
     free(j->stats);
+    free_origins(j);
     free(j->vals);
     free(j->set);
     gs_polyctx_free(j->ctx);
@@ -167,6 +180,52 @@ static int check_bound(gs_job *j, gs_diag *d)
     return nmissing ? GS_EUNBOUND : GS_OK;
 }
 
+/* The value line that binds sym, or NULL. */
+static const gs_valuedef *value_line(const gs_circuit *c, int sym)
+{
+    size_t i;
+    for (i = 0; i < c->nvalues; i++)
+        if (c->values[i].sym == sym)
+            return &c->values[i];
+    return NULL;
+}
+
+/* Bias lines set device symbols; a --set override wins over them, and a
+   value line for the same symbol is a conflict. */
+static int apply_biases(gs_job *j, gs_diag *d)
+{
+    int n = gs_symtab_count(j->c->syms), v, rc;
+    long double *bv = gs_calloc((size_t)n, sizeof *bv);
+    unsigned char *bs = gs_calloc((size_t)n, 1);
+    char **bo = gs_calloc((size_t)n, sizeof *bo);
+    rc = gs_device_apply_biases(j->c, bv, bs, bo, d);
+    for (v = 0; v < n && rc == GS_OK; v++) {
+        const gs_valuedef *vl = value_line(j->c, v);
+        if (!bs[v])
+            continue;
+        if (vl && vl->origin && strcmp(vl->origin, "--set") == 0)
+            continue;
+        if (vl) {
+            gs_diag_add(d, GS_SEV_ERROR, j->c->file, vl->line, vl->col,
+                        "remove one of the two", "%s has a value line and "
+                        "is also set by %s", gs_symtab_name(j->c->syms, v),
+                        bo[v]);
+            rc = GS_EINVAL;
+            break;
+        }
+        j->vals[v] = bv[v];
+        j->set[v] = 1;
+        j->origin[v] = bo[v];
+        bo[v] = NULL;
+    }
+    for (v = 0; v < n; v++)
+        free(bo[v]);
+    free(bo);
+    free(bs);
+    free(bv);
+    return rc;
+}
+
 int gs_job_bind(gs_job *j, char *const *sets, size_t nsets, gs_diag *d)
 {
     size_t i, n = (size_t)gs_symtab_count(j->c->syms);
@@ -175,11 +234,19 @@ int gs_job_bind(gs_job *j, char *const *sets, size_t nsets, gs_diag *d)
         rc = apply_set(j, sets[i], d);
     if (rc != GS_OK)
         return rc;
+    free_origins(j);
     free(j->vals);
     free(j->set);
     j->vals = gs_calloc(n, sizeof *j->vals);
     j->set = gs_calloc(n, 1);
+    j->origin = gs_calloc(n, sizeof *j->origin);
+    for (i = 0; i < j->c->nvalues; i++)
+        if (j->c->values[i].origin)
+            j->origin[j->c->values[i].sym] =
+                gs_strdup(j->c->values[i].origin);
     rc = gs_circuit_eval_values(j->c, j->vals, j->set, d);
+    if (rc == GS_OK)
+        rc = apply_biases(j, d);
     if (rc != GS_OK)
         return rc;
     return check_bound(j, d);

@@ -22,6 +22,8 @@ typedef struct gs_job {
     gs_derive_stats *stats; /* how each derivation went */
     long double *vals;      /* per symbol, after gs_job_bind */
     unsigned char *set;     /* per symbol: 1 when bound */
+    char **origin;          /* per symbol: "bias M1", "--set", or NULL for
+                               a value line (owned strings) */
 } gs_job;
 
 void gs_job_init(gs_job *j);
@@ -35,9 +37,10 @@ int gs_job_load(gs_job *j, const char *path, gs_diag *d);
 int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,
                   gs_diag *d);
 
-/* Bind numbers: value lines, bias lines, then the overrides "SYM=EXPR"
-   (sets[0 .. nsets-1]), which win over value lines and feed the values
-   that depend on them.  Then every symbol of every derived output other
+/* Bind numbers: value lines, bias lines, and the overrides "SYM=EXPR"
+   (sets[0 .. nsets-1]), which win over both and feed the values that
+   depend on them.  A symbol given by a value line and by a bias line is an
+   error.  Then every symbol of every derived output other
    than s must have a value: the missing ones are named in one error. */
 int gs_job_bind(gs_job *j, char *const *sets, size_t nsets, gs_diag *d);
 

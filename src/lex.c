@@ -24,6 +24,8 @@ void gs_lex_clear(gs_lexer *lx)
     size_t i;
     for (i = 0; i < lx->ntok; i++)
         free(lx->tok[i].text);
+    for (i = 0; i < lx->nstmt; i++)
+        free(lx->stmt[i].err);
     free(lx->tok);
     free(lx->stmt);
     free(lx->line_start);
@@ -235,17 +237,24 @@ static int rest_is_blank(const char *p, const char *end)
 }
 
 /* One lexical error per statement: later ones are side effects. */
-static void lex_error(gs_lexer *lx, gs_diag *d, gs_stmt *st, size_t off,
-                      const char *msg)
+static void lex_error(gs_stmt *st, size_t off, const char *msg)
 {
-    if (!st->bad)
-        gs_lex_report(lx, d, GS_SEV_ERROR, off, NULL, "%s", msg);
+    if (st->bad)
+        return;
     st->bad = 1;
+    st->err_off = off;
+    st->err = gs_strdup(msg);
+}
+
+void gs_lex_report_bad(const gs_lexer *lx, gs_diag *d, const gs_stmt *st)
+{
+    if (st->bad)
+        gs_lex_report(lx, d, GS_SEV_ERROR, st->err_off, NULL, "%s", st->err);
 }
 
 /* Tokens of one physical line [p, end) into statement st.  Returns 1 when
    the line ends in a continuation backslash. */
-static int lex_line(gs_lexer *lx, gs_diag *d, gs_stmt *st, const char *p,
+static int lex_line(gs_lexer *lx, gs_stmt *st, const char *p,
                     const char *end)
 {
     const char *base = lx->text;
@@ -272,8 +281,7 @@ static int lex_line(gs_lexer *lx, gs_diag *d, gs_stmt *st, const char *p,
         } else if (ch == '"') {
             q = scan_string(p, end);
             if (q == NULL) {
-                lex_error(lx, d, st, (size_t)(p - base),
-                          "unterminated string");
+                lex_error(st, (size_t)(p - base), "unterminated string");
                 return 0;
             }
             q++;
@@ -287,7 +295,7 @@ static int lex_line(gs_lexer *lx, gs_diag *d, gs_stmt *st, const char *p,
             char shown[16], msg[48];
             show_char(shown, sizeof shown, p, end);
             snprintf(msg, sizeof msg, "unexpected character '%s'", shown);
-            lex_error(lx, d, st, (size_t)(p - base), msg);
+            lex_error(st, (size_t)(p - base), msg);
             q = p + 1;
         }
         p = q;
@@ -306,6 +314,8 @@ static gs_stmt *open_stmt(gs_lexer *lx)
     st->first = lx->ntok;
     st->n = 0;
     st->bad = 0;
+    st->err_off = 0;
+    st->err = NULL;
     return st;
 }
 
@@ -322,7 +332,7 @@ static void close_stmt(gs_lexer *lx, gs_stmt *st)
     lx->nstmt++;
 }
 
-void gs_lex_run(gs_lexer *lx, gs_diag *d)
+void gs_lex_run(gs_lexer *lx)
 {
     size_t i;
     int cont = 0;
@@ -336,7 +346,7 @@ void gs_lex_run(gs_lexer *lx, gs_diag *d)
                           : lx->text + lx->len;
         if (!cont)
             st = open_stmt(lx);
-        cont = lex_line(lx, d, st, p, end);
+        cont = lex_line(lx, st, p, end);
         if (!cont || i + 1 == lx->nlines)   /* a '\\' on the last line */
             close_stmt(lx, st);
     }

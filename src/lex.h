@@ -5,8 +5,9 @@
  * backslash joining the next line, '#' starting a comment) and each
  * statement into tokens.  Tokens keep their byte offset; line and column
  * are worked out only when a message is made (gs_lex_position).  A
- * statement with a lexical error is flagged `bad` and its error is
- * reported once; the parser skips it and goes on with the next one.
+ * statement with a lexical error is flagged `bad` and keeps its first
+ * error; the parser reports it, skips the statement and goes on with the
+ * next one.
  */
 #ifndef GS_LEX_H
 #define GS_LEX_H
@@ -36,7 +37,9 @@ typedef struct gs_token {
 typedef struct gs_stmt {
     size_t first;   /* index of its first token in gs_lexer.tok */
     size_t n;       /* token count, not counting the END that follows */
-    int bad;        /* a lexical error was reported in it */
+    int bad;        /* it has a lexical error: */
+    size_t err_off; /*   where */
+    char *err;      /*   and the message (owned), see gs_lex_report_bad */
 } gs_stmt;
 
 /* Messages: with `what` NULL they are located (file:line:col); with
@@ -56,11 +59,14 @@ typedef struct gs_lexer {
 } gs_lexer;
 
 /* Borrow text[0 .. len) (it may hold NUL bytes) and file; both must
-   outlive the lexer.  Then gs_lex_run cuts it into statements, reporting
-   lexical errors in d.  gs_lex_clear frees the tokens. */
+   outlive the lexer.  Then gs_lex_run cuts it into statements; a
+   statement with a lexical error is kept, flagged bad, with its first
+   error, which gs_lex_report_bad adds to d (so that messages come in the
+   order of the file).  gs_lex_clear frees the tokens. */
 void gs_lex_init(gs_lexer *lx, const char *file, const char *what,
                  const char *text, size_t len);
-void gs_lex_run(gs_lexer *lx, gs_diag *d);
+void gs_lex_run(gs_lexer *lx);
+void gs_lex_report_bad(const gs_lexer *lx, gs_diag *d, const gs_stmt *st);
 void gs_lex_clear(gs_lexer *lx);
 
 /* 1-based line and column (in characters) of byte offset off; both 0

@@ -16,6 +16,8 @@ static const command commands[] = {
     {"derive", gs_cmd_derive},
     {"eval", gs_cmd_eval},
     {"poles", gs_cmd_poles},
+    {"bode", gs_cmd_bode},
+    {"step", gs_cmd_step},
     {"check", gs_cmd_check},
     {"extract", gs_cmd_extract},
 };

@@ -52,6 +52,7 @@ typedef struct gs_parser {
     gs_ref *refs;
     size_t nrefs, refs_alloc;
     char **dev_body;        /* per device: its b node as written, or NULL */
+    size_t title_off;       /* where the title line is */
     size_t nodes_alloc, elems_alloc, outputs_alloc, devices_alloc,
            biases_alloc;
 } gs_parser;
@@ -63,9 +64,14 @@ void *gs_grow(void *v, size_t n, size_t *alloc, size_t size);
    ("first defined at"), a reserved or dotted name, and returns the name
    id or -1.  The caller sets name_kind/name_index. */
 int gs_parser_new_name(gs_parser *p, const gs_token *t);
+/* Set what name id stands for, growing the per-name arrays. */
+void gs_parser_set_name(gs_parser *p, int id, int kind, int index,
+                        size_t off);
 /* The node written at t (created on first mention), or -1 after an
-   "expected WHAT" message. */
+   "expected WHAT" message.  gs_parser_check_node only checks the syntax
+   (GS_OK or GS_ESYNTAX, reported). */
 int gs_parser_node(gs_parser *p, const gs_token *t, const char *what);
+int gs_parser_check_node(gs_parser *p, const gs_token *t, const char *what);
 /* Is t a syntactically valid node name (an identifier or an integer)? */
 int gs_parser_is_node_token(const gs_token *t);
 /* A new element named `name`, value 1, nodes -1, ctrl -1, device -1;
@@ -81,6 +87,9 @@ void gs_parser_expected(gs_parser *p, const gs_token *t, const char *what,
 /* A zero value: "the value of resistor 'R1' is zero" at off. */
 void gs_parser_zero_value(gs_parser *p, gs_elem_kind kind, const char *name,
                           size_t off);
+
+/* resolve.c: look up every recorded gs_ref. */
+void gs_parser_resolve(gs_parser *p);
 
 /* parse_dev.c */
 int gs_parse_device(gs_parser *p, int is_bjt);

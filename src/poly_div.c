@@ -31,12 +31,18 @@
 typedef struct divstate {
     const gs_polyctx *ctx;
     const gs_poly *a, *b;
-    size_t nw;
+    size_t nw;              /* words of a poly.h exponent vector */
+    size_t kw;              /* words of a compact key (poly_heap.h) */
+    gs_ppack pk;            /* fields sized for the degrees of a */
     uint64_t *qmax, *qmin;  /* per-field bounds on quotient exponents */
     uint64_t *lmb;          /* leading monomial of b */
+    uint64_t *m;            /* scratch: a quotient monomial */
+    uint64_t *ca, *cb;      /* compact monomials of a and b */
+    uint64_t *cq;           /* compact monomials of q; also heap keys */
+    uint64_t *keys;         /* per quotient term: key of its heap entry */
+    size_t keys_alloc;      /* terms room in cq and keys */
     gs_poly q;
-    gs_pheap h;
-    uint64_t *key, *tmp, *m; /* scratch */
+    gs_pheap h;             /* slot i: quotient term i */
 } divstate;
 
 static int le_fields(const uint64_t *x, const uint64_t *y, size_t nw)
@@ -48,27 +54,27 @@ static int le_fields(const uint64_t *x, const uint64_t *y, size_t nw)
     return 1;
 }
 
+static void pack_degrees(uint64_t *e, const unsigned *d, int nvars)
+{
+    int v;
+    for (v = 0; v < nvars; v++)
+        e[v / 4] |= (uint64_t)d[v] << (48 - 16 * (v % 4));
+}
+
 /* Per-field bounds from degrees and low degrees; 0 when some variable
-   already rules the division out. */
-static int set_bounds(divstate *s)
+   already rules the division out.  da: the degrees of a. */
+static int set_bounds(divstate *s, const unsigned *da)
 {
     size_t nw = s->nw, w;
     uint64_t *amax = gs_calloc(4 * nw, 8), *bmax = amax + nw;
     uint64_t *amin = bmax + nw, *bmin = amin + nw;
+    unsigned *d = gs_malloc(((size_t)s->ctx->nvars + 1) * sizeof *d);
     int ok;
     gs_poly_monomial_content(amin, s->a, s->ctx);
     gs_poly_monomial_content(bmin, s->b, s->ctx);
-    {
-        unsigned *d = gs_malloc(((size_t)s->ctx->nvars + 1) * sizeof *d);
-        int v;
-        gs_poly_degrees(d, s->a, s->ctx);
-        for (v = 0; v < s->ctx->nvars; v++)
-            amax[v / 4] |= (uint64_t)d[v] << (48 - 16 * (v % 4));
-        gs_poly_degrees(d, s->b, s->ctx);
-        for (v = 0; v < s->ctx->nvars; v++)
-            bmax[v / 4] |= (uint64_t)d[v] << (48 - 16 * (v % 4));
-        free(d);
-    }
+    pack_degrees(amax, da, s->ctx->nvars);
+    gs_poly_degrees(d, s->b, s->ctx);
+    pack_degrees(bmax, d, s->ctx->nvars);
     ok = le_fields(bmax, amax, nw) && le_fields(bmin, amin, nw);
     if (ok)
         for (w = 0; w < nw; w++) {
@@ -76,6 +82,7 @@ static int set_bounds(divstate *s)
             s->qmin[w] = amin[w] - bmin[w];
         }
     ok = ok && le_fields(s->qmin, s->qmax, nw);
+    free(d);
     free(amax);
     return ok;
 }
@@ -91,63 +98,86 @@ static int quotient_monomial(divstate *s, const uint64_t *mono)
     return le_fields(s->m, s->qmax, s->nw) && le_fields(s->qmin, s->m, s->nw);
 }
 
-static void heap_key(uint64_t *key, const divstate *s, size_t i, size_t j)
+/* keys[i] = compact monomial of q_i b_j */
+static void heap_key(divstate *s, size_t i, size_t j)
 {
-    size_t w;
-    for (w = 0; w < s->nw; w++)
-        key[w] = s->q.exps[i * s->nw + w] + s->b->exps[j * s->nw + w];
+    size_t w, kw = s->kw;
+    for (w = 0; w < kw; w++)
+        s->keys[i * kw + w] = s->cq[i * kw + w] + s->cb[j * kw + w];
 }
 
-/* The next monomial of a - q b: the larger of a's next term and the heap
-   top.  Returns 0 when both are exhausted. */
-static int next_monomial(divstate *s, size_t ia, uint64_t *mono)
+/* The next monomial of a - q b, the larger of a's next term and the heap
+   top, as a compact key cm and in poly.h layout sm.  Returns 0 when both
+   are exhausted. */
+static int next_monomial(divstate *s, size_t ia, uint64_t *cm, uint64_t *sm)
 {
-    const uint64_t *ea = ia < s->a->length ? s->a->exps + ia * s->nw : NULL;
-    if (s->h.n > 0 && (ea == NULL
-                       || gs_pheap_cmp(gs_pheap_at(&s->h, 0), ea,
-                                       (int)s->nw) > 0))
-        memcpy(mono, gs_pheap_at(&s->h, 0), s->nw * 8);
-    else if (ea != NULL)
-        memcpy(mono, ea, s->nw * 8);
-    else
+    const uint64_t *ea = ia < s->a->length ? s->ca + ia * s->kw : NULL;
+    size_t w;
+    if (s->h.n > 0 && (ea == NULL || gs_pheap_cmp_top(&s->h, ea) >= 0)) {
+        uint64_t pl = s->h.v[0].pl;
+        size_t i = (size_t)(pl >> 32), j = (size_t)(pl & 0xFFFFFFFFu);
+        memcpy(cm, gs_pheap_key(&s->h, pl), s->kw * 8);
+        for (w = 0; w < s->nw; w++)
+            sm[w] = s->q.exps[i * s->nw + w] + s->b->exps[j * s->nw + w];
+    } else if (ea != NULL) {
+        memcpy(cm, ea, s->kw * 8);
+        memcpy(sm, s->a->exps + ia * s->nw, s->nw * 8);
+    } else {
         return 0;
+    }
     return 1;
 }
 
-/* Pop every heap entry at monomial mono, handing each (i, j) to the
-   caller's accumulator through the arrays pi, pj (n entries). */
-static size_t pop_equal(divstate *s, const uint64_t *mono, size_t *pi,
+/* does a's term ia have the compact monomial cm? */
+static int a_term_at(const divstate *s, size_t ia, const uint64_t *cm)
+{
+    return ia < s->a->length
+        && memcmp(cm, s->ca + ia * s->kw, s->kw * 8) == 0;
+}
+
+/* Pop every heap entry at compact monomial cm, handing each (i, j) to the
+   caller's accumulator through the arrays pi, pj (n entries; at most
+   len(b) - 1, one per j). */
+static size_t pop_equal(divstate *s, const uint64_t *cm, size_t *pi,
                         size_t *pj)
 {
     size_t n = 0;
-    while (s->h.n > 0 && gs_pheap_cmp(gs_pheap_at(&s->h, 0), mono,
-                                      (int)s->nw) == 0) {
-        uint64_t pl = gs_pheap_at(&s->h, 0)[s->nw];
+    while (s->h.n > 0 && gs_pheap_cmp_top(&s->h, cm) == 0) {
+        uint64_t pl = s->h.v[0].pl;
         size_t i = (size_t)(pl >> 32), j = (size_t)(pl & 0xFFFFFFFFu);
         pi[n] = i;
         pj[n++] = j;
         if (j + 1 < s->b->length) {
-            heap_key(s->key, s, i, j + 1);
-            gs_pheap_replace_top(&s->h, s->key, pl + 1);
+            heap_key(s, i, j + 1);
+            gs_pheap_replace_top(&s->h, pl + 1);
         } else {
-            gs_pheap_pop(&s->h, s->tmp);
+            gs_pheap_pop(&s->h);
         }
     }
     return n;
 }
 
-/* Append quotient term (coefficient set by the caller) and queue it. */
-static gs_int *add_quotient_term(divstate *s)
+/* Append the quotient term with monomial s->m (compact: cm - lm(b)),
+   coefficient set by the caller, and queue q_i b_1. */
+static gs_int *add_quotient_term(divstate *s, const uint64_t *cm)
 {
-    size_t i = s->q.length;
+    size_t i = s->q.length, w, kw = s->kw;
     gs_poly_fit(&s->q, i + 1, s->ctx);
     memcpy(s->q.exps + i * s->nw, s->m, s->nw * 8);
     gs_int_init(&s->q.coeffs[i]);
     s->q.length++;
     assert(i < ((size_t)1 << 31));
+    if (i == s->keys_alloc) {
+        s->keys_alloc = 2 * s->keys_alloc;
+        s->cq = gs_reallocarray(s->cq, s->keys_alloc, kw * 8);
+        s->keys = gs_reallocarray(s->keys, s->keys_alloc, kw * 8);
+        s->h.keys = s->keys;
+    }
+    for (w = 0; w < kw; w++)        /* lm(b) divides: no borrows */
+        s->cq[i * kw + w] = cm[w] - s->cb[w];
     if (s->b->length > 1) {
-        heap_key(s->key, s, i, 1);
-        gs_pheap_push(&s->h, s->key, ((uint64_t)i << 32) | 1);
+        heap_key(s, i, 1);
+        gs_pheap_push(&s->h, ((uint64_t)i << 32) | 1);
     }
     return &s->q.coeffs[i];
 }
@@ -174,7 +204,7 @@ static int div_small(divstate *s, size_t *pi, size_t *pj)
     const gs_poly *a = s->a, *b = s->b;
     int64_t *qc = NULL, lcb = gs_int_get_si(&b->coeffs[0]);
     size_t qalloc = 0, ia = 0, bb = 0, bq = 0, lg = 0, k, n;
-    uint64_t *mono = gs_malloc(s->nw * 8);
+    uint64_t *mono = gs_malloc((s->nw + s->kw) * 8), *cm = mono + s->nw;
     int64_t *bc = gs_malloc(b->length * sizeof *bc);
     int rc = 1;
     for (k = 0; k < b->length; k++) {
@@ -184,12 +214,11 @@ static int div_small(divstate *s, size_t *pi, size_t *pj)
     }
     while (((size_t)1 << lg) < b->length)
         lg++;
-    while (next_monomial(s, ia, mono)) {
+    while (next_monomial(s, ia, cm, mono)) {
         gs_i128 acc = 0, qq;
-        if (ia < a->length && memcmp(mono, a->exps + ia * s->nw,
-                                     s->nw * 8) == 0)
+        if (a_term_at(s, ia, cm))
             acc = gs_int_get_si(&a->coeffs[ia++]);
-        n = pop_equal(s, mono, pi, pj);
+        n = pop_equal(s, cm, pi, pj);
         for (k = 0; k < n; k++)
             acc -= (gs_i128)qc[pi[k]] * bc[pj[k]];
         if (acc == 0)
@@ -211,7 +240,7 @@ static int div_small(divstate *s, size_t *pi, size_t *pj)
             qc = gs_reallocarray(qc, qalloc, sizeof *qc);
         }
         qc[s->q.length] = (int64_t)qq;
-        gs_int_set_si(add_quotient_term(s), (int64_t)qq);
+        gs_int_set_si(add_quotient_term(s, cm), (int64_t)qq);
     }
     free(qc);
     free(bc);
@@ -225,17 +254,16 @@ static int div_big(divstate *s, size_t *pi, size_t *pj)
 {
     const gs_poly *a = s->a, *b = s->b;
     size_t ia = 0, k, n;
-    uint64_t *mono = gs_malloc(s->nw * 8);
+    uint64_t *mono = gs_malloc((s->nw + s->kw) * 8), *cm = mono + s->nw;
     gs_int acc, qq;
     int rc = 1;
     gs_int_init(&acc);
     gs_int_init(&qq);
-    while (next_monomial(s, ia, mono)) {
+    while (next_monomial(s, ia, cm, mono)) {
         gs_int_set_si(&acc, 0);
-        if (ia < a->length && memcmp(mono, a->exps + ia * s->nw,
-                                     s->nw * 8) == 0)
+        if (a_term_at(s, ia, cm))
             gs_int_set(&acc, &a->coeffs[ia++]);
-        n = pop_equal(s, mono, pi, pj);
+        n = pop_equal(s, cm, pi, pj);
         for (k = 0; k < n; k++)
             gs_int_submul(&acc, &s->q.coeffs[pi[k]], &b->coeffs[pj[k]]);
         if (gs_int_is_zero(&acc))
@@ -245,7 +273,7 @@ static int div_big(divstate *s, size_t *pi, size_t *pj)
             rc = 0;
             break;
         }
-        gs_int_swap(add_quotient_term(s), &qq);
+        gs_int_swap(add_quotient_term(s, cm), &qq);
     }
     gs_int_clear(&acc);
     gs_int_clear(&qq);
@@ -264,22 +292,44 @@ static int all_small(const gs_poly *p)
 }
 #endif
 
-static void state_init(divstate *s, const gs_poly *a, const gs_poly *b,
-                       const gs_polyctx *ctx)
+static uint64_t *pack_all(const gs_ppack *pk, const gs_poly *p, size_t nw)
 {
+    size_t i, kw = (size_t)pk->nw;
+    uint64_t *c = gs_malloc((p->length + 1) * kw * 8);
+    for (i = 0; i < p->length; i++)
+        gs_ppack_pack(pk, c + i * kw, p->exps + i * nw);
+    return c;
+}
+
+/* Returns 0 when the degree bounds already rule the division out. */
+static int state_init(divstate *s, const gs_poly *a, const gs_poly *b,
+                      const gs_polyctx *ctx)
+{
+    unsigned *da = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *da);
+    int ok;
     s->ctx = ctx;
     s->a = a;
     s->b = b;
     s->nw = (size_t)ctx->nwords;
-    s->qmax = gs_malloc(6 * s->nw * 8 + 16);
+    s->qmax = gs_malloc(4 * s->nw * 8);
     s->qmin = s->qmax + s->nw;
     s->lmb = s->qmin + s->nw;
     s->m = s->lmb + s->nw;
-    s->key = s->m + s->nw;
-    s->tmp = s->key + s->nw;    /* nw + 1 words */
     memcpy(s->lmb, b->exps, s->nw * 8);
+    gs_poly_degrees(da, a, ctx);
+    ok = set_bounds(s, da);
+    gs_ppack_init(&s->pk, da, ctx->nvars);   /* every key is <= deg a */
+    s->kw = (size_t)s->pk.nw;
+    s->ca = ok ? pack_all(&s->pk, a, s->nw) : NULL;
+    s->cb = ok ? pack_all(&s->pk, b, s->nw) : NULL;
+    s->keys_alloc = 16;
+    s->cq = gs_malloc(s->keys_alloc * s->kw * 8);
+    s->keys = gs_malloc(s->keys_alloc * s->kw * 8);
     gs_poly_init(&s->q);
-    gs_pheap_init(&s->h, ctx->nwords, 16);
+    gs_pheap_init(&s->h, (int)s->kw, 16);
+    s->h.keys = s->keys;
+    free(da);
+    return ok;
 }
 
 static void state_restart(divstate *s)
@@ -291,6 +341,11 @@ static void state_restart(divstate *s)
 static void state_clear(divstate *s)
 {
     free(s->qmax);
+    free(s->ca);
+    free(s->cb);
+    free(s->cq);
+    free(s->keys);
+    gs_ppack_clear(&s->pk);
     gs_poly_clear(&s->q);
     gs_pheap_clear(&s->h);
 }
@@ -309,10 +364,9 @@ int gs_poly_divexact(gs_poly *q, const gs_poly *a, const gs_poly *b,
         gs_poly_zero(q);
         return GS_OK;
     }
-    state_init(&s, a, b, ctx);
     pi = gs_malloc(2 * (b->length + 1) * sizeof *pi);
     pj = pi + b->length + 1;
-    if (!set_bounds(&s)) {
+    if (!state_init(&s, a, b, ctx)) {
         rc = 0;
     } else {
 #if GS_HAVE_I128

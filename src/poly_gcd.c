@@ -533,24 +533,18 @@ static void zctx_refresh_fixed(zctx *z)
             z->pt.val[v] = gs_nmod_random_nonzero(z->rng, z->p);
 }
 
-/* h = the image of G at the current point: gamma(point) times the monic
-   gcd of the images.  R_UNLUCKY when gamma vanishes or the degree is too
-   high; R_LOWER when it is lower than dx, which then becomes the bound
-   (rigorous: gamma(point) != 0 keeps the degree of g's image). */
-static int zimage(gs_nmod_poly *h, zctx *z)
+/* h = the image of G from the images of a, b and gamma in z->ax, z->bx,
+   z->gx: gamma(point) times the monic gcd.  R_UNLUCKY when gamma vanishes
+   or the degree is too high; R_LOWER when it is lower than dx, which then
+   becomes the bound (rigorous: gamma(point) != 0 keeps the degree of g's
+   image). */
+static int zimage_finish(gs_nmod_poly *h, zctx *z)
 {
-    uint64_t p = z->p, gam;
+    uint64_t gam = gs_nmod_poly_get(&z->gx, 0);
     long d;
-    pts_fill(&z->pt, p);
-    tab_eval(&z->gx, &z->tg, &z->pt, p);
-    gam = gs_nmod_poly_get(&z->gx, 0);
-    if (gam == 0)
+    if (gam == 0 || z->ax.len == 0 || z->bx.len == 0)
         return R_UNLUCKY;
-    tab_eval(&z->ax, &z->ta, &z->pt, p);
-    tab_eval(&z->bx, &z->tb, &z->pt, p);
-    if (z->ax.len == 0 || z->bx.len == 0)
-        return R_UNLUCKY;
-    gs_nmod_poly_gcd(h, &z->ax, &z->bx, p);
+    gs_nmod_poly_gcd(h, &z->ax, &z->bx, z->p);
     d = gs_nmod_poly_degree(h);
     if (d > z->dx)
         return R_UNLUCKY;
@@ -558,8 +552,18 @@ static int zimage(gs_nmod_poly *h, zctx *z)
         z->dx = d;
         return R_LOWER;
     }
-    gs_nmod_poly_scale(h, h, gam, p);
+    gs_nmod_poly_scale(h, h, gam, z->p);
     return R_OK;
+}
+
+/* the image of G at the current point */
+static int zimage(gs_nmod_poly *h, zctx *z)
+{
+    pts_fill(&z->pt, z->p);
+    tab_eval(&z->gx, &z->tg, &z->pt, z->p);
+    tab_eval(&z->ax, &z->ta, &z->pt, z->p);
+    tab_eval(&z->bx, &z->tb, &z->pt, z->p);
+    return zimage_finish(h, z);
 }
 
 static int in_list(const uint64_t *xs, long n, uint64_t v)
@@ -725,23 +729,88 @@ static void monomial_values(uint64_t *v, const spoly *G, const uint64_t *zeta,
     }
 }
 
+/* A run of images at y_l = zeta_l^t: a term's value at step t is its
+   value at step t - 1 times its monomial in the zeta's, so each image
+   costs one product per term instead of one per factor. */
+typedef struct {
+    uint64_t *cur;      /* value of each term at the last step */
+    uint64_t *rat;      /* its monomial at zeta */
+} run;
+
+/* monomial of term i at the point, without the coefficient */
+static uint64_t term_monomial(const tab *t, size_t i, const pts *pt,
+                              uint64_t p)
+{
+    uint64_t v = 1;
+    size_t k;
+    for (k = t->off[i]; k < t->off[i + 1]; k++)
+        v = gs_nmod_mul(v, pt->pw[pt->base[t->var[k]] + t->exp[k]], p);
+    return v;
+}
+
+/* cur = values with the zeta variables at 1, rat = monomials at zeta
+   with everything else at 1; pt.val is left as it was */
+static void runs_init(run *rs, tab **ts, int nts, const uint64_t *zeta,
+                      int nz, zctx *z)
+{
+    int nv = z->pt.nvars, l, k;
+    uint64_t *save = gs_malloc((size_t)(nv > 0 ? nv : 1) * sizeof *save);
+    size_t i;
+    memcpy(save, z->pt.val, (size_t)nv * sizeof *save);
+    for (l = 0; l < nz; l++)
+        z->pt.val[z->y[l]] = 1;
+    pts_fill(&z->pt, z->p);
+    for (k = 0; k < nts; k++) {
+        rs[k].cur = gs_malloc((ts[k]->n + 1) * sizeof *rs[k].cur);
+        rs[k].rat = gs_malloc((ts[k]->n + 1) * sizeof *rs[k].rat);
+        for (i = 0; i < ts[k]->n; i++)
+            rs[k].cur[i] = term_value(ts[k], i, &z->pt, z->p);
+    }
+    for (l = 0; l < nv; l++)
+        z->pt.val[l] = 1;
+    for (l = 0; l < nz; l++)
+        z->pt.val[z->y[l]] = zeta[l];
+    pts_fill(&z->pt, z->p);
+    for (k = 0; k < nts; k++)
+        for (i = 0; i < ts[k]->n; i++)
+            rs[k].rat[i] = term_monomial(ts[k], i, &z->pt, z->p);
+    memcpy(z->pt.val, save, (size_t)nv * sizeof *save);
+    free(save);
+}
+
+static void run_step(gs_nmod_poly *r, run *rs, const tab *t, uint64_t p)
+{
+    size_t i;
+    gs_nmod_poly_zero_len(r, t->xdeg + 1);
+    for (i = 0; i < t->n; i++) {
+        rs->cur[i] = gs_nmod_mul(rs->cur[i], rs->rat[i], p);
+        r->c[t->xd[i]] = gs_nmod_add(r->c[t->xd[i]], rs->cur[i], p);
+    }
+    gs_nmod_poly_normalise(r);
+}
+
 /* Images at y_l = zeta_l^t (l < nz) for t = 1 .. nt. */
 static int power_images(gs_nmod_poly *H, long nt, const uint64_t *zeta,
                         int nz, zctx *z)
 {
-    uint64_t *cur = gs_malloc((size_t)(nz > 0 ? nz : 1) * sizeof *cur);
+    tab *ts[3];
+    run rs[3];
     long t;
-    int l, r = R_OK;
-    for (l = 0; l < nz; l++)
-        cur[l] = 1;
+    int k, r = R_OK;
+    ts[0] = &z->tg;
+    ts[1] = &z->ta;
+    ts[2] = &z->tb;
+    runs_init(rs, ts, 3, zeta, nz, z);
     for (t = 0; t < nt && r == R_OK; t++) {
-        for (l = 0; l < nz; l++) {
-            cur[l] = gs_nmod_mul(cur[l], zeta[l], z->p);
-            z->pt.val[z->y[l]] = cur[l];
-        }
-        r = zimage(&H[t], z);
+        run_step(&z->gx, &rs[0], ts[0], z->p);
+        run_step(&z->ax, &rs[1], ts[1], z->p);
+        run_step(&z->bx, &rs[2], ts[2], z->p);
+        r = zimage_finish(&H[t], z);
     }
-    free(cur);
+    for (k = 0; k < 3; k++) {
+        free(rs[k].cur);
+        free(rs[k].rat);
+    }
     return r;
 }
 

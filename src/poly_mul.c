@@ -52,7 +52,8 @@ static unsigned get_exp(const uint64_t *e, int var)
 typedef struct side {
     size_t nterms, nblocks;
     size_t *start;          /* block k is terms start[k] .. start[k+1]-1 */
-    uint64_t *key;          /* nblocks * nw: prefix exponents */
+    uint64_t *skey;         /* nblocks * nw: prefix exponents */
+    uint64_t *key;          /* nblocks * kw: the same, compact */
     uint32_t *idx;          /* per term: dense index of suffix exponents */
     int64_t *small;         /* per term coefficient, or NULL */
     const gs_int *coeffs;
@@ -61,13 +62,16 @@ typedef struct side {
 typedef struct mulstate {
     const gs_polyctx *ctx;
     int nw, m;
+    int kw;                 /* words of a compact prefix key */
+    gs_ppack pk;            /* compact prefix keys for the heap */
     size_t dsize;           /* entries of the dense accumulator */
     unsigned *radix;        /* nvars */
     size_t *stride;         /* nvars; suffix variables only */
     uint64_t *premask;      /* nw words: all-ones fields over the prefix */
     side a, b;
     gs_poly out;
-    uint64_t *cur;          /* nw: prefix of the block being produced */
+    uint64_t *cur;          /* kw: compact prefix of the current block */
+    uint64_t *cur_std;      /* nw: the same prefix, poly.h layout */
     gs_int tmp;
 } mulstate;
 
@@ -160,18 +164,21 @@ static void side_build(side *s, const gs_poly *p, const mulstate *st,
     int v, nvars = st->ctx->nvars;
     s->nterms = n;
     s->start = gs_malloc((n + 1) * sizeof *s->start);
-    s->key = gs_malloc((n + 1) * nw * 8);
+    s->skey = gs_malloc((n + 1) * nw * 8);
+    s->key = gs_malloc((n + 1) * (size_t)st->kw * 8);
     s->idx = gs_malloc((n + 1) * sizeof *s->idx);
     s->small = small ? gs_malloc((n + 1) * sizeof *s->small) : NULL;
     s->coeffs = p->coeffs;
     for (i = 0; i < n; i++) {
         const uint64_t *e = p->exps + i * nw;
-        uint64_t *k = s->key + nb * nw;
+        uint64_t *k = s->skey + nb * nw;
         size_t x = 0;
         for (w = 0; w < nw; w++)
             k[w] = e[w] & st->premask[w];
-        if (nb == 0 || memcmp(k - nw, k, nw * 8) != 0)
+        if (nb == 0 || memcmp(k - nw, k, nw * 8) != 0) {
+            gs_ppack_pack(&st->pk, s->key + nb * (size_t)st->kw, k);
             s->start[nb++] = i;
+        }
         for (v = st->m; v < nvars; v++)
             x += get_exp(e, v) * st->stride[v];
         s->idx[i] = (uint32_t)x;
@@ -185,6 +192,7 @@ static void side_build(side *s, const gs_poly *p, const mulstate *st,
 static void side_free(side *s)
 {
     free(s->start);
+    free(s->skey);
     free(s->key);
     free(s->idx);
     free(s->small);
@@ -201,7 +209,7 @@ static gs_int *emit(mulstate *st, size_t k)
     gs_poly_fit(o, o->length + 1, st->ctx);
     e = o->exps + o->length * nw;
     for (w = 0; w < nw; w++)
-        e[w] = st->cur[w];
+        e[w] = st->cur_std[w];
     if (st->dsize > 1)
         for (v = st->m; v < st->ctx->nvars; v++) {
             uint64_t d = (k / st->stride[v]) % st->radix[v];
@@ -274,32 +282,46 @@ static void flush_big(mulstate *st, gs_int *acc, size_t lo, size_t hi)
             gs_int_swap(emit(st, k), &acc[k]);
 }
 
-static void pair_key(uint64_t *key, const mulstate *st, size_t i, size_t j)
+/* keys[i] = compact prefix of a's block i plus that of b's block j */
+static void pair_key(uint64_t *keys, const mulstate *st, size_t i, size_t j)
 {
-    const uint64_t *x = st->a.key + i * (size_t)st->nw;
-    const uint64_t *y = st->b.key + j * (size_t)st->nw;
+    const uint64_t *x = st->a.key + i * (size_t)st->kw;
+    const uint64_t *y = st->b.key + j * (size_t)st->kw;
+    uint64_t *k = keys + i * (size_t)st->kw;
+    int w;
+    for (w = 0; w < st->kw; w++)
+        k[w] = x[w] + y[w];
+}
+
+/* cur_std = the prefix of the block pair (i, j), poly.h layout */
+static void pair_std(mulstate *st, size_t i, size_t j)
+{
+    const uint64_t *x = st->a.skey + i * (size_t)st->nw;
+    const uint64_t *y = st->b.skey + j * (size_t)st->nw;
     int w;
     for (w = 0; w < st->nw; w++)
-        key[w] = x[w] + y[w];
+        st->cur_std[w] = x[w] + y[w];
 }
 
 /* Pop every block pair of the top prefix, accumulate it, queue its
    successors; then write out that output block.  acc is the dense
-   accumulator of the chosen kind. */
+   accumulator of the chosen kind.  Heap slot i is a's block i. */
 static void mul_loop(mulstate *st, void *acc, int small)
 {
     gs_pheap h;
-    uint64_t *key = gs_malloc(((size_t)st->nw + 1) * 8 * 2), *tmp;
     const side *a = &st->a, *b = &st->b;
-    tmp = key + st->nw + 1;
-    gs_pheap_init(&h, st->nw, a->nblocks + 1);
-    pair_key(key, st, 0, 0);
-    gs_pheap_push(&h, key, 0);
+    uint64_t *keys = gs_malloc((a->nblocks + 1) * (size_t)st->kw * 8);
+    gs_pheap_init(&h, st->kw, a->nblocks + 1);
+    h.keys = keys;
+    pair_key(keys, st, 0, 0);
+    gs_pheap_push(&h, 0);
     while (h.n > 0) {
         size_t lo = SIZE_MAX, hi = 0;
-        memcpy(st->cur, gs_pheap_at(&h, 0), (size_t)st->nw * 8);
+        uint64_t top = h.v[0].pl;
+        memcpy(st->cur, gs_pheap_key(&h, top), (size_t)st->kw * 8);
+        pair_std(st, (size_t)(top >> 32), (size_t)(top & 0xFFFFFFFFu));
         do {
-            uint64_t pl = gs_pheap_at(&h, 0)[st->nw];
+            uint64_t pl = h.v[0].pl;
             size_t i = (size_t)(pl >> 32), j = (size_t)(pl & 0xFFFFFFFFu);
             size_t l = a->idx[a->start[i + 1] - 1] + b->idx[b->start[j + 1] - 1];
             size_t u = a->idx[a->start[i]] + b->idx[b->start[j]];
@@ -312,17 +334,16 @@ static void mul_loop(mulstate *st, void *acc, int small)
             lo = l < lo ? l : lo;
             hi = u > hi ? u : hi;
             if (j + 1 < b->nblocks) {
-                pair_key(key, st, i, j + 1);
-                gs_pheap_replace_top(&h, key, pl + 1);
+                pair_key(keys, st, i, j + 1);
+                gs_pheap_replace_top(&h, pl + 1);
             } else {
-                gs_pheap_pop(&h, tmp);
+                gs_pheap_pop(&h);
             }
             if (j == 0 && i + 1 < a->nblocks) {
-                pair_key(key, st, i + 1, 0);
-                gs_pheap_push(&h, key, (uint64_t)(i + 1) << 32);
+                pair_key(keys, st, i + 1, 0);
+                gs_pheap_push(&h, (uint64_t)(i + 1) << 32);
             }
-        } while (h.n > 0 && gs_pheap_cmp(gs_pheap_at(&h, 0), st->cur,
-                                         st->nw) == 0);
+        } while (h.n > 0 && gs_pheap_cmp_top(&h, st->cur) == 0);
 #if GS_HAVE_I128
         if (small)
             flush_small(st, acc, lo, hi);
@@ -331,7 +352,7 @@ static void mul_loop(mulstate *st, void *acc, int small)
             flush_big(st, acc, lo, hi);
     }
     gs_pheap_clear(&h);
-    free(key);
+    free(keys);
 }
 
 /* Can a 128-bit accumulator hold every coefficient sum?  |a_i| < 2^ba,
@@ -369,7 +390,7 @@ static void state_init(mulstate *st, const gs_polyctx *ctx, int m,
     st->radix = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *st->radix);
     st->stride = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *st->stride);
     st->premask = gs_calloc((size_t)st->nw, 8);
-    st->cur = gs_malloc((size_t)st->nw * 8);
+    st->cur_std = gs_malloc((size_t)st->nw * 8);
     for (v = ctx->nvars - 1; v >= 0; v--) {
         st->radix[v] = radix[v];
         st->stride[v] = v >= m ? d : 0;
@@ -380,6 +401,15 @@ static void state_init(mulstate *st, const gs_polyctx *ctx, int m,
                 (uint64_t)0xFFFFu << field_shift(v);
     }
     st->dsize = d;
+    {
+        unsigned *maxv = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *maxv);
+        for (v = 0; v < ctx->nvars; v++)
+            maxv[v] = v < m ? radix[v] - 1 : 0;
+        gs_ppack_init(&st->pk, maxv, ctx->nvars);
+        free(maxv);
+    }
+    st->kw = st->pk.nw;
+    st->cur = gs_malloc((size_t)st->kw * 8);
     gs_poly_init(&st->out);
     gs_int_init(&st->tmp);
 }
@@ -392,6 +422,8 @@ static void state_clear(mulstate *st)
     free(st->stride);
     free(st->premask);
     free(st->cur);
+    free(st->cur_std);
+    gs_ppack_clear(&st->pk);
     gs_poly_clear(&st->out);
     gs_int_clear(&st->tmp);
 }

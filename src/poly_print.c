@@ -299,28 +299,50 @@ static int parse_term(parser *p, gs_poly *r)
     return rc;
 }
 
+/* Move the terms of t, negated if neg, onto the end of r, unsorted. */
+static void append_terms(gs_poly *r, gs_poly *t, int neg,
+                         const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords;
+    gs_poly_fit(r, r->length + t->length, ctx);
+    memcpy(r->exps + r->length * nw, t->exps, t->length * nw * 8);
+    for (i = 0; i < t->length; i++) {
+        gs_int *c = &r->coeffs[r->length + i];
+        gs_int_init(c);
+        gs_int_swap(c, &t->coeffs[i]);
+        if (neg)
+            gs_int_neg(c, c);
+    }
+    r->length += t->length;
+    gs_poly_zero(t);
+}
+
+/* A long sum is collected unsorted and put in order once at the end:
+   adding term by term would take quadratic time. */
 static int parse_expr(parser *p, gs_poly *r)
 {
-    gs_poly t;
-    int rc = parse_term(p, r);
+    gs_poly t, sum;
+    int rc, neg = 0;
     gs_poly_init(&t);
-    while (rc == GS_OK) {
-        int sub;
+    gs_poly_init(&sum);
+    for (;;) {
+        rc = parse_term(p, &t);
+        if (rc != GS_OK)
+            break;
+        append_terms(&sum, &t, neg, p->ctx);
         if (accept(p, "+"))
-            sub = 0;
+            neg = 0;
         else if (accept(p, "-"))
-            sub = 1;
+            neg = 1;
         else
             break;
-        rc = parse_term(p, &t);
-        if (rc == GS_OK) {
-            if (sub)
-                gs_poly_sub(r, r, &t, p->ctx);
-            else
-                gs_poly_add(r, r, &t, p->ctx);
-        }
+    }
+    if (rc == GS_OK) {
+        gs_poly_canonicalise(&sum, p->ctx);
+        gs_poly_swap(r, &sum);
     }
     gs_poly_clear(&t);
+    gs_poly_clear(&sum);
     return rc;
 }
 

@@ -176,6 +176,6 @@ void gs_print_json(FILE *out, const gs_tf *tf, int collect_var)
     put_poly(out, &tf->den, collect_var, tf->ctx);
     fputs(", \"text\": ", out);
     json_str(out, text);
-    fputs("}\n", out);
+    fputc('}', out);
     free(text);
 }

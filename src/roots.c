@@ -36,6 +36,7 @@ typedef long double complex ldc;
 #define MAX_POLISH 60           /* polishing passes over all roots */
 #define UNIT_ROUNDOFF (LDBL_EPSILON / 2)
 #define COEF_ULPS 8             /* assumed coefficient uncertainty, ulps */
+#define STALL 1e-12L            /* relative size of a stalled correction */
 #define PI_L 3.141592653589793238462643383279502884L
 /* Dekker's splitting constant 2^ceil(p/2) + 1 */
 #define SPLITTER (1.0L + (long double)(1ULL << ((LDBL_MANT_DIG + 1) / 2)))
@@ -192,24 +193,35 @@ static void initial_guesses(ldc *z, const long double *b, int n)
 static int aberth(ldc *z, const long double *b, int n)
 {
     char *done = gs_calloc((size_t)n, 1);
+    long double *last = gs_malloc((size_t)n * sizeof *last);
     int ndone = 0, sweep;
 
+    for (int i = 0; i < n; i++)
+        last[i] = INFINITY;
     for (sweep = 0; sweep < MAX_SWEEPS && ndone < n; sweep++) {
         for (int i = 0; i < n; i++) {
             int small;
             if (done[i])
                 continue;
             ldc r = newton_ratio(b, n, z[i], &small);
+            if (!small && isfinite(creall(r)) && isfinite(cimagl(r))) {
+                ldc w = aberth_step(r, z, n, i);
+                z[i] -= w;
+                /* a correction that no longer shrinks, though already
+                   tiny, means rounding noise: arithmetic coarser than
+                   LDBL_EPSILON promises ends here, not at MAX_SWEEPS */
+                small = cabsl(w) >= last[i] && cabsl(w) < STALL * cabsl(z[i]);
+                last[i] = cabsl(w);
+            } else if (!small) {    /* p'(z) = 0: step off the critical point */
+                z[i] = cmul(z[i], mk(1, 1e-3L)) + mk(0, 1e-30L);
+            }
             if (small) {
                 done[i] = 1;
                 ndone++;
-            } else if (isfinite(creall(r)) && isfinite(cimagl(r))) {
-                z[i] -= aberth_step(r, z, n, i);
-            } else {        /* p'(z) = 0: nudge off the critical point */
-                z[i] = cmul(z[i], mk(1, 1e-3L)) + mk(0, 1e-30L);
             }
         }
     }
+    free(last);
     free(done);
     return ndone == n ? sweep : -1;
 }
@@ -372,6 +384,10 @@ static int polish(ldc *z, const long double *q, int n)
 
 #define CLUSTER_SLACK 2
 #define MAX_CLUSTER 32
+/* A cluster wider than this, relative, is not a multiple root but a
+   badly conditioned stretch of roots (a Butterworth polynomial of degree
+   64 in coefficient form, say): eps^(1/m) stays below it up to m = 16. */
+#define CLUSTER_MAX 0.05L
 
 typedef struct near_root {
     long double d;
@@ -431,7 +447,8 @@ static int cluster_about(long double *rad, near_root *near, const ldc *z,
     *rad = n * cluster_rho(&spread, z, near, 1, q, n);
     for (int m = 2; m <= top; m++) {
         long double rho = cluster_rho(&spread, z, near, m, q, n);
-        if (spread <= CLUSTER_SLACK * rho) {
+        if (spread <= CLUSTER_SLACK * rho
+            && CLUSTER_SLACK * rho <= CLUSTER_MAX * cabsl(z[i])) {
             best = m;
             *rad = spread + CLUSTER_SLACK * rho;
         }
@@ -474,15 +491,30 @@ static void analyse(int *mult, long double *rad, const ldc *z,
     free(near);
 }
 
-/* Make roots whose disk meets the real axis real, and pair the others as
-   exact conjugates: a real polynomial's roots are symmetric. */
-static void symmetrize(ldc *z, const long double *rad, int n)
+static long double backward_error(const long double *q, int n, ldc z)
+{
+    ldc p, dp;
+    horner2_dw(&p, &dp, q, n, z);
+    return cabsl(p) / abs_poly(q, n, cabsl(z));
+}
+
+/* Make real the roots whose error disk meets the real axis, if the disk
+   is a useful bound and that keeps their backward error at rounding
+   level, and pair the others as exact conjugates: a real polynomial's
+   roots are symmetric. */
+static void symmetrize(ldc *z, const long double *rad, const long double *q,
+                       int n)
 {
     char *used = gs_calloc((size_t)n, 1);
 
-    for (int i = 0; i < n; i++)
-        if (fabsl(cimagl(z[i])) <= rad[i] || cimagl(z[i]) == 0)
-            z[i] = mk(creall(z[i]), 0);
+    for (int i = 0; i < n; i++) {
+        ldc x = mk(creall(z[i]), 0);
+        if (cimagl(z[i]) == 0 || (fabsl(cimagl(z[i])) <= rad[i]
+            && rad[i] <= CLUSTER_MAX * cabsl(z[i])
+            && backward_error(q, n, x) <= fmaxl(64 * LDBL_EPSILON,
+                                                backward_error(q, n, z[i]))))
+            z[i] = x;
+    }
     for (int i = 0; i < n; i++) {
         int best = -1;
         long double bd = INFINITY;
@@ -575,7 +607,7 @@ static int nonzero_roots(ldc *z, const long double *q, int n,
                   ldexpl(cimagl(z[i]), info->scale_exp));
     info->polish_steps = polish(z, q, n);
     analyse(NULL, rad, z, q, n);
-    symmetrize(z, rad, n);
+    symmetrize(z, rad, q, n);
     free(rad);
     free(b);
     return info->converged ? 0 : -1;

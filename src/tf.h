@@ -47,7 +47,8 @@ void gs_print_text(FILE *out, const gs_tf *tf, int collect_var);
    caller frees. */
 char *gs_tf_get_str(const gs_tf *tf, int collect_var);
 /* The fraction drawn in 2-D text: numerator centred over a rule over the
-   denominator, "Av = " at the rule's height; grouped by powers. */
+   denominator, "Av = " at the rule's height; grouped by powers.  Lines
+   are wrapped between terms to stay within 79 columns. */
 void gs_print_pretty(FILE *out, const gs_tf *tf, int collect_var);
 /* A LaTeX equation environment with \frac, subscripted symbols
    (gs_symtab_latex), powers of collect_var collected. */
@@ -55,10 +56,13 @@ void gs_print_latex(FILE *out, const gs_tf *tf, int collect_var);
 /* A self-contained C99 function
    `double complex NAME(double complex s, const struct NAME_params *p)`
    preceded by the struct of its parameters (one double per symbol other
-   than s, in symbol order) and #include <complex.h>; coefficients are
-   exact integers written as double literals. */
+   than s that occurs in num or den, in symbol order; names mangled into
+   C identifiers) and #include <complex.h>; N and D by Horner's rule in
+   s (the Laplace variable, whatever its name), coefficients the exact
+   integers written as double literals. */
 void gs_print_c(FILE *out, const gs_tf *tf);
-/* One JSON object on one line (docs/json.md): {"name", "kind",
+/* One JSON object on one line, with no newline after it, so that a
+   caller can join several into an array (docs/json.md): {"name", "kind",
    "description", "s", "collect", "symbols": [...],
    "num": [{"power": k, "terms": [{"coeff": "-3", "exps": {"gm": 1}}]}],
    "den": [...], "text": "..."}.  Coefficients as exact strings. */

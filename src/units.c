@@ -4,6 +4,7 @@
 #include "mem.h"
 
 #include <ctype.h>
+#include <errno.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -124,9 +125,10 @@ static int decimal_value(long double *v, const decimal *x, long shift)
     if (x->len > 4096)
         return SCAN_RANGE;
     buf = gs_asprintf("%.*se%ld", (int)x->len, x->start, x->exp + shift);
+    errno = 0;
     r = strtold(buf, &end);
     free(buf);
-    if (!isfinite(r) || (r == 0 && has_nonzero_digit(x)))
+    if (errno == ERANGE || !isfinite(r) || (r == 0 && has_nonzero_digit(x)))
         return SCAN_RANGE;
     *v = r;
     return SCAN_OK;

@@ -11,7 +11,8 @@
 build=${1:-build}
 name=latex_check.sh
 if ! command -v pdflatex >/dev/null 2>&1; then
-    echo "*** SKIPPED $name: pdflatex not found (apt-get install texlive-latex-base) ***"
+    echo "*** SKIPPED $name: pdflatex not found" \
+        "(apt-get install texlive-latex-base) ***"
     echo "$name: 0 passed, 0 failed"
     exit 0
 fi

@@ -15,7 +15,7 @@
 #include "gainsmith.h"
 #include "int.h"
 
-/* ---- helpers ------------------------------------------------------------ */
+/* ---- test utilities ----------------------------------------------------- */
 
 static uint64_t seed = 20240601u;
 static uint64_t rng_state;
@@ -90,7 +90,10 @@ static void random_int(gs_int *r, int maxn)
                                        0xffffffffu, 0xfffffffeu};
     uint32_t l[64];
     int n, i;
-    n = (rnd() % 4 == 0) ? (int)(rnd() % 4) : (int)(rnd() % (uint64_t)(maxn + 1));
+    if (rnd() % 4 == 0)
+        n = (int)(rnd() % 4);
+    else
+        n = (int)(rnd() % (uint64_t)(maxn + 1));
     for (i = 0; i < n; i++)
         l[i] = rnd() % 5 == 0 ? special[rnd() % 6] : (uint32_t)rnd();
     from_limbs(r, l, n, (int)(rnd() & 1));
@@ -169,10 +172,57 @@ static void test_small_big_transitions(void)
             gs_int_mul(&c, &c, &a);
             gs_int_set_si(&b, 1);
             gs_int_mul_2exp(&b, &b, 64ul * (unsigned long)k);
-            CHECK_MSG(gs_int_equal(&b, &c) && gs_int_bits(&c) == 64u * k + 1,
-                      "k = %d", k);
+            CHECK_MSG(gs_int_equal(&b, &c)
+                      && gs_int_bits(&c) == 64 * (size_t)k + 1, "k = %d", k);
         }
     }
+    gs_int_clear(&a);
+    gs_int_clear(&b);
+    gs_int_clear(&c);
+}
+
+/* Borrows and carries across limb boundaries; 2^96 and 2^128 are known
+   values (2^96 = 79228162514264337593543950336, 2^128 =
+   340282366920938463463374607431768211456). */
+static void test_limb_carries(void)
+{
+    gs_int a, b, c;
+    gs_int_init(&a);
+    gs_int_init(&b);
+    gs_int_init(&c);
+    gs_int_set_si(&a, 1);
+    gs_int_mul_2exp(&a, &a, 96);
+    CHECK(is(&a, "79228162514264337593543950336"));
+    gs_int_add_si(&b, &a, -1);                  /* borrow through 3 limbs */
+    CHECK(is(&b, "79228162514264337593543950335") && b.size == 3);
+    gs_int_add_si(&b, &b, 1);
+    CHECK(gs_int_equal(&a, &b) && b.size == 4);
+    gs_int_set_si(&a, 1);
+    gs_int_mul_2exp(&a, &a, 128);
+    CHECK(is(&a, "340282366920938463463374607431768211456"));
+    gs_int_set_si(&b, 1);
+    gs_int_mul_2exp(&b, &b, 64);
+    gs_int_sub(&b, &a, &b);                     /* 2^128 - 2^64 */
+    gs_int_add_si(&c, &a, -1);
+    gs_int_sub(&c, &c, &b);                     /* 2^64 - 1: still big */
+    CHECK(is(&c, "18446744073709551615") && canonical(&c) && c.size == 2);
+    gs_int_add_si(&b, &a, -5);
+    gs_int_sub(&c, &a, &b);                     /* shrinks to 5 */
+    CHECK(gs_int_is_small(&c) && gs_int_cmp_si(&c, 5) == 0);
+    gs_int_sub(&c, &b, &a);
+    CHECK(gs_int_is_small(&c) && gs_int_cmp_si(&c, -5) == 0);
+    gs_int_mul(&c, &a, &a);                     /* 2^256 */
+    CHECK(gs_int_bits(&c) == 257 && c.size == 9);
+    CHECK(gs_int_tdiv_qr(&c, NULL, &c, &a) == GS_OK && gs_int_equal(&c, &a));
+    /* text at the int64 edge: 19-digit values on either side */
+    from_str(&a, "9223372036854775807");
+    CHECK(gs_int_is_small(&a) && gs_int_get_si(&a) == INT64_MAX);
+    from_str(&a, "9223372036854775808");
+    CHECK(!gs_int_is_small(&a) && canonical(&a));
+    from_str(&a, "-9223372036854775808");
+    CHECK(gs_int_fits_si(&a) && gs_int_get_si(&a) == INT64_MIN);
+    from_str(&a, "1000000000000000000");
+    CHECK(gs_int_is_small(&a) && gs_int_get_si(&a) == 1000000000000000000);
     gs_int_clear(&a);
     gs_int_clear(&b);
     gs_int_clear(&c);
@@ -545,6 +595,14 @@ static void test_ring_properties(void)
         FAIL_AB(gs_int_equal(&d, &e) && canonical(&d), &a, &b);
         gs_int_submul(&d, &a, &b);
         FAIL_AB(gs_int_equal(&d, &a) && canonical(&d), &a, &b);
+        /* mod_ui agrees with flooring division by m, 0 < m < 2^63 */
+        {
+            uint64_t m = rnd() >> (1 + rnd() % 63);
+            gs_int_set_ui(&d, m ? m : 1);
+            gs_int_fdiv_qr(NULL, &e, &a, &d);
+            FAIL_AB(gs_int_cmp_si(&e, (int64_t)gs_int_mod_ui(&a, m ? m : 1))
+                    == 0, &a, &d);
+        }
         /* the hash follows equality */
         gs_int_add(&d, &b, &a);
         gs_int_add(&e, &a, &b);
@@ -825,6 +883,7 @@ int main(int argc, char **argv)
         seed = strtoull(argv[1], NULL, 10);
     rng_state = seed ? seed : 1;
     test_small_big_transitions();
+    test_limb_carries();
     test_known_values();
     test_fibonacci_gcd();
     test_division_corrections();

@@ -102,6 +102,7 @@ int main(int argc, char **argv)
             gs_print_text(stdout, &tf, collect[i]);
             printf("json %s ", cv);
             gs_print_json(stdout, &tf, collect[i]);
+            putchar('\n');
         }
         printf("end\n");
         gs_tf_clear(&tf);

@@ -1,7 +1,8 @@
 /* timer.c - runs a command several times; reports median wall time, peak RSS.
  * See LICENSE.
  *
- * usage: timer [-n RUNS] [-l LIMIT] [-s SLOW] [-o OUT] [-e ERR] -- PROG ARG...
+ * usage: timer [-n RUNS] [-l LIMIT] [-s SLOW] [-m MIB] [-o OUT] [-e ERR]
+ *              -- PROG ARG...
  *
  * Each run forks and execs PROG as a whole process, with standard input
  * from /dev/null, standard output to OUT and standard error to ERR (both
@@ -10,6 +11,8 @@
  * around fork and wait4; peak memory is wait4's ru_maxrss (KiB on Linux).
  * A run still going after LIMIT seconds is killed with its process group.
  * When the first run takes longer than SLOW seconds the rest are skipped.
+ * With -m, each run's address space is capped at MIB MiB (setrlimit), so
+ * a run that grows without bound fails instead of exhausting the machine.
  * Prints one line:
  *
  *     runs=R seconds=MEDIAN min=S max=S peak_kib=K status=ok
@@ -39,6 +42,7 @@ typedef struct options {
     int runs;
     double limit;       /* seconds, 0 = none */
     double slow;        /* seconds, 0 = never cut short */
+    double mib;         /* address-space cap, 0 = none */
     const char *out;
     const char *err;
     char **argv;
@@ -79,7 +83,12 @@ static void redirect(int fd, const char *path, int flags)
 
 static void exec_child(const options *o)
 {
+    struct rlimit rl;
     setpgid(0, 0);
+    if (o->mib > 0) {
+        rl.rlim_cur = rl.rlim_max = (rlim_t)(o->mib * 1024 * 1024);
+        setrlimit(RLIMIT_AS, &rl);
+    }
     redirect(0, "/dev/null", O_RDONLY);
     redirect(1, o->out, O_WRONLY | O_CREAT | O_TRUNC);
     redirect(2, o->err, O_WRONLY | O_CREAT | O_TRUNC);
@@ -166,8 +175,8 @@ static void status_text(char *buf, size_t n, const outcome *r)
 
 static int usage(void)
 {
-    fputs("usage: timer [-n RUNS] [-l LIMIT] [-s SLOW] [-o OUT] [-e ERR]"
-          " -- PROG ARG...\n", stderr);
+    fputs("usage: timer [-n RUNS] [-l LIMIT] [-s SLOW] [-m MIB] [-o OUT]"
+          " [-e ERR] -- PROG ARG...\n", stderr);
     return 2;
 }
 
@@ -194,6 +203,8 @@ static int parse_option(options *o, char flag, const char *arg)
         o->limit = x;
     else if (flag == 's')
         o->slow = x;
+    else if (flag == 'm')
+        o->mib = x;
     else
         return 0;
     return 1;
@@ -205,6 +216,7 @@ static int parse_args(options *o, int argc, char **argv)
     o->runs = 5;
     o->limit = 0;
     o->slow = 0;
+    o->mib = 0;
     o->out = "/dev/null";
     o->err = "/dev/null";
     for (i = 1; i < argc; i += 2) {

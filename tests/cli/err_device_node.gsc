@@ -1,0 +1,4 @@
+# error case: device node
+vsource vin g gnd
+mosfet M1 d g
+resistor RD d gnd

@@ -1,0 +1,3 @@
+# error case: division by zero
+vsource vin in gnd
+resistor R1 in gnd = R/0

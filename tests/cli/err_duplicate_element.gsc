@@ -1,0 +1,4 @@
+# error case: duplicate element
+vsource vin in gnd
+resistor R1 in out
+resistor R1 out gnd

@@ -1,0 +1,7 @@
+# error case: eval divzero
+vsource vin in gnd
+resistor R1 in out
+resistor R2 out gnd
+value R1 = 1/(R2 - 1k)
+value R2 = 1k
+transfer H = v(out) / vin

@@ -1,0 +1,3 @@
+# error case: exponent integer
+vsource vin in gnd
+resistor R1 in gnd = R^0.5

@@ -1,0 +1,3 @@
+# error case: exponent range
+vsource vin in gnd
+resistor R1 in gnd = (R^10)^10

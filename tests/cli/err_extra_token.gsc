@@ -1,0 +1,3 @@
+# error case: extra token
+vsource vin in gnd
+resistor R1 in gnd out

@@ -1,0 +1,3 @@
+# error case: inf value
+vsource vin in gnd
+resistor R1 in gnd = inf

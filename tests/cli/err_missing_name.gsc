@@ -1,0 +1,3 @@
+# error case: missing name
+vsource vin in gnd
+capacitor

@@ -1,0 +1,3 @@
+# error case: missing node
+vsource vin in gnd
+resistor R1 in

@@ -1,0 +1,3 @@
+# error case: reserved s
+vsource vin in gnd
+resistor R1 in gnd = 2*s

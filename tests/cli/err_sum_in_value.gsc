@@ -1,0 +1,3 @@
+# error case: sum in value
+vsource vin in gnd
+resistor R1 in gnd = Ra + Rb

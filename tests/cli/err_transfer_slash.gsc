@@ -1,0 +1,5 @@
+# error case: transfer slash
+vsource vin in gnd
+resistor R1 in out
+resistor R2 out gnd
+transfer H = v(out) vin

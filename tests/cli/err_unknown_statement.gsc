@@ -1,0 +1,3 @@
+# error case: unknown statement
+vsource vin in gnd
+resistr R1 in gnd

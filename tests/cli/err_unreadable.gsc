@@ -1,0 +1,1 @@
+# error case: unreadable (the arguments name a file that does not exist)

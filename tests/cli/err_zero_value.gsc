@@ -1,0 +1,3 @@
+# error case: zero value
+vsource vin in gnd
+resistor R1 in gnd = 0

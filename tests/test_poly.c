@@ -1,0 +1,1027 @@
+/* test_poly.c - unit tests of the sparse polynomial module. See LICENSE. */
+#include "check.h"
+#include "gainsmith.h"
+#include "poly.h"
+#include "sym.h"
+
+#include <complex.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+/* Two contexts: four symbols (one exponent word) and eleven (three
+   words, with a reciprocal symbol), so word boundaries get exercised. */
+typedef struct env {
+    gs_symtab *st;
+    gs_polyctx *c4, *c11;
+} env;
+
+static void env_init(env *e)
+{
+    static const char *const names[] = {
+        "x", "y", "z", "t", "u", "v", "w", "s", "gm", "R"
+    };
+    size_t i;
+    e->st = gs_symtab_new();
+    for (i = 0; i < sizeof names / sizeof names[0]; i++)
+        gs_symtab_intern(e->st, names[i]);
+    gs_symtab_recip(e->st, gs_symtab_find(e->st, "R"));     /* id 10 */
+    e->c4 = gs_polyctx_new(e->st, 4);
+    e->c11 = gs_polyctx_new(e->st, 11);
+}
+
+static void env_clear(env *e)
+{
+    gs_polyctx_free(e->c4);
+    gs_polyctx_free(e->c11);
+    gs_symtab_free(e->st);
+}
+
+/* a seeded generator: splitmix64 (Steele, Lea and Flood, OOPSLA 2014) */
+typedef struct rng {
+    uint64_t s;
+} rng;
+
+static uint64_t rnext(rng *r)
+{
+    uint64_t z = (r->s += UINT64_C(0x9e3779b97f4a7c15));
+    z = (z ^ (z >> 30)) * UINT64_C(0xbf58476d1ce4e5b9);
+    z = (z ^ (z >> 27)) * UINT64_C(0x94d049bb133111eb);
+    return z ^ (z >> 31);
+}
+
+static unsigned rbelow(rng *r, unsigned n)
+{
+    return (unsigned)(rnext(r) % n);
+}
+
+/* a random integer of about `bits` bits, either sign */
+static void rand_int(gs_int *c, rng *r, unsigned bits)
+{
+    gs_int chunk;
+    unsigned b = 0;
+    gs_int_init(&chunk);
+    gs_int_set_si(c, 0);
+    while (b < bits) {
+        unsigned k = bits - b < 62 ? bits - b : 62;
+        gs_int_mul_2exp(c, c, k);
+        gs_int_set_si(&chunk, (int64_t)(rnext(r) >> (64 - k)));
+        gs_int_add(c, c, &chunk);
+        b += k;
+    }
+    if (gs_int_is_zero(c))
+        gs_int_set_si(c, 1);
+    if (rnext(r) & 1)
+        gs_int_neg(c, c);
+    gs_int_clear(&chunk);
+}
+
+/* n random terms in the first nv variables, exponents <= maxe */
+static void rand_poly(gs_poly *p, rng *r, unsigned n, int nv, unsigned maxe,
+                      unsigned bits, const gs_polyctx *ctx)
+{
+    unsigned e[16], k;
+    int v;
+    gs_int c;
+    gs_int_init(&c);
+    gs_poly_zero(p);
+    for (k = 0; k < n; k++) {
+        memset(e, 0, sizeof e);
+        for (v = 0; v < nv; v++)
+            if (rnext(r) & 1)
+                e[v] = rbelow(r, maxe + 1);
+        rand_int(&c, r, 1 + rbelow(r, bits));
+        gs_poly_push_term(p, &c, e, ctx);
+    }
+    gs_poly_canonicalise(p, ctx);
+    if (gs_poly_is_zero(p))     /* every term cancelled: rare */
+        gs_poly_set_si(p, 1, ctx);
+    gs_int_clear(&c);
+}
+
+/* canonical form: strictly decreasing monomials, nonzero coefficients,
+   fields past nvars and guard bits clear */
+static int canonical(const gs_poly *p, const gs_polyctx *ctx)
+{
+    size_t i, w, nw = (size_t)ctx->nwords;
+    for (i = 0; i < p->length; i++) {
+        const uint64_t *e = p->exps + i * nw;
+        int v;
+        if (gs_int_is_zero(&p->coeffs[i]))
+            return 0;
+        for (w = 0; w < nw; w++)
+            if (e[w] & UINT64_C(0x8000800080008000))
+                return 0;
+        for (v = ctx->nvars; v < ctx->nwords * 4; v++)
+            if ((e[v / 4] >> (48 - 16 * (v % 4))) & 0xFFFF)
+                return 0;
+        if (i > 0) {
+            const uint64_t *d = e - nw;
+            for (w = 0; w < nw && d[w] == e[w]; w++)
+                ;
+            if (w == nw || d[w] < e[w])
+                return 0;
+        }
+    }
+    return 1;
+}
+
+/* A polynomial's storage is sized for its context's exponent words, so
+   moving one to another context starts from a fresh value. */
+static void renew(gs_poly *p)
+{
+    gs_poly_clear(p);
+    gs_poly_init(p);
+}
+
+static void parse(gs_poly *p, const char *s, const gs_polyctx *ctx)
+{
+    int rc = gs_poly_set_str(p, s, ctx);
+    CHECK_MSG(rc == GS_OK, "parsing \"%s\": %d", s, rc);
+}
+
+/* a equals the polynomial written s */
+static int equal_str(const gs_poly *a, const char *s, const gs_polyctx *ctx)
+{
+    gs_poly b;
+    int eq;
+    gs_poly_init(&b);
+    parse(&b, s, ctx);
+    eq = gs_poly_equal(a, &b, ctx);
+    if (!eq) {
+        char *t = gs_poly_get_str(a, ctx);
+        fprintf(stderr, "  got      %s\n  expected %s\n", t, s);
+        free(t);
+    }
+    gs_poly_clear(&b);
+    return eq;
+}
+
+static void print_case(const char *what, uint64_t seed, const gs_poly *a,
+                       const gs_poly *b, const gs_polyctx *ctx)
+{
+    char *sa = gs_poly_get_str(a, ctx), *sb = gs_poly_get_str(b, ctx);
+    fprintf(stderr, "%s: seed %llu\n  a = %s\n  b = %s\n", what,
+            (unsigned long long)seed, sa, sb);
+    free(sa);
+    free(sb);
+}
+
+/* Printing in the canonical order and reading back. */
+static void test_text(const env *e)
+{
+    gs_poly p;
+    char *s;
+    gs_poly_init(&p);
+    parse(&p, "1 - 2*z + 3*y*x^2", e->c4);
+    s = gs_poly_get_str(&p, e->c4);
+    CHECK_MSG(strcmp(s, "3*x^2*y - 2*z + 1") == 0, "%s", s);
+    free(s);
+    parse(&p, "-x", e->c4);
+    s = gs_poly_get_str(&p, e->c4);
+    CHECK_MSG(strcmp(s, "-x") == 0, "%s", s);
+    free(s);
+    parse(&p, "x - x", e->c4);
+    s = gs_poly_get_str(&p, e->c4);
+    CHECK_MSG(strcmp(s, "0") == 0, "%s", s);
+    free(s);
+    renew(&p);
+    parse(&p, "gm*(1/R)^2 - (1/R)*s**3 - 12345678901234567890123", e->c11);
+    s = gs_poly_get_str(&p, e->c11);
+    CHECK_MSG(strcmp(s, "-s^3*(1/R) + gm*(1/R)^2 - 12345678901234567890123")
+              == 0, "%s", s);
+    free(s);
+    renew(&p);
+    parse(&p, "-(x + -y)^2 * (2)", e->c4);
+    CHECK(equal_str(&p, "-2*x^2 + 4*x*y - 2*y^2", e->c4));
+    CHECK(gs_poly_set_str(&p, "x +", e->c4) == GS_ESYNTAX);
+    CHECK(gs_poly_set_str(&p, "3x", e->c4) == GS_ESYNTAX);
+    CHECK(gs_poly_set_str(&p, "(x", e->c4) == GS_ESYNTAX);
+    CHECK(gs_poly_set_str(&p, "x/y", e->c4) == GS_ESYNTAX);
+    CHECK(gs_poly_set_str(&p, "", e->c4) == GS_ESYNTAX);
+    CHECK(gs_poly_set_str(&p, "q + 1", e->c4) == GS_EINVAL);
+    CHECK(gs_poly_set_str(&p, "u", e->c4) == GS_EINVAL);  /* not in c4 */
+    CHECK(gs_poly_set_str(&p, "x^40000", e->c4) == GS_ERANGE);
+    CHECK(gs_poly_set_str(&p, "x^20000*x^20000", e->c4) == GS_ERANGE);
+    CHECK(gs_poly_set_str(&p, "(x^200)^200", e->c4) == GS_ERANGE);
+    CHECK(equal_str(&p, "-2*x^2 + 4*x*y - 2*y^2", e->c4));  /* unchanged */
+    gs_poly_clear(&p);
+}
+
+/* Binomial theorem; the expected C(n, k) come from Pascal's rule
+   C(n, k) = C(n-1, k-1) + C(n-1, k), computed by additions only. */
+static void test_binomial(const env *e)
+{
+    enum { N = 40 };
+    gs_int pascal[N + 1], c;
+    gs_poly xy, p, q;
+    unsigned n, k;
+    gs_poly_init(&xy);
+    gs_poly_init(&p);
+    gs_poly_init(&q);
+    gs_int_init(&c);
+    for (k = 0; k <= N; k++)
+        gs_int_init(&pascal[k]);
+    gs_int_set_si(&pascal[0], 1);
+    parse(&xy, "x + y", e->c4);
+    gs_poly_set_si(&q, 1, e->c4);
+    for (n = 0; n <= N; n++) {
+        if (n > 0)
+            for (k = n; k > 0; k--)
+                gs_int_add(&pascal[k], &pascal[k], &pascal[k - 1]);
+        gs_poly_pow_ui(&p, &xy, n, e->c4);
+        CHECK(p.length == n + 1 && canonical(&p, e->c4));
+        for (k = 0; k <= n && k < p.length; k++) {
+            CHECK_MSG(gs_poly_term_exp(&p, k, 0, e->c4) == n - k
+                      && gs_poly_term_exp(&p, k, 1, e->c4) == k
+                      && gs_int_equal(&p.coeffs[k], &pascal[k]),
+                      "n=%u k=%u", n, k);
+        }
+        CHECK_MSG(gs_poly_equal(&p, &q, e->c4), "(x+y)^%u by pow", n);
+        gs_poly_mul(&q, &q, &xy, e->c4);
+    }
+    /* (2^70 x - 3)^5 by the binomial path against repeated products */
+    parse(&xy, "1180591620717411303424*x - 3", e->c4);
+    gs_poly_pow_ui(&p, &xy, 5, e->c4);
+    gs_poly_mul(&q, &xy, &xy, e->c4);
+    gs_poly_mul(&q, &q, &q, e->c4);
+    gs_poly_mul(&q, &q, &xy, e->c4);
+    CHECK(gs_poly_equal(&p, &q, e->c4));
+    for (k = 0; k <= N; k++)
+        gs_int_clear(&pascal[k]);
+    gs_int_clear(&c);
+    gs_poly_clear(&xy);
+    gs_poly_clear(&p);
+    gs_poly_clear(&q);
+}
+
+static void test_small_identities(const env *e)
+{
+    gs_poly a, b, p, q;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&p);
+    gs_poly_init(&q);
+    /* difference of squares */
+    parse(&a, "1 + x", e->c4);
+    parse(&b, "1 - x", e->c4);
+    gs_poly_mul(&p, &a, &b, e->c4);
+    CHECK(equal_str(&p, "1 - x^2", e->c4));
+    CHECK(gs_poly_divexact(&q, &p, &a, e->c4) == GS_OK);
+    CHECK(gs_poly_equal(&q, &b, e->c4));
+    /* x^3 - 1 = (x - 1)(x^2 + x + 1), cyclotomic factors */
+    parse(&a, "x^3 - 1", e->c4);
+    parse(&b, "x - 1", e->c4);
+    CHECK(gs_poly_divexact(&q, &a, &b, e->c4) == GS_OK);
+    CHECK(equal_str(&q, "x^2 + x + 1", e->c4));
+    /* x^2 - y^2 = (x - y)(x + y), in the 11-variable context */
+    {
+        gs_poly a1, b1, q1;
+        gs_poly_init(&a1);
+        gs_poly_init(&b1);
+        gs_poly_init(&q1);
+        parse(&a1, "u^2 - (1/R)^2", e->c11);
+        parse(&b1, "u - (1/R)", e->c11);
+        CHECK(gs_poly_divexact(&q1, &a1, &b1, e->c11) == GS_OK);
+        CHECK(equal_str(&q1, "u + (1/R)", e->c11));
+        gs_poly_clear(&a1);
+        gs_poly_clear(&b1);
+        gs_poly_clear(&q1);
+    }
+    /* remainders: x^2 + 1 = (x + 1)(x - 1) + 2; 2x / 4 */
+    parse(&a, "x^2 + 1", e->c4);
+    parse(&b, "x + 1", e->c4);
+    parse(&q, "7", e->c4);
+    CHECK(gs_poly_divexact(&q, &a, &b, e->c4) == GS_EINEXACT);
+    CHECK(gs_poly_is_zero(&q));
+    parse(&a, "2*x*y", e->c4);
+    parse(&b, "4*y", e->c4);
+    CHECK(gs_poly_divexact(&q, &a, &b, e->c4) == GS_EINEXACT);
+    parse(&b, "x*z", e->c4);
+    CHECK(gs_poly_divexact(&q, &a, &b, e->c4) == GS_EINEXACT);
+    gs_poly_zero(&b);
+    CHECK(gs_poly_divexact(&q, &a, &b, e->c4) == GS_EDIVZERO);
+    CHECK(gs_poly_divexact(&q, &b, &a, e->c4) == GS_OK && q.length == 0);
+    /* y / (x + y) in lex order with x > y: the first remainder term */
+    parse(&a, "y", e->c4);
+    parse(&b, "x + y", e->c4);
+    CHECK(gs_poly_divexact(&q, &a, &b, e->c4) == GS_EINEXACT);
+    /* scalar exact division */
+    {
+        gs_int c;
+        gs_int_init(&c);
+        parse(&a, "6*x - 4*y + 2", e->c4);
+        gs_int_set_si(&c, -2);
+        CHECK(gs_poly_divexact_int(&q, &a, &c, e->c4) == GS_OK);
+        CHECK(equal_str(&q, "-3*x + 2*y - 1", e->c4));
+        gs_int_set_si(&c, 4);
+        CHECK(gs_poly_divexact_int(&q, &a, &c, e->c4) == GS_EINEXACT);
+        CHECK(gs_poly_is_zero(&q));
+        gs_int_set_si(&c, 0);
+        CHECK(gs_poly_divexact_int(&q, &a, &c, e->c4) == GS_EDIVZERO);
+        gs_int_clear(&c);
+    }
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&p);
+    gs_poly_clear(&q);
+}
+
+/* Content is the gcd of the coefficients with the leading sign. */
+static void test_content(const env *e)
+{
+    gs_poly a, r;
+    gs_int c;
+    uint64_t mono[3];
+    gs_poly_init(&a);
+    gs_poly_init(&r);
+    gs_int_init(&c);
+    parse(&a, "-6*x + 4*y^2 - 10", e->c4);
+    gs_poly_content(&c, &a);
+    CHECK(gs_int_cmp_si(&c, -2) == 0);
+    gs_poly_primitive(&r, &a, e->c4);
+    CHECK(equal_str(&r, "3*x - 2*y^2 + 5", e->c4));
+    gs_poly_primitive(&a, &a, e->c4);
+    CHECK(equal_str(&a, "3*x - 2*y^2 + 5", e->c4));
+    gs_poly_zero(&a);
+    gs_poly_content(&c, &a);
+    CHECK(gs_int_is_zero(&c));
+    renew(&a);
+    renew(&r);
+    parse(&a, "x^2*y*z*gm + x*y^3*w*gm^2", e->c11);
+    gs_poly_monomial_content(mono, &a, e->c11);
+    CHECK(gs_poly_div_monomial(&r, &a, mono, e->c11) == GS_OK);
+    CHECK(equal_str(&r, "x*z + y^2*w*gm", e->c11));
+    gs_poly_mul_monomial(&r, &r, mono, e->c11);
+    CHECK(gs_poly_equal(&r, &a, e->c11));
+    parse(&r, "x*y*gm^2", e->c11);
+    CHECK(gs_poly_div_monomial(&r, &a, r.exps, e->c11) == GS_EINEXACT);
+    CHECK(gs_poly_is_zero(&r));
+    gs_int_clear(&c);
+    gs_poly_clear(&a);
+    gs_poly_clear(&r);
+}
+
+static void test_degrees(const env *e)
+{
+    gs_poly a, r;
+    unsigned char used[11];
+    unsigned degs[11];
+    gs_poly_init(&a);
+    gs_poly_init(&r);
+    parse(&a, "x^2*y + 3*x^2 + x*z^4 + 5*s^7*(1/R)", e->c11);
+    CHECK(gs_poly_degree(&a, 0, e->c11) == 2);
+    CHECK(gs_poly_degree(&a, 2, e->c11) == 4);
+    CHECK(gs_poly_degree(&a, 7, e->c11) == 7);
+    CHECK(gs_poly_lowdegree(&a, 0, e->c11) == 0);
+    CHECK(gs_poly_degree(&a, 3, e->c11) == 0);
+    CHECK(gs_poly_total_degree(&a, e->c11) == 8);
+    gs_poly_degrees(degs, &a, e->c11);
+    CHECK(degs[0] == 2 && degs[1] == 1 && degs[2] == 4 && degs[7] == 7
+          && degs[10] == 1 && degs[9] == 0);
+    gs_poly_used_vars(used, &a, e->c11);
+    CHECK(used[0] && used[1] && used[2] && !used[3] && used[7] && used[10]
+          && !used[9]);
+    gs_poly_coeff_var(&r, &a, 0, 2, e->c11);   /* collect in x */
+    CHECK(equal_str(&r, "y + 3", e->c11));
+    gs_poly_coeff_var(&r, &a, 0, 0, e->c11);
+    CHECK(equal_str(&r, "5*s^7*(1/R)", e->c11));
+    gs_poly_coeff_var(&a, &a, 2, 4, e->c11);   /* aliased */
+    CHECK(equal_str(&a, "x", e->c11));
+    gs_poly_zero(&a);
+    CHECK(gs_poly_degree(&a, 0, e->c11) == -1);
+    CHECK(gs_poly_lowdegree(&a, 0, e->c11) == -1);
+    CHECK(gs_poly_total_degree(&a, e->c11) == -1);
+    CHECK(gs_poly_sgn(&a) == 0);
+    renew(&a);
+    parse(&a, "-x + 1", e->c4);
+    CHECK(gs_poly_sgn(&a) < 0);
+    CHECK(!gs_poly_is_const(&a, e->c4));
+    parse(&a, "1", e->c4);
+    CHECK(gs_poly_is_one(&a, e->c4) && gs_poly_is_const(&a, e->c4));
+    gs_poly_clear(&a);
+    gs_poly_clear(&r);
+}
+
+/* d/dx x^n = n x^(n-1), d/dx c = 0; the rest comes in the random loop. */
+static void test_derivative(const env *e)
+{
+    gs_poly a, r;
+    gs_poly_init(&a);
+    gs_poly_init(&r);
+    parse(&a, "x^5*y + 7*x*z - 3*y^2 + 11", e->c4);
+    gs_poly_derivative(&r, &a, 0, e->c4);
+    CHECK(equal_str(&r, "5*x^4*y + 7*z", e->c4));
+    gs_poly_derivative(&a, &a, 1, e->c4);
+    CHECK(equal_str(&a, "x^5 - 6*y", e->c4));
+    gs_poly_derivative(&r, &r, 3, e->c4);
+    CHECK(gs_poly_is_zero(&r));
+    gs_poly_clear(&a);
+    gs_poly_clear(&r);
+}
+
+static void test_subst(const env *e)
+{
+    gs_poly a, b, r;
+    gs_rat v;
+    gs_int scale;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&r);
+    gs_rat_init(&v);
+    gs_int_init(&scale);
+    /* (x + 1)^2 at x = y - 1 is y^2 */
+    parse(&a, "x^2 + 2*x + 1", e->c4);
+    parse(&b, "y - 1", e->c4);
+    gs_poly_subst(&r, &a, 0, &b, e->c4);
+    CHECK(equal_str(&r, "y^2", e->c4));
+    gs_poly_subst(&a, &a, 0, &b, e->c4);
+    CHECK(equal_str(&a, "y^2", e->c4));
+    /* x^2 y + x + 1 at x = 1/2: (y + 2 + 4) / 4 */
+    parse(&a, "x^2*y + x + 1", e->c4);
+    gs_rat_set_si(&v, 1, 2);
+    gs_poly_subst_rat(&r, &scale, &a, 0, &v, e->c4);
+    CHECK(gs_int_cmp_si(&scale, 4) == 0);
+    CHECK(equal_str(&r, "y + 6", e->c4));
+    /* at x = -3: 9y - 2 with scale 1 */
+    gs_rat_set_si(&v, -3, 1);
+    gs_poly_subst_rat(&a, &scale, &a, 0, &v, e->c4);
+    CHECK(gs_int_is_one(&scale));
+    CHECK(equal_str(&a, "9*y - 2", e->c4));
+    gs_rat_set_si(&v, 5, 7);
+    gs_poly_subst_rat(&a, &scale, &a, 0, &v, e->c4);   /* free of x */
+    CHECK(gs_int_is_one(&scale) && equal_str(&a, "9*y - 2", e->c4));
+    gs_poly_zero(&a);
+    gs_poly_subst_rat(&r, &scale, &a, 0, &v, e->c4);
+    CHECK(gs_int_is_one(&scale) && gs_poly_is_zero(&r));
+    gs_int_clear(&scale);
+    gs_rat_clear(&v);
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&r);
+}
+
+/* lim (3s^2 y + s)/(2s^2 + 1) = 3y/2 at infinity and 0 at zero;
+   s^2/s is unbounded at infinity. */
+static void test_limit(const env *e)
+{
+    gs_poly n, d, rn, rd;
+    int s = 7;
+    gs_poly_init(&n);
+    gs_poly_init(&d);
+    gs_poly_init(&rn);
+    gs_poly_init(&rd);
+    parse(&n, "3*s^2*y + s", e->c11);
+    parse(&d, "2*s^2 + 1", e->c11);
+    CHECK(gs_poly_limit_ratio(&rn, &rd, &n, &d, s, 1, e->c11) == GS_OK);
+    CHECK(equal_str(&rn, "3*y", e->c11) && equal_str(&rd, "2", e->c11));
+    CHECK(gs_poly_limit_ratio(&rn, &rd, &n, &d, s, 0, e->c11) == GS_OK);
+    CHECK(gs_poly_is_zero(&rn) && gs_poly_is_one(&rd, e->c11));
+    CHECK(gs_poly_limit_ratio(&rn, &rd, &d, &n, s, 0, e->c11) == GS_ERANGE);
+    parse(&n, "s^2", e->c11);
+    parse(&d, "s*(1/R) + gm", e->c11);
+    CHECK(gs_poly_limit_ratio(&rn, &rd, &n, &d, s, 1, e->c11) == GS_ERANGE);
+    CHECK(gs_poly_limit_ratio(&rn, &rd, &d, &n, s, 1, e->c11) == GS_OK);
+    CHECK(gs_poly_is_zero(&rn));
+    /* R -> infinity is (1/R) -> 0: (gm + s (1/R)) / (1/R + 2) -> gm / 2 */
+    parse(&n, "gm + s*(1/R)", e->c11);
+    parse(&d, "(1/R) + 2", e->c11);
+    CHECK(gs_poly_limit_ratio(&rn, &rd, &n, &d, 10, 0, e->c11) == GS_OK);
+    CHECK(equal_str(&rn, "gm", e->c11) && equal_str(&rd, "2", e->c11));
+    gs_poly_zero(&d);
+    CHECK(gs_poly_limit_ratio(&rn, &rd, &n, &d, s, 1, e->c11)
+          == GS_EDIVZERO);
+    gs_poly_clear(&n);
+    gs_poly_clear(&d);
+    gs_poly_clear(&rn);
+    gs_poly_clear(&rd);
+}
+
+static void test_eval(const env *e)
+{
+    gs_poly a;
+    double vd[4] = { 1.5, 2.5, 0, 0 };
+    long double vl[4] = { 0.5L, -2, 3, 1 };
+    double complex vc[4] = { I, 0, 0, 0 };
+    long double complex vlc[4] = { 1 + I, 0, 0, 0 };
+    gs_poly_init(&a);
+    parse(&a, "(x + y)^2", e->c4);        /* 4^2 */
+    CHECK(gs_poly_eval_d(&a, vd, e->c4) == 16.0);
+    parse(&a, "8*x^3*y*z^2 - t + 2", e->c4);   /* 8/8 (-2) 9 - 1 + 2 */
+    CHECK(gs_poly_eval_ld(&a, vl, e->c4) == -17.0L);
+    parse(&a, "x^2 + 1", e->c4);           /* i^2 + 1 */
+    CHECK(gs_poly_eval_c(&a, vc, e->c4) == 0);
+    parse(&a, "x^4 + 4", e->c4);           /* (1+i)^4 = -4 */
+    CHECK(gs_poly_eval_lc(&a, vlc, e->c4) == 0);
+    gs_poly_zero(&a);
+    CHECK(gs_poly_eval_d(&a, vd, e->c4) == 0.0);
+    gs_poly_clear(&a);
+}
+
+/* push_term in any order with repeats and zeros, then canonicalise */
+static void test_build(const env *e)
+{
+    gs_poly a, b;
+    gs_int c;
+    unsigned e1[4] = { 1, 0, 0, 0 }, e2[4] = { 0, 2, 0, 1 }, e0[4] = { 0 };
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_int_init(&c);
+    gs_int_set_si(&c, 3);
+    gs_poly_push_term(&a, &c, e2, e->c4);
+    gs_poly_push_term(&a, &c, e1, e->c4);
+    gs_int_set_si(&c, -3);
+    gs_poly_push_term(&a, &c, e2, e->c4);
+    gs_int_set_si(&c, 0);
+    gs_poly_push_term(&a, &c, e0, e->c4);
+    gs_int_set_si(&c, 5);
+    gs_poly_push_term(&a, &c, e0, e->c4);
+    gs_poly_push_term(&a, &c, e1, e->c4);
+    gs_poly_canonicalise(&a, e->c4);
+    CHECK(canonical(&a, e->c4) && equal_str(&a, "8*x + 5", e->c4));
+    gs_poly_set_term(&b, &c, e2, e->c4);
+    CHECK(equal_str(&b, "5*y^2*t", e->c4));
+    gs_poly_set_var(&b, 3, 4, e->c4);
+    CHECK(equal_str(&b, "t^4", e->c4));
+    gs_poly_set_int(&b, &c, e->c4);
+    CHECK(equal_str(&b, "5", e->c4));
+    gs_poly_set_int(&b, &b.coeffs[0], e->c4);      /* aliased */
+    CHECK(equal_str(&b, "5", e->c4));
+    gs_poly_swap(&a, &b);
+    CHECK(equal_str(&a, "5", e->c4) && equal_str(&b, "8*x + 5", e->c4));
+    gs_poly_mul_int(&b, &b, &b.coeffs[0], e->c4);   /* aliased scalar */
+    CHECK(equal_str(&b, "64*x + 40", e->c4));
+    gs_poly_mul_si(&b, &b, -1, e->c4);
+    CHECK(equal_str(&b, "-64*x - 40", e->c4));
+    gs_int_clear(&c);
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+}
+
+/* Stars and bars: (1+x+y+z+t)^k has C(k+4, 4) terms; multinomial
+   theorem for the coefficients.  f (f + 1) for f = (1+x+y+z+t)^6 has
+   every monomial of degree <= 12, C(16, 4) = 1820 of them. */
+static void test_fateman_small(const env *e)
+{
+    gs_poly f, g, p, q;
+    unsigned k;
+    unsigned long want = 1;
+    gs_poly_init(&f);
+    gs_poly_init(&g);
+    gs_poly_init(&p);
+    gs_poly_init(&q);
+    parse(&g, "1 + x + y + z + t", e->c4);
+    gs_poly_set_si(&f, 1, e->c4);
+    for (k = 1; k <= 12; k++) {
+        gs_poly_mul(&f, &f, &g, e->c4);
+        want = want * (k + 4) / k;          /* C(k+4, 4) */
+        CHECK_MSG(f.length == want, "k=%u: %zu terms", k, f.length);
+    }
+    gs_poly_pow_ui(&f, &g, 6, e->c4);
+    CHECK(f.length == 210);
+    /* the coefficient of x y^2 z^3 is 6!/(1! 2! 3! 0!) = 60 */
+    gs_poly_coeff_var(&p, &f, 0, 1, e->c4);
+    gs_poly_coeff_var(&p, &p, 1, 2, e->c4);
+    gs_poly_coeff_var(&p, &p, 2, 3, e->c4);
+    CHECK(equal_str(&p, "60", e->c4));
+    gs_poly_set_si(&g, 1, e->c4);
+    gs_poly_add(&g, &g, &f, e->c4);
+    gs_poly_mul_method(&p, &f, &g, GS_POLY_MUL_HEAP, e->c4);
+    CHECK(p.length == 1820 && canonical(&p, e->c4));
+    gs_poly_mul_method(&q, &f, &g, GS_POLY_MUL_DENSE, e->c4);
+    CHECK(gs_poly_equal(&p, &q, e->c4));
+    gs_poly_mul_method(&q, &f, &g, GS_POLY_MUL_DENSE | GS_POLY_MUL_BIGACC,
+                       e->c4);
+    CHECK(gs_poly_equal(&p, &q, e->c4));
+    gs_poly_mul(&q, &f, &g, e->c4);
+    CHECK(gs_poly_equal(&p, &q, e->c4));
+    CHECK(gs_poly_divexact(&q, &p, &f, e->c4) == GS_OK);
+    CHECK(gs_poly_equal(&q, &g, e->c4));
+    CHECK(gs_poly_divexact(&q, &p, &g, e->c4) == GS_OK);
+    CHECK(gs_poly_equal(&q, &f, e->c4));
+    gs_poly_clear(&f);
+    gs_poly_clear(&g);
+    gs_poly_clear(&p);
+    gs_poly_clear(&q);
+}
+
+/* Coefficients past 64 bits and near the 128-bit accumulator bound:
+   every method agrees with the multi-precision one, and (2^64 x + 1)^2
+   is 2^128 x^2 + 2^65 x + 1. */
+static void test_big_coeffs(const env *e)
+{
+    gs_poly a, b, p, q;
+    rng r = { 99 };
+    unsigned bits[4] = { 20, 61, 63, 200 }, k;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&p);
+    gs_poly_init(&q);
+    parse(&a, "18446744073709551616*x + 1", e->c4);
+    gs_poly_mul(&p, &a, &a, e->c4);
+    CHECK(equal_str(&p, "340282366920938463463374607431768211456*x^2"
+                    " + 36893488147419103232*x + 1", e->c4));
+    for (k = 0; k < 4; k++) {
+        int m;
+        rand_poly(&a, &r, 300, 4, 5, bits[k], e->c4);
+        rand_poly(&b, &r, 300, 4, 5, bits[k], e->c4);
+        gs_poly_mul_method(&p, &a, &b, GS_POLY_MUL_HEAP | GS_POLY_MUL_BIGACC,
+                           e->c4);
+        for (m = 0; m < 3; m++) {
+            gs_poly_mul_method(&q, &a, &b, m, e->c4);
+            CHECK_MSG(gs_poly_equal(&p, &q, e->c4), "bits %u method %d",
+                      bits[k], m);
+        }
+        CHECK(gs_poly_divexact(&q, &p, &b, e->c4) == GS_OK
+              && gs_poly_equal(&q, &a, e->c4));
+    }
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&p);
+    gs_poly_clear(&q);
+}
+
+/* A random pair for the loops: shape varies with the seed. */
+static void rand_pair(gs_poly *a, gs_poly *b, rng *r, const gs_polyctx *ctx)
+{
+    unsigned na = 1 + rbelow(r, 30), nb = 1 + rbelow(r, 30);
+    unsigned maxe = 1 + rbelow(r, 6), bits = 1 + rbelow(r, 100);
+    int nv = 1 + (int)rbelow(r, (unsigned)ctx->nvars);
+    if (rbelow(r, 4) == 0)
+        bits = 1 + rbelow(r, 8);
+    rand_poly(a, r, na, nv, maxe, bits, ctx);
+    rand_poly(b, r, nb, nv, maxe, bits, ctx);
+}
+
+static void loop_ring(const gs_polyctx *ctx, uint64_t seed0, int n)
+{
+    gs_poly a, b, c, s, t, u;
+    int k;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&c);
+    gs_poly_init(&s);
+    gs_poly_init(&t);
+    gs_poly_init(&u);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        int ok = 1, m;
+        rand_pair(&a, &b, &r, ctx);
+        rand_poly(&c, &r, 1 + rbelow(&r, 10), ctx->nvars, 3, 40, ctx);
+        gs_poly_add(&s, &a, &b, ctx);                 /* (a+b)-b = a */
+        gs_poly_sub(&t, &s, &b, ctx);
+        ok &= canonical(&s, ctx) && gs_poly_equal(&t, &a, ctx);
+        gs_poly_add(&t, &b, &a, ctx);                 /* a+b = b+a */
+        ok &= gs_poly_equal(&t, &s, ctx);
+        gs_poly_mul(&s, &a, &b, ctx);                 /* ab = ba */
+        gs_poly_mul(&t, &b, &a, ctx);
+        ok &= canonical(&s, ctx) && gs_poly_equal(&s, &t, ctx);
+        ok &= gs_poly_hash(&s, ctx) == gs_poly_hash(&t, ctx);
+        for (m = 1; m <= 2; m++) {                    /* every method */
+            gs_poly_mul_method(&t, &a, &b, m, ctx);
+            ok &= gs_poly_equal(&s, &t, ctx);
+            gs_poly_mul_method(&t, &a, &b, m | GS_POLY_MUL_BIGACC, ctx);
+            ok &= gs_poly_equal(&s, &t, ctx);
+        }
+        gs_poly_add(&t, &b, &c, ctx);                 /* a(b+c) = ab+ac */
+        gs_poly_mul(&t, &a, &t, ctx);
+        gs_poly_mul(&u, &a, &c, ctx);
+        gs_poly_add(&u, &s, &u, ctx);
+        ok &= gs_poly_equal(&t, &u, ctx);
+        gs_poly_mul(&t, &s, &c, ctx);                 /* (ab)c = a(bc) */
+        gs_poly_mul(&u, &b, &c, ctx);
+        gs_poly_mul(&u, &a, &u, ctx);
+        ok &= gs_poly_equal(&t, &u, ctx);
+        CHECK_MSG(ok, "ring laws");
+        if (!ok)
+            print_case("ring laws", seed, &a, &b, ctx);
+    }
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&c);
+    gs_poly_clear(&s);
+    gs_poly_clear(&t);
+    gs_poly_clear(&u);
+}
+
+/* Outputs aliasing inputs give the same as separate outputs. */
+static void loop_alias(const gs_polyctx *ctx, uint64_t seed0, int n)
+{
+    gs_poly a, b, x, y;
+    int k;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&x);
+    gs_poly_init(&y);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        int ok = 1;
+        rand_pair(&a, &b, &r, ctx);
+        gs_poly_mul(&y, &a, &b, ctx);
+        gs_poly_set(&x, &a, ctx);
+        gs_poly_mul(&x, &x, &b, ctx);
+        ok &= gs_poly_equal(&x, &y, ctx);
+        gs_poly_set(&x, &b, ctx);
+        gs_poly_mul(&x, &a, &x, ctx);
+        ok &= gs_poly_equal(&x, &y, ctx);
+        gs_poly_mul(&y, &a, &a, ctx);                 /* a*a aliased */
+        gs_poly_set(&x, &a, ctx);
+        gs_poly_mul(&x, &x, &x, ctx);
+        ok &= gs_poly_equal(&x, &y, ctx);
+        gs_poly_pow_ui(&x, &x, 1, ctx);
+        ok &= gs_poly_equal(&x, &y, ctx);
+        gs_poly_set(&x, &a, ctx);
+        gs_poly_pow_ui(&x, &x, 2, ctx);
+        ok &= gs_poly_equal(&x, &y, ctx);
+        gs_poly_add(&y, &a, &a, ctx);                 /* a+a = 2a */
+        gs_poly_set(&x, &a, ctx);
+        gs_poly_add(&x, &x, &x, ctx);
+        ok &= gs_poly_equal(&x, &y, ctx);
+        gs_poly_mul_si(&y, &a, 2, ctx);
+        ok &= gs_poly_equal(&x, &y, ctx);
+        gs_poly_sub(&x, &x, &x, ctx);                 /* a-a = 0 */
+        ok &= gs_poly_is_zero(&x);
+        gs_poly_sub(&y, &a, &b, ctx);
+        gs_poly_set(&x, &b, ctx);
+        gs_poly_sub(&x, &a, &x, ctx);
+        ok &= gs_poly_equal(&x, &y, ctx);
+        gs_poly_neg(&x, &x, ctx);
+        gs_poly_sub(&y, &b, &a, ctx);
+        ok &= gs_poly_equal(&x, &y, ctx);
+        gs_poly_mul(&x, &a, &b, ctx);                 /* (ab)/b in place */
+        ok &= gs_poly_divexact(&x, &x, &b, ctx) == GS_OK;
+        ok &= gs_poly_equal(&x, &a, ctx);
+        gs_poly_mul(&x, &a, &b, ctx);
+        gs_poly_set(&y, &b, ctx);
+        ok &= gs_poly_divexact(&y, &x, &y, ctx) == GS_OK;
+        ok &= gs_poly_equal(&y, &a, ctx);
+        CHECK_MSG(ok, "aliasing");
+        if (!ok)
+            print_case("aliasing", seed, &a, &b, ctx);
+    }
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&x);
+    gs_poly_clear(&y);
+}
+
+/* (ab)/b = a; ab + c is not divisible by a nonconstant b for a nonzero
+   constant c; ab/(2b) is not integral when the content of a is odd;
+   a random quotient is either exact (and then checks) or reported so. */
+static void loop_division(const gs_polyctx *ctx, uint64_t seed0, int n)
+{
+    gs_poly a, b, p, q, one;
+    gs_int c;
+    int k;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&p);
+    gs_poly_init(&q);
+    gs_poly_init(&one);
+    gs_int_init(&c);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        int ok = 1, rc;
+        rand_pair(&a, &b, &r, ctx);
+        gs_poly_mul(&p, &a, &b, ctx);
+        ok &= gs_poly_divexact(&q, &p, &b, ctx) == GS_OK;
+        ok &= canonical(&q, ctx) && gs_poly_equal(&q, &a, ctx);
+        ok &= gs_poly_divexact(&q, &p, &a, ctx) == GS_OK;
+        ok &= gs_poly_equal(&q, &b, ctx);
+        if (!gs_poly_is_const(&b, ctx)) {
+            rand_int(&c, &r, 1 + rbelow(&r, 90));
+            gs_poly_set_int(&one, &c, ctx);
+            gs_poly_add(&q, &p, &one, ctx);
+            ok &= gs_poly_divexact(&q, &q, &b, ctx) == GS_EINEXACT;
+            ok &= gs_poly_is_zero(&q);
+        }
+        gs_poly_content(&c, &a);
+        if (gs_int_mod_ui(&c, 2) == 1) {
+            gs_poly_mul_si(&q, &b, 2, ctx);
+            ok &= gs_poly_divexact(&q, &p, &q, ctx) == GS_EINEXACT;
+        }
+        rc = gs_poly_divexact(&q, &a, &b, ctx);
+        if (rc == GS_OK) {
+            gs_poly_mul(&q, &q, &b, ctx);
+            ok &= gs_poly_equal(&q, &a, ctx);
+        } else {
+            ok &= rc == GS_EINEXACT && gs_poly_is_zero(&q);
+        }
+        CHECK_MSG(ok, "division");
+        if (!ok)
+            print_case("division", seed, &a, &b, ctx);
+    }
+    gs_int_clear(&c);
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&p);
+    gs_poly_clear(&q);
+    gs_poly_clear(&one);
+}
+
+/* product rule, coefficients in a variable add back up to the
+   polynomial, content times primitive part, powers, text round trip,
+   canonicalise of a shuffled copy and its hash */
+static void loop_misc(const gs_polyctx *ctx, uint64_t seed0, int n)
+{
+    gs_poly a, b, s, t, u, xk;
+    gs_int c;
+    int k;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&s);
+    gs_poly_init(&t);
+    gs_poly_init(&u);
+    gs_poly_init(&xk);
+    gs_int_init(&c);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        int ok = 1, v = (int)rbelow(&r, (unsigned)ctx->nvars);
+        long d, j;
+        char *str;
+        size_t i;
+        unsigned ex[16];
+        rand_pair(&a, &b, &r, ctx);
+        gs_poly_mul(&s, &a, &b, ctx);                 /* (ab)' */
+        gs_poly_derivative(&s, &s, v, ctx);
+        gs_poly_derivative(&t, &a, v, ctx);
+        gs_poly_mul(&t, &t, &b, ctx);
+        gs_poly_derivative(&u, &b, v, ctx);
+        gs_poly_mul(&u, &a, &u, ctx);
+        gs_poly_add(&t, &t, &u, ctx);
+        ok &= canonical(&s, ctx) && gs_poly_equal(&s, &t, ctx);
+        d = gs_poly_degree(&a, v, ctx);               /* collect in v */
+        gs_poly_zero(&s);
+        for (j = 0; j <= d; j++) {
+            gs_poly_coeff_var(&t, &a, v, (unsigned)j, ctx);
+            gs_poly_set_var(&xk, v, (unsigned)j, ctx);
+            gs_poly_mul(&t, &t, &xk, ctx);
+            gs_poly_add(&s, &s, &t, ctx);
+        }
+        ok &= gs_poly_equal(&s, &a, ctx);
+        gs_poly_content(&c, &a);                      /* content */
+        gs_poly_primitive(&t, &a, ctx);
+        ok &= gs_poly_sgn(&t) > 0;
+        gs_poly_mul_int(&t, &t, &c, ctx);
+        ok &= gs_poly_equal(&t, &a, ctx);
+        if (gs_poly_total_degree(&b, ctx) <= 6) {     /* b^3 = b b b */
+            gs_poly_pow_ui(&s, &b, 3, ctx);
+            gs_poly_mul(&t, &b, &b, ctx);
+            gs_poly_mul(&t, &t, &b, ctx);
+            ok &= gs_poly_equal(&s, &t, ctx);
+        }
+        str = gs_poly_get_str(&a, ctx);               /* text */
+        ok &= gs_poly_set_str(&s, str, ctx) == GS_OK;
+        ok &= gs_poly_equal(&s, &a, ctx);
+        free(str);
+        gs_poly_zero(&s);                             /* shuffled */
+        for (i = a.length; i-- > 0;) {
+            gs_poly_get_term_exps(ex, &a, i, ctx);
+            gs_poly_push_term(&s, &a.coeffs[i], ex, ctx);
+        }
+        gs_poly_canonicalise(&s, ctx);
+        ok &= gs_poly_equal(&s, &a, ctx);
+        ok &= gs_poly_hash(&s, ctx) == gs_poly_hash(&a, ctx);
+        CHECK_MSG(ok, "misc");
+        if (!ok)
+            print_case("misc", seed, &a, &b, ctx);
+    }
+    gs_int_clear(&c);
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&s);
+    gs_poly_clear(&t);
+    gs_poly_clear(&u);
+    gs_poly_clear(&xk);
+}
+
+/* Substitute then evaluate equals evaluate at the substituted value.
+   Small integers at small points keep every partial sum an integer below
+   2^50, exact in long double (64-bit significand), so equality is exact:
+   |b| <= 4 * 2^5 * 2^3, and a term of a is at most 2^7 |b|^3 2^6. */
+static void loop_subst_eval(const gs_polyctx *ctx, uint64_t seed0, int n)
+{
+    gs_poly a, b, s;
+    gs_rat q;
+    gs_int scale;
+    long double vals[16], ev;
+    int k, v;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&s);
+    gs_rat_init(&q);
+    gs_int_init(&scale);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        int ok = 1, x = (int)rbelow(&r, (unsigned)ctx->nvars);
+        long num = (long)rbelow(&r, 7) - 3, den = 1 + (long)rbelow(&r, 3);
+        rand_poly(&a, &r, 1 + rbelow(&r, 12), ctx->nvars, 3, 7, ctx);
+        rand_poly(&b, &r, 1 + rbelow(&r, 4), ctx->nvars, 1, 5, ctx);
+        for (v = 0; v < ctx->nvars; v++)        /* |values| <= 2 in three
+                                                   variables, else <= 1 */
+            vals[v] = v < 3 ? (long double)((int)rbelow(&r, 5) - 2)
+                            : (long double)((int)rbelow(&r, 3) - 1);
+        gs_poly_subst(&s, &a, x, &b, ctx);
+        ok &= canonical(&s, ctx);
+        ev = gs_poly_eval_ld(&s, vals, ctx);
+        vals[x] = gs_poly_eval_ld(&b, vals, ctx);
+        ok &= ev == gs_poly_eval_ld(&a, vals, ctx);
+        /* x = num/den: eval(r) / scale = a(num/den); den^deg is exact */
+        gs_rat_set_si(&q, num, den);
+        gs_poly_subst_rat(&s, &scale, &a, x, &q, ctx);
+        ok &= canonical(&s, ctx) && gs_poly_degree(&s, x, ctx) <= 0;
+        ev = gs_poly_eval_ld(&s, vals, ctx);
+        vals[x] = (long double)num / (long double)den;
+        ok &= fabsl(ev / gs_int_get_ld(&scale)
+                    - gs_poly_eval_ld(&a, vals, ctx))
+            <= 1e-12L * (1 + fabsl(ev));
+        CHECK_MSG(ok, "subst/eval");
+        if (!ok)
+            print_case("subst/eval", seed, &a, &b, ctx);
+    }
+    gs_int_clear(&scale);
+    gs_rat_clear(&q);
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&s);
+}
+
+/* Dense shapes that pick the block method by themselves, and sparse
+   ones in many variables that pick the heap: all methods agree. */
+static void loop_shapes(const env *e, uint64_t seed0, int n)
+{
+    gs_poly a, b, p, q;
+    int k;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&p);
+    gs_poly_init(&q);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        const gs_polyctx *ctx = k % 2 ? e->c11 : e->c4;
+        int ok = 1, m;
+        renew(&a);
+        renew(&b);
+        renew(&p);
+        renew(&q);
+        unsigned nt = 50 + rbelow(&r, 300);
+        rand_poly(&a, &r, nt, 1 + (int)rbelow(&r, 4), 3 + rbelow(&r, 12),
+                  1 + rbelow(&r, 70), ctx);
+        rand_poly(&b, &r, nt, 1 + (int)rbelow(&r, 4), 3 + rbelow(&r, 12),
+                  1 + rbelow(&r, 70), ctx);
+        gs_poly_mul_method(&p, &a, &b, GS_POLY_MUL_HEAP | GS_POLY_MUL_BIGACC,
+                           ctx);
+        ok &= canonical(&p, ctx);
+        for (m = 0; m <= 2; m++) {
+            gs_poly_mul_method(&q, &a, &b, m, ctx);
+            ok &= gs_poly_equal(&p, &q, ctx);
+        }
+        ok &= gs_poly_divexact(&q, &p, &a, ctx) == GS_OK
+            && gs_poly_equal(&q, &b, ctx);
+        CHECK_MSG(ok, "shapes");
+        if (!ok)
+            print_case("shapes", seed, &a, &b, ctx);
+    }
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&p);
+    gs_poly_clear(&q);
+}
+
+int main(int argc, char **argv)
+{
+    env e;
+    uint64_t seed = argc > 1 ? strtoull(argv[1], NULL, 10) : 20261201;
+    env_init(&e);
+    test_text(&e);
+    test_binomial(&e);
+    test_small_identities(&e);
+    test_content(&e);
+    test_degrees(&e);
+    test_derivative(&e);
+    test_subst(&e);
+    test_limit(&e);
+    test_eval(&e);
+    test_build(&e);
+    test_fateman_small(&e);
+    test_big_coeffs(&e);
+    loop_ring(e.c4, seed, 150);
+    loop_ring(e.c11, seed + 1000, 150);
+    loop_alias(e.c4, seed + 2000, 100);
+    loop_alias(e.c11, seed + 3000, 100);
+    loop_division(e.c4, seed + 4000, 200);
+    loop_division(e.c11, seed + 5000, 200);
+    loop_misc(e.c4, seed + 6000, 100);
+    loop_misc(e.c11, seed + 7000, 100);
+    loop_subst_eval(e.c4, seed + 8000, 200);
+    loop_subst_eval(e.c11, seed + 9000, 200);
+    loop_shapes(&e, seed + 10000, 40);
+    env_clear(&e);
+    return check_report("poly");
+}
