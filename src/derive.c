@@ -170,6 +170,24 @@ static void assemble(gs_tf *tf, const gs_mna *m, gs_poly *det_a,
     gs_poly_mul_int(&tf->den, det_a, &m->scale.den, ctx);
 }
 
+/* "v(out) / vin", "i(R1) / iin", "out, gnd": what the output asks for. */
+static char *describe(const gs_circuit *c, const gs_output *o)
+{
+    char *probe, *text;
+    if (o->kind == GS_OUT_IMPEDANCE)
+        return gs_asprintf("%s, %s", c->node_name[o->a], c->node_name[o->b]);
+    if (o->out.kind == GS_PROBE_I)
+        probe = gs_asprintf("i(%s)", c->elems[o->out.elem].name);
+    else if (o->out.b == 0)
+        probe = gs_asprintf("v(%s)", c->node_name[o->out.a]);
+    else
+        probe = gs_asprintf("v(%s, %s)", c->node_name[o->out.a],
+                            c->node_name[o->out.b]);
+    text = gs_asprintf("%s / %s", probe, c->elems[o->in].name);
+    free(probe);
+    return text;
+}
+
 int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
               const gs_polyctx *ctx, const gs_derive_opts *o,
               gs_derive_stats *stats, gs_diag *d)
@@ -178,13 +196,15 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
     gs_derive_stats local;
     gs_mna m;
     gs_poly det_a, det_m;
+    char *desc = describe(c, op);
     int rc;
 
     if (stats == NULL)
         stats = &local;
     memset(stats, 0, sizeof *stats);
-    free(tf->name);
-    tf->name = gs_strdup(op->name);
+    gs_tf_set_name(tf, op->name);
+    gs_tf_set_description(tf, desc);
+    free(desc);
     tf->kind = op->kind == GS_OUT_IMPEDANCE ? GS_TF_IMPEDANCE
                                             : GS_TF_TRANSFER;
     memset(&m, 0, sizeof m);

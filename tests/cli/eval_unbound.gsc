@@ -1,0 +1,7 @@
+# eval names every symbol that has no value
+vsource   vin in gnd
+resistor  R1 in out
+resistor  R2 out gnd
+capacitor C1 out gnd
+value     R1 = 1k
+transfer  H = v(out) / vin
