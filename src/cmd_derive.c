@@ -11,12 +11,14 @@
 
 static const gs_cli_opt derive_spec[] = {
     {"only", 1, 0}, {"limit", 1, 1}, {"format", 1, 0}, {"collect", 1, 0},
+    {"out", 1, 0}, {"in", 1, 0},
     {"max-terms", 1, 0}, {"pivot", 1, 0}, {"stats", 0, 0}, {"help", 0, 0},
     {NULL, 0, 0}
 };
 
 static const gs_cli_opt eval_spec[] = {
     {"only", 1, 0}, {"limit", 1, 1}, {"set", 1, 1}, {"at", 1, 1},
+    {"out", 1, 0}, {"in", 1, 0},
     {"max-terms", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
 };
 
@@ -68,18 +70,40 @@ static int parse_limits(gs_limit **out, const gs_cli *cl, const gs_job *j,
 
 static int parse_pivot(gs_pivot_rule *rule, const char *text, FILE *err)
 {
-    if (text == NULL || strcmp(text, "markowitz") == 0)
+    if (text == NULL || strcmp(text, "minwork") == 0)
+        *rule = GS_PIVOT_MINWORK;
+    else if (strcmp(text, "markowitz") == 0)
         *rule = GS_PIVOT_MARKOWITZ;
     else if (strcmp(text, "minterms") == 0)
         *rule = GS_PIVOT_MINTERMS;
     else if (strcmp(text, "natural") == 0)
         *rule = GS_PIVOT_NATURAL;
     else {
-        fprintf(err, "gainsmith derive: error: --pivot expects markowitz, "
-                "minterms or natural, got '%s'\n", text);
+        fprintf(err, "gainsmith derive: error: --pivot expects minwork, "
+                "markowitz, minterms or natural, got '%s'\n", text);
         return 2;
     }
     return 0;
+}
+
+/* --out EXPR --in SRC: an output given on the command line, named "H"
+   (or --only's name), which then is the only one derived. */
+static int adhoc_transfer(gs_job *j, const gs_cli *cl, const char *cmd,
+                          gs_diag *d, FILE *err, int *status)
+{
+    const char *out = gs_cli_get(cl, "out", 0), *in = gs_cli_get(cl, "in", 0);
+    if (out == NULL && in == NULL)
+        return GS_OK;
+    if (out == NULL || in == NULL) {
+        fprintf(err, "gainsmith %s: error: --out and --in go together\n",
+                cmd);
+        *status = 2;
+        return GS_EINVAL;
+    }
+    j->c->noutputs = 0;     /* only the command line's output */
+    return gs_job_add_transfer(j, gs_cli_get(cl, "only", 0)
+                                  ? gs_cli_get(cl, "only", 0) : "H",
+                               out, in, d);
 }
 
 int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
@@ -108,6 +132,8 @@ int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
     rc = gs_job_load(j, path, &d);
     if (rc == GS_OK && (status = parse_limits(&limits, cl, j, cmd, err)))
         rc = GS_EINVAL;
+    if (rc == GS_OK)
+        rc = adhoc_transfer(j, cl, cmd, &d, err, &status);
     if (rc == GS_OK) {
         o.limits = limits;
         o.nlimits = gs_cli_count(cl, "limit");

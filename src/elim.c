@@ -22,7 +22,7 @@ typedef struct elim {
 void gs_elim_opts_default(gs_elim_opts *o)
 {
     o->max_terms = 0;
-    o->pivot = GS_PIVOT_MARKOWITZ;
+    o->pivot = GS_PIVOT_MINWORK;
     o->progress = NULL;
 }
 
@@ -47,6 +47,32 @@ static void count_nonzeros(elim *e)
     }
 }
 
+/* Terms the products of a step on pivot (r, c) would touch: for every
+   row i the pivot column reaches and every column j of the pivot row or
+   of row i, |p| |S_ij| + |S_ic| |T_rj|, plus a stale pivot row's
+   rescaling.  A size estimate of the work, not of the result. */
+static unsigned long long step_work(elim *e, int r, int c, int k)
+{
+    unsigned long long w = 0, lp = at(e, r, c)->length;
+    int i, j;
+    if (e->last[r] != k - 1)
+        for (j = 0; j <= e->n; j++)
+            if (e->col_on[j])
+                w += at(e, r, j)->length * e->dets[k - 1].length;
+    for (i = 0; i <= e->n; i++) {
+        unsigned long long lic;
+        if (i == r || !e->row_on[i] || gs_poly_is_zero(at(e, i, c)))
+            continue;
+        lic = at(e, i, c)->length;
+        for (j = 0; j <= e->n; j++) {
+            if (j == c || !e->col_on[j])
+                continue;
+            w += lp * at(e, i, j)->length + lic * at(e, r, j)->length;
+        }
+    }
+    return w;
+}
+
 /* Cost of pivoting on (i, j) under the rule; smaller is better.  A stale
    row costs a rescaling first, so it loses ties. */
 static void pivot_cost(unsigned long long cost[3], elim *e, int i, int j,
@@ -57,6 +83,9 @@ static void pivot_cost(unsigned long long cost[3], elim *e, int i, int j,
     unsigned long long terms = at(e, i, j)->length;
     unsigned long long stale = e->last[i] != k - 1;
     switch (rule) {
+    case GS_PIVOT_MINWORK:
+        cost[0] = step_work(e, i, j, k); cost[1] = fill; cost[2] = terms;
+        break;
     case GS_PIVOT_MINTERMS:
         cost[0] = terms; cost[1] = fill; cost[2] = stale;
         break;

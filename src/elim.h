@@ -27,6 +27,7 @@
 #include "poly.h"
 
 typedef enum gs_pivot_rule {
+    GS_PIVOT_MINWORK,    /* least estimated work of the step's products */
     GS_PIVOT_MARKOWITZ,  /* least fill (r-1)(c-1), then fewest terms */
     GS_PIVOT_MINTERMS,   /* fewest terms in the pivot, then least fill */
     GS_PIVOT_NATURAL     /* first nonzero in the first remaining column */
@@ -44,6 +45,7 @@ typedef struct gs_elim_stats {
     size_t big_divisions;    /* exact divisions by a non-constant pivot */
 } gs_elim_stats;
 
+/* Defaults: no budget, GS_PIVOT_MINWORK, no progress. */
 void gs_elim_opts_default(gs_elim_opts *o);
 
 /* Eliminate m in place (its entries are consumed).  On GS_OK, det_a is

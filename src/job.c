@@ -53,6 +53,76 @@ int gs_job_load(gs_job *j, const char *path, gs_diag *d)
     return GS_OK;
 }
 
+/* Parse "v(a)", "v(a, b)" or "i(X)" into p. */
+static int parse_probe(gs_probe *p, const gs_circuit *c, const char *text,
+                       gs_diag *d)
+{
+    char kind, a[128] = "", b[128] = "", close = 0;
+    int n, na, nb;
+    n = sscanf(text, " %c ( %127[^,) ] %c", &kind, a, &close);
+    if (n == 3 && close == ',')
+        n = sscanf(text, " %c ( %127[^,) ] , %127[^) ] %c", &kind, a, b,
+                   &close) == 4 ? 3 : 0;
+    if (n != 3 || close != ')' || (kind != 'v' && kind != 'i')
+        || (kind == 'i' && b[0])) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                    "write v(NODE), v(NODE, NODE) or i(ELEMENT)",
+                    "--out '%s' is not an output quantity", text);
+        return GS_ESYNTAX;
+    }
+    if (kind == 'i') {
+        p->kind = GS_PROBE_I;
+        p->elem = gs_circuit_find_element(c, a);
+        if (p->elem >= 0)
+            return GS_OK;
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                    "--out: the circuit has no element '%s'", a);
+        return GS_EINVAL;
+    }
+    na = gs_circuit_find_node(c, a);
+    nb = b[0] ? gs_circuit_find_node(c, b) : 0;
+    if (na < 0 || nb < 0) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                    "--out: the circuit has no node '%s'", na < 0 ? a : b);
+        return GS_EINVAL;
+    }
+    p->kind = GS_PROBE_V;
+    p->a = na;
+    p->b = nb;
+    p->elem = -1;
+    return GS_OK;
+}
+
+int gs_job_add_transfer(gs_job *j, const char *name, const char *out,
+                        const char *src, gs_diag *d)
+{
+    gs_circuit *c = j->c;
+    gs_output *o;
+    gs_probe p;
+    int in, rc = parse_probe(&p, c, out, d);
+    if (rc != GS_OK)
+        return rc;
+    in = gs_circuit_find_element(c, src);
+    if (in < 0 || (c->elems[in].kind != GS_VSOURCE
+                   && c->elems[in].kind != GS_ISOURCE)) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                    "the input is a vsource or isource of the circuit",
+                    "--in '%s' is not an independent source of the circuit",
+                    src);
+        return GS_EINVAL;
+    }
+    c->outputs = gs_reallocarray(c->outputs, c->noutputs + 1,
+                                 sizeof *c->outputs);
+    o = &c->outputs[c->noutputs++];
+    memset(o, 0, sizeof *o);
+    o->kind = GS_OUT_TRANSFER;
+    o->name = gs_strdup(name);
+    o->out = p;
+    o->in = in;
+    o->a = o->b = -1;
+    return GS_OK;
+}
+
 static int derive_one(gs_job *j, size_t k, const gs_derive_opts *o,
                       gs_diag *d)
 {

@@ -33,6 +33,13 @@ void gs_job_clear(gs_job *j);
    GS_OK, or the parser's code with messages in d. */
 int gs_job_load(gs_job *j, const char *path, gs_diag *d);
 
+/* Add an output "NAME = OUT / SRC" given on the command line, as if the
+   file had a transfer line: OUT is v(a), v(a, b) or i(ELEMENT), SRC an
+   independent source.  GS_OK, or GS_ESYNTAX / GS_EINVAL with a message
+   in d that names the option. */
+int gs_job_add_transfer(gs_job *j, const char *name, const char *out,
+                        const char *src, gs_diag *d);
+
 /* Derive every output, or only the one named `only` (NULL for all). */
 int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,
                   gs_diag *d);

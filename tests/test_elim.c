@@ -164,7 +164,7 @@ static void test_random_networks(void)
         char *text;
         rng_state = seed;
         text = random_network(n, adj);
-        for (rule = 0; rule < 3; rule++)
+        for (rule = 0; rule < 4; rule++)
             CHECK_MSG(check_kirchhoff(text, count_trees(n, adj), rule),
                       "seed %llu rule %d:\n%s", seed, rule, text);
         free(text);
