@@ -10,6 +10,9 @@
 #                absent, standard error must be empty)
 #   NAME.status  expected exit status (default 2 when NAME.err exists and
 #                NAME.out does not, else 0)
+#   NAME.same    the name of another case whose expected output NAME's
+#                output must equal, once "(origin)" notes of values are
+#                dropped (two ways of writing the same circuit)
 # Ends with "run_cli.sh: N passed, N failed".
 bin=$1
 dir=tests/cli
@@ -49,6 +52,16 @@ for gsc in "$dir"/*.gsc; do
         echo "$base: standard output differs:"
         diff "$name.out" "$tmp/out" | head -20
         ok=0
+    fi
+    if [ -f "$name.same" ]; then
+        other="$dir/$(cat "$name.same").out"
+        sed 's/  ([^)]*)$//' "$tmp/out" >"$tmp/a"
+        sed 's/  ([^)]*)$//' "$other" >"$tmp/b"
+        if ! cmp -s "$tmp/a" "$tmp/b"; then
+            echo "$base: output differs from $other:"
+            diff "$tmp/b" "$tmp/a" | head -20
+            ok=0
+        fi
     fi
     if [ -f "$name.err" ]; then
         if ! cmp -s "$tmp/err" "$name.err"; then
