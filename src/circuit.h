@@ -66,7 +66,7 @@ char *gs_monomial_get_str(const gs_monomial *m, const gs_symtab *st);
 typedef struct gs_element {
     gs_elem_kind kind;
     char *name;          /* unique among elements ("M1.gm" for a part of a
-                            device M1; see device_parts in parse.c) */
+                            device M1; see parse_dev.c) */
     int line, col;       /* where the defining text starts: its name in
                             its line (a device part: the device's name) */
     int node[4];         /* n0, n1 and, for VCCS/VCVS, control n2, n3;
