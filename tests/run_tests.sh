@@ -48,6 +48,7 @@ if [ -z "$only" ]; then
         run_suite cli sh tests/run_cli.sh "$build/gainsmith"
     fi
     run_suite latex_check sh tests/latex_check.sh "$build"
+    run_suite render_check sh tests/render_check.sh "$build"
     for py in tests/sympy/*.py; do
         [ -f "$py" ] || continue
         run_suite "${py##*/}" sh tests/sympy/run.sh "$build" "$py"
