@@ -284,6 +284,14 @@ int gs_circuit_find_device(const gs_circuit *c, const char *name)
     return -1;
 }
 
+void gs_circuit_clear_outputs(gs_circuit *c)
+{
+    size_t i;
+    for (i = 0; i < c->noutputs; i++)
+        free(c->outputs[i].name);
+    c->noutputs = 0;
+}
+
 size_t gs_circuit_add_value(gs_circuit *c, int sym, gs_expr *expr,
                             const char *origin, int line, int col)
 {

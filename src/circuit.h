@@ -216,6 +216,9 @@ int gs_circuit_find_node(const gs_circuit *c, const char *name);
 int gs_circuit_find_output(const gs_circuit *c, const char *name);
 int gs_circuit_find_device(const gs_circuit *c, const char *name);
 
+/* Drop every output (transfer and impedance lines), freeing them. */
+void gs_circuit_clear_outputs(gs_circuit *c);
+
 /* Append a value definition (expr is owned from then on; origin may be
    NULL and is copied) and return its index. */
 size_t gs_circuit_add_value(gs_circuit *c, int sym, gs_expr *expr,

@@ -100,7 +100,7 @@ static int adhoc_transfer(gs_job *j, const gs_cli *cl, const char *cmd,
         *status = 2;
         return GS_EINVAL;
     }
-    j->c->noutputs = 0;     /* only the command line's output */
+    gs_circuit_clear_outputs(j->c);     /* only the command line's */
     return gs_job_add_transfer(j, gs_cli_get(cl, "only", 0)
                                   ? gs_cli_get(cl, "only", 0) : "H",
                                out, in, d);

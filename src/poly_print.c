@@ -163,7 +163,9 @@ static int parse_number(parser *p, gs_poly *r)
     int rc;
     while (isdigit((unsigned char)p->s[n]))
         n++;
-    digits = gs_strndup(p->s, n);
+    digits = gs_malloc(n + 1);      /* not strndup: it measures the rest */
+    memcpy(digits, p->s, n);
+    digits[n] = '\0';
     p->s += n;
     gs_int_init(&c);
     rc = gs_int_set_str(&c, digits);
