@@ -89,18 +89,16 @@ static inline int gs_pheap_cmp_top(const gs_pheap *h, const uint64_t *key)
     return 0;
 }
 
-/* Insert slot pl >> 32, whose key the caller has stored in keys. */
-static inline void gs_pheap_push(gs_pheap *h, uint64_t pl)
+/* Keep v[n] a sentinel smaller than or equal to every key, so that the
+   one-word sift below may look at a missing right child. */
+static inline void gs_pheap_sentinel(gs_pheap *h)
 {
-    gs_pheap_entry e;
-    size_t k;
-    if (h->n == h->alloc) {
-        h->alloc *= 2;
-        h->v = gs_reallocarray(h->v, h->alloc, sizeof *h->v);
-    }
-    e.k0 = gs_pheap_key(h, pl)[0];
-    e.pl = pl;
-    k = h->n++;
+    h->v[h->n].k0 = 0;
+    h->v[h->n].pl = 0;
+}
+
+static inline void gs_pheap_sift_up(gs_pheap *h, size_t k, gs_pheap_entry e)
+{
     while (k > 0) {
         size_t p = (k - 1) / 2;
         if (gs_pheap_cmp(h, &h->v[p], &e) >= 0)
@@ -111,21 +109,45 @@ static inline void gs_pheap_push(gs_pheap *h, uint64_t pl)
     h->v[k] = e;
 }
 
+/* Insert slot pl >> 32, whose key the caller has stored in keys. */
+static inline void gs_pheap_push(gs_pheap *h, uint64_t pl)
+{
+    gs_pheap_entry e;
+    if (h->n + 1 >= h->alloc) {
+        h->alloc *= 2;
+        h->v = gs_reallocarray(h->v, h->alloc, sizeof *h->v);
+    }
+    e.k0 = gs_pheap_key(h, pl)[0];
+    e.pl = pl;
+    h->n++;
+    gs_pheap_sentinel(h);
+    gs_pheap_sift_up(h, h->n - 1, e);
+}
+
+/* Fill the hole at the top with e.  Bottom-up (Wegener, "Bottom-up
+   heapsort", TCS 118, 1993): walk the hole down along the larger
+   children to a leaf, one comparison a level, then let e climb back; e
+   is a successor of the entry it replaces, so it seldom climbs far.  With
+   one-word keys the child choice is a branch-free compare. */
 static inline void gs_pheap_sift_down(gs_pheap *h, gs_pheap_entry e)
 {
-    size_t k = 0, n = h->n;
-    for (;;) {
-        size_t c = 2 * k + 1;
-        if (c >= n)
-            break;
-        if (c + 1 < n && gs_pheap_cmp(h, &h->v[c + 1], &h->v[c]) > 0)
-            c++;
-        if (gs_pheap_cmp(h, &h->v[c], &e) <= 0)
-            break;
-        h->v[k] = h->v[c];
-        k = c;
+    size_t k = 0, c, n = h->n;
+    if (h->nw == 1) {
+        gs_pheap_entry *v = h->v;
+        while ((c = 2 * k + 1) < n) {
+            c += v[c + 1].k0 > v[c].k0;     /* v[n] is the sentinel */
+            v[k] = v[c];
+            k = c;
+        }
+    } else {
+        while ((c = 2 * k + 1) < n) {
+            if (c + 1 < n && gs_pheap_cmp(h, &h->v[c + 1], &h->v[c]) > 0)
+                c++;
+            h->v[k] = h->v[c];
+            k = c;
+        }
     }
-    h->v[k] = e;
+    gs_pheap_sift_up(h, k, e);
 }
 
 /* Replace the top by slot pl >> 32 (typically the same slot, its key
@@ -142,6 +164,7 @@ static inline void gs_pheap_pop(gs_pheap *h)
 {
     if (--h->n > 0)
         gs_pheap_sift_down(h, h->v[h->n]);
+    gs_pheap_sentinel(h);
 }
 
 /* Compact keys.  The heap compares exponent vectors repacked with just
