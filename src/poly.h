@@ -132,6 +132,11 @@ void gs_poly_mul_monomial(gs_poly *r, const gs_poly *a, const uint64_t *exps,
    when it does not (q is then zero); GS_EDIVZERO when b = 0. */
 int gs_poly_divexact(gs_poly *q, const gs_poly *a, const gs_poly *b,
                      const gs_polyctx *ctx);
+/* gs_poly_divexact with the method forced, for tests and benchmarks: the
+   GS_POLY_MUL_* values above (heap of terms, dense blocks, multi-precision
+   accumulation).  Same result always. */
+int gs_poly_divexact_method(gs_poly *q, const gs_poly *a, const gs_poly *b,
+                            int method, const gs_polyctx *ctx);
 /* q = a / c for an integer c that divides every coefficient: GS_OK,
    GS_EINEXACT or GS_EDIVZERO (q zero on failure). */
 int gs_poly_divexact_int(gs_poly *q, const gs_poly *a, const gs_int *c,

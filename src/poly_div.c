@@ -1,23 +1,27 @@
 /* poly_div.c - exact division of sparse polynomials. See LICENSE.
  *
- * The quotient's terms are produced in decreasing order, each from the
- * next term of a - q b, with a heap holding the pending products q_i b_j
- * (Johnson, "Sparse polynomial arithmetic", SIGSAM Bulletin 8(3), 1974;
- * Monagan and Pearce, "Polynomial division using dynamic arrays, heaps,
- * and packed exponent vectors", CASC 2007).  Quotient term i enters the
- * heap paired with b's second term and moves along b one term at a time,
- * so the heap holds at most one entry per quotient term and the work is
- * about len(q) len(b) log len(q).
+ * The quotient is produced in decreasing order from the successive
+ * leading terms of a - q b, with a heap holding the pending products
+ * q_i b_j (Johnson, "Sparse polynomial arithmetic", SIGSAM Bulletin 8(3),
+ * 1974; Monagan and Pearce, "Polynomial division using dynamic arrays,
+ * heaps, and packed exponent vectors", CASC 2007).  As in poly_mul.c the
+ * work is done in blocks of terms sharing a prefix of exponents: the
+ * heap merges block products q_i b_j (j >= 1), the terms of one prefix
+ * are gathered in a dense array R, and R is divided by b's leading block
+ * there, by the schoolbook method from the top index down, each new
+ * quotient term subtracting its multiple of that block at once.  With a
+ * one-term suffix (prefix = all variables) this is the plain heap
+ * division, one entry per quotient term.
  *
  * Divisibility fails fast: when b divides a, the division algorithm
  * leaves no remainder, so the first term that the leading monomial of b
  * does not divide, a quotient coefficient that is not an integer, or a
  * quotient term outside the degree bounds deg a - deg b (per variable,
  * both ends) proves the division inexact.  The bounds also keep every
- * exponent in range and the work finite on any input.
+ * exponent and dense index in range and the work finite on any input.
  */
 #include "poly.h"
-#include "poly_heap.h"
+#include "poly_impl.h"
 
 #include "gainsmith.h"
 #include "mem.h"
@@ -31,20 +35,30 @@
 typedef struct divstate {
     const gs_polyctx *ctx;
     const gs_poly *a, *b;
-    size_t nw;              /* words of a poly.h exponent vector */
-    size_t kw;              /* words of a compact key (poly_heap.h) */
-    gs_ppack pk;            /* fields sized for the degrees of a */
-    uint64_t *qmax, *qmin;  /* per-field bounds on quotient exponents */
-    uint64_t *lmb;          /* leading monomial of b */
-    uint64_t *m;            /* scratch: a quotient monomial */
-    uint64_t *ca, *cb;      /* compact monomials of a and b */
-    uint64_t *cq;           /* compact monomials of q; also heap keys */
-    uint64_t *keys;         /* per quotient term: key of its heap entry */
-    size_t keys_alloc;      /* terms room in cq and keys */
-    gs_poly q;
-    gs_pheap h;             /* slot i: quotient term i */
+    size_t nw, kw;
+    int small;              /* 128-bit R and int64 quotient coefficients */
+#if GS_HAVE_I128
+    gs_i128 *ac;            /* small mode: the coefficients of a */
+#endif
+    gs_playout lay;         /* radices deg_v(a) + 1 */
+    gs_pside sa, sb;
+    uint64_t *qmax, *qmin;  /* bounds on quotient exponents (poly.h) */
+    uint64_t *lmb_pre;      /* prefix of lm(b) */
+    unsigned *dlmb, *dqmax, *dqmin;   /* the same per variable */
+    gs_poly q;              /* the quotient so far; its blocks: */
+    size_t qblocks, qballoc, qtalloc;
+    size_t *qstart;         /* qblocks + 1 */
+    uint64_t *qskey, *qkey; /* per block: prefix, poly.h and compact */
+    uint64_t *keys;         /* per block: key of its heap entry */
+    uint32_t *qidx;         /* per term: dense suffix index */
+    int64_t *qsmall;        /* per term, small mode */
+    gs_pheap h;             /* slot i: quotient block i with b's block j */
+    uint64_t *cur, *cur_std, *qpre;     /* scratch */
+    size_t bb, lg;          /* small mode: bits of |b|, ceil log2 len b */
+    gs_int qq;
 } divstate;
 
+/* x <= y in every field */
 static int le_fields(const uint64_t *x, const uint64_t *y, size_t nw)
 {
     size_t w;
@@ -54,6 +68,11 @@ static int le_fields(const uint64_t *x, const uint64_t *y, size_t nw)
     return 1;
 }
 
+static unsigned get_exp(const uint64_t *e, int var)
+{
+    return (unsigned)(e[var / 4] >> (48 - 16 * (var % 4))) & 0xFFFFu;
+}
+
 static void pack_degrees(uint64_t *e, const unsigned *d, int nvars)
 {
     int v;
@@ -61,8 +80,9 @@ static void pack_degrees(uint64_t *e, const unsigned *d, int nvars)
         e[v / 4] |= (uint64_t)d[v] << (48 - 16 * (v % 4));
 }
 
-/* Per-field bounds from degrees and low degrees; 0 when some variable
-   already rules the division out.  da: the degrees of a. */
+/* Bounds from degrees and low degrees (deg q = deg a - deg b in every
+   variable, and so for the low degrees); 0 when they rule the division
+   out already.  da: the degrees of a. */
 static int set_bounds(divstate *s, const unsigned *da)
 {
     size_t nw = s->nw, w;
@@ -76,116 +96,211 @@ static int set_bounds(divstate *s, const unsigned *da)
     gs_poly_degrees(d, s->b, s->ctx);
     pack_degrees(bmax, d, s->ctx->nvars);
     ok = le_fields(bmax, amax, nw) && le_fields(bmin, amin, nw);
-    if (ok)
-        for (w = 0; w < nw; w++) {
-            s->qmax[w] = amax[w] - bmax[w];
-            s->qmin[w] = amin[w] - bmin[w];
-        }
+    for (w = 0; ok && w < nw; w++) {
+        s->qmax[w] = amax[w] - bmax[w];
+        s->qmin[w] = amin[w] - bmin[w];
+    }
     ok = ok && le_fields(s->qmin, s->qmax, nw);
     free(d);
     free(amax);
     return ok;
 }
 
-/* m = M / lm(b) if that is a possible quotient monomial */
-static int quotient_monomial(divstate *s, const uint64_t *mono)
+/* The prefix length: the longest suffix whose dense block stays small
+   (8192 entries, 128 KiB) and is not wildly emptier than a (blocks of a
+   times the block size within 256 entries per term of a).  The array is
+   scanned only between the extreme indices that occur, so a block far
+   emptier than that still pays for itself; measured on products of the
+   elimination and of random sparse polynomials (common practice is
+   similar: pick the dense size by the cache, then check sparsity). */
+#define DIV_DENSE_MAX 8192.0
+#define DIV_FILL 256.0
+
+static int div_plan(const gs_poly *a, const unsigned *radix, int method,
+                    const gs_polyctx *ctx)
 {
-    size_t w;
-    if (!le_fields(s->lmb, mono, s->nw))
-        return 0;
-    for (w = 0; w < s->nw; w++)
-        s->m[w] = mono[w] - s->lmb[w];
-    return le_fields(s->m, s->qmax, s->nw) && le_fields(s->qmin, s->m, s->nw);
+    int n = ctx->nvars, m, best = n;
+    size_t *blocks = gs_malloc(((size_t)n + 1) * sizeof *blocks);
+    double dsize = 1, budget = DIV_FILL * (double)a->length + 4096;
+    double cap = method == GS_POLY_MUL_DENSE ? GS_POLY_DENSE_CAP
+                                             : DIV_DENSE_MAX;
+    gs_poly_block_counts(blocks, a, ctx);
+    for (m = n - 1; m >= 0 && method != GS_POLY_MUL_HEAP; m--) {
+        dsize *= radix[m];
+        if (dsize > cap)
+            break;
+        if (method == GS_POLY_MUL_DENSE
+            || (double)blocks[m] * dsize <= budget)
+            best = m;
+    }
+    free(blocks);
+    return best;
 }
 
-/* keys[i] = compact monomial of q_i b_j */
+static void grow_blocks(divstate *s)
+{
+    s->qballoc *= 2;
+    s->qstart = gs_reallocarray(s->qstart, s->qballoc + 1,
+                                sizeof *s->qstart);
+    s->qskey = gs_reallocarray(s->qskey, s->qballoc, s->nw * 8);
+    s->qkey = gs_reallocarray(s->qkey, s->qballoc, s->kw * 8);
+    s->keys = gs_reallocarray(s->keys, s->qballoc, s->kw * 8);
+    s->h.keys = s->keys;
+}
+
+static void grow_terms(divstate *s)
+{
+    s->qtalloc *= 2;
+    s->qidx = gs_reallocarray(s->qidx, s->qtalloc, sizeof *s->qidx);
+    s->qsmall = gs_reallocarray(s->qsmall, s->qtalloc, sizeof *s->qsmall);
+}
+
+/* keys[i] = compact prefix of quotient block i times b's block j */
 static void heap_key(divstate *s, size_t i, size_t j)
 {
     size_t w, kw = s->kw;
     for (w = 0; w < kw; w++)
-        s->keys[i * kw + w] = s->cq[i * kw + w] + s->cb[j * kw + w];
+        s->keys[i * kw + w] = s->qkey[i * kw + w] + s->sb.key[j * kw + w];
 }
 
-/* The next monomial of a - q b, the larger of a's next term and the heap
-   top, as a compact key cm and in poly.h layout sm.  Returns 0 when both
-   are exhausted. */
-static int next_monomial(divstate *s, size_t ia, uint64_t *cm, uint64_t *sm)
+/* The next prefix of a - q b, the larger of a's next block and the heap
+   top, into cur and cur_std; 0 when both are exhausted. */
+static int next_prefix(divstate *s, size_t ia)
 {
-    const uint64_t *ea = ia < s->a->length ? s->ca + ia * s->kw : NULL;
+    const uint64_t *ka = ia < s->sa.nblocks ? s->sa.key + ia * s->kw : NULL;
     size_t w;
-    if (s->h.n > 0 && (ea == NULL || gs_pheap_cmp_top(&s->h, ea) >= 0)) {
+    if (s->h.n > 0 && (ka == NULL || gs_pheap_cmp_top(&s->h, ka) >= 0)) {
         uint64_t pl = s->h.v[0].pl;
         size_t i = (size_t)(pl >> 32), j = (size_t)(pl & 0xFFFFFFFFu);
-        memcpy(cm, gs_pheap_key(&s->h, pl), s->kw * 8);
+        memcpy(s->cur, gs_pheap_key(&s->h, pl), s->kw * 8);
         for (w = 0; w < s->nw; w++)
-            sm[w] = s->q.exps[i * s->nw + w] + s->b->exps[j * s->nw + w];
-    } else if (ea != NULL) {
-        memcpy(cm, ea, s->kw * 8);
-        memcpy(sm, s->a->exps + ia * s->nw, s->nw * 8);
+            s->cur_std[w] = s->qskey[i * s->nw + w]
+                + s->sb.skey[j * s->nw + w];
+    } else if (ka != NULL) {
+        memcpy(s->cur, ka, s->kw * 8);
+        memcpy(s->cur_std, s->sa.skey + ia * s->nw, s->nw * 8);
     } else {
         return 0;
     }
     return 1;
 }
 
-/* does a's term ia have the compact monomial cm? */
-static int a_term_at(const divstate *s, size_t ia, const uint64_t *cm)
+static void widen(size_t *lo, size_t *hi, size_t l, size_t u)
 {
-    return ia < s->a->length
-        && memcmp(cm, s->ca + ia * s->kw, s->kw * 8) == 0;
+    if (l < *lo)
+        *lo = l;
+    if (u > *hi)
+        *hi = u;
 }
 
-/* Pop every heap entry at compact monomial cm, handing each (i, j) to the
-   caller's accumulator through the arrays pi, pj (n entries; at most
-   len(b) - 1, one per j). */
-static size_t pop_equal(divstate *s, const uint64_t *cm, size_t *pi,
-                        size_t *pj)
+/* R = a's block ia (R is zero there) */
+static void scatter_a(divstate *s, void *R, size_t ia, size_t *lo,
+                      size_t *hi)
 {
-    size_t n = 0;
-    while (s->h.n > 0 && gs_pheap_cmp_top(&s->h, cm) == 0) {
+    size_t t, t0 = s->sa.start[ia], t1 = s->sa.start[ia + 1];
+    widen(lo, hi, s->sa.idx[t1 - 1], s->sa.idx[t0]);
+    for (t = t0; t < t1; t++) {
+#if GS_HAVE_I128
+        if (s->small)
+            ((gs_i128 *)R)[s->sa.idx[t]] = s->ac[t];
+        else
+#endif
+            gs_int_set(&((gs_int *)R)[s->sa.idx[t]], &s->a->coeffs[t]);
+    }
+}
+
+/* R -= (terms t0 .. t1-1 of q) * (terms u0 .. u1-1 of b), both as dense
+   suffix indices: the inner loop of the division. */
+static void sub_product(divstate *s, void *R, size_t t0, size_t t1,
+                        size_t u0, size_t u1)
+{
+    const uint32_t *ib = s->sb.idx;
+    size_t t, u;
+#if GS_HAVE_I128
+    if (s->small) {
+        const int64_t *cb = s->sb.small;
+        for (t = t0; t < t1; t++) {
+            gs_i128 *row = (gs_i128 *)R + s->qidx[t];
+            int64_t c = s->qsmall[t];
+            for (u = u0; u < u1; u++)
+                row[ib[u]] -= (gs_i128)c * cb[u];
+        }
+        return;
+    }
+#endif
+    for (t = t0; t < t1; t++) {
+        gs_int *row = (gs_int *)R + s->qidx[t];
+        const gs_int *c = &s->q.coeffs[t];
+        for (u = u0; u < u1; u++)
+            gs_int_submul(&row[ib[u]], c, &s->b->coeffs[u]);
+    }
+}
+
+/* Pop the heap entries at the current prefix into R, queueing their
+   successors. */
+static void pop_pairs(divstate *s, void *R, size_t *lo, size_t *hi)
+{
+    const gs_pside *b = &s->sb;
+    while (s->h.n > 0 && gs_pheap_cmp_top(&s->h, s->cur) == 0) {
         uint64_t pl = s->h.v[0].pl;
         size_t i = (size_t)(pl >> 32), j = (size_t)(pl & 0xFFFFFFFFu);
-        pi[n] = i;
-        pj[n++] = j;
-        if (j + 1 < s->b->length) {
+        size_t t0 = s->qstart[i], t1 = s->qstart[i + 1];
+        widen(lo, hi, s->qidx[t1 - 1] + b->idx[b->start[j + 1] - 1],
+              s->qidx[t0] + b->idx[b->start[j]]);
+        sub_product(s, R, t0, t1, b->start[j], b->start[j + 1]);
+        if (j + 1 < b->nblocks) {
             heap_key(s, i, j + 1);
             gs_pheap_replace_top(&s->h, pl + 1);
         } else {
             gs_pheap_pop(&s->h);
         }
     }
-    return n;
 }
 
-/* Append the quotient term with monomial s->m (compact: cm - lm(b)),
-   coefficient set by the caller, and queue q_i b_1. */
-static gs_int *add_quotient_term(divstate *s, const uint64_t *cm)
+/* Is the quotient prefix cur_std - prefix(lm b) in bounds?  Sets qpre. */
+static int prefix_ok(divstate *s)
 {
-    size_t i = s->q.length, w, kw = s->kw;
-    gs_poly_fit(&s->q, i + 1, s->ctx);
-    memcpy(s->q.exps + i * s->nw, s->m, s->nw * 8);
-    gs_int_init(&s->q.coeffs[i]);
-    s->q.length++;
-    assert(i < ((size_t)1 << 31));
-    if (i == s->keys_alloc) {
-        s->keys_alloc = 2 * s->keys_alloc;
-        s->cq = gs_reallocarray(s->cq, s->keys_alloc, kw * 8);
-        s->keys = gs_reallocarray(s->keys, s->keys_alloc, kw * 8);
-        s->h.keys = s->keys;
+    size_t w;
+    if (!le_fields(s->lmb_pre, s->cur_std, s->nw))
+        return 0;
+    for (w = 0; w < s->nw; w++)
+        s->qpre[w] = s->cur_std[w] - s->lmb_pre[w];
+    for (w = 0; w < s->nw; w++) {
+        uint64_t hi = s->qmax[w] & s->lay.premask[w];
+        uint64_t lo = s->qmin[w] & s->lay.premask[w];
+        if ((((hi | GUARD) - s->qpre[w]) & GUARD) != GUARD
+            || (((s->qpre[w] | GUARD) - lo) & GUARD) != GUARD)
+            return 0;
     }
-    for (w = 0; w < kw; w++)        /* lm(b) divides: no borrows */
-        s->cq[i * kw + w] = cm[w] - s->cb[w];
-    if (s->b->length > 1) {
-        heap_key(s, i, 1);
-        gs_pheap_push(&s->h, ((uint64_t)i << 32) | 1);
+    return 1;
+}
+
+/* Is dense index k, divided by the suffix of lm(b), a possible suffix of
+   a quotient term? */
+static int suffix_ok(const divstate *s, size_t k)
+{
+    int v;
+    for (v = s->lay.m; v < s->ctx->nvars; v++) {
+        unsigned d = (unsigned)((k / s->lay.stride[v]) % s->lay.radix[v]);
+        if (d < s->dlmb[v] || d - s->dlmb[v] > s->dqmax[v]
+            || d - s->dlmb[v] < s->dqmin[v])
+            return 0;
     }
-    return &s->q.coeffs[i];
+    return 1;
+}
+
+static int entry_zero(const divstate *s, const void *R, size_t k)
+{
+#if GS_HAVE_I128
+    if (s->small)
+        return ((const gs_i128 *)R)[k] == 0;
+#endif
+    return gs_int_is_zero(&((const gs_int *)R)[k]);
 }
 
 #if GS_HAVE_I128
-static size_t bits_i64(int64_t x)
+static size_t bits_u64(uint64_t u)
 {
-    uint64_t u = x < 0 ? (uint64_t)0 - (uint64_t)x : (uint64_t)x;
     size_t n = 0;
     while (u) {
         u >>= 1;
@@ -193,196 +308,317 @@ static size_t bits_i64(int64_t x)
     }
     return n;
 }
-
-/* 128-bit coefficients: all of a and b fit in int64.  A sum at one
-   monomial is a_M minus at most len(b) - 1 products q_i b_j, so with
-   |q_i| < 2^bq and |b_j| < 2^bb it stays below 2^127 while
-   bq + bb + ceil log2 len(b) <= 125.  Returns 1 done, 0 inexact, -1 when
-   a quotient coefficient outgrows the bound (redo with gs_ints). */
-static int div_small(divstate *s, size_t *pi, size_t *pj)
-{
-    const gs_poly *a = s->a, *b = s->b;
-    int64_t *qc = NULL, lcb = gs_int_get_si(&b->coeffs[0]);
-    size_t qalloc = 0, ia = 0, bb = 0, bq = 0, lg = 0, k, n;
-    uint64_t *mono = gs_malloc((s->nw + s->kw) * 8), *cm = mono + s->nw;
-    int64_t *bc = gs_malloc(b->length * sizeof *bc);
-    int rc = 1;
-    for (k = 0; k < b->length; k++) {
-        bc[k] = gs_int_get_si(&b->coeffs[k]);
-        if (bits_i64(bc[k]) > bb)
-            bb = bits_i64(bc[k]);
-    }
-    while (((size_t)1 << lg) < b->length)
-        lg++;
-    while (next_monomial(s, ia, cm, mono)) {
-        gs_i128 acc = 0, qq;
-        if (a_term_at(s, ia, cm))
-            acc = gs_int_get_si(&a->coeffs[ia++]);
-        n = pop_equal(s, cm, pi, pj);
-        for (k = 0; k < n; k++)
-            acc -= (gs_i128)qc[pi[k]] * bc[pj[k]];
-        if (acc == 0)
-            continue;
-        if (!quotient_monomial(s, mono) || acc % lcb != 0) {
-            rc = 0;
-            break;
-        }
-        qq = acc / lcb;
-        if (qq > INT64_MAX || qq < -INT64_MAX
-            || bits_i64((int64_t)qq) + bb + lg > 125) {
-            rc = -1;
-            break;
-        }
-        if (bits_i64((int64_t)qq) > bq)
-            bq = bits_i64((int64_t)qq);
-        if (s->q.length == qalloc) {
-            qalloc = qalloc ? 2 * qalloc : 16;
-            qc = gs_reallocarray(qc, qalloc, sizeof *qc);
-        }
-        qc[s->q.length] = (int64_t)qq;
-        gs_int_set_si(add_quotient_term(s, cm), (int64_t)qq);
-    }
-    free(qc);
-    free(bc);
-    free(mono);
-    return rc;
-}
 #endif
 
-/* Multi-precision coefficients.  Returns 1 done, 0 inexact. */
-static int div_big(divstate *s, size_t *pi, size_t *pj)
+/* The quotient coefficient R[k] / lc(b) into s->qq (and qsmall[t]):
+   1 done, 0 not an integer, -1 too large for small mode.  In small
+   mode a sum at one monomial is a coefficient of a, below 2^125, less at
+   most len(b) products q_i b_j: with |q_i| < 2^bq and |b_j| < 2^bb it
+   stays below 2^126 while bq + bb + ceil log2 len(b) <= 125. */
+static int quotient_coeff(divstate *s, void *R, size_t k, size_t t)
 {
-    const gs_poly *a = s->a, *b = s->b;
-    size_t ia = 0, k, n;
-    uint64_t *mono = gs_malloc((s->nw + s->kw) * 8), *cm = mono + s->nw;
-    gs_int acc, qq;
-    int rc = 1;
-    gs_int_init(&acc);
-    gs_int_init(&qq);
-    while (next_monomial(s, ia, cm, mono)) {
-        gs_int_set_si(&acc, 0);
-        if (a_term_at(s, ia, cm))
-            gs_int_set(&acc, &a->coeffs[ia++]);
-        n = pop_equal(s, cm, pi, pj);
-        for (k = 0; k < n; k++)
-            gs_int_submul(&acc, &s->q.coeffs[pi[k]], &b->coeffs[pj[k]]);
-        if (gs_int_is_zero(&acc))
-            continue;
-        if (!quotient_monomial(s, mono)
-            || gs_int_divexact(&qq, &acc, &b->coeffs[0]) != GS_OK) {
-            rc = 0;
-            break;
-        }
-        gs_int_swap(add_quotient_term(s, cm), &qq);
+#if GS_HAVE_I128
+    if (s->small) {
+        gs_i128 r = ((gs_i128 *)R)[k], c;
+        int64_t lcb = s->sb.small[0];
+        uint64_t mag;
+        if (r % lcb != 0)
+            return 0;
+        c = r / lcb;
+        if (c > INT64_MAX || c < -INT64_MAX)
+            return -1;
+        mag = c < 0 ? (uint64_t)-c : (uint64_t)c;
+        if (bits_u64(mag) + s->bb + s->lg > 125)
+            return -1;
+        s->qsmall[t] = (int64_t)c;
+        gs_int_set_si(&s->qq, (int64_t)c);
+        return 1;
     }
-    gs_int_clear(&acc);
-    gs_int_clear(&qq);
-    free(mono);
-    return rc;
+#endif
+    (void)t;
+    return gs_int_divexact(&s->qq, &((gs_int *)R)[k], &s->b->coeffs[0])
+        == GS_OK;
+}
+
+/* Append quotient term t with suffix index qi and coefficient s->qq. */
+static void append_quotient(divstate *s, size_t qi)
+{
+    size_t t = s->q.length, w;
+    uint64_t *e;
+    gs_poly_fit(&s->q, t + 1, s->ctx);
+    e = s->q.exps + t * s->nw;
+    for (w = 0; w < s->nw; w++)
+        e[w] = s->qpre[w];
+    gs_playout_decode(&s->lay, e, qi);
+    gs_int_init(&s->q.coeffs[t]);
+    gs_int_swap(&s->q.coeffs[t], &s->qq);
+    s->qidx[t] = (uint32_t)qi;
+    s->q.length++;
+}
+
+/* Close the quotient block that starts at term t0 and queue it with b's
+   second block. */
+static void close_block(divstate *s, size_t t0)
+{
+    size_t i = s->qblocks;
+    if (s->q.length == t0)
+        return;
+    if (i == s->qballoc)
+        grow_blocks(s);
+    s->qstart[i] = t0;
+    s->qstart[i + 1] = s->q.length;
+    memcpy(s->qskey + i * s->nw, s->qpre, s->nw * 8);
+    gs_ppack_pack(&s->lay.pk, s->qkey + i * s->kw, s->qpre);
+    s->qblocks++;
+    if (s->sb.nblocks > 1) {
+        heap_key(s, i, 1);
+        gs_pheap_push(&s->h, ((uint64_t)i << 32) | 1);
+    }
+}
+
+/* Divide R, over indices lo .. hi, by b's leading block: from the top
+   index down, each nonzero entry gives a quotient term, whose product
+   with that block is subtracted at once (reaching down to lower indices,
+   so lo may move).  1 done, 0 inexact, -1 small mode overflow. */
+static int block_divide(divstate *s, void *R, size_t lo, size_t hi)
+{
+    const gs_pside *b = &s->sb;
+    size_t k, t0 = s->q.length, b1 = b->start[1], ilmb = b->idx[0];
+    size_t ilast = b->idx[b1 - 1];
+    int valid = prefix_ok(s), rc;
+    for (k = hi + 1; k-- > lo;) {
+        if (entry_zero(s, R, k))
+            continue;
+        if (!valid || k < ilmb || !suffix_ok(s, k))
+            return 0;
+        if (s->q.length == s->qtalloc)
+            grow_terms(s);
+        rc = quotient_coeff(s, R, k, s->q.length);
+        if (rc != 1)
+            return rc;
+        append_quotient(s, k - ilmb);
+        sub_product(s, R, s->q.length - 1, s->q.length, 0, b1);
+        if (k - ilmb + ilast < lo)
+            lo = k - ilmb + ilast;
+    }
+    close_block(s, t0);
+    return 1;
+}
+
+static int div_loop(divstate *s, void *R)
+{
+    size_t ia = 0;
+    while (next_prefix(s, ia)) {
+        size_t lo = SIZE_MAX, hi = 0;
+        int rc;
+        if (ia < s->sa.nblocks
+            && memcmp(s->cur, s->sa.key + ia * s->kw, s->kw * 8) == 0)
+            scatter_a(s, R, ia++, &lo, &hi);
+        pop_pairs(s, R, &lo, &hi);
+        rc = block_divide(s, R, lo, hi);
+        if (rc != 1)
+            return rc;
+    }
+    return 1;
 }
 
 #if GS_HAVE_I128
-static int all_small(const gs_poly *p)
+/* c as a 128-bit integer, for |c| < 2^125: |c| = h 2^62 + l */
+static gs_i128 get_i128(const gs_int *c, gs_int *t, gs_int *h, gs_int *l,
+                        const gs_int *two62)
 {
+    gs_i128 v;
+    if (gs_int_is_small(c))
+        return gs_int_get_si(c);
+    gs_int_abs(t, c);
+    gs_int_fdiv_qr(h, l, t, two62);
+    v = (gs_i128)gs_int_get_si(h) * ((gs_i128)1 << 62) + gs_int_get_si(l);
+    return gs_int_sgn(c) < 0 ? -v : v;
+}
+
+static void a_to_i128(divstate *s)
+{
+    gs_int t, h, l, two62;
     size_t i;
-    for (i = 0; i < p->length; i++)
-        if (!gs_int_is_small(&p->coeffs[i]))
-            return 0;
-    return 1;
+    gs_int_init(&t);
+    gs_int_init(&h);
+    gs_int_init(&l);
+    gs_int_init(&two62);
+    gs_int_set_si(&two62, (int64_t)1 << 62);
+    s->ac = gs_malloc((s->a->length + 1) * sizeof *s->ac);
+    for (i = 0; i < s->a->length; i++)
+        s->ac[i] = get_i128(&s->a->coeffs[i], &t, &h, &l, &two62);
+    gs_int_clear(&t);
+    gs_int_clear(&h);
+    gs_int_clear(&l);
+    gs_int_clear(&two62);
 }
 #endif
 
-static uint64_t *pack_all(const gs_ppack *pk, const gs_poly *p, size_t nw)
+static int bits_at_most(const gs_poly *p, size_t bits)
 {
-    size_t i, kw = (size_t)pk->nw;
-    uint64_t *c = gs_malloc((p->length + 1) * kw * 8);
+    size_t i;
     for (i = 0; i < p->length; i++)
-        gs_ppack_pack(pk, c + i * kw, p->exps + i * nw);
-    return c;
+        if (gs_int_bits(&p->coeffs[i]) > bits)
+            return 0;
+    return 1;
 }
 
-/* Returns 0 when the degree bounds already rule the division out. */
-static int state_init(divstate *s, const gs_poly *a, const gs_poly *b,
-                      const gs_polyctx *ctx)
+static int all_small(const gs_poly *p, size_t *bits)
 {
-    unsigned *da = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *da);
-    int ok;
-    s->ctx = ctx;
-    s->a = a;
-    s->b = b;
-    s->nw = (size_t)ctx->nwords;
-    s->qmax = gs_malloc(4 * s->nw * 8);
-    s->qmin = s->qmax + s->nw;
-    s->lmb = s->qmin + s->nw;
-    s->m = s->lmb + s->nw;
-    memcpy(s->lmb, b->exps, s->nw * 8);
-    gs_poly_degrees(da, a, ctx);
-    ok = set_bounds(s, da);
-    gs_ppack_init(&s->pk, da, ctx->nvars);   /* every key is <= deg a */
-    s->kw = (size_t)s->pk.nw;
-    s->ca = ok ? pack_all(&s->pk, a, s->nw) : NULL;
-    s->cb = ok ? pack_all(&s->pk, b, s->nw) : NULL;
-    s->keys_alloc = 16;
-    s->cq = gs_malloc(s->keys_alloc * s->kw * 8);
-    s->keys = gs_malloc(s->keys_alloc * s->kw * 8);
+    size_t i;
+    *bits = 0;
+    for (i = 0; i < p->length; i++) {
+        if (!gs_int_is_small(&p->coeffs[i]))
+            return 0;
+        if (gs_int_bits(&p->coeffs[i]) > *bits)
+            *bits = gs_int_bits(&p->coeffs[i]);
+    }
+    return 1;
+}
+
+/* per-variable bounds and the suffix digits of lm(b) */
+static void unpack_bounds(divstate *s)
+{
+    int v, n = s->ctx->nvars;
+    s->dlmb = gs_malloc(3 * ((size_t)n + 1) * sizeof *s->dlmb);
+    s->dqmax = s->dlmb + n + 1;
+    s->dqmin = s->dqmax + n + 1;
+    for (v = 0; v < n; v++) {
+        s->dlmb[v] = get_exp(s->b->exps, v);
+        s->dqmax[v] = get_exp(s->qmax, v);
+        s->dqmin[v] = get_exp(s->qmin, v);
+    }
+}
+
+static void state_init(divstate *s, int m, const unsigned *radix, int small)
+{
+    size_t w;
+    s->small = small;
+    gs_playout_init(&s->lay, s->ctx, m, radix);
+    s->kw = (size_t)s->lay.kw;
+    gs_pside_build(&s->sa, s->a, &s->lay, 0);
+    gs_pside_build(&s->sb, s->b, &s->lay, small);
+#if GS_HAVE_I128
+    s->ac = NULL;
+    if (small)
+        a_to_i128(s);
+#endif
+    s->lmb_pre = gs_malloc(4 * s->nw * 8);
+    s->cur_std = s->lmb_pre + s->nw;
+    s->qpre = s->cur_std + s->nw;
+    s->cur = s->qpre + s->nw;   /* kw <= nw */
+    for (w = 0; w < s->nw; w++)
+        s->lmb_pre[w] = s->b->exps[w] & s->lay.premask[w];
+    unpack_bounds(s);
     gs_poly_init(&s->q);
+    s->qblocks = 0;
+    s->qballoc = s->qtalloc = 16;
+    s->qstart = gs_malloc((s->qballoc + 1) * sizeof *s->qstart);
+    s->qskey = gs_malloc(s->qballoc * s->nw * 8);
+    s->qkey = gs_malloc(s->qballoc * s->kw * 8);
+    s->keys = gs_malloc(s->qballoc * s->kw * 8);
+    s->qidx = gs_malloc(s->qtalloc * sizeof *s->qidx);
+    s->qsmall = gs_malloc(s->qtalloc * sizeof *s->qsmall);
     gs_pheap_init(&s->h, (int)s->kw, 16);
     s->h.keys = s->keys;
-    free(da);
-    return ok;
-}
-
-static void state_restart(divstate *s)
-{
-    gs_poly_zero(&s->q);
-    s->h.n = 0;
+    gs_int_init(&s->qq);
 }
 
 static void state_clear(divstate *s)
 {
-    free(s->qmax);
-    free(s->ca);
-    free(s->cb);
-    free(s->cq);
-    free(s->keys);
-    gs_ppack_clear(&s->pk);
+    gs_pside_clear(&s->sa);
+    gs_pside_clear(&s->sb);
+    gs_playout_clear(&s->lay);
+#if GS_HAVE_I128
+    free(s->ac);
+#endif
+    free(s->lmb_pre);
+    free(s->dlmb);
     gs_poly_clear(&s->q);
+    free(s->qstart);
+    free(s->qskey);
+    free(s->qkey);
+    free(s->keys);
+    free(s->qidx);
+    free(s->qsmall);
     gs_pheap_clear(&s->h);
+    gs_int_clear(&s->qq);
+}
+
+/* One attempt with the given coefficient mode: 1, 0 or -1 as above; the
+   quotient is left in s->q. */
+static int divide(divstate *s, int m, const unsigned *radix, int small)
+{
+    size_t k, d;
+    int rc;
+    state_init(s, m, radix, small);
+    d = s->lay.dsize;
+#if GS_HAVE_I128
+    if (small) {
+        gs_i128 *R = gs_calloc(d, sizeof *R);
+        rc = div_loop(s, R);
+        free(R);
+        return rc;
+    }
+#endif
+    {
+        gs_int *R = gs_malloc(d * sizeof *R);
+        for (k = 0; k < d; k++)
+            gs_int_init(&R[k]);
+        rc = div_loop(s, R);
+        for (k = 0; k < d; k++)
+            gs_int_clear(&R[k]);
+        free(R);
+    }
+    return rc;
+}
+
+int gs_poly_divexact_method(gs_poly *q, const gs_poly *a, const gs_poly *b,
+                            int method, const gs_polyctx *ctx)
+{
+    divstate s;
+    unsigned *radix;
+    size_t v;
+    int rc = 0, m, small;
+    if (b->length == 0 || a->length == 0) {
+        gs_poly_zero(q);
+        return b->length == 0 ? GS_EDIVZERO : GS_OK;
+    }
+    s.ctx = ctx;
+    s.a = a;
+    s.b = b;
+    s.nw = (size_t)ctx->nwords;
+    s.qmax = gs_malloc(2 * s.nw * 8);
+    s.qmin = s.qmax + s.nw;
+    radix = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *radix);
+    gs_poly_degrees(radix, a, ctx);
+    if (set_bounds(&s, radix)) {
+        for (v = 0; v < (size_t)ctx->nvars; v++)
+            radix[v]++;     /* every key is at most deg a */
+        m = div_plan(a, radix, method & 7, ctx);
+        small = GS_HAVE_I128 && !(method & GS_POLY_MUL_BIGACC)
+            && all_small(b, &s.bb) && bits_at_most(a, 125);
+        for (s.lg = 0; ((size_t)1 << s.lg) < b->length; s.lg++)
+            ;
+        rc = divide(&s, m, radix, small);
+        if (rc < 0) {       /* a quotient coefficient outgrew int64 */
+            state_clear(&s);
+            rc = divide(&s, m, radix, 0);
+        }
+        if (rc == 1)
+            gs_poly_swap(q, &s.q);
+        state_clear(&s);
+    }
+    if (rc != 1)
+        gs_poly_zero(q);
+    free(radix);
+    free(s.qmax);
+    return rc == 1 ? GS_OK : GS_EINEXACT;
 }
 
 int gs_poly_divexact(gs_poly *q, const gs_poly *a, const gs_poly *b,
                      const gs_polyctx *ctx)
 {
-    divstate s;
-    size_t *pi, *pj;
-    int rc = -1;
-    if (b->length == 0) {
-        gs_poly_zero(q);
-        return GS_EDIVZERO;
-    }
-    if (a->length == 0) {
-        gs_poly_zero(q);
-        return GS_OK;
-    }
-    pi = gs_malloc(2 * (b->length + 1) * sizeof *pi);
-    pj = pi + b->length + 1;
-    if (!state_init(&s, a, b, ctx)) {
-        rc = 0;
-    } else {
-#if GS_HAVE_I128
-        if (all_small(a) && all_small(b))
-            rc = div_small(&s, pi, pj);
-#endif
-        if (rc < 0) {
-            state_restart(&s);
-            rc = div_big(&s, pi, pj);
-        }
-    }
-    free(pi);
-    if (rc == 1)
-        gs_poly_swap(q, &s.q);
-    else
-        gs_poly_zero(q);
-    state_clear(&s);
-    return rc == 1 ? GS_OK : GS_EINEXACT;
+    return gs_poly_divexact_method(q, a, b, GS_POLY_MUL_AUTO, ctx);
 }

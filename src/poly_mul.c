@@ -22,7 +22,7 @@
  * when a bound proves it cannot overflow, else in gs_ints.
  */
 #include "poly.h"
-#include "poly_heap.h"
+#include "poly_impl.h"
 
 #include "gainsmith.h"
 #include "mem.h"
@@ -31,68 +31,15 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define GUARD UINT64_C(0x8000800080008000)
-
-/* Largest dense accumulator, in entries: 2^16 entries of 16 bytes stay
-   within the 1-2 MiB second-level cache of current processors. */
-#define DENSE_CAP 65536.0
-
-static int field_shift(int var)
-{
-    return 48 - 16 * (var % GS_POLY_VARS_PER_WORD);
-}
-
-static unsigned get_exp(const uint64_t *e, int var)
-{
-    return (unsigned)(e[var / GS_POLY_VARS_PER_WORD] >> field_shift(var))
-        & 0xFFFFu;
-}
-
-/* One operand cut into blocks. */
-typedef struct side {
-    size_t nterms, nblocks;
-    size_t *start;          /* block k is terms start[k] .. start[k+1]-1 */
-    uint64_t *skey;         /* nblocks * nw: prefix exponents */
-    uint64_t *key;          /* nblocks * kw: the same, compact */
-    uint32_t *idx;          /* per term: dense index of suffix exponents */
-    int64_t *small;         /* per term coefficient, or NULL */
-    const gs_int *coeffs;
-} side;
-
 typedef struct mulstate {
     const gs_polyctx *ctx;
-    int nw, m;
-    int kw;                 /* words of a compact prefix key */
-    gs_ppack pk;            /* compact prefix keys for the heap */
-    size_t dsize;           /* entries of the dense accumulator */
-    unsigned *radix;        /* nvars */
-    size_t *stride;         /* nvars; suffix variables only */
-    uint64_t *premask;      /* nw words: all-ones fields over the prefix */
-    side a, b;
+    gs_playout lay;         /* radices deg_a + deg_b + 1 */
+    gs_pside a, b;          /* heap slot i is a's block i */
     gs_poly out;
     uint64_t *cur;          /* kw: compact prefix of the current block */
     uint64_t *cur_std;      /* nw: the same prefix, poly.h layout */
     gs_int tmp;
 } mulstate;
-
-/* hist[f] = number of consecutive term pairs whose first differing
-   variable is f: a pair starts a new block exactly when f < m. */
-static void diff_hist(size_t *hist, const gs_poly *a, const gs_polyctx *ctx)
-{
-    size_t i, nw = (size_t)ctx->nwords, w;
-    for (i = 1; i < a->length; i++) {
-        const uint64_t *x = a->exps + (i - 1) * nw, *y = x + nw;
-        uint64_t d;
-        int f = 0;
-        for (w = 0; w < nw && x[w] == y[w]; w++)
-            ;
-        assert(w < nw);     /* canonical: no repeated monomials */
-        d = x[w] ^ y[w];
-        while (((d >> field_shift(f)) & 0xFFFFu) == 0)
-            f++;
-        hist[w * GS_POLY_VARS_PER_WORD + (size_t)f]++;
-    }
-}
 
 static double log2_approx(double x)
 {
@@ -123,98 +70,45 @@ static int mul_plan(const gs_poly *a, const gs_poly *b, const unsigned *radix,
                     int method, const gs_polyctx *ctx)
 {
     int n = ctx->nvars, m, best = n;
-    size_t sz = (size_t)ctx->nwords * GS_POLY_VARS_PER_WORD + 1;
-    size_t *ha = gs_calloc(sz, sizeof *ha), *hb = gs_calloc(sz, sizeof *hb);
-    size_t *ca = gs_calloc(sz + 1, sizeof *ca), *cb = gs_calloc(sz + 1,
-                                                               sizeof *cb);
+    size_t *ba = gs_malloc(((size_t)n + 1) * sizeof *ba);
+    size_t *bb = gs_malloc(((size_t)n + 1) * sizeof *bb);
     double dsize = 1, box = 1, bestcost;
-    diff_hist(ha, a, ctx);
-    diff_hist(hb, b, ctx);
-    for (m = 0; m < n; m++) {
-        ca[m + 1] = ca[m] + ha[m];
-        cb[m + 1] = cb[m] + hb[m];
+    gs_poly_block_counts(ba, a, ctx);
+    gs_poly_block_counts(bb, b, ctx);
+    for (m = 0; m < n; m++)
         box *= radix[m];
-    }
     bestcost = plan_cost((double)a->length, (double)b->length,
                          (double)a->length, (double)b->length, box, 1);
     for (m = n - 1; m >= 0 && method != GS_POLY_MUL_HEAP; m--) {
         double cost;
         dsize *= radix[m];
         box /= radix[m];
-        if (dsize > DENSE_CAP)
+        if (dsize > GS_POLY_DENSE_CAP)
             break;
         cost = plan_cost((double)a->length, (double)b->length,
-                         (double)(ca[m] + 1), (double)(cb[m] + 1), box, dsize);
+                         (double)ba[m], (double)bb[m], box, dsize);
         if (method == GS_POLY_MUL_DENSE || cost < bestcost) {
             best = m;
             bestcost = cost;
         }
     }
-    free(ha);
-    free(hb);
-    free(ca);
-    free(cb);
+    free(ba);
+    free(bb);
     return best;
 }
 
-static void side_build(side *s, const gs_poly *p, const mulstate *st,
-                       int small)
-{
-    size_t i, n = p->length, nw = (size_t)st->nw, w, nb = 0;
-    int v, nvars = st->ctx->nvars;
-    s->nterms = n;
-    s->start = gs_malloc((n + 1) * sizeof *s->start);
-    s->skey = gs_malloc((n + 1) * nw * 8);
-    s->key = gs_malloc((n + 1) * (size_t)st->kw * 8);
-    s->idx = gs_malloc((n + 1) * sizeof *s->idx);
-    s->small = small ? gs_malloc((n + 1) * sizeof *s->small) : NULL;
-    s->coeffs = p->coeffs;
-    for (i = 0; i < n; i++) {
-        const uint64_t *e = p->exps + i * nw;
-        uint64_t *k = s->skey + nb * nw;
-        size_t x = 0;
-        for (w = 0; w < nw; w++)
-            k[w] = e[w] & st->premask[w];
-        if (nb == 0 || memcmp(k - nw, k, nw * 8) != 0) {
-            gs_ppack_pack(&st->pk, s->key + nb * (size_t)st->kw, k);
-            s->start[nb++] = i;
-        }
-        for (v = st->m; v < nvars; v++)
-            x += get_exp(e, v) * st->stride[v];
-        s->idx[i] = (uint32_t)x;
-        if (small)
-            s->small[i] = gs_int_get_si(&p->coeffs[i]);
-    }
-    s->start[nb] = n;
-    s->nblocks = nb;
-}
-
-static void side_free(side *s)
-{
-    free(s->start);
-    free(s->skey);
-    free(s->key);
-    free(s->idx);
-    free(s->small);
-}
-
-/* Append the term (prefix cur, suffix index k) to the product; returns
-   its coefficient slot, initialised to 0. */
+/* Append the term (prefix cur_std, suffix index k) to the product;
+   returns its coefficient slot, initialised to 0. */
 static gs_int *emit(mulstate *st, size_t k)
 {
     gs_poly *o = &st->out;
-    size_t nw = (size_t)st->nw, w;
+    size_t nw = (size_t)st->lay.nw, w;
     uint64_t *e;
-    int v;
     gs_poly_fit(o, o->length + 1, st->ctx);
     e = o->exps + o->length * nw;
     for (w = 0; w < nw; w++)
         e[w] = st->cur_std[w];
-    if (st->dsize > 1)
-        for (v = st->m; v < st->ctx->nvars; v++) {
-            uint64_t d = (k / st->stride[v]) % st->radix[v];
-            e[v / GS_POLY_VARS_PER_WORD] |= d << field_shift(v);
-        }
+    gs_playout_decode(&st->lay, e, k);
     gs_int_init(&o->coeffs[o->length]);
     return &o->coeffs[o->length++];
 }
@@ -237,8 +131,8 @@ static void set_i128(gs_int *r, gs_i128 x, gs_int *tmp)
 }
 
 /* acc[ia + ib] += ca * cb over one block pair: the hot loop. */
-static void pair_small(gs_i128 *acc, const side *a, size_t i, const side *b,
-                       size_t j)
+static void pair_small(gs_i128 *acc, const gs_pside *a, size_t i,
+                       const gs_pside *b, size_t j)
 {
     size_t s, t, b0 = b->start[j], nb = b->start[j + 1] - b0;
     const uint32_t *ib = b->idx + b0;
@@ -262,8 +156,8 @@ static void flush_small(mulstate *st, gs_i128 *acc, size_t lo, size_t hi)
 }
 #endif
 
-static void pair_big(gs_int *acc, const side *a, size_t i, const side *b,
-                     size_t j)
+static void pair_big(gs_int *acc, const gs_pside *a, size_t i,
+                     const gs_pside *b, size_t j)
 {
     size_t s, t, b0 = b->start[j], b1 = b->start[j + 1];
     for (s = a->start[i]; s < a->start[i + 1]; s++) {
@@ -285,40 +179,39 @@ static void flush_big(mulstate *st, gs_int *acc, size_t lo, size_t hi)
 /* keys[i] = compact prefix of a's block i plus that of b's block j */
 static void pair_key(uint64_t *keys, const mulstate *st, size_t i, size_t j)
 {
-    const uint64_t *x = st->a.key + i * (size_t)st->kw;
-    const uint64_t *y = st->b.key + j * (size_t)st->kw;
-    uint64_t *k = keys + i * (size_t)st->kw;
-    int w;
-    for (w = 0; w < st->kw; w++)
+    size_t kw = (size_t)st->lay.kw, w;
+    const uint64_t *x = st->a.key + i * kw, *y = st->b.key + j * kw;
+    uint64_t *k = keys + i * kw;
+    for (w = 0; w < kw; w++)
         k[w] = x[w] + y[w];
 }
 
 /* cur_std = the prefix of the block pair (i, j), poly.h layout */
 static void pair_std(mulstate *st, size_t i, size_t j)
 {
-    const uint64_t *x = st->a.skey + i * (size_t)st->nw;
-    const uint64_t *y = st->b.skey + j * (size_t)st->nw;
-    int w;
-    for (w = 0; w < st->nw; w++)
+    size_t nw = (size_t)st->lay.nw, w;
+    const uint64_t *x = st->a.skey + i * nw, *y = st->b.skey + j * nw;
+    for (w = 0; w < nw; w++)
         st->cur_std[w] = x[w] + y[w];
 }
 
 /* Pop every block pair of the top prefix, accumulate it, queue its
    successors; then write out that output block.  acc is the dense
-   accumulator of the chosen kind.  Heap slot i is a's block i. */
+   accumulator of the chosen kind. */
 static void mul_loop(mulstate *st, void *acc, int small)
 {
     gs_pheap h;
-    const side *a = &st->a, *b = &st->b;
-    uint64_t *keys = gs_malloc((a->nblocks + 1) * (size_t)st->kw * 8);
-    gs_pheap_init(&h, st->kw, a->nblocks + 1);
+    const gs_pside *a = &st->a, *b = &st->b;
+    size_t kw = (size_t)st->lay.kw;
+    uint64_t *keys = gs_malloc((a->nblocks + 1) * kw * 8);
+    gs_pheap_init(&h, (int)kw, a->nblocks + 1);
     h.keys = keys;
     pair_key(keys, st, 0, 0);
     gs_pheap_push(&h, 0);
     while (h.n > 0) {
         size_t lo = SIZE_MAX, hi = 0;
         uint64_t top = h.v[0].pl;
-        memcpy(st->cur, gs_pheap_key(&h, top), (size_t)st->kw * 8);
+        memcpy(st->cur, gs_pheap_key(&h, top), kw * 8);
         pair_std(st, (size_t)(top >> 32), (size_t)(top & 0xFFFFFFFFu));
         do {
             uint64_t pl = h.v[0].pl;
@@ -379,85 +272,47 @@ static int small_ok(const gs_poly *a, const gs_poly *b)
     return GS_HAVE_I128 && ba + bb + lg <= 126;
 }
 
-static void state_init(mulstate *st, const gs_polyctx *ctx, int m,
-                       const unsigned *radix)
-{
-    int v;
-    size_t d = 1;
-    st->ctx = ctx;
-    st->nw = ctx->nwords;
-    st->m = m;
-    st->radix = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *st->radix);
-    st->stride = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *st->stride);
-    st->premask = gs_calloc((size_t)st->nw, 8);
-    st->cur_std = gs_malloc((size_t)st->nw * 8);
-    for (v = ctx->nvars - 1; v >= 0; v--) {
-        st->radix[v] = radix[v];
-        st->stride[v] = v >= m ? d : 0;
-        if (v >= m)
-            d *= radix[v];
-        else
-            st->premask[v / GS_POLY_VARS_PER_WORD] |=
-                (uint64_t)0xFFFFu << field_shift(v);
-    }
-    st->dsize = d;
-    {
-        unsigned *maxv = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *maxv);
-        for (v = 0; v < ctx->nvars; v++)
-            maxv[v] = v < m ? radix[v] - 1 : 0;
-        gs_ppack_init(&st->pk, maxv, ctx->nvars);
-        free(maxv);
-    }
-    st->kw = st->pk.nw;
-    st->cur = gs_malloc((size_t)st->kw * 8);
-    gs_poly_init(&st->out);
-    gs_int_init(&st->tmp);
-}
-
-static void state_clear(mulstate *st)
-{
-    side_free(&st->a);
-    side_free(&st->b);
-    free(st->radix);
-    free(st->stride);
-    free(st->premask);
-    free(st->cur);
-    free(st->cur_std);
-    gs_ppack_clear(&st->pk);
-    gs_poly_clear(&st->out);
-    gs_int_clear(&st->tmp);
-}
-
 /* r = a * b with prefix length m; the blocks of a go in the heap. */
 static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
                        const unsigned *radix, int small,
                        const gs_polyctx *ctx)
 {
     mulstate st;
-    size_t k;
-    state_init(&st, ctx, m, radix);
-    side_build(&st.a, a, &st, small);
-    side_build(&st.b, b, &st, small);
-    assert(st.a.nblocks < ((size_t)1 << 31) && st.b.nblocks < ((size_t)1 << 31));
+    size_t k, dsize;
+    st.ctx = ctx;
+    gs_playout_init(&st.lay, ctx, m, radix);
+    gs_pside_build(&st.a, a, &st.lay, small);
+    gs_pside_build(&st.b, b, &st.lay, small);
+    st.cur = gs_malloc((size_t)st.lay.kw * 8);
+    st.cur_std = gs_malloc((size_t)st.lay.nw * 8);
+    gs_poly_init(&st.out);
+    gs_int_init(&st.tmp);
     gs_poly_fit(&st.out, a->length + b->length, ctx);
+    dsize = st.lay.dsize;
 #if GS_HAVE_I128
     if (small) {
-        gs_i128 *acc = gs_calloc(st.dsize, sizeof *acc);
+        gs_i128 *acc = gs_calloc(dsize, sizeof *acc);
         mul_loop(&st, acc, 1);
         free(acc);
     } else
 #endif
     {
-        gs_int *acc = gs_malloc(st.dsize * sizeof *acc);
-        for (k = 0; k < st.dsize; k++)
+        gs_int *acc = gs_malloc(dsize * sizeof *acc);
+        for (k = 0; k < dsize; k++)
             gs_int_init(&acc[k]);
         mul_loop(&st, acc, 0);
-        for (k = 0; k < st.dsize; k++)
+        for (k = 0; k < dsize; k++)
             gs_int_clear(&acc[k]);
         free(acc);
     }
     gs_poly_swap(r, &st.out);
-    state_clear(&st);
+    gs_poly_clear(&st.out);
+    gs_int_clear(&st.tmp);
+    free(st.cur);
+    free(st.cur_std);
+    gs_pside_clear(&st.a);
+    gs_pside_clear(&st.b);
+    gs_playout_clear(&st.lay);
 }
 
 /* r = a * (c x^e) for a one-term b. */

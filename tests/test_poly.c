@@ -632,8 +632,10 @@ static void test_big_coeffs(const env *e)
             CHECK_MSG(gs_poly_equal(&p, &q, e->c4), "bits %u method %d",
                       bits[k], m);
         }
-        CHECK(gs_poly_divexact(&q, &p, &b, e->c4) == GS_OK
-              && gs_poly_equal(&q, &a, e->c4));
+        for (m = 0; m < 3; m++)
+            CHECK_MSG(gs_poly_divexact_method(&q, &p, &b, m, e->c4) == GS_OK
+                      && gs_poly_equal(&q, &a, e->c4), "bits %u method %d",
+                      bits[k], m);
     }
     gs_poly_clear(&a);
     gs_poly_clear(&b);
@@ -784,19 +786,29 @@ static void loop_division(const gs_polyctx *ctx, uint64_t seed0, int n)
     for (k = 0; k < n; k++) {
         uint64_t seed = seed0 + (uint64_t)k;
         rng r = { seed };
-        int ok = 1, rc;
+        int ok = 1, rc, m;
         rand_pair(&a, &b, &r, ctx);
         gs_poly_mul(&p, &a, &b, ctx);
         ok &= gs_poly_divexact(&q, &p, &b, ctx) == GS_OK;
         ok &= canonical(&q, ctx) && gs_poly_equal(&q, &a, ctx);
+        for (m = 1; m <= 2; m++) {                    /* every method */
+            ok &= gs_poly_divexact_method(&q, &p, &b, m, ctx) == GS_OK;
+            ok &= gs_poly_equal(&q, &a, ctx);
+            ok &= gs_poly_divexact_method(&q, &p, &b, m | GS_POLY_MUL_BIGACC,
+                                          ctx) == GS_OK;
+            ok &= gs_poly_equal(&q, &a, ctx);
+        }
         ok &= gs_poly_divexact(&q, &p, &a, ctx) == GS_OK;
         ok &= gs_poly_equal(&q, &b, ctx);
         if (!gs_poly_is_const(&b, ctx)) {
             rand_int(&c, &r, 1 + rbelow(&r, 90));
             gs_poly_set_int(&one, &c, ctx);
-            gs_poly_add(&q, &p, &one, ctx);
-            ok &= gs_poly_divexact(&q, &q, &b, ctx) == GS_EINEXACT;
-            ok &= gs_poly_is_zero(&q);
+            gs_poly_add(&one, &p, &one, ctx);
+            for (m = 0; m <= 2; m++) {
+                ok &= gs_poly_divexact_method(&q, &one, &b, m, ctx)
+                    == GS_EINEXACT;
+                ok &= gs_poly_is_zero(&q);
+            }
         }
         gs_poly_content(&c, &a);
         if (gs_int_mod_ui(&c, 2) == 1) {
@@ -982,8 +994,19 @@ static void loop_shapes(const env *e, uint64_t seed0, int n)
             gs_poly_mul_method(&q, &a, &b, m, ctx);
             ok &= gs_poly_equal(&p, &q, ctx);
         }
-        ok &= gs_poly_divexact(&q, &p, &a, ctx) == GS_OK
-            && gs_poly_equal(&q, &b, ctx);
+        for (m = 0; m <= 2; m++) {
+            ok &= gs_poly_divexact_method(&q, &p, &a, m, ctx) == GS_OK
+                && gs_poly_equal(&q, &b, ctx);
+            ok &= gs_poly_divexact_method(&q, &p, &a, m | GS_POLY_MUL_BIGACC,
+                                          ctx) == GS_OK
+                && gs_poly_equal(&q, &b, ctx);
+        }
+        gs_poly_set_si(&q, 1, ctx);                  /* ab + 1 */
+        gs_poly_add(&p, &p, &q, ctx);
+        if (!gs_poly_is_const(&a, ctx))
+            for (m = 0; m <= 2; m++)
+                ok &= gs_poly_divexact_method(&q, &p, &a, m, ctx)
+                    == GS_EINEXACT && gs_poly_is_zero(&q);
         CHECK_MSG(ok, "shapes");
         if (!ok)
             print_case("shapes", seed, &a, &b, ctx);

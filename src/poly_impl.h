@@ -1,7 +1,8 @@
-/* poly_heap.h - the priority queue of monomials shared by polynomial
- * multiplication and division (internal to poly_*.c).  See LICENSE.
+/* poly_impl.h - internals shared by poly_mul.c, poly_div.c and
+ * poly_block.c: a heap of monomials, compact keys, operands cut into
+ * blocks.  See LICENSE.
  *
- * A binary max-heap (Williams, CACM 7, 1964) of two-word entries: the
+ * The heap is a binary max-heap (Williams, CACM 7, 1964) of two-word entries: the
  * first word of a packed exponent vector, and a payload whose high 32 bits
  * name a slot.  The whole key of slot i lives in keys[i * nw ..], owned by
  * the caller, and is read only when first words tie, so entries move as
@@ -9,13 +10,14 @@
  * pointers to monomials in their heaps for the same reason).  Each slot
  * is in the heap at most once.  Moves use a hole instead of swaps.
  */
-#ifndef GS_POLY_HEAP_H
-#define GS_POLY_HEAP_H
+#ifndef GS_POLY_IMPL_H
+#define GS_POLY_IMPL_H
 
 #include <stdint.h>
 #include <stdlib.h>
 
 #include "mem.h"
+#include "poly.h"
 
 #if defined(__SIZEOF_INT128__)
 __extension__ typedef __int128 gs_i128;
@@ -44,6 +46,7 @@ static inline void gs_pheap_init(gs_pheap *h, int nw, size_t hint)
     h->alloc = hint > 4 ? hint : 4;
     h->v = gs_reallocarray(NULL, h->alloc, sizeof *h->v);
     h->keys = NULL;
+    h->v[0].k0 = h->v[0].pl = 0;    /* the sentinel, see below */
 }
 
 static inline void gs_pheap_clear(gs_pheap *h)
@@ -124,30 +127,34 @@ static inline void gs_pheap_push(gs_pheap *h, uint64_t pl)
     gs_pheap_sift_up(h, h->n - 1, e);
 }
 
-/* Fill the hole at the top with e.  Bottom-up (Wegener, "Bottom-up
-   heapsort", TCS 118, 1993): walk the hole down along the larger
-   children to a leaf, one comparison a level, then let e climb back; e
-   is a successor of the entry it replaces, so it seldom climbs far.  With
-   one-word keys the child choice is a branch-free compare. */
+/* Fill the hole at the top with e, moving larger children up.  With
+   one-word keys the choice of child is a branch-free compare (v[n] is
+   the sentinel, so a missing right child is never chosen), which matters
+   because that choice is a coin toss for the branch predictor. */
 static inline void gs_pheap_sift_down(gs_pheap *h, gs_pheap_entry e)
 {
-    size_t k = 0, c, n = h->n;
+    size_t k = 0, n = h->n, c;
+    gs_pheap_entry *v = h->v;
     if (h->nw == 1) {
-        gs_pheap_entry *v = h->v;
         while ((c = 2 * k + 1) < n) {
-            c += v[c + 1].k0 > v[c].k0;     /* v[n] is the sentinel */
+            c += v[c + 1].k0 > v[c].k0;
+            if (v[c].k0 <= e.k0)
+                break;
             v[k] = v[c];
             k = c;
         }
-    } else {
-        while ((c = 2 * k + 1) < n) {
-            if (c + 1 < n && gs_pheap_cmp(h, &h->v[c + 1], &h->v[c]) > 0)
-                c++;
-            h->v[k] = h->v[c];
-            k = c;
-        }
+        v[k] = e;
+        return;
     }
-    gs_pheap_sift_up(h, k, e);
+    while ((c = 2 * k + 1) < n) {
+        if (c + 1 < n && gs_pheap_cmp(h, &v[c + 1], &v[c]) > 0)
+            c++;
+        if (gs_pheap_cmp(h, &v[c], &e) <= 0)
+            break;
+        v[k] = v[c];
+        k = c;
+    }
+    v[k] = e;
 }
 
 /* Replace the top by slot pl >> 32 (typically the same slot, its key
@@ -162,8 +169,15 @@ static inline void gs_pheap_replace_top(gs_pheap *h, uint64_t pl)
 
 static inline void gs_pheap_pop(gs_pheap *h)
 {
-    if (--h->n > 0)
-        gs_pheap_sift_down(h, h->v[h->n]);
+    gs_pheap_entry e = h->v[--h->n];
+    gs_pheap_sentinel(h);
+    if (h->n > 0)
+        gs_pheap_sift_down(h, e);
+}
+
+static inline void gs_pheap_empty(gs_pheap *h)
+{
+    h->n = 0;
     gs_pheap_sentinel(h);
 }
 
@@ -174,10 +188,10 @@ static inline void gs_pheap_pop(gs_pheap *h)
    straddle a word, so word comparison is still the lex order and sums
    stay exact.  Often the whole key fits in one word. */
 typedef struct gs_ppack {
-    int nvars;
     int nw;             /* words of a compact key, at least 1 */
-    int *word;          /* per variable: word, or -1 when always 0 */
-    int *shift;
+    int nact;           /* variables that take part */
+    int *from;          /* per active variable: poly.h word * 64 + shift */
+    int *to;            /* and compact word * 64 + shift */
 } gs_ppack;
 
 /* maxv[v] bounds variable v's exponent in every key (0: left out). */
@@ -185,15 +199,13 @@ static inline void gs_ppack_init(gs_ppack *p, const unsigned *maxv,
                                  int nvars)
 {
     int v, pos = 64, w = 0;
-    p->nvars = nvars;
-    p->word = gs_malloc(2 * ((size_t)nvars + 1) * sizeof *p->word);
-    p->shift = p->word + nvars + 1;
+    p->from = gs_malloc(2 * ((size_t)nvars + 1) * sizeof *p->from);
+    p->to = p->from + nvars + 1;
+    p->nact = 0;
     for (v = 0; v < nvars; v++) {
         int bits = 0;
         while (bits < 16 && (maxv[v] >> bits) != 0)
             bits++;
-        p->word[v] = -1;
-        p->shift[v] = 0;
         if (bits == 0)
             continue;
         if (bits > pos) {
@@ -201,28 +213,79 @@ static inline void gs_ppack_init(gs_ppack *p, const unsigned *maxv,
             pos = 64;
         }
         pos -= bits;
-        p->word[v] = w;
-        p->shift[v] = pos;
+        p->from[p->nact] = (v / 4) * 64 + 48 - 16 * (v % 4);
+        p->to[p->nact++] = w * 64 + pos;
     }
     p->nw = w + 1;
 }
 
 static inline void gs_ppack_clear(gs_ppack *p)
 {
-    free(p->word);
+    free(p->from);
 }
 
 /* out = compact form of the packed exponent vector e (poly.h layout) */
 static inline void gs_ppack_pack(const gs_ppack *p, uint64_t *out,
                                  const uint64_t *e)
 {
-    int v;
-    for (v = 0; v < p->nw; v++)
-        out[v] = 0;
-    for (v = 0; v < p->nvars; v++)
-        if (p->word[v] >= 0)
-            out[p->word[v]] |= ((e[v / 4] >> (48 - 16 * (v % 4))) & 0xFFFFu)
-                << p->shift[v];
+    int k;
+    for (k = 0; k < p->nw; k++)
+        out[k] = 0;
+    for (k = 0; k < p->nact; k++) {
+        int f = p->from[k], t = p->to[k];
+        out[t >> 6] |= ((e[f >> 6] >> (f & 63)) & 0xFFFFu) << (t & 63);
+    }
 }
+
+/* Blocks.  The variables are cut into a prefix 0 .. m-1 and a suffix
+   m .. nvars-1; the terms of an operand that share their prefix
+   exponents form a block, contiguous in the lex order.  Within a block
+   the suffix exponents are read as the digits of a mixed-radix number
+   (Kronecker's substitution): with radices above every exponent sum that
+   can occur, the index of a product of terms is the sum of their indices,
+   and decreasing index is decreasing lex order. */
+typedef struct gs_playout {
+    const gs_polyctx *ctx;
+    int nw;             /* words of a poly.h exponent vector */
+    int kw;             /* words of a compact prefix key */
+    int m;              /* prefix length */
+    size_t dsize;       /* product of the suffix radices */
+    unsigned *radix;    /* per variable */
+    size_t *stride;     /* per variable; 0 in the prefix */
+    uint64_t *premask;  /* nw words: all-ones fields over the prefix */
+    gs_ppack pk;        /* compact form of prefixes, for the heap */
+} gs_playout;
+
+/* radix[v] > every exponent of v that sums of terms can reach */
+void gs_playout_init(gs_playout *lay, const gs_polyctx *ctx, int m,
+                     const unsigned *radix);
+void gs_playout_clear(gs_playout *lay);
+/* OR the suffix exponents of dense index k into e (poly.h layout) */
+void gs_playout_decode(const gs_playout *lay, uint64_t *e, size_t k);
+
+/* One operand cut into blocks. */
+typedef struct gs_pside {
+    size_t nterms, nblocks;
+    size_t *start;      /* block k is terms start[k] .. start[k+1]-1 */
+    uint64_t *skey;     /* nblocks * nw: prefix exponents, poly.h layout */
+    uint64_t *key;      /* nblocks * kw: the same, compact */
+    uint32_t *idx;      /* per term: dense index of its suffix */
+    int64_t *small;     /* per term coefficient when asked for, or NULL */
+    const gs_int *coeffs;   /* borrowed */
+} gs_pside;
+
+/* small: also copy the coefficients, which must all fit in int64 */
+void gs_pside_build(gs_pside *s, const gs_poly *p, const gs_playout *lay,
+                    int small);
+void gs_pside_clear(gs_pside *s);
+
+/* blocks[m] for m = 0 .. nvars: the number of blocks of a with prefix
+   length m (blocks[nvars] = length of a; 1 for m = 0 unless a = 0). */
+void gs_poly_block_counts(size_t *blocks, const gs_poly *a,
+                          const gs_polyctx *ctx);
+
+/* Largest dense block, in entries: 2^16 entries of 16 bytes stay within
+   the 1-2 MiB second-level cache of current processors. */
+#define GS_POLY_DENSE_CAP 65536.0
 
 #endif
