@@ -53,6 +53,24 @@ static inline uint64_t gs_nmod_mul(uint64_t a, uint64_t b, uint64_t p)
     return a * b % p;
 }
 
+/* Multiplication by a fixed w with the precomputed w' = floor(w 2^32 / p):
+   q = floor(t w' / 2^32) is within one of floor(t w / p), so t w - q p
+   lies in [0, 2p) and no division is needed (Shoup's method, as analysed
+   in Harvey, "Faster arithmetic for number-theoretic transforms",
+   J. Symb. Comput. 60, 2014).  Needs t, w < p < 2^32. */
+static inline uint64_t gs_nmod_shoup_pre(uint64_t w, uint64_t p)
+{
+    return (w << 32) / p;
+}
+
+static inline uint64_t gs_nmod_mul_shoup(uint64_t t, uint64_t w,
+                                         uint64_t wpre, uint64_t p)
+{
+    uint64_t q = (t * wpre) >> 32;
+    uint64_t r = t * w - q * p;     /* exact: the true value is < 2p */
+    return r >= p ? r - p : r;
+}
+
 uint64_t gs_nmod_pow(uint64_t a, uint64_t e, uint64_t p);
 /* inverse of a modulo p; a must be nonzero mod p and p prime (0 returned
    otherwise) */

@@ -21,8 +21,10 @@
  * Ownership: the caller owns each gs_poly struct (gs_poly_init once,
  * gs_poly_clear once); the polynomial owns its arrays.  A gs_polyctx is
  * made with gs_polyctx_new and freed with gs_polyctx_free; it borrows the
- * symbol table, which must outlive it.  Unless a comment says otherwise,
- * an output may alias any input.
+ * symbol table, which must outlive it.  A polynomial's storage is sized
+ * for its context's exponent words, so a polynomial belongs to one
+ * context (clear it before using it with another).  Unless a comment says
+ * otherwise, an output may alias any input.
  */
 #ifndef GS_POLY_H
 #define GS_POLY_H

@@ -40,6 +40,13 @@ void gs_playout_init(gs_playout *lay, const gs_polyctx *ctx, int m,
                 (uint64_t)0xFFFFu << field_shift(v);
     }
     lay->dsize = d;
+    assert(d <= ((size_t)1 << 16));     /* for gs_playout_digit */
+    lay->inv = gs_malloc(2 * ((size_t)n + 1) * sizeof *lay->inv);
+    for (v = 0; v < n; v++) {
+        size_t st = lay->stride[v] ? lay->stride[v] : 1;
+        lay->inv[2 * v] = (((uint64_t)1 << 32) + st - 1) / st;
+        lay->inv[2 * v + 1] = (((uint64_t)1 << 32) + radix[v] - 1) / radix[v];
+    }
     gs_ppack_init(&lay->pk, maxv, n);
     lay->kw = lay->pk.nw;
     free(maxv);
@@ -50,6 +57,7 @@ void gs_playout_clear(gs_playout *lay)
     free(lay->radix);
     free(lay->stride);
     free(lay->premask);
+    free(lay->inv);
     gs_ppack_clear(&lay->pk);
 }
 
@@ -58,10 +66,9 @@ void gs_playout_decode(const gs_playout *lay, uint64_t *e, size_t k)
     int v;
     if (lay->dsize == 1)
         return;
-    for (v = lay->m; v < lay->ctx->nvars; v++) {
-        uint64_t d = (k / lay->stride[v]) % lay->radix[v];
-        e[v / GS_POLY_VARS_PER_WORD] |= d << field_shift(v);
-    }
+    for (v = lay->m; v < lay->ctx->nvars; v++)
+        e[v / GS_POLY_VARS_PER_WORD] |=
+            (uint64_t)gs_playout_digit(lay, k, v) << field_shift(v);
 }
 
 void gs_pside_build(gs_pside *s, const gs_poly *p, const gs_playout *lay,
@@ -83,7 +90,7 @@ void gs_pside_build(gs_pside *s, const gs_poly *p, const gs_playout *lay,
         int same = nb > 0;
         for (w = 0; w < nw; w++) {
             k[w] = e[w] & lay->premask[w];
-            same = same && k[w] == k[w - nw];
+            same = same && k[w] == (k - nw)[w];
         }
         if (!same) {
             gs_ppack_pack(&lay->pk, s->key + nb * (size_t)lay->kw, k);

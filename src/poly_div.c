@@ -73,36 +73,47 @@ static unsigned get_exp(const uint64_t *e, int var)
     return (unsigned)(e[var / 4] >> (48 - 16 * (var % 4))) & 0xFFFFu;
 }
 
-static void pack_degrees(uint64_t *e, const unsigned *d, int nvars)
+/* per-field maximum and minimum of two words (poly.c has the same) */
+static uint64_t field_ge(uint64_t x, uint64_t y)
 {
-    int v;
-    for (v = 0; v < nvars; v++)
-        e[v / 4] |= (uint64_t)d[v] << (48 - 16 * (v % 4));
+    return ((((x | GUARD) - y) & GUARD) >> 15) * 0xFFFFu;
+}
+
+/* mx, mn = per-field maximum and minimum of the exponents of p (p != 0):
+   its degrees and low degrees in every variable, in one pass. */
+static void exp_range(uint64_t *mx, uint64_t *mn, const gs_poly *p,
+                      size_t nw)
+{
+    size_t i, w;
+    memcpy(mx, p->exps, nw * 8);
+    memcpy(mn, p->exps, nw * 8);
+    for (i = 1; i < p->length; i++)
+        for (w = 0; w < nw; w++) {
+            uint64_t e = p->exps[i * nw + w];
+            uint64_t m1 = field_ge(e, mx[w]), m2 = field_ge(e, mn[w]);
+            mx[w] = (e & m1) | (mx[w] & ~m1);
+            mn[w] = (mn[w] & m2) | (e & ~m2);
+        }
 }
 
 /* Bounds from degrees and low degrees (deg q = deg a - deg b in every
    variable, and so for the low degrees); 0 when they rule the division
-   out already.  da: the degrees of a. */
-static int set_bounds(divstate *s, const unsigned *da)
+   out already.  amax: the degrees of a, filled in here. */
+static int set_bounds(divstate *s, uint64_t *amax)
 {
     size_t nw = s->nw, w;
-    uint64_t *amax = gs_calloc(4 * nw, 8), *bmax = amax + nw;
-    uint64_t *amin = bmax + nw, *bmin = amin + nw;
-    unsigned *d = gs_malloc(((size_t)s->ctx->nvars + 1) * sizeof *d);
+    uint64_t *amin = gs_malloc(3 * nw * 8), *bmax = amin + nw;
+    uint64_t *bmin = bmax + nw;
     int ok;
-    gs_poly_monomial_content(amin, s->a, s->ctx);
-    gs_poly_monomial_content(bmin, s->b, s->ctx);
-    pack_degrees(amax, da, s->ctx->nvars);
-    gs_poly_degrees(d, s->b, s->ctx);
-    pack_degrees(bmax, d, s->ctx->nvars);
+    exp_range(amax, amin, s->a, nw);
+    exp_range(bmax, bmin, s->b, nw);
     ok = le_fields(bmax, amax, nw) && le_fields(bmin, amin, nw);
     for (w = 0; ok && w < nw; w++) {
         s->qmax[w] = amax[w] - bmax[w];
         s->qmin[w] = amin[w] - bmin[w];
     }
     ok = ok && le_fields(s->qmin, s->qmax, nw);
-    free(d);
-    free(amax);
+    free(amin);
     return ok;
 }
 
@@ -281,7 +292,7 @@ static int suffix_ok(const divstate *s, size_t k)
 {
     int v;
     for (v = s->lay.m; v < s->ctx->nvars; v++) {
-        unsigned d = (unsigned)((k / s->lay.stride[v]) % s->lay.radix[v]);
+        unsigned d = gs_playout_digit(&s->lay, k, v);
         if (d < s->dlmb[v] || d - s->dlmb[v] > s->dqmax[v]
             || d - s->dlmb[v] < s->dqmin[v])
             return 0;
@@ -459,7 +470,8 @@ static int bits_at_most(const gs_poly *p, size_t bits)
 {
     size_t i;
     for (i = 0; i < p->length; i++)
-        if (gs_int_bits(&p->coeffs[i]) > bits)
+        if (!gs_int_is_small(&p->coeffs[i])
+            && gs_int_bits(&p->coeffs[i]) > bits)
             return 0;
     return 1;
 }
@@ -589,13 +601,12 @@ int gs_poly_divexact_method(gs_poly *q, const gs_poly *a, const gs_poly *b,
     s.a = a;
     s.b = b;
     s.nw = (size_t)ctx->nwords;
-    s.qmax = gs_malloc(2 * s.nw * 8);
+    s.qmax = gs_malloc(3 * s.nw * 8);
     s.qmin = s.qmax + s.nw;
     radix = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *radix);
-    gs_poly_degrees(radix, a, ctx);
-    if (set_bounds(&s, radix)) {
-        for (v = 0; v < (size_t)ctx->nvars; v++)
-            radix[v]++;     /* every key is at most deg a */
+    if (set_bounds(&s, s.qmin + s.nw)) {
+        for (v = 0; v < (size_t)ctx->nvars; v++)    /* every key is at */
+            radix[v] = get_exp(s.qmin + s.nw, (int)v) + 1;  /* most deg a */
         m = div_plan(a, radix, method & 7, ctx);
         small = GS_HAVE_I128 && !(method & GS_POLY_MUL_BIGACC)
             && all_small(b, &s.bb) && bits_at_most(a, 125);

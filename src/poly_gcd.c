@@ -735,6 +735,7 @@ static void monomial_values(uint64_t *v, const spoly *G, const uint64_t *zeta,
 typedef struct {
     uint64_t *cur;      /* value of each term at the last step */
     uint64_t *rat;      /* its monomial at zeta */
+    uint64_t *pre;      /* rat prepared for gs_nmod_mul_shoup */
 } run;
 
 /* monomial of term i at the point, without the coefficient */
@@ -763,6 +764,7 @@ static void runs_init(run *rs, tab **ts, int nts, const uint64_t *zeta,
     for (k = 0; k < nts; k++) {
         rs[k].cur = gs_malloc((ts[k]->n + 1) * sizeof *rs[k].cur);
         rs[k].rat = gs_malloc((ts[k]->n + 1) * sizeof *rs[k].rat);
+        rs[k].pre = gs_malloc((ts[k]->n + 1) * sizeof *rs[k].pre);
         for (i = 0; i < ts[k]->n; i++)
             rs[k].cur[i] = term_value(ts[k], i, &z->pt, z->p);
     }
@@ -772,8 +774,10 @@ static void runs_init(run *rs, tab **ts, int nts, const uint64_t *zeta,
         z->pt.val[z->y[l]] = zeta[l];
     pts_fill(&z->pt, z->p);
     for (k = 0; k < nts; k++)
-        for (i = 0; i < ts[k]->n; i++)
+        for (i = 0; i < ts[k]->n; i++) {
             rs[k].rat[i] = term_monomial(ts[k], i, &z->pt, z->p);
+            rs[k].pre[i] = gs_nmod_shoup_pre(rs[k].rat[i], z->p);
+        }
     memcpy(z->pt.val, save, (size_t)nv * sizeof *save);
     free(save);
 }
@@ -783,7 +787,7 @@ static void run_step(gs_nmod_poly *r, run *rs, const tab *t, uint64_t p)
     size_t i;
     gs_nmod_poly_zero_len(r, t->xdeg + 1);
     for (i = 0; i < t->n; i++) {
-        rs->cur[i] = gs_nmod_mul(rs->cur[i], rs->rat[i], p);
+        rs->cur[i] = gs_nmod_mul_shoup(rs->cur[i], rs->rat[i], rs->pre[i], p);
         r->c[t->xd[i]] = gs_nmod_add(r->c[t->xd[i]], rs->cur[i], p);
     }
     gs_nmod_poly_normalise(r);
@@ -810,6 +814,7 @@ static int power_images(gs_nmod_poly *H, long nt, const uint64_t *zeta,
     for (k = 0; k < 3; k++) {
         free(rs[k].cur);
         free(rs[k].rat);
+        free(rs[k].pre);
     }
     return r;
 }

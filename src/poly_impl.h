@@ -2,9 +2,9 @@
  * poly_block.c: a heap of monomials, compact keys, operands cut into
  * blocks.  See LICENSE.
  *
- * The heap is a binary max-heap (Williams, CACM 7, 1964) of two-word entries: the
- * first word of a packed exponent vector, and a payload whose high 32 bits
- * name a slot.  The whole key of slot i lives in keys[i * nw ..], owned by
+ * The heap is a binary max-heap (Williams, CACM 7, 1964) of two-word
+ * entries: the first word of a packed exponent vector, and a payload
+ * whose high 32 bits name a slot.  The whole key of slot i lives in keys[i * nw ..], owned by
  * the caller, and is read only when first words tie, so entries move as
  * two words whatever the number of variables (Monagan and Pearce keep
  * pointers to monomials in their heaps for the same reason).  Each slot
@@ -229,6 +229,15 @@ static inline void gs_ppack_pack(const gs_ppack *p, uint64_t *out,
                                  const uint64_t *e)
 {
     int k;
+    if (p->nw == 1) {           /* the usual case: one word, in a register */
+        uint64_t x = 0;
+        for (k = 0; k < p->nact; k++) {
+            int f = p->from[k];
+            x |= ((e[f >> 6] >> (f & 63)) & 0xFFFFu) << (p->to[k] & 63);
+        }
+        out[0] = x;
+        return;
+    }
     for (k = 0; k < p->nw; k++)
         out[k] = 0;
     for (k = 0; k < p->nact; k++) {
@@ -252,6 +261,8 @@ typedef struct gs_playout {
     size_t dsize;       /* product of the suffix radices */
     unsigned *radix;    /* per variable */
     size_t *stride;     /* per variable; 0 in the prefix */
+    uint64_t *inv;      /* per suffix variable: ceil(2^32 / stride), then
+                           ceil(2^32 / radix), for digit() */
     uint64_t *premask;  /* nw words: all-ones fields over the prefix */
     gs_ppack pk;        /* compact form of prefixes, for the heap */
 } gs_playout;
@@ -262,6 +273,19 @@ void gs_playout_init(gs_playout *lay, const gs_polyctx *ctx, int m,
 void gs_playout_clear(gs_playout *lay);
 /* OR the suffix exponents of dense index k into e (poly.h layout) */
 void gs_playout_decode(const gs_playout *lay, uint64_t *e, size_t k);
+
+/* Digit v of dense index k, (k / stride) % radix, by multiplications:
+   for k, d < 2^16 and c = ceil(2^32 / d), floor(k c / 2^32) = floor(k / d)
+   since the error k (c d - 2^32) / 2^32 d stays below 1/d (Granlund and
+   Montgomery, "Division by invariant integers using multiplication",
+   PLDI 1994).  Dense sizes are at most 2^16. */
+static inline unsigned gs_playout_digit(const gs_playout *lay, size_t k,
+                                        int v)
+{
+    uint64_t q = ((uint64_t)k * lay->inv[2 * v]) >> 32;
+    uint64_t r = (q * lay->inv[2 * v + 1]) >> 32;
+    return (unsigned)(q - r * lay->radix[v]);
+}
 
 /* One operand cut into blocks. */
 typedef struct gs_pside {

@@ -5,11 +5,11 @@
  * prefix exponents form a block (they are contiguous, since the order is
  * lexicographic).  The blocks of the product come out in decreasing order
  * from a heap of block pairs, the heap method of Johnson ("Sparse
- * polynomial arithmetic", SIGSAM Bulletin 8(3), 1974) as refined by
- * Monagan and Pearce ("Parallel sparse polynomial multiplication using
- * heaps", ISSAC 2009: a pair (i, j+1) enters only when (i, j) leaves, and
- * (i+1, 0) when (i, 0) leaves, so the heap holds at most one pair per
- * block of the first operand).  Within a block the suffix exponents are
+ * polynomial arithmetic", SIGSAM Bulletin 8(3), 1974) as used by Monagan
+ * and Pearce ("Sparse polynomial multiplication and division in Maple
+ * 14", 2010, and ISSAC 2009): a pair (i, j+1) enters only when (i, j)
+ * leaves, and (i+1, 0) when (i, 0) leaves, so the heap holds at most one
+ * pair per block of the first operand.  Within a block the suffix exponents are
  * read as the digits of a mixed-radix number, radix deg_a + deg_b + 1 per
  * variable (Kronecker's substitution), so a term product lands at the sum
  * of two indices in a dense accumulator and the digits never carry.
@@ -195,16 +195,46 @@ static void pair_std(mulstate *st, size_t i, size_t j)
         st->cur_std[w] = x[w] + y[w];
 }
 
-/* Pop every block pair of the top prefix, accumulate it, queue its
-   successors; then write out that output block.  acc is the dense
-   accumulator of the chosen kind. */
+/* Accumulate the block pair at the heap top into acc, widen [lo, hi] to
+   its range, and queue its successors (i, j+1) and, from (i, 0), the
+   pair (i+1, 0). */
+static void take_pair(mulstate *st, gs_pheap *h, uint64_t *keys, void *acc,
+                      int small, size_t *lo, size_t *hi)
+{
+    const gs_pside *a = &st->a, *b = &st->b;
+    uint64_t pl = h->v[0].pl;
+    size_t i = (size_t)(pl >> 32), j = (size_t)(pl & 0xFFFFFFFFu);
+    size_t l = a->idx[a->start[i + 1] - 1] + b->idx[b->start[j + 1] - 1];
+    size_t u = a->idx[a->start[i]] + b->idx[b->start[j]];
+#if GS_HAVE_I128
+    if (small)
+        pair_small(acc, a, i, b, j);
+    else
+#endif
+        pair_big(acc, a, i, b, j);
+    (void)small;
+    *lo = l < *lo ? l : *lo;
+    *hi = u > *hi ? u : *hi;
+    if (j + 1 < b->nblocks) {
+        pair_key(keys, st, i, j + 1);
+        gs_pheap_replace_top(h, pl + 1);
+    } else {
+        gs_pheap_pop(h);
+    }
+    if (j == 0 && i + 1 < a->nblocks) {
+        pair_key(keys, st, i + 1, 0);
+        gs_pheap_push(h, (uint64_t)(i + 1) << 32);
+    }
+}
+
+/* Take every block pair of the top prefix, then write out that output
+   block.  acc is the dense accumulator of the chosen kind. */
 static void mul_loop(mulstate *st, void *acc, int small)
 {
     gs_pheap h;
-    const gs_pside *a = &st->a, *b = &st->b;
     size_t kw = (size_t)st->lay.kw;
-    uint64_t *keys = gs_malloc((a->nblocks + 1) * kw * 8);
-    gs_pheap_init(&h, (int)kw, a->nblocks + 1);
+    uint64_t *keys = gs_malloc((st->a.nblocks + 1) * kw * 8);
+    gs_pheap_init(&h, (int)kw, st->a.nblocks + 1);
     h.keys = keys;
     pair_key(keys, st, 0, 0);
     gs_pheap_push(&h, 0);
@@ -213,30 +243,9 @@ static void mul_loop(mulstate *st, void *acc, int small)
         uint64_t top = h.v[0].pl;
         memcpy(st->cur, gs_pheap_key(&h, top), kw * 8);
         pair_std(st, (size_t)(top >> 32), (size_t)(top & 0xFFFFFFFFu));
-        do {
-            uint64_t pl = h.v[0].pl;
-            size_t i = (size_t)(pl >> 32), j = (size_t)(pl & 0xFFFFFFFFu);
-            size_t l = a->idx[a->start[i + 1] - 1] + b->idx[b->start[j + 1] - 1];
-            size_t u = a->idx[a->start[i]] + b->idx[b->start[j]];
-#if GS_HAVE_I128
-            if (small)
-                pair_small(acc, a, i, b, j);
-            else
-#endif
-                pair_big(acc, a, i, b, j);
-            lo = l < lo ? l : lo;
-            hi = u > hi ? u : hi;
-            if (j + 1 < b->nblocks) {
-                pair_key(keys, st, i, j + 1);
-                gs_pheap_replace_top(&h, pl + 1);
-            } else {
-                gs_pheap_pop(&h);
-            }
-            if (j == 0 && i + 1 < a->nblocks) {
-                pair_key(keys, st, i + 1, 0);
-                gs_pheap_push(&h, (uint64_t)(i + 1) << 32);
-            }
-        } while (h.n > 0 && gs_pheap_cmp_top(&h, st->cur) == 0);
+        do
+            take_pair(st, &h, keys, acc, small, &lo, &hi);
+        while (h.n > 0 && gs_pheap_cmp_top(&h, st->cur) == 0);
 #if GS_HAVE_I128
         if (small)
             flush_small(st, acc, lo, hi);
@@ -428,9 +437,9 @@ static void pow_binomial(gs_poly *r, const gs_poly *a, unsigned long e,
 }
 
 /* Powers by repeated multiplication: for sparse multivariate operands it
-   does less work than repeated squaring (Gentleman, "Optimal
-   multiplication chains for computing a power of a symbolic polynomial",
-   Math. Comp. 26, 1972; Fateman, SIAM J. Comput. 3, 1974). */
+   does less work than repeated squaring, and is in essence optimal
+   (Gentleman, "Optimal multiplication chains for computing a power of a
+   symbolic polynomial", Math. Comp. 26, 1972). */
 void gs_poly_pow_ui(gs_poly *r, const gs_poly *a, unsigned long e,
                     const gs_polyctx *ctx)
 {

@@ -802,8 +802,8 @@ static void test_gcd_general(void)
    disjoint != 0 each lives in its own block of variables, so that every
    product of distinct factors is multilinear like a circuit determinant. */
 #define NF 6
-static void factor_pool(gs_poly *F, int nvars, int disjoint, gs_rng *rng,
-                        const env *e)
+static void factor_pool(gs_poly *F, int nvars, int disjoint, int maxterms,
+                        gs_rng *rng, const env *e)
 {
     int vars[NV], nv, i, j, again;
     do {
@@ -818,7 +818,8 @@ static void factor_pool(gs_poly *F, int nvars, int disjoint, gs_rng *rng,
             }
             rand_irreducible(&F[i], rng, vars[gs_rng_below(rng,
                              (uint64_t)nv)], vars, nv,
-                             1 + (int)gs_rng_below(rng, 6), e);
+                             1 + (int)gs_rng_below(rng,
+                                                   (uint64_t)maxterms), e);
         }
         for (again = 0, i = 0; i < NF; i++)
             for (j = 0; j < i; j++)
@@ -877,8 +878,10 @@ static void test_gcd_circuit_like(void)
     for (i = 0; i < 120; i++) {
         int nvars = 12 + (int)gs_rng_below(&rng, NV - 11);
         int disjoint = i % 2 == 0;
-        factor_pool(F, nvars, disjoint, &rng, &e);
-        pool_case(&a, &b, &w, F, disjoint ? 1 : 2, &rng, &e);
+        do {                    /* sizes a unit test can afford */
+            factor_pool(F, nvars, disjoint, 6, &rng, &e);
+            pool_case(&a, &b, &w, F, i % 4 == 1 ? 2 : 1, &rng, &e);
+        } while (a.length + b.length > 20000);
         check_gcd(&a, &b, &w, &e, disjoint ? "multilinear, disjoint factors"
                                            : "overlapping factors", i);
     }
@@ -1011,8 +1014,8 @@ static void test_gcd_fallback_and_bounds(void)
     gs_rng_seed(&rng, seed + 5);
     gs_rng_seed(&r2, seed + 6);
     for (i = 0; i < 60; i++) {
-        factor_pool(F, 6, 0, &rng, &e);
-        pool_case(&a, &b, &w, F, 2, &rng, &e);
+        factor_pool(F, 4, 0, 2, &rng, &e);
+        pool_case(&a, &b, &w, F, 1, &rng, &e);
         prs_gcd(&g, &a, &b, e.ctx);
         CHECK_MSG(associates(&g, &w, &e) && normalised(&g),
                   "prs: seed %" PRIu64 " case %d", seed, i);
@@ -1063,7 +1066,7 @@ static void test_gcd_alias(void)
     env_init(&e, 10);
     gs_rng_seed(&rng, seed + 7);
     for (i = 0; i < 20; i++) {
-        factor_pool(F, 10, i % 2, &rng, &e);
+        factor_pool(F, 10, i % 2, 6, &rng, &e);
         pool_case(&a, &b, &w, F, 1, &rng, &e);
         check_gcd(&b, &a, &w, &e, "swapped", i);
         gs_poly_set(&c, &a, e.ctx);

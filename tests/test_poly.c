@@ -302,6 +302,23 @@ static void test_small_identities(const env *e)
     gs_poly_zero(&b);
     CHECK(gs_poly_divexact(&q, &a, &b, e->c4) == GS_EDIVZERO);
     CHECK(gs_poly_divexact(&q, &b, &a, e->c4) == GS_OK && q.length == 0);
+    /* a dividend whose partial remainders reach below its own lowest
+       term within a dense block; sympy's div gives the remainder
+       -2z - 6, so the division is inexact whichever method */
+    {
+        int m;
+        parse(&a, "x^3*y*z - x^2*y*z^2 - 3*x^2*y*z + x*y^2*z - x*y*z^2 - 2*x"
+              " - y^2*z^2 - 3*y^2*z + y*z^3 + 3*y*z^2", e->c4);
+        parse(&b, "x - z - 3", e->c4);
+        for (m = 0; m <= 2; m++)
+            CHECK(gs_poly_divexact_method(&q, &a, &b, m, e->c4)
+                  == GS_EINEXACT);
+        parse(&p, "2*z + 6", e->c4);        /* a + 2z + 6 is exact */
+        gs_poly_add(&a, &a, &p, e->c4);
+        for (m = 0; m <= 2; m++)
+            CHECK(gs_poly_divexact_method(&q, &a, &b, m, e->c4) == GS_OK
+                  && equal_str(&q, "x^2*y*z + y^2*z - y*z^2 - 2", e->c4));
+    }
     /* y / (x + y) in lex order with x > y: the first remainder term */
     parse(&a, "y", e->c4);
     parse(&b, "x + y", e->c4);
@@ -621,6 +638,16 @@ static void test_big_coeffs(const env *e)
     gs_poly_mul(&p, &a, &a, e->c4);
     CHECK(equal_str(&p, "340282366920938463463374607431768211456*x^2"
                     " + 36893488147419103232*x + 1", e->c4));
+    /* q = c (x + y), b = c (x + y + z), c = 2^62 - 1: a = q b fits the
+       128-bit accumulator but q's coefficients times b's overflow the
+       bound with three terms of b, so the division starts over with
+       multi-precision coefficients */
+    parse(&a, "4611686018427387903*x + 4611686018427387903*y", e->c4);
+    parse(&b, "4611686018427387903*(x + y + z)", e->c4);
+    gs_poly_mul(&p, &a, &b, e->c4);
+    for (k = 0; k < 3; k++)
+        CHECK(gs_poly_divexact_method(&q, &p, &b, (int)k, e->c4) == GS_OK
+              && gs_poly_equal(&q, &a, e->c4));
     for (k = 0; k < 4; k++) {
         int m;
         rand_poly(&a, &r, 300, 4, 5, bits[k], e->c4);
@@ -815,10 +842,22 @@ static void loop_division(const gs_polyctx *ctx, uint64_t seed0, int n)
             gs_poly_mul_si(&q, &b, 2, ctx);
             ok &= gs_poly_divexact(&q, &p, &q, ctx) == GS_EINEXACT;
         }
-        rc = gs_poly_divexact(&q, &a, &b, ctx);
+        for (m = 0; m <= 2; m++) {       /* a / b, usually inexact */
+            rc = gs_poly_divexact_method(&q, &a, &b, m, ctx);
+            if (rc == GS_OK) {
+                gs_poly_mul(&q, &q, &b, ctx);
+                ok &= gs_poly_equal(&q, &a, ctx);
+            } else {
+                ok &= rc == GS_EINEXACT && gs_poly_is_zero(&q);
+            }
+        }
+        gs_poly_mul(&q, &a, &b, ctx);   /* ab + a tail: inexact */
+        gs_poly_add(&q, &q, &one, ctx);
+        gs_poly_add(&one, &q, &b, ctx);
+        rc = gs_poly_divexact_method(&q, &one, &b, GS_POLY_MUL_DENSE, ctx);
         if (rc == GS_OK) {
             gs_poly_mul(&q, &q, &b, ctx);
-            ok &= gs_poly_equal(&q, &a, ctx);
+            ok &= gs_poly_equal(&q, &one, ctx);
         } else {
             ok &= rc == GS_EINEXACT && gs_poly_is_zero(&q);
         }

@@ -10,7 +10,8 @@
  *   mul P ; Q                product (also mulheap, muldense, mulbig:
  *                            a forced method, see gs_poly_mul_method)
  *   pow P ; n                P^n
- *   div P ; Q                exact quotient, or "inexact"
+ *   div P ; Q                exact quotient, or "inexact" (also divheap,
+ *                            divdense, divbig: gs_poly_divexact_method)
  *   content P    prim P      content and primitive part
  *   diff P ; x               derivative in x
  *   coeff P ; x ; k          coefficient of x^k
@@ -117,9 +118,10 @@ static int get_args(tool *t, char *rest, unsigned polys)
     return GS_OK;
 }
 
-static void do_div(tool *t)
+static void do_div(tool *t, int method)
 {
-    int rc = gs_poly_divexact(&t->r, &t->arg[0], &t->arg[1], t->ctx);
+    int rc = gs_poly_divexact_method(&t->r, &t->arg[0], &t->arg[1], method,
+                                     t->ctx);
     if (rc == GS_OK)
         put_poly(t, &t->r);
     else
@@ -196,8 +198,9 @@ static void do_limit(tool *t, int x)
 
 enum {
     OP_PRINT, OP_ADD, OP_SUB, OP_MUL, OP_MULHEAP, OP_MULDENSE, OP_MULBIG,
-    OP_POW, OP_DIV, OP_CONTENT, OP_PRIM, OP_DIFF, OP_COEFF, OP_SUBST,
-    OP_SUBSTRAT, OP_LIMIT, OP_GCD, OP_DEGREE, NOPS
+    OP_POW, OP_DIV, OP_DIVHEAP, OP_DIVDENSE, OP_DIVBIG, OP_CONTENT, OP_PRIM,
+    OP_DIFF, OP_COEFF, OP_SUBST, OP_SUBSTRAT, OP_LIMIT, OP_GCD, OP_DEGREE,
+    NOPS
 };
 
 /* name, bit mask of the polynomial arguments, number of arguments,
@@ -211,7 +214,9 @@ static const struct opdef {
     { "sub", 3, 2, -1 },       { "mul", 3, 2, -1 },
     { "mulheap", 3, 2, -1 },   { "muldense", 3, 2, -1 },
     { "mulbig", 3, 2, -1 },    { "pow", 1, 2, -1 },
-    { "div", 3, 2, -1 },       { "content", 1, 1, -1 },
+    { "div", 3, 2, -1 },       { "divheap", 3, 2, -1 },
+    { "divdense", 3, 2, -1 },  { "divbig", 3, 2, -1 },
+    { "content", 1, 1, -1 },
     { "prim", 1, 1, -1 },      { "diff", 1, 2, 1 },
     { "coeff", 1, 3, 1 },      { "subst", 5, 3, 1 },
     { "substrat", 1, 3, 1 },   { "limit", 3, 4, 2 },
@@ -238,7 +243,10 @@ static void run_op(tool *t, int op, int x)
     case OP_POW:
         gs_poly_pow_ui(r, a, strtoul(t->word[1], NULL, 10), c);
         break;
-    case OP_DIV: do_div(t); return;
+    case OP_DIV: do_div(t, GS_POLY_MUL_AUTO); return;
+    case OP_DIVHEAP: do_div(t, GS_POLY_MUL_HEAP); return;
+    case OP_DIVDENSE: do_div(t, GS_POLY_MUL_DENSE); return;
+    case OP_DIVBIG: do_div(t, GS_POLY_MUL_BIGACC); return;
     case OP_CONTENT: do_content(t); return;
     case OP_PRIM: gs_poly_primitive(r, a, c); break;
     case OP_DIFF: gs_poly_derivative(r, a, x, c); break;

@@ -134,19 +134,25 @@ def make_case(op, seed):
         nvars, e = rng.choice(((1, 60), (2, 8), (3, 5), (4, 3)))
         a, b = (rand_poly(rng, rng.randint(20, 80), nvars, e,
                           rng.choice((8, 62, 100))) for _ in range(2))
-        op = rng.choice(("mul", "muldense", "mulbig"))
+        op = rng.choice(("mul", "muldense", "mulbig", "div"))
+        if op == "div":
+            return (seed, "%s %s ; %s" % (rng.choice(("div", "divdense")),
+                                          fmt(a * b), fmt(b)),
+                    expect_poly(a))
     if op.startswith("mul"):
         return seed, "%s %s ; %s" % (op, fmt(a), fmt(b)), expect_poly(a * b)
     if op in ("add", "sub"):
         want = a + b if op == "add" else a - b
         return seed, "%s %s ; %s" % (op, fmt(a), fmt(b)), expect_poly(want)
     if op == "div":
-        return seed, "div %s ; %s" % (fmt(a * b), fmt(b)), expect_poly(a)
+        div = rng.choice(("div", "divheap", "divdense", "divbig"))
+        return seed, "%s %s ; %s" % (div, fmt(a * b), fmt(b)), expect_poly(a)
     if op == "inexact":
         # a b + c for a constant c != 0 is not divisible by a nonconstant b
         b = b + GENS[x]
         c = rng.randint(1, 10 ** 20)
-        return (seed, "div %s ; %s" % (fmt(a * b + c), fmt(b)),
+        div = rng.choice(("div", "divheap", "divdense", "divbig"))
+        return (seed, "%s %s ; %s" % (div, fmt(a * b + c), fmt(b)),
                 lambda ans: None if ans == "inexact" else "expected inexact")
     if op == "pow":
         a = rand_poly(rng, rng.randint(1, 6), rng.choice((2, 4, NV)), 4,
@@ -154,7 +160,8 @@ def make_case(op, seed):
         n = rng.randint(0, 5)
         return seed, "pow %s ; %d" % (fmt(a), n), expect_poly(a ** n)
     if op == "diff":
-        return seed, "diff %s ; %s" % (fmt(a), xname), expect_poly(a.diff(GENS[x]))
+        return (seed, "diff %s ; %s" % (fmt(a), xname),
+                expect_poly(a.diff(GENS[x])))
     if op == "coeff":
         k = rng.randint(0, 3)
         want = RING.from_dict({m[:x] + (0,) + m[x + 1:]: c
