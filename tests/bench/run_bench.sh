@@ -210,6 +210,18 @@ for f in "$here"/*.gsc; do
     grep -q "^$name " "$tmp/table" || run_case "$name" "" ""
 done
 
+# The pivot rules of the elimination on the larger cases (the result is
+# the same under every rule; only the work differs).
+for name in rc_ladder_8 rc_ladder_10 rc_ladder_12 rand_8 rand_9 rand_10; do
+    [ -f "$here/$name.gsc" ] || continue
+    for rule in minwork minterms markowitz natural; do
+        t=$("$timer" -n 3 -s 5 -l 20 -m "$max_mib" -- "$bin" derive \
+            "$here/$name.gsc" --pivot "$rule")
+        echo "bench pivot-$rule-$name seconds=$(field seconds "$t")" \
+            "peak_kib=$(field peak_kib "$t") status=$(field status "$t")"
+    done
+done
+
 for b in "$build"/bench/bench_*; do
     [ -f "$b" ] && [ -x "$b" ] || continue
     "$b" || { echo "run_bench.sh: $b exited with $?" >&2; status=1; }
