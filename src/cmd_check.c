@@ -6,6 +6,7 @@
 #include "job.h"
 #include "mem.h"
 #include "numsolve.h"
+#include "roots.h"
 
 #include <math.h>
 #include <stdlib.h>
@@ -49,16 +50,6 @@ static int parse_check_opts(check_opts *o, const gs_cli *cl, FILE *err)
     return 0;
 }
 
-static long double complex horner(const long double *c, int deg,
-                                  long double complex s)
-{
-    long double complex acc = 0;
-    int k;
-    for (k = deg; k >= 0; k--)
-        acc = acc * s + c[k];
-    return acc;
-}
-
 /* Worst relative disagreement over the sweep, for output i. */
 static int check_one(const gs_job *j, size_t i, const check_opts *o,
                      FILE *out, gs_diag *d)
@@ -75,7 +66,7 @@ static int check_one(const gs_job *j, size_t i, const check_opts *o,
                                               / (long double)(o->points - 1));
         long double complex s = pi2 * f * I, hs, hn;
         long double err;
-        hs = horner(cn, dn, s) / horner(cd, dd, s);
+        hs = gs_roots_horner(cn, dn, s) / gs_roots_horner(cd, dd, s);
         rc = gs_numsolve(&hn, j->c, j->out_index[i], j->vals, s, d);
         if (rc != GS_OK)
             break;

@@ -3,6 +3,7 @@
 #include "cmd.h"
 #include "job.h"
 #include "mem.h"
+#include "roots.h"
 
 #include <math.h>
 #include <stdlib.h>
@@ -243,17 +244,6 @@ int gs_cmd_derive(int argc, char **argv, FILE *out, FILE *err)
     return status;
 }
 
-/* Value at s = j*2*pi*f of the numeric polynomial c[0..deg]. */
-static long double complex horner(const long double *c, int deg,
-                                  long double complex s)
-{
-    long double complex acc = 0;
-    int k;
-    for (k = deg; k >= 0; k--)
-        acc = acc * s + c[k];
-    return acc;
-}
-
 static void print_coeffs(FILE *out, const char *label, const long double *c,
                          int deg)
 {
@@ -302,7 +292,7 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
         if (status == 0) {
             long double complex s = 2 * acosl(-1) * f * I;
             snprintf(label, sizeof label, "at %.6Lg Hz", f);
-            print_point(out, label, horner(cn, dn, s) / horner(cd, dd, s));
+            print_point(out, label, gs_roots_horner(cn, dn, s) / gs_roots_horner(cd, dd, s));
         }
     }
     print_coeffs(out, "numerator", cn, dn);
@@ -317,17 +307,7 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
 static void print_values(FILE *out, const gs_job *j)
 {
     int nv = j->ctx->nvars, v;
-    unsigned char *used = gs_calloc((size_t)nv, 1);
-    unsigned char *tmp = gs_calloc((size_t)nv, 1);
-    size_t i;
-    for (i = 0; i < j->ntf; i++) {
-        gs_poly_used_vars(tmp, &j->tf[i].num, j->ctx);
-        for (v = 0; v < nv; v++)
-            used[v] |= tmp[v];
-        gs_poly_used_vars(tmp, &j->tf[i].den, j->ctx);
-        for (v = 0; v < nv; v++)
-            used[v] |= tmp[v];
-    }
+    unsigned char *used = gs_job_used_symbols(j);
     fputs("values\n", out);
     for (v = 0; v < nv; v++) {
         if (!used[v] || v == j->c->s_sym)
@@ -338,7 +318,6 @@ static void print_values(FILE *out, const gs_job *j)
             fprintf(out, "  (%s)", j->origin[v]);
         fputc('\n', out);
     }
-    free(tmp);
     free(used);
 }
 

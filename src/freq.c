@@ -24,17 +24,6 @@ typedef long double complex ldc;
 #define PI_L 3.141592653589793238462643383279502884L
 #define LN10_L 2.302585092994045684017991454684364208L
 
-static ldc mk(long double re, long double im)
-{
-#ifdef CMPLXL
-    return CMPLXL(re, im);
-#else
-    ldc z = re;
-    ((long double *)&z)[1] = im;    /* C11 6.2.5p13 */
-    return z;
-#endif
-}
-
 /* p(jv) and p'(jv) for p with coefficients c_k = a[k] (or a[n-k] when
    rev), by the even/odd split; s = jv, s^2 = -v^2. */
 static void eval_jv(ldc *val, ldc *der, const long double *a, int n, int rev,
@@ -53,8 +42,8 @@ static void eval_jv(ldc *val, ldc *der, const long double *a, int n, int rev,
             de = de * x + k * c;
         }
     }
-    *val = mk(e, v * o);
-    *der = mk(de, v * dod);
+    *val = gs_cmplxl(e, v * o);
+    *der = gs_cmplxl(de, v * dod);
 }
 
 /* p(jw) = m (jw)^k with k = 0 (w <= 1) or k = n (w > 1), and p'/p */
@@ -76,7 +65,7 @@ static jw_val eval_jw(const long double *a, int n, long double w)
     }
     /* p(s) = s^n r(u), u = 1/s = j(-1/w); p'/p = u (n - u r'(u)/r(u)) */
     long double v = -1 / w;
-    ldc u = mk(0, v);
+    ldc u = gs_cmplxl(0, v);
     eval_jv(&r.m, &d, a, n, 1, v);
     r.k = n;
     r.dlog = u * ((long double)n - u * d / r.m);

@@ -213,14 +213,12 @@ static int apply_set(gs_job *j, const char *text, gs_diag *d)
     return GS_OK;
 }
 
-/* Every symbol of every derived output, other than s, must be bound. */
-static int check_bound(gs_job *j, gs_diag *d)
+unsigned char *gs_job_used_symbols(const gs_job *j)
 {
     int nv = j->ctx->nvars, v;
     unsigned char *used = gs_calloc((size_t)nv, 1);
     unsigned char *tmp = gs_calloc((size_t)nv, 1);
-    size_t i, len = 0, nmissing = 0;
-    char *list = gs_strdup("");
+    size_t i;
     for (i = 0; i < j->ntf; i++) {
         gs_poly_used_vars(tmp, &j->tf[i].num, j->ctx);
         for (v = 0; v < nv; v++)
@@ -229,6 +227,17 @@ static int check_bound(gs_job *j, gs_diag *d)
         for (v = 0; v < nv; v++)
             used[v] |= tmp[v];
     }
+    free(tmp);
+    return used;
+}
+
+/* Every symbol of every derived output, other than s, must be bound. */
+static int check_bound(gs_job *j, gs_diag *d)
+{
+    int nv = j->ctx->nvars, v;
+    unsigned char *used = gs_job_used_symbols(j);
+    size_t len = 0, nmissing = 0;
+    char *list = gs_strdup("");
     for (v = 0; v < nv; v++) {
         const char *name = gs_symtab_name(j->c->syms, v);
         if (!used[v] || v == j->c->s_sym || j->set[v])
@@ -245,7 +254,6 @@ static int check_bound(gs_job *j, gs_diag *d)
                     "no value for %s %s", nmissing > 1 ? "symbols" : "symbol",
                     list);
     free(list);
-    free(tmp);
     free(used);
     return nmissing ? GS_EUNBOUND : GS_OK;
 }

@@ -51,6 +51,10 @@ int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,
    than s must have a value: the missing ones are named in one error. */
 int gs_job_bind(gs_job *j, char *const *sets, size_t nsets, gs_diag *d);
 
+/* used[v] = 1 for every symbol v that occurs in a derived output (s
+   included); a new array of ctx->nvars flags the caller frees. */
+unsigned char *gs_job_used_symbols(const gs_job *j);
+
 /* Numeric coefficients of p in powers of s (ascending: out[k] is the
    coefficient of s^k, deg+1 entries, allocated, caller frees), from the
    bound values.  *deg gets the degree (-1 for p = 0). */

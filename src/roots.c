@@ -41,28 +41,17 @@ typedef long double complex ldc;
 /* Dekker's splitting constant 2^ceil(p/2) + 1 */
 #define SPLITTER (1.0L + (long double)(1ULL << ((LDBL_MANT_DIG + 1) / 2)))
 
-static ldc mk(long double re, long double im)
-{
-#ifdef CMPLXL
-    return CMPLXL(re, im);
-#else
-    ldc z = re;     /* keeps infinities: re + im * I would not */
-    ((long double *)&z)[1] = im;    /* C11 6.2.5p13 */
-    return z;
-#endif
-}
-
 static ldc cmul(ldc a, ldc b)
 {
     long double ar = creall(a), ai = cimagl(a);
     long double br = creall(b), bi = cimagl(b);
-    return mk(ar * br - ai * bi, ar * bi + ai * br);
+    return gs_cmplxl(ar * br - ai * bi, ar * bi + ai * br);
 }
 
 static ldc cinv(ldc a)      /* 1/a, a != 0, |a| far from over/underflow */
 {
     long double ar = creall(a), ai = cimagl(a), m = ar * ar + ai * ai;
-    return mk(ar / m, -ai / m);
+    return gs_cmplxl(ar / m, -ai / m);
 }
 
 ldc gs_roots_horner(const long double *a, int degree, ldc z)
@@ -181,7 +170,7 @@ static void initial_guesses(ldc *z, const long double *b, int n)
         long double u = expl((lg[k0] - lg[k0 + m]) / m);
         for (int j = 0; j < m; j++) {
             long double ang = 2 * PI_L * j / m + 2 * PI_L * e / n + 0.7L;
-            z[idx++] = mk(u * cosl(ang), u * sinl(ang));
+            z[idx++] = gs_cmplxl(u * cosl(ang), u * sinl(ang));
         }
     }
     free(hull);
@@ -213,7 +202,7 @@ static int aberth(ldc *z, const long double *b, int n)
                 small = cabsl(w) >= last[i] && cabsl(w) < STALL * cabsl(z[i]);
                 last[i] = cabsl(w);
             } else if (!small) {    /* p'(z) = 0: step off the critical point */
-                z[i] = cmul(z[i], mk(1, 1e-3L)) + mk(0, 1e-30L);
+                z[i] = cmul(z[i], gs_cmplxl(1, 1e-3L)) + gs_cmplxl(0, 1e-30L);
             }
             if (small) {
                 done[i] = 1;
@@ -302,7 +291,7 @@ static dwc dwc_add(dwc x, dwc y)
 
 static ldc dwc_round(dwc x)
 {
-    return mk(x.re.hi + x.re.lo, x.im.hi + x.im.lo);
+    return gs_cmplxl(x.re.hi + x.re.lo, x.im.hi + x.im.lo);
 }
 
 /* p(z) and p'(z) by Horner's rule in double-word complex arithmetic */
@@ -508,7 +497,7 @@ static void symmetrize(ldc *z, const long double *rad, const long double *q,
     char *used = gs_calloc((size_t)n, 1);
 
     for (int i = 0; i < n; i++) {
-        ldc x = mk(creall(z[i]), 0);
+        ldc x = gs_cmplxl(creall(z[i]), 0);
         if (cimagl(z[i]) == 0 || (fabsl(cimagl(z[i])) <= rad[i]
             && rad[i] <= CLUSTER_MAX * cabsl(z[i])
             && backward_error(q, n, x) <= fmaxl(64 * LDBL_EPSILON,
@@ -528,7 +517,7 @@ static void symmetrize(ldc *z, const long double *rad, const long double *q,
             }
         }
         if (best < 0) {
-            z[i] = mk(creall(z[i]), 0);
+            z[i] = gs_cmplxl(creall(z[i]), 0);
             continue;
         }
         used[best] = 1;
@@ -537,7 +526,7 @@ static void symmetrize(ldc *z, const long double *rad, const long double *q,
     }
     for (int j = 0; j < n; j++)
         if (cimagl(z[j]) < 0 && !used[j])
-            z[j] = mk(creall(z[j]), 0);
+            z[j] = gs_cmplxl(creall(z[j]), 0);
     free(used);
 }
 
@@ -603,7 +592,7 @@ static int nonzero_roots(ldc *z, const long double *q, int n,
     info->iterations = aberth(z, b, n);
     info->converged = info->iterations >= 0;
     for (int i = 0; i < n; i++)
-        z[i] = mk(ldexpl(creall(z[i]), info->scale_exp),
+        z[i] = gs_cmplxl(ldexpl(creall(z[i]), info->scale_exp),
                   ldexpl(cimagl(z[i]), info->scale_exp));
     info->polish_steps = polish(z, q, n);
     analyse(NULL, rad, z, q, n);

@@ -17,6 +17,20 @@
 
 #include <complex.h>
 
+/* re + j im without the arithmetic of re + im * I, which turns an
+   infinite part into NaNs (C11 7.3.9.3, CMPLXL where the library has it;
+   else the array layout of C11 6.2.5p13). */
+static inline long double complex gs_cmplxl(long double re, long double im)
+{
+#ifdef CMPLXL
+    return CMPLXL(re, im);
+#else
+    long double complex z = re;
+    ((long double *)&z)[1] = im;
+    return z;
+#endif
+}
+
 /* What gs_roots did.  All fields are outputs. */
 typedef struct gs_roots_info {
     int nroots;         /* roots written: the degree after leading zero

@@ -34,17 +34,6 @@ typedef long double complex ldc;
                                    relative to the final value */
 #define TAIL 1e-5L              /* scan until transients are below this */
 
-static ldc mk(long double re, long double im)
-{
-#ifdef CMPLXL
-    return CMPLXL(re, im);
-#else
-    ldc z = re;
-    ((long double *)&z)[1] = im;    /* C11 6.2.5p13 */
-    return z;
-#endif
-}
-
 /* A merged pole of Y(s): centre, multiplicity, and which half plane of
    the conjugate symmetry it sits in (0: on the real axis). */
 typedef struct cluster {
@@ -259,7 +248,7 @@ static long double term_value(const gs_pf_term *tm, long double t, int ord)
     for (int i = 0; i <= ord; i++)
         sum += binom[ord][i] * pw[ord - i] * poly_deriv(tm, i, t);
     long double re = creall(tm->p) * t, im = cimagl(tm->p) * t;
-    ldc e = im == 0 ? expl(re) : expl(re) * mk(cosl(im), sinl(im));
+    ldc e = im == 0 ? expl(re) : expl(re) * gs_cmplxl(cosl(im), sinl(im));
     long double v = creall(sum * e);
     return tm->pair ? 2 * v : v;
 }

@@ -396,3 +396,12 @@ char *gs_units_format(long double v, gs_quantity q)
         return gs_asprintf("%.6Lg%s%s", v, *unit ? " " : "", unit);
     return format_prefixed(v, unit);
 }
+
+gs_numtext gs_units_text(long double v, gs_quantity q)
+{
+    gs_numtext t;
+    char *s = gs_units_format(v, q);
+    snprintf(t.s, sizeof t.s, "%s", s);
+    free(s);
+    return t;
+}

@@ -68,4 +68,13 @@ const char *gs_quantity_unit(gs_quantity q);
    prints as "inf".  A new string the caller frees. */
 char *gs_units_format(long double v, gs_quantity q);
 
+/* A figure formatted by gs_units_format in an array that lives until the
+   end of the full expression that made it (C11 6.2.4p8): long enough for
+   a printf-style call, with nothing to free.  Longer text is cut. */
+typedef struct gs_numtext {
+    char s[64];
+} gs_numtext;
+
+gs_numtext gs_units_text(long double v, gs_quantity q);
+
 #endif
