@@ -1171,19 +1171,29 @@ static int modular_divisor(gs_poly *c, gs_poly *qa, gs_poly *qb,
     return r == R_OK || r == R_LOWER ? r : R_FAIL;
 }
 
-/* ---- step 5: primitive remainder sequence ----------------------------- */
+/* ---- step 5: subresultant remainder sequence -------------------------- */
 
 static void prs_gcd(gs_poly *g, const gs_poly *a, const gs_poly *b,
                     const gs_polyctx *ctx);
 
-static int first_var(const gs_poly *a, const gs_poly *b,
-                     const gs_polyctx *ctx)
+/* The variable to eliminate: one in both operands, of the lowest degree
+   (the fewest remainders); else any used one; -1 when both are
+   constants. */
+static int prs_var(const gs_poly *a, const gs_poly *b, const gs_polyctx *ctx)
 {
-    int v;
-    for (v = 0; v < ctx->nvars; v++)
-        if (gs_poly_degree(a, v, ctx) > 0 || gs_poly_degree(b, v, ctx) > 0)
-            return v;
-    return -1;
+    int v, best = -1, any = -1;
+    long bd = 0;
+    for (v = 0; v < ctx->nvars; v++) {
+        long da = gs_poly_degree(a, v, ctx), db = gs_poly_degree(b, v, ctx);
+        long d = da > db ? da : db;
+        if (d > 0 && any < 0)
+            any = v;
+        if (da > 0 && db > 0 && (best < 0 || d < bd)) {
+            best = v;
+            bd = d;
+        }
+    }
+    return best >= 0 ? best : any;
 }
 
 /* content in x by the remainder-sequence gcd itself */
@@ -1220,12 +1230,13 @@ static void prs_primitive(gs_poly *r, const gs_poly *a, int x,
     gs_poly_clear(&c);
 }
 
-/* Pseudo-remainder of a by b in x: repeatedly r = lc(b) r -
-   lc(r) x^(dr - db) b (Knuth, TAOCP vol. 2, 4.6.1, algorithm R). */
+/* Pseudo-remainder: lc(b)^(da - db + 1) a = q b + r with deg r < db in x
+   (Knuth, TAOCP vol. 2, 4.6.1, algorithm R). */
 static void prem(gs_poly *r, const gs_poly *a, const gs_poly *b, int x,
                  const gs_polyctx *ctx)
 {
     long db = gs_poly_degree(b, x, ctx), dr;
+    long left = gs_poly_degree(a, x, ctx) - db + 1;
     gs_poly lb, lr, t;
     gs_poly_init(&lb);
     gs_poly_init(&lr);
@@ -1239,42 +1250,83 @@ static void prem(gs_poly *r, const gs_poly *a, const gs_poly *b, int x,
         gs_poly_mul(&lr, &lr, b, ctx);
         gs_poly_mul(r, r, &lb, ctx);
         gs_poly_sub(r, r, &lr, ctx);
+        left--;
+    }
+    if (left > 0 && !gs_poly_is_zero(r)) {  /* steps where a term was 0 */
+        gs_poly_pow_ui(&t, &lb, (unsigned long)left, ctx);
+        gs_poly_mul(r, r, &t, ctx);
     }
     gs_poly_clear(&lb);
     gs_poly_clear(&lr);
     gs_poly_clear(&t);
 }
 
-/* gcd of primitive pa, pb of positive degree in x, primitive in x */
-static void prs_loop(gs_poly *d, gs_poly *pa, gs_poly *pb, int x,
+/* h = h^(1 - delta) g^delta, exact (Knuth's step C3) */
+static void next_h(gs_poly *h, const gs_poly *g, long delta,
+                   const gs_polyctx *ctx)
+{
+    gs_poly t;
+    if (delta == 0)
+        return;
+    if (delta == 1) {
+        gs_poly_set(h, g, ctx);
+        return;
+    }
+    gs_poly_init(&t);
+    gs_poly_pow_ui(&t, g, (unsigned long)delta, ctx);
+    gs_poly_pow_ui(h, h, (unsigned long)(delta - 1), ctx);
+    gs_poly_divexact(h, &t, h, ctx);
+    gs_poly_clear(&t);
+}
+
+/* gcd of primitive u, v of positive degree in x, up to its content in
+   the other variables: the subresultant remainder sequence (Knuth,
+   TAOCP vol. 2, 4.6.1, algorithm C; Brown and Traub 1971, J. ACM 18),
+   whose divisions by g h^delta are exact and keep the coefficients from
+   growing exponentially without any gcd of contents on the way. */
+static void prs_loop(gs_poly *d, gs_poly *u, gs_poly *v, int x,
                      const gs_polyctx *ctx)
 {
-    gs_poly r;
+    gs_poly r, g, h, t;
     gs_poly_init(&r);
+    gs_poly_init(&g);
+    gs_poly_init(&h);
+    gs_poly_init(&t);
+    gs_poly_set_si(&g, 1, ctx);
+    gs_poly_set_si(&h, 1, ctx);
+    if (gs_poly_degree(u, x, ctx) < gs_poly_degree(v, x, ctx))
+        gs_poly_swap(u, v);
     for (;;) {
-        if (gs_poly_degree(pa, x, ctx) < gs_poly_degree(pb, x, ctx))
-            gs_poly_swap(pa, pb);
-        prem(&r, pa, pb, x, ctx);
+        long delta = gs_poly_degree(u, x, ctx) - gs_poly_degree(v, x, ctx);
+        prem(&r, u, v, x, ctx);
         if (gs_poly_is_zero(&r)) {
-            gs_poly_set(d, pb, ctx);
+            gs_poly_set(d, v, ctx);
             break;
         }
         if (gs_poly_degree(&r, x, ctx) == 0) {
             gs_poly_set_si(d, 1, ctx);
             break;
         }
-        gs_poly_swap(pa, pb);
-        prs_primitive(pb, &r, x, ctx);
+        gs_poly_swap(u, v);                 /* u = v */
+        gs_poly_pow_ui(&t, &h, (unsigned long)delta, ctx);
+        gs_poly_mul(&t, &t, &g, ctx);
+        gs_poly_divexact(v, &r, &t, ctx);   /* v = r / (g h^delta) */
+        gs_poly_coeff_var(&g, u, x, (unsigned)gs_poly_degree(u, x, ctx),
+                          ctx);
+        next_h(&h, &g, delta, ctx);
     }
     gs_poly_clear(&r);
+    gs_poly_clear(&g);
+    gs_poly_clear(&h);
+    gs_poly_clear(&t);
 }
 
-/* Knuth, TAOCP vol. 2, 4.6.1, algorithm E, recursively in the variables:
-   gcd = gcd(contents) times the last nonzero primitive remainder. */
+/* Recursively in the variables: gcd = gcd(contents in x) times the
+   primitive part of the last nonzero subresultant remainder. */
 static void prs_gcd(gs_poly *g, const gs_poly *a, const gs_poly *b,
                     const gs_polyctx *ctx)
 {
-    int x = first_var(a, b, ctx);
+    int x = prs_var(a, b, ctx);
     gs_poly ca, cb, pa, pb, d;
     if (x < 0) {
         gs_poly_set_si(g, 1, ctx);
@@ -1295,6 +1347,7 @@ static void prs_gcd(gs_poly *g, const gs_poly *a, const gs_poly *b,
         gs_poly_primitive(&pa, &pa, ctx);
         gs_poly_primitive(&pb, &pb, ctx);
         prs_loop(&d, &pa, &pb, x, ctx);
+        prs_primitive(&d, &d, x, ctx);
         gs_poly_mul(g, g, &d, ctx);
     }
     gs_poly_primitive(g, g, ctx);

@@ -177,21 +177,26 @@ static void rand_irreducible(gs_poly *r, gs_rng *rng, int pivot,
     free(ex);
 }
 
-/* A random linear form c0 + sum c_i x_i over a few variables, content 1. */
+/* A random linear form c0 + sum c_i x_i over a few variables, made
+   primitive with positive sign; never constant. */
 static void rand_linear(gs_poly *r, gs_rng *rng, const int *vars, int nv,
                         const env *e)
 {
     unsigned *ex = gs_calloc((size_t)e->n, sizeof *ex);
-    int k, nt = 1 + (int)gs_rng_below(rng, 4);
-    gs_poly_zero(r);
-    add_term(r, rand_coeff(rng, 7), ex, e);
-    for (k = 0; k < nt; k++) {
-        int v = vars[gs_rng_below(rng, (uint64_t)nv)];
+    do {
+        int k, nt = 1 + (int)gs_rng_below(rng, 4);
+        gs_poly_zero(r);
         memset(ex, 0, (size_t)e->n * sizeof *ex);
-        ex[v] = 1;
-        add_term(r, k == 0 ? 1 : rand_coeff(rng, 7), ex, e);
-    }
-    gs_poly_canonicalise(r, e->ctx);
+        add_term(r, rand_coeff(rng, 7), ex, e);
+        for (k = 0; k < nt; k++) {
+            int v = vars[gs_rng_below(rng, (uint64_t)nv)];
+            memset(ex, 0, (size_t)e->n * sizeof *ex);
+            ex[v] = 1;
+            add_term(r, k == 0 ? 1 : rand_coeff(rng, 7), ex, e);
+        }
+        gs_poly_canonicalise(r, e->ctx);
+        gs_poly_primitive(r, r, e->ctx);
+    } while (gs_poly_is_const(r, e->ctx));
     free(ex);
 }
 
@@ -993,8 +998,9 @@ static void test_gcd_big_coeffs(void)
     gs_poly_clear(&w);
 }
 
-/* The remainder-sequence fallback on its own, on small cases with known
-   answers; and the rigour of the bounds: bd[v] >= deg_v f always. */
+/* The subresultant fallback on its own, on small cases with known
+   answers (6 variables, factors up to squares); and the rigour of the
+   degree bounds: bd[v] >= deg_v gcd always. */
 static void test_gcd_fallback_and_bounds(void)
 {
     env e;
@@ -1014,8 +1020,8 @@ static void test_gcd_fallback_and_bounds(void)
     gs_rng_seed(&rng, seed + 5);
     gs_rng_seed(&r2, seed + 6);
     for (i = 0; i < 60; i++) {
-        factor_pool(F, 4, 0, 2, &rng, &e);
-        pool_case(&a, &b, &w, F, 1, &rng, &e);
+        factor_pool(F, 6, 0, 3, &rng, &e);
+        pool_case(&a, &b, &w, F, i % 3 == 0 ? 2 : 1, &rng, &e);
         prs_gcd(&g, &a, &b, e.ctx);
         CHECK_MSG(associates(&g, &w, &e) && normalised(&g),
                   "prs: seed %" PRIu64 " case %d", seed, i);

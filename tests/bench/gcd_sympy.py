@@ -9,8 +9,11 @@
 # ZZ.  Prints "bench gcd-NAME-sympy terms_gcd=G seconds=S check=C", S the
 # median of up to 3 timings (one when the first takes over 2 s), C "ok"
 # when sympy's gcd equals bench_gcd's up to sign, else "MISMATCH"; the
-# exit status is 1 on any mismatch.
+# exit status is 1 on any mismatch.  A case still running after
+# GS_BENCH_SYMPY_LIMIT seconds (default 60) is abandoned and reported as
+# "seconds=LIMIT status=timeout", a lower bound.
 import os
+import signal
 import subprocess
 import sys
 import tempfile
@@ -38,6 +41,14 @@ def read_cases(path):
         yield name, int(nvars), polys
 
 
+class Timeout(Exception):
+    pass
+
+
+def on_alarm(signum, frame):
+    raise Timeout()
+
+
 def timed_gcd(a, b):
     times = []
     g = None
@@ -62,13 +73,24 @@ def main():
         path = tmp
     else:
         path = arg
+    limit = int(os.environ.get("GS_BENCH_SYMPY_LIMIT", "60"))
+    signal.signal(signal.SIGALRM, on_alarm)
     status = 0
     try:
         for name, nvars, polys in read_cases(path):
             R = ring(",".join("x%d" % i for i in range(nvars)), ZZ)[0]
             a, b, ours = (R.from_dict({e: c for c, e in polys[t]})
                           for t in ("a", "b", "g"))
-            g, seconds = timed_gcd(a, b)
+            signal.alarm(limit)
+            try:
+                g, seconds = timed_gcd(a, b)
+            except Timeout:
+                print("bench gcd-%s-sympy seconds=%d status=timeout"
+                      % (name, limit))
+                sys.stdout.flush()
+                continue
+            finally:
+                signal.alarm(0)
             ok = g == ours or g == -ours
             status |= not ok
             print("bench gcd-%s-sympy terms_gcd=%d seconds=%.6f check=%s"
