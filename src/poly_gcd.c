@@ -5,7 +5,9 @@
  * out to make the coprime answer cheap and every answer certain:
  *
  * 1. Integer content and monomial content are split off (gcd of the
- *    monomial contents is their componentwise minimum).
+ *    monomial contents is their componentwise minimum).  The result is
+ *    primitive, as poly.h asks: the gcd of the integer contents is left
+ *    to the caller, who keeps rational contents apart anyway.
  *
  * 2. Degree bounds, which double as a coprimality certificate.  Take a
  *    prime p and a random point alpha.  For each variable x in both
@@ -40,10 +42,18 @@
  *    cofactors go round again, and are normally certified coprime by
  *    step 2.  Probabilistic choices thus affect only the running time.
  *
- * 5. If the modular method keeps failing, the primitive polynomial
- *    remainder sequence (Knuth, TAOCP vol. 2, 4.6.1, algorithm E, with
- *    contents taken recursively; Collins 1967, J. ACM 14) decides: slow in
- *    many variables but unconditionally correct.
+ * 5. If the modular method keeps failing, the subresultant remainder
+ *    sequence (Knuth, TAOCP vol. 2, 4.6.1, algorithm C; Collins 1967,
+ *    J. ACM 14; Brown and Traub 1971, J. ACM 18), with contents taken
+ *    recursively, decides: slow in many variables but unconditionally
+ *    correct.
+ *
+ * Cost.  The coprime case is one pass over the terms of both operands and
+ * a univariate gcd per shared variable.  Otherwise each image is a pass
+ * over both operands (at the powers zeta^t of Zippel's points, one
+ * product per term, each term's value being the previous one times a
+ * fixed ratio), and Zippel's method needs about sum_k deg_k (T_k + 1)
+ * images, T_k the largest number of terms of G sharing a degree in x.
  *
  * The random choices come from a generator seeded by the operands' hashes,
  * so the same inputs take the same path.
