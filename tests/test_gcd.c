@@ -1056,6 +1056,69 @@ static void test_gcd_fallback_and_bounds(void)
     gs_poly_clear(&B);
 }
 
+/* The leading coefficient problem: with x = x0, f = x0 x1 + 1 and
+   cofactors (x1 + 1) x0 + 2, (x1 + 1) x0 + 3, gamma = gcd of the leading
+   coefficients = x1 (x1 + 1) but lc f = x1, so the modular image is
+   (x1 + 1) f, which divides neither operand; the content in x0 must go.
+   Each factor is of degree one in x0 with coprime coefficients, hence
+   irreducible, and the cofactors are coprime (their difference is 1). */
+static void test_gcd_lead_factor(void)
+{
+    env e;
+    gs_rng rng;
+    gs_poly f, u, w, a, b, gam, c, qa, qb, t;
+    long bd[4];
+    int k, r;
+    unsigned m[4 * 6] = {
+        1, 1, 0, 0,   0, 0, 0, 0,                 /* x0 x1 + 1 */
+        1, 1, 0, 0,   1, 0, 0, 0,   0, 0, 0, 0    /* x0 x1 + x0 + c */
+    };
+    int64_t cf[2] = {1, 1}, cu[3] = {1, 1, 2}, cw[3] = {1, 1, 3};
+    gs_poly_init(&f);
+    gs_poly_init(&u);
+    gs_poly_init(&w);
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&gam);
+    gs_poly_init(&c);
+    gs_poly_init(&qa);
+    gs_poly_init(&qb);
+    gs_poly_init(&t);
+    env_init(&e, 4);
+    gs_rng_seed(&rng, seed);
+    from_terms(&f, cf, m, 2, &e);
+    from_terms(&u, cu, m + 8, 3, &e);
+    from_terms(&w, cw, m + 8, 3, &e);
+    for (k = 0; k < 2; k++) {
+        if (k == 1) {           /* again with a factor in x2, x3 */
+            unsigned m2[8] = {0, 0, 1, 1, 0, 0, 0, 0};
+            int64_t c2[2] = {1, -5};
+            from_terms(&t, c2, m2, 2, &e);
+            gs_poly_mul(&f, &f, &t, e.ctx);
+        }
+        gs_poly_mul(&a, &f, &u, e.ctx);
+        gs_poly_mul(&b, &f, &w, e.ctx);
+        lead_gcd(&gam, &a, &b, 0, e.ctx, &rng);
+        CHECK_MSG(gam.length == 2 * (size_t)(k + 1), "gamma: case %d", k);
+        for (r = 0; r < 4; r++)
+            bd[r] = gs_poly_degree(&f, r, e.ctx);
+        r = modular_divisor(&c, &qa, &qb, &a, &b, &gam, 0, bd, e.ctx, &rng);
+        CHECK_MSG(r == R_OK && associates(&c, &f, &e), "case %d", k);
+        check_gcd(&a, &b, &f, &e, "leading coefficient problem", k);
+    }
+    env_clear(&e);
+    gs_poly_clear(&f);
+    gs_poly_clear(&u);
+    gs_poly_clear(&w);
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&gam);
+    gs_poly_clear(&c);
+    gs_poly_clear(&qa);
+    gs_poly_clear(&qb);
+    gs_poly_clear(&t);
+}
+
 /* The output may alias an input; gcd is symmetric. */
 static void test_gcd_alias(void)
 {
@@ -1108,6 +1171,7 @@ int main(int argc, char **argv)
     test_gcd_laplace();
     test_gcd_big_coeffs();
     test_gcd_fallback_and_bounds();
+    test_gcd_lead_factor();
     test_gcd_alias();
     return check_report("gcd");
 }
