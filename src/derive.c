@@ -167,7 +167,9 @@ static void assemble(gs_tf *tf, const gs_mna *m, gs_poly *det_a,
     gs_poly_mul(&tf->num, &m->c0, det_a, ctx);
     gs_poly_sub(&tf->num, &tf->num, det_m, ctx);
     gs_poly_mul_int(&tf->num, &tf->num, &m->scale.num, ctx);
-    gs_poly_mul_int(&tf->den, det_a, &m->scale.den, ctx);
+    gs_poly_swap(&tf->den, det_a);
+    if (!gs_int_is_one(&m->scale.den))
+        gs_poly_mul_int(&tf->den, &tf->den, &m->scale.den, ctx);
 }
 
 /* "v(out) / vin", "i(R1) / iin", "out, gnd": what the output asks for. */
@@ -215,14 +217,17 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
     gs_poly_init(&det_m);
     rc = gs_elim_bordered(&det_a, &det_m, &m, ctx, &o->elim, &stats->elim,
                           d);
-    if (rc == GS_OK) {
+    if (rc == GS_OK)
         assemble(tf, &m, &det_a, &det_m, ctx);
+    /* freed before the reduction: the determinants can be the largest
+       polynomials of the whole run */
+    gs_poly_clear(&det_a);
+    gs_poly_clear(&det_m);
+    gs_mna_clear(&m);
+    if (rc == GS_OK) {
         gs_reduce_ratio(&tf->num, &tf->den, c->syms, ctx, !o->no_gcd,
                         &stats->gcd_terms);
         rc = apply_limits(tf, c, op, o, d);
     }
-    gs_poly_clear(&det_a);
-    gs_poly_clear(&det_m);
-    gs_mna_clear(&m);
     return rc;
 }

@@ -84,7 +84,11 @@ static void pivot_cost(unsigned long long cost[3], elim *e, int i, int j,
     unsigned long long stale = e->last[i] != k - 1;
     switch (rule) {
     case GS_PIVOT_MINWORK:
-        cost[0] = step_work(e, i, j, k); cost[1] = fill; cost[2] = terms;
+        /* a one-term pivot makes every later division by it a cheap
+           monomial division: preferred unless 4 times the work */
+        cost[0] = step_work(e, i, j, k) * (terms > 1 ? 4 : 1);
+        cost[1] = fill;
+        cost[2] = terms;
         break;
     case GS_PIVOT_MINTERMS:
         cost[0] = terms; cost[1] = fill; cost[2] = stale;
@@ -289,8 +293,8 @@ int gs_elim_bordered(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
     if (rc == GS_OK) {
         corner = at(&e, n, n);
         rc = refresh_row(&e, n, n + 1);
-        gs_poly_set(det_m, corner, ctx);
-        gs_poly_set(det_a, &e.dets[n], ctx);
+        gs_poly_swap(det_m, corner);     /* no copies: both may be big */
+        gs_poly_swap(det_a, &e.dets[n]);
     }
     elim_clear(&e);
     return rc;

@@ -27,7 +27,8 @@
 #include "poly.h"
 
 typedef enum gs_pivot_rule {
-    GS_PIVOT_MINWORK,    /* least estimated work of the step's products */
+    GS_PIVOT_MINWORK,    /* least estimated work of the step's products,
+                            one-term pivots weighted 4 times lighter */
     GS_PIVOT_MARKOWITZ,  /* least fill (r-1)(c-1), then fewest terms */
     GS_PIVOT_MINTERMS,   /* fewest terms in the pivot, then least fill */
     GS_PIVOT_NATURAL     /* first nonzero in the first remaining column */
