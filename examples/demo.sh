@@ -18,4 +18,10 @@ run derive examples/inverting_amp.gsc --limit A=inf
 run derive examples/sallen_key.gsc --format latex
 run eval examples/sallen_key.gsc --at 10k
 run derive examples/bjt_ce_degen.gsc
+run poles examples/sallen_key.gsc
+run step examples/sallen_key.gsc
+run bode examples/sallen_key.gsc --from 100 --to 1M --points 5
+run check examples/sallen_key.gsc
+run eval examples/cs_biased.gsc
+run extract mos --id=200u --vds=1.5 --gm=1.3115m --gds=9.3023u --vth=0.45
 exit $status
