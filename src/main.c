@@ -2,6 +2,7 @@
  * See LICENSE.
  */
 #include "cmd.h"
+#include "diag.h"
 #include "gainsmith.h"
 
 #include <stdio.h>
@@ -68,6 +69,18 @@ int main(int argc, char **argv)
         }
     }
     fprintf(stderr, "gainsmith: error: unknown command '%s'\n", argv[1]);
-    fprintf(stderr, "gainsmith: hint: 'gainsmith help' lists the commands\n");
+    {
+        const char *names[NCOMMANDS + 2], *best;
+        for (i = 0; i < NCOMMANDS; i++)
+            names[i] = commands[i].name;
+        names[NCOMMANDS] = "help";
+        names[NCOMMANDS + 1] = NULL;
+        best = gs_closest_word(argv[1], names);
+        if (best)
+            fprintf(stderr, "gainsmith: hint: did you mean '%s'?\n", best);
+        else
+            fprintf(stderr, "gainsmith: hint: 'gainsmith help' lists the "
+                    "commands\n");
+    }
     return 2;
 }
