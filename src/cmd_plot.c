@@ -182,9 +182,15 @@ static int bode_outputs(const gs_job *j, const gs_tfn *h, const gs_cli *cl,
     int loop = gs_cli_has(cl, "loop"), status = 0;
     const char *csv = gs_cli_get(cl, "csv", 0);
     const char *svg = gs_cli_get(cl, "svg", 0);
-    FILE *f;
+    FILE *fcsv = NULL, *fsvg = NULL;
 
-    for (i = 0; i < n; i++) {
+    /* open the files first: a refusal costs no work and prints nothing */
+    if (csv && (fcsv = open_output(csv, j->c->file, "bode", err)) == NULL)
+        status = 2;
+    if (svg && status == 0
+        && (fsvg = open_output(svg, j->c->file, "bode", err)) == NULL)
+        status = 2;
+    for (i = 0; i < n && status == 0; i++) {
         gs_sweep_init(&sw[i]);
         gs_sweep_log(&sw[i], &h[i], so->from, so->to, so->points);
         gs_plot_marks_fill(&marks[i], &h[i], loop);
@@ -196,25 +202,21 @@ static int bode_outputs(const gs_job *j, const gs_tfn *h, const gs_cli *cl,
         tr[i].marks = &marks[i];
         print_bode_summary(out, j->tf[i].name, &marks[i], loop);
     }
-    if (csv && (f = open_output(csv, j->c->file, "bode", err))) {
-        write_bode_csv(f, j, sw);
-        status = close_output(f, csv, "bode", err);
-    } else if (csv) {
-        status = 2;
-    }
-    if (svg && status == 0 && (f = open_output(svg, j->c->file, "bode",
-                                               err))) {
+    if (fcsv && status == 0)
+        write_bode_csv(fcsv, j, sw);
+    if (fsvg && status == 0) {
         gs_plot p;
         memset(&p, 0, sizeof p);
         p.title = j->c->title;
         p.traces = tr;
         p.ntraces = n;
-        gs_svg_bode(f, &p);
-        status = close_output(f, svg, "bode", err);
-    } else if (svg && status == 0) {
-        status = 2;
+        gs_svg_bode(fsvg, &p);
     }
-    if (!csv && !svg)
+    if (fcsv && close_output(fcsv, csv, "bode", err))
+        status = 2;
+    if (fsvg && close_output(fsvg, svg, "bode", err))
+        status = 2;
+    if (!csv && !svg && status == 0)
         write_bode_csv(out, j, sw);
     for (i = 0; i < n; i++)
         gs_sweep_clear(&sw[i]);
