@@ -292,7 +292,8 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
         if (status == 0) {
             long double complex s = 2 * acosl(-1) * f * I;
             snprintf(label, sizeof label, "at %.6Lg Hz", f);
-            print_point(out, label, gs_roots_horner(cn, dn, s) / gs_roots_horner(cd, dd, s));
+            print_point(out, label, gs_roots_horner(cn, dn, s)
+                                    / gs_roots_horner(cd, dd, s));
         }
     }
     print_coeffs(out, "numerator", cn, dn);

@@ -18,6 +18,12 @@
 #include <stdlib.h>
 #include <string.h>
 
+/* A figure formatted for a message (units.h). */
+static gs_numtext fmt(long double v, gs_quantity q)
+{
+    return gs_units_text(v, q);
+}
+
 #define WORD (-1)           /* an option whose value is a keyword */
 
 static const char help_text[] =
@@ -461,7 +467,7 @@ static int carry_usage(const gs_mos_op *m, const fig *f, int pmos,
     if (by_id && !(mag(&f[M_AT_ID], pmos) > 0)) {
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
                     "--at-id must be positive, got %s",
-                    gs_units_text(f[M_AT_ID].v, GS_Q_CURRENT).s);
+                    fmt(f[M_AT_ID].v, GS_Q_CURRENT).s);
         return GS_ERANGE;
     }
     return GS_OK;
@@ -507,16 +513,16 @@ static int mos_carry(report *r, const gs_mos_op *m, const fig *f, int pmos,
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
                     "at VGS = %s the device is cut off (VGS <= Vth = %s): "
                     "it has no small-signal gain",
-                    gs_units_text(mag(&f[M_AT_VGS], pmos), GS_Q_VOLTAGE).s,
-                    gs_units_text(m->vth, GS_Q_VOLTAGE).s);
+                    fmt(mag(&f[M_AT_VGS], pmos), GS_Q_VOLTAGE).s,
+                    fmt(m->vth, GS_Q_VOLTAGE).s);
         return GS_EINVAL;
     }
     if (p.region == GS_MOS_TRIODE)
         gs_diag_add(d, GS_SEV_WARNING, NULL, 0, 0, NULL,
                     "the new point is in triode, not in saturation (VDS = "
                     "%s < Vov = %s): the triode small-signal values are "
-                    "shown", gs_units_text(p.vds, GS_Q_VOLTAGE).s,
-                    gs_units_text(p.vov, GS_Q_VOLTAGE).s);
+                    "shown", fmt(p.vds, GS_Q_VOLTAGE).s,
+                    fmt(p.vov, GS_Q_VOLTAGE).s);
     carry_report(r, m, &p, f);
     return GS_OK;
 }
@@ -755,7 +761,7 @@ static int bjt_gm(section *s, const fig *f, long double ic,
     if (!(f[B_GM].v > 0) || isinf(f[B_GM].v)) {
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
                     "gm must be positive, got %s",
-                    gs_units_text(f[B_GM].v, GS_Q_CONDUCTANCE).s);
+                    fmt(f[B_GM].v, GS_Q_CONDUCTANCE).s);
         return GS_ERANGE;
     }
     *gm = f[B_GM].v;
@@ -819,7 +825,7 @@ static int extract_bjt(report *r, const fig *f, gs_diag *d)
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, "a PNP takes --type=pnp; "
                     "its figures are then read as magnitudes",
                     "VCE must not be negative, got %s",
-                    gs_units_text(vce, GS_Q_VOLTAGE).s);
+                    fmt(vce, GS_Q_VOLTAGE).s);
         return GS_ERANGE;
     }
     bjt_given(r, f, pnp);
@@ -829,8 +835,8 @@ static int extract_bjt(report *r, const fig *f, gs_diag *d)
         gs_diag_add(d, GS_SEV_WARNING, NULL, 0, 0, NULL,
                     "VCE = %s is below %s: the transistor is saturated, "
                     "where the forward-active figures do not hold",
-                    gs_units_text(vce, GS_Q_VOLTAGE).s,
-                    gs_units_text(GS_VCE_SAT, GS_Q_VOLTAGE).s);
+                    fmt(vce, GS_Q_VOLTAGE).s,
+                    fmt(GS_VCE_SAT, GS_Q_VOLTAGE).s);
     if (f[B_FT].given && !f[B_CMU].given)
         add_note(r, "no --cmu: only the sum Cpi + Cmu follows from fT");
     if (pnp)

@@ -14,6 +14,12 @@
 #include <stdlib.h>
 #include <string.h>
 
+/* A figure formatted for a message (units.h). */
+static gs_numtext fmt(long double v, gs_quantity q)
+{
+    return gs_units_text(v, q);
+}
+
 #define PI_L 3.141592653589793238462643383279502884L
 
 
@@ -82,15 +88,15 @@ static int check_model(long double k, long double lambda, long double vds,
 {
     if (!(k > 0) || isinf(k))
         return fail(d, GS_ERANGE, at, NULL, "K must be positive, got %s",
-                    gs_units_text(k, GS_Q_KPARAM).s);
+                    fmt(k, GS_Q_KPARAM).s);
     if (!(lambda >= 0) || isinf(lambda))
         return fail(d, GS_ERANGE, at, NULL,
                     "lambda must not be negative, got %s",
-                    gs_units_text(lambda, GS_Q_INV_VOLTAGE).s);
+                    fmt(lambda, GS_Q_INV_VOLTAGE).s);
     if (!(vds >= 0) || isinf(vds))
         return fail(d, GS_ERANGE, at, pmos_hint,
                     "VDS must not be negative, got %s",
-                    gs_units_text(vds, GS_Q_VOLTAGE).s);
+                    fmt(vds, GS_Q_VOLTAGE).s);
     return GS_OK;
 }
 
@@ -133,7 +139,7 @@ int gs_mos_at_vov(gs_mos_op *op, long double k, long double lambda,
         return rc;
     if (!isfinite(vov))
         return fail(d, GS_ERANGE, at, NULL, "Vov must be finite, got %s",
-                    gs_units_text(vov, GS_Q_VOLTAGE).s);
+                    fmt(vov, GS_Q_VOLTAGE).s);
     memset(op, 0, sizeof *op);
     op->k = k;
     op->lambda = lambda;
@@ -150,7 +156,7 @@ static int check_id(long double id, const char *name, const gs_srcpos *at,
     if (!(id > 0) || isinf(id))
         return fail(d, GS_ERANGE, at, pmos_hint,
                     "%s must be positive, got %s", name,
-                    gs_units_text(id, GS_Q_CURRENT).s);
+                    fmt(id, GS_Q_CURRENT).s);
     return GS_OK;
 }
 
@@ -172,7 +178,7 @@ int gs_mos_at_id(gs_mos_op *op, long double k, long double lambda,
             return fail(d, GS_EINVAL, at, NULL,
                         "at VDS = 0 no drain current flows in this model, "
                         "so ID = %s cannot be reached",
-                        gs_units_text(id, GS_Q_CURRENT).s);
+                        fmt(id, GS_Q_CURRENT).s);
         vov = id / (k * vds * f) + vds / 2;
     }
     return gs_mos_at_vov(op, k, lambda, vov, vds, at, d);
@@ -191,7 +197,7 @@ int gs_mos_k_from_id(long double *k, long double id, long double vov,
         return fail(d, GS_EINVAL, at, NULL,
                     "ID = %s with VGS - Vth = %s <= 0: in this model the "
                     "device is cut off and carries no current",
-                    gs_units_text(id, GS_Q_CURRENT).s, gs_units_text(vov, GS_Q_VOLTAGE).s);
+                    fmt(id, GS_Q_CURRENT).s, fmt(vov, GS_Q_VOLTAGE).s);
     f = 1 + lambda * vds;
     if (vds >= vov) {
         *k = 2 * id / (vov * vov * f);
@@ -200,7 +206,7 @@ int gs_mos_k_from_id(long double *k, long double id, long double vov,
     } else {
         return fail(d, GS_EINVAL, at, NULL,
                     "at VDS = 0 no drain current flows in this model, "
-                    "so ID = %s cannot be reached", gs_units_text(id, GS_Q_CURRENT).s);
+                    "so ID = %s cannot be reached", fmt(id, GS_Q_CURRENT).s);
     }
     return GS_OK;
 }
@@ -214,11 +220,11 @@ int gs_mos_gmb(long double *gmb, long double gm, long double gamma,
     if (!(gamma >= 0) || isinf(gamma))
         return fail(d, GS_ERANGE, at, NULL,
                     "gamma must not be negative, got %s",
-                    gs_units_text(gamma, GS_Q_SQRT_VOLTAGE).s);
+                    fmt(gamma, GS_Q_SQRT_VOLTAGE).s);
     if (!(s > 0) || isinf(s))
         return fail(d, GS_ERANGE, at, NULL,
                     "2*phi + VSB must be positive, got %s",
-                    gs_units_text(s, GS_Q_VOLTAGE).s);
+                    fmt(s, GS_Q_VOLTAGE).s);
     *gmb = gm * gamma / (2 * sqrtl(s));
     return GS_OK;
 }
@@ -238,11 +244,11 @@ static int fit_lambda(long double *lam, long double id, const long double *gds,
     if (gds && (!(*gds >= 0) || isinf(*gds)))
         return fail(d, GS_ERANGE, at, NULL,
                     "gds must not be negative, got %s",
-                    gs_units_text(*gds, GS_Q_CONDUCTANCE).s);
+                    fmt(*gds, GS_Q_CONDUCTANCE).s);
     if (lambda && (!(*lambda >= 0) || isinf(*lambda)))
         return fail(d, GS_ERANGE, at, NULL,
                     "lambda must not be negative, got %s",
-                    gs_units_text(*lambda, GS_Q_INV_VOLTAGE).s);
+                    fmt(*lambda, GS_Q_INV_VOLTAGE).s);
     if (((gds && *gds > 0) || (lambda && *lambda > 0)) && vds == NULL)
         return fail(d, GS_ERANGE, at, NULL,
                     "%s needs VDS: the model has the factor (1 + "
@@ -254,8 +260,8 @@ static int fit_lambda(long double *lam, long double id, const long double *gds,
                         "figures and their units",
                         "gds*VDS = %s is not below ID = %s, so lambda = "
                         "gds/(ID - gds*VDS) would be infinite or negative",
-                        gs_units_text(*gds * v, GS_Q_CURRENT).s,
-                        gs_units_text(id, GS_Q_CURRENT).s);
+                        fmt(*gds * v, GS_Q_CURRENT).s,
+                        fmt(id, GS_Q_CURRENT).s);
         *lam = *gds / (id - *gds * v);
     } else if (lambda) {
         *lam = *lambda;
@@ -275,7 +281,7 @@ int gs_mos_fit_point(gs_mos_op *op, long double id, long double gm,
         return rc;
     if (!(gm > 0) || isinf(gm))
         return fail(d, GS_ERANGE, at, NULL, "gm must be positive, got %s",
-                    gs_units_text(gm, GS_Q_CONDUCTANCE).s);
+                    fmt(gm, GS_Q_CONDUCTANCE).s);
     if (vds && (rc = check_model(1, 0, v, at, d)) != GS_OK)
         return rc;
     if ((rc = fit_lambda(&lam, id, gds, lambda, vds, at, d)) != GS_OK)
@@ -287,7 +293,7 @@ int gs_mos_fit_point(gs_mos_op *op, long double id, long double gm,
                     "VDS = %s is below Vov = 2*ID/gm = %s: these figures "
                     "put the device in triode, where the square-law "
                     "saturation equations do not hold",
-                    gs_units_text(v, GS_Q_VOLTAGE).s, gs_units_text(vov, GS_Q_VOLTAGE).s);
+                    fmt(v, GS_Q_VOLTAGE).s, fmt(vov, GS_Q_VOLTAGE).s);
     rc = gs_mos_at_vov(op, 2 * id / (vov * vov * (1 + lam * v)), lam, vov,
                        v, at, d);
     if (rc == GS_OK && vds == NULL) {
@@ -310,8 +316,8 @@ static int check_two_sat(const gs_mos_op *op, long double vov2,
                 "the two-point fit needs both points in saturation",
                 "at VDS = %s point %d (Vov = %s) is in triode, where the "
                 "square-law saturation equations do not hold",
-                gs_units_text(op->vds, GS_Q_VOLTAGE).s, which,
-                gs_units_text(vov, GS_Q_VOLTAGE).s);
+                fmt(op->vds, GS_Q_VOLTAGE).s, which,
+                fmt(vov, GS_Q_VOLTAGE).s);
 }
 
 int gs_mos_fit_two(gs_mos_op *op, long double id1, long double vgs1,
@@ -335,9 +341,9 @@ int gs_mos_fit_two(gs_mos_op *op, long double id1, long double vgs1,
         return fail(d, GS_ERANGE, at, NULL,
                     "ID goes from %s to %s while VGS goes from %s to %s: "
                     "in the square law ID rises with VGS, so these points "
-                    "do not fit it", gs_units_text(id1, GS_Q_CURRENT).s,
-                    gs_units_text(id2, GS_Q_CURRENT).s, gs_units_text(vgs1, GS_Q_VOLTAGE).s,
-                    gs_units_text(vgs2, GS_Q_VOLTAGE).s);
+                    "do not fit it", fmt(id1, GS_Q_CURRENT).s,
+                    fmt(id2, GS_Q_CURRENT).s, fmt(vgs1, GS_Q_VOLTAGE).s,
+                    fmt(vgs2, GS_Q_VOLTAGE).s);
     /* sqrt(ID) = sqrt(K(1+λVDS)/2)·(VGS - Vth) is linear in VGS */
     a = sqrtl(id1);
     b = sqrtl(id2);
@@ -364,7 +370,7 @@ int gs_thermal_voltage(long double *vt, long double kelvin,
     if (!(kelvin > 0) || isinf(kelvin))
         return fail(d, GS_ERANGE, at, NULL,
                     "the temperature must be above 0 K, got %s",
-                    gs_units_text(kelvin, GS_Q_TEMPERATURE).s);
+                    fmt(kelvin, GS_Q_TEMPERATURE).s);
     *vt = GS_BOLTZMANN * kelvin / GS_ELEMENTARY_CHARGE;
     return GS_OK;
 }
@@ -376,7 +382,7 @@ int gs_bjt_gm(long double *gm, long double ic, long double vt,
         return fail(d, GS_ERANGE, at,
                     "a PNP takes type=pnp (--type=pnp); its figures are "
                     "then read as magnitudes",
-                    "IC must be positive, got %s", gs_units_text(ic, GS_Q_CURRENT).s);
+                    "IC must be positive, got %s", fmt(ic, GS_Q_CURRENT).s);
     *gm = ic / vt;
     return GS_OK;
 }
@@ -387,10 +393,10 @@ int gs_bjt_rpi(long double *rpi, long double *re, long double beta,
     if (!(beta > 0) || isinf(beta))
         return fail(d, GS_ERANGE, at, NULL,
                     "beta must be positive, got %s",
-                    gs_units_text(beta, GS_Q_NUMBER).s);
+                    fmt(beta, GS_Q_NUMBER).s);
     if (!(gm > 0) || isinf(gm))
         return fail(d, GS_ERANGE, at, NULL, "gm must be positive, got %s",
-                    gs_units_text(gm, GS_Q_CONDUCTANCE).s);
+                    fmt(gm, GS_Q_CONDUCTANCE).s);
     *rpi = beta / gm;
     if (re)
         *re = beta / (beta + 1) / gm;
@@ -402,13 +408,13 @@ static int check_early(long double vce, long double ic, int plain,
 {
     if (!(ic > 0) || isinf(ic))
         return fail(d, GS_ERANGE, at, NULL, "IC must be positive, got %s",
-                    gs_units_text(ic, GS_Q_CURRENT).s);
+                    fmt(ic, GS_Q_CURRENT).s);
     if (!plain && (!(vce >= 0) || isinf(vce)))
         return fail(d, GS_ERANGE, at,
                     "a PNP takes type=pnp (--type=pnp); its figures are "
                     "then read as magnitudes",
                     "VCE must not be negative, got %s",
-                    gs_units_text(vce, GS_Q_VOLTAGE).s);
+                    fmt(vce, GS_Q_VOLTAGE).s);
     return GS_OK;
 }
 
@@ -421,7 +427,7 @@ int gs_bjt_ro(long double *ro, long double va, long double vce,
         return rc;
     if (!(va > 0) || isinf(va))
         return fail(d, GS_ERANGE, at, NULL, "VA must be positive, got %s",
-                    gs_units_text(va, GS_Q_VOLTAGE).s);
+                    fmt(va, GS_Q_VOLTAGE).s);
     *ro = (plain ? va : va + vce) / ic;
     return GS_OK;
 }
@@ -435,13 +441,13 @@ int gs_bjt_va(long double *va, long double ro, long double vce,
         return rc;
     if (!(ro > 0) || isinf(ro))
         return fail(d, GS_ERANGE, at, NULL, "ro must be positive, got %s",
-                    gs_units_text(ro, GS_Q_RESISTANCE).s);
+                    fmt(ro, GS_Q_RESISTANCE).s);
     if (!plain && !(ro * ic > vce))
         return fail(d, GS_ERANGE, at,
                     "check the figures, or use the form ro = VA/IC",
                     "ro*IC = %s is not above VCE = %s, so VA = ro*IC - VCE "
-                    "would not be positive", gs_units_text(ro * ic, GS_Q_VOLTAGE).s,
-                    gs_units_text(vce, GS_Q_VOLTAGE).s);
+                    "would not be positive", fmt(ro * ic, GS_Q_VOLTAGE).s,
+                    fmt(vce, GS_Q_VOLTAGE).s);
     *va = plain ? ro * ic : ro * ic - vce;
     return GS_OK;
 }
@@ -453,17 +459,17 @@ int gs_bjt_cpi(long double *cpi, long double gm, long double ft,
 
     if (!(ft > 0) || isinf(ft))
         return fail(d, GS_ERANGE, at, NULL, "fT must be positive, got %s",
-                    gs_units_text(ft, GS_Q_FREQUENCY).s);
+                    fmt(ft, GS_Q_FREQUENCY).s);
     if (!(cmu >= 0) || isinf(cmu))
         return fail(d, GS_ERANGE, at, NULL,
                     "Cmu must not be negative, got %s",
-                    gs_units_text(cmu, GS_Q_CAPACITANCE).s);
+                    fmt(cmu, GS_Q_CAPACITANCE).s);
     ctot = gm / (2 * PI_L * ft);    /* Cpi + Cmu = gm/(2·pi·fT) */
     if (!(cmu < ctot))
         return fail(d, GS_ERANGE, at, NULL,
                     "Cmu = %s is not below gm/(2*pi*fT) = %s, so Cpi would "
-                    "not be positive", gs_units_text(cmu, GS_Q_CAPACITANCE).s,
-                    gs_units_text(ctot, GS_Q_CAPACITANCE).s);
+                    "not be positive", fmt(cmu, GS_Q_CAPACITANCE).s,
+                    fmt(ctot, GS_Q_CAPACITANCE).s);
     *cpi = ctot - cmu;
     return GS_OK;
 }
@@ -792,11 +798,11 @@ static int mos_region_check(const gs_mos_op *op, const char *name,
     if (op->region == GS_MOS_CUTOFF)
         return fail(d, GS_EINVAL, at, NULL,
                     "%s is cut off (VGS - Vth = %s <= 0): it has no "
-                    "small-signal gain", name, gs_units_text(op->vov, GS_Q_VOLTAGE).s);
+                    "small-signal gain", name, fmt(op->vov, GS_Q_VOLTAGE).s);
     if (op->region == GS_MOS_TRIODE)
         warn(d, at, NULL, "%s is in triode, not in saturation (VDS = %s < "
              "Vov = %s): the triode small-signal values are used", name,
-             gs_units_text(op->vds, GS_Q_VOLTAGE).s, gs_units_text(op->vov, GS_Q_VOLTAGE).s);
+             fmt(op->vds, GS_Q_VOLTAGE).s, fmt(op->vov, GS_Q_VOLTAGE).s);
     return GS_OK;
 }
 
@@ -870,8 +876,8 @@ static void bjt_warnings(const gs_circuit *c, const gs_device *dv,
     if (f[B_VCE].given && gs_bjt_saturated(vce))
         warn(d, at, NULL, "%s is saturated (VCE = %s is below %s): the "
              "forward-active small-signal values do not hold there",
-             dv->name, gs_units_text(vce, GS_Q_VOLTAGE).s,
-             gs_units_text(GS_VCE_SAT, GS_Q_VOLTAGE).s);
+             dv->name, fmt(vce, GS_Q_VOLTAGE).s,
+             fmt(GS_VCE_SAT, GS_Q_VOLTAGE).s);
     if (f[B_VA].given && device_sym(c, dv, "ro") < 0
         && device_sym(c, dv, "ro") != SYM_FIXED)
         warn(d, at, NULL, "va is not used: %s has no ro", dv->name);

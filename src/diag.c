@@ -142,7 +142,8 @@ int gs_edit_distance(const char *a, const char *b, int cap)
         for (j = 1; j <= lb; j++) {
             int sub = prev[j - 1] + (a[i - 1] != b[j - 1]);
             int del = prev[j] + 1, ins = cur[j - 1] + 1;
-            cur[j] = sub < del ? (sub < ins ? sub : ins) : (del < ins ? del : ins);
+            int best = sub < del ? sub : del;
+            cur[j] = best < ins ? best : ins;
         }
         tmp = prev;
         prev = cur;

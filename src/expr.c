@@ -358,38 +358,38 @@ static int ex_unary(gs_expr **out, gs_cursor *cur, gs_circuit *c)
     return GS_OK;
 }
 
-static int ex_product(gs_expr **out, gs_cursor *cur, gs_circuit *c)
+typedef int (*ex_level)(gs_expr **out, gs_cursor *cur, gs_circuit *c);
+
+/* One left-associative level: next (op next)*, op being a (kind ka) or
+   b (kind kb). */
+static int ex_left_assoc(gs_expr **out, gs_cursor *cur, gs_circuit *c,
+                         ex_level next, char a, gs_expr_kind ka, char b,
+                         gs_expr_kind kb)
 {
-    if (ex_unary(out, cur, c) != GS_OK)
+    if (next(out, cur, c) != GS_OK)
         return GS_ESYNTAX;
-    while (gs_cur_is(cur, '*') || gs_cur_is(cur, '/')) {
+    while (gs_cur_is(cur, a) || gs_cur_is(cur, b)) {
         const gs_token *op = gs_cur_next(cur);
         gs_expr *rhs = NULL;
-        if (ex_unary(&rhs, cur, c) != GS_OK) {
+        if (next(&rhs, cur, c) != GS_OK) {
             gs_expr_free(rhs);
             return GS_ESYNTAX;
         }
-        *out = binary(op->text[0] == '*' ? GS_EX_MUL : GS_EX_DIV, cur, op,
-                      *out, rhs);
+        *out = binary(op->text[0] == a ? ka : kb, cur, op, *out, rhs);
     }
     return GS_OK;
 }
 
+static int ex_product(gs_expr **out, gs_cursor *cur, gs_circuit *c)
+{
+    return ex_left_assoc(out, cur, c, ex_unary, '*', GS_EX_MUL, '/',
+                         GS_EX_DIV);
+}
+
 static int ex_sum(gs_expr **out, gs_cursor *cur, gs_circuit *c)
 {
-    if (ex_product(out, cur, c) != GS_OK)
-        return GS_ESYNTAX;
-    while (gs_cur_is(cur, '+') || gs_cur_is(cur, '-')) {
-        const gs_token *op = gs_cur_next(cur);
-        gs_expr *rhs = NULL;
-        if (ex_product(&rhs, cur, c) != GS_OK) {
-            gs_expr_free(rhs);
-            return GS_ESYNTAX;
-        }
-        *out = binary(op->text[0] == '+' ? GS_EX_ADD : GS_EX_SUB, cur, op,
-                      *out, rhs);
-    }
-    return GS_OK;
+    return ex_left_assoc(out, cur, c, ex_product, '+', GS_EX_ADD, '-',
+                         GS_EX_SUB);
 }
 
 int gs_parse_expr(gs_expr **out, gs_cursor *cur, gs_circuit *c)

@@ -43,6 +43,8 @@ int gs_mna_build(gs_mna *m, const gs_circuit *c, size_t out,
                  const gs_polyctx *ctx, gs_diag *d);
 void gs_mna_clear(gs_mna *m);
 
-#define GS_MNA_AT(mna, i, j) (&(mna)->m[(size_t)(i) * (size_t)((mna)->n + 1) + (size_t)(j)])
+/* Entry (i, j) of M, a gs_poly pointer. */
+#define GS_MNA_AT(mna, i, j) \
+    (&(mna)->m[(size_t)(i) * (size_t)((mna)->n + 1) + (size_t)(j)])
 
 #endif

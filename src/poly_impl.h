@@ -4,8 +4,8 @@
  *
  * The heap is a binary max-heap (Williams, CACM 7, 1964) of two-word
  * entries: the first word of a packed exponent vector, and a payload
- * whose high 32 bits name a slot.  The whole key of slot i lives in keys[i * nw ..], owned by
- * the caller, and is read only when first words tie, so entries move as
+ * whose high 32 bits name a slot.  The whole key of slot i lives in
+ * keys[i * nw ..], owned by the caller, and is read only when first words tie, so entries move as
  * two words whatever the number of variables (Monagan and Pearce keep
  * pointers to monomials in their heaps for the same reason).  Each slot
  * is in the heap at most once.  Moves use a hole instead of swaps.

@@ -300,9 +300,11 @@ static void snap(axis *a, long double step)
         a->hi = a->lo + step;
 }
 
-static void frame(FILE *f, const panel *p)
+/* x="" y="" width="" height="" of the panel's rectangle, open at both
+   ends: the caller writes what comes before and after. */
+static void rect_geometry(FILE *f, const panel *p)
 {
-    fputs("<rect x=\"", f);
+    fputs("x=\"", f);
     put(f, p->x);
     fputs("\" y=\"", f);
     put(f, p->y);
@@ -310,19 +312,19 @@ static void frame(FILE *f, const panel *p)
     put(f, p->w);
     fputs("\" height=\"", f);
     put(f, p->h);
+}
+
+static void frame(FILE *f, const panel *p)
+{
+    fputs("<rect ", f);
+    rect_geometry(f, p);
     fputs("\" fill=\"none\" stroke=\"#000000\" stroke-width=\"1\"/>\n", f);
 }
 
 static void clip_def(FILE *f, const panel *p)
 {
-    fprintf(f, "<clipPath id=\"clip%d\"><rect x=\"", p->id);
-    put(f, p->x);
-    fputs("\" y=\"", f);
-    put(f, p->y);
-    fputs("\" width=\"", f);
-    put(f, p->w);
-    fputs("\" height=\"", f);
-    put(f, p->h);
+    fprintf(f, "<clipPath id=\"clip%d\"><rect ", p->id);
+    rect_geometry(f, p);
     fputs("\"/></clipPath>\n", f);
 }
 
