@@ -13,8 +13,8 @@
 static const gs_cli_opt derive_spec[] = {
     {"only", 1, 0}, {"limit", 1, 1}, {"format", 1, 0}, {"collect", 1, 0},
     {"out", 1, 0}, {"in", 1, 0},
-    {"max-terms", 1, 0}, {"pivot", 1, 0}, {"stats", 0, 0}, {"help", 0, 0},
-    {NULL, 0, 0}
+    {"max-terms", 1, 0}, {"method", 1, 0}, {"pivot", 1, 0}, {"stats", 0, 0},
+    {"help", 0, 0}, {NULL, 0, 0}
 };
 
 static const gs_cli_opt eval_spec[] = {
@@ -87,6 +87,26 @@ static int parse_pivot(gs_pivot_rule *rule, const char *text, FILE *err)
     return 0;
 }
 
+/* --method; --pivot alone implies bareiss, the only method it steers */
+static int parse_method(gs_det_method *method, const gs_cli *cl, FILE *err)
+{
+    const char *text = gs_cli_get(cl, "method", 0);
+    if (text == NULL)
+        *method = gs_cli_count(cl, "pivot") ? GS_DET_BAREISS : GS_DET_AUTO;
+    else if (strcmp(text, "auto") == 0)
+        *method = GS_DET_AUTO;
+    else if (strcmp(text, "minors") == 0)
+        *method = GS_DET_MINORS;
+    else if (strcmp(text, "bareiss") == 0)
+        *method = GS_DET_BAREISS;
+    else {
+        fprintf(err, "gainsmith derive: error: --method expects auto, "
+                "minors or bareiss, got '%s'\n", text);
+        return 2;
+    }
+    return 0;
+}
+
 /* --out EXPR --in SRC: an output given on the command line, named "H"
    (or --only's name), which then is the only one derived. */
 static int adhoc_transfer(gs_job *j, const gs_cli *cl, const char *cmd,
@@ -125,6 +145,8 @@ int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
         return 2;
     if (gs_cli_count(cl, "pivot") &&
         parse_pivot(&o.elim.pivot, gs_cli_get(cl, "pivot", 0), err))
+        return 2;
+    if (parse_method(&o.method, cl, err))
         return 2;
     if (isatty(fileno(err)))
         o.elim.progress = err;
@@ -209,10 +231,16 @@ static void print_stats(const gs_job *j, FILE *err)
     size_t i;
     for (i = 0; i < j->ntf; i++) {
         const gs_derive_stats *st = &j->stats[i];
+        int minors = st->method == GS_DET_MINORS;
         fprintf(err, "stats %s terms_N=%zu terms_D=%zu unknowns=%d "
-                "max_entry_terms=%zu big_divisions=%zu gcd_terms=%zu\n",
+                "method=%s minors=%zu products=%zu max_entry_terms=%zu "
+                "big_divisions=%zu gcd_terms=%zu\n",
                 j->tf[i].name, j->tf[i].num.length, j->tf[i].den.length,
-                st->elim.steps, st->elim.max_entry_terms,
+                st->unknowns, minors ? "minors" : "bareiss",
+                minors ? st->minors.minors : 0,
+                minors ? st->minors.products : 0,
+                minors ? st->minors.max_minor_terms
+                       : st->elim.max_entry_terms,
                 st->elim.big_divisions, st->gcd_terms);
     }
 }

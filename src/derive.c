@@ -10,6 +10,7 @@
 
 void gs_derive_opts_default(gs_derive_opts *o)
 {
+    o->method = GS_DET_AUTO;
     gs_elim_opts_default(&o->elim);
     o->limits = NULL;
     o->nlimits = 0;
@@ -190,6 +191,40 @@ static char *describe(const gs_circuit *c, const gs_output *o)
     return text;
 }
 
+/* det A and det M by the method o asks for.  Expansion in minors is tried
+   first under AUTO; elimination takes over when the expansion's plan is
+   too large, and also when A is singular, since elimination can name the
+   unknowns left undetermined. */
+static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
+                        const gs_polyctx *ctx, const gs_derive_opts *o,
+                        gs_derive_stats *stats, gs_diag *d)
+{
+    gs_minors_opts mo;
+    int rc;
+    if (o->method != GS_DET_BAREISS) {
+        gs_minors_opts_default(&mo);
+        mo.max_terms = o->elim.max_terms;
+        mo.progress = o->elim.progress;
+        if (o->method == GS_DET_MINORS)
+            mo.max_products = 0;
+        rc = gs_minors_bordered(det_a, det_m, m, ctx, &mo, &stats->minors,
+                                d);
+        if (rc != GS_ERANGE && rc != GS_ESINGULAR) {
+            stats->method = GS_DET_MINORS;
+            return rc;
+        }
+        if (rc == GS_ERANGE && o->method == GS_DET_MINORS) {
+            gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                        "use --method bareiss (or auto)",
+                        "expansion in minors takes at most %d unknowns; "
+                        "this circuit has %d", GS_MINORS_MAX_UNKNOWNS, m->n);
+            return GS_EINVAL;
+        }
+    }
+    stats->method = GS_DET_BAREISS;
+    return gs_elim_bordered(det_a, det_m, m, ctx, &o->elim, &stats->elim, d);
+}
+
 int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
               const gs_polyctx *ctx, const gs_derive_opts *o,
               gs_derive_stats *stats, gs_diag *d)
@@ -215,8 +250,8 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
         return rc;
     gs_poly_init(&det_a);
     gs_poly_init(&det_m);
-    rc = gs_elim_bordered(&det_a, &det_m, &m, ctx, &o->elim, &stats->elim,
-                          d);
+    stats->unknowns = m.n;
+    rc = determinants(&det_a, &det_m, &m, ctx, o, stats, d);
     if (rc == GS_OK)
         assemble(tf, &m, &det_a, &det_m, ctx);
     /* freed before the reduction: the determinants can be the largest

@@ -6,6 +6,7 @@
 
 #include "circuit.h"
 #include "elim.h"
+#include "minors.h"
 #include "tf.h"
 
 typedef struct gs_limit {
@@ -13,15 +14,28 @@ typedef struct gs_limit {
     int to_inf;     /* 1: sym -> infinity, 0: sym -> 0 */
 } gs_limit;
 
+/* How det A and det M are computed.  Both give the same result; only the
+   work differs.  AUTO expands in minors when the plan is small enough
+   (minors.h) and eliminates otherwise. */
+typedef enum gs_det_method {
+    GS_DET_AUTO,
+    GS_DET_MINORS,
+    GS_DET_BAREISS
+} gs_det_method;
+
 typedef struct gs_derive_opts {
-    gs_elim_opts elim;
+    gs_det_method method;
+    gs_elim_opts elim;       /* max_terms and progress serve both methods */
     const gs_limit *limits;  /* applied in order, after reduction */
     size_t nlimits;
     int no_gcd;              /* skip the final gcd (for measurements) */
 } gs_derive_opts;
 
 typedef struct gs_derive_stats {
-    gs_elim_stats elim;
+    int unknowns;            /* size of A */
+    gs_det_method method;    /* the one that ran: MINORS or BAREISS */
+    gs_elim_stats elim;      /* when BAREISS ran */
+    gs_minors_stats minors;  /* when MINORS ran */
     size_t gcd_terms;        /* terms of the common factor removed */
 } gs_derive_stats;
 

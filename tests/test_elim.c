@@ -1,4 +1,5 @@
-/* test_elim.c - fraction-free elimination against the matrix-tree theorem.
+/* test_elim.c - elimination and expansion in minors against the
+ * matrix-tree theorem.
  * See LICENSE.
  *
  * Kirchhoff's matrix-tree theorem: the determinant of the reduced nodal
@@ -12,6 +13,7 @@
 #include "check.h"
 #include "circuit.h"
 #include "elim.h"
+#include "minors.h"
 #include "mna.h"
 #include "poly.h"
 
@@ -71,6 +73,24 @@ static double count_trees(int n, int adj[MAXN][MAXN])
     return det;
 }
 
+/* Pivot rules 0 .. 3 eliminate; BY_MINORS expands in minors. */
+#define BY_MINORS (GS_PIVOT_NATURAL + 1)
+
+static int determinants(gs_poly *da, gs_poly *dm, gs_mna *m,
+                        const gs_polyctx *ctx, int rule, gs_diag *d)
+{
+    gs_elim_opts o;
+    gs_minors_opts mo;
+    if (rule == BY_MINORS) {
+        gs_minors_opts_default(&mo);
+        mo.max_products = 0;
+        return gs_minors_bordered(da, dm, m, ctx, &mo, NULL, d);
+    }
+    gs_elim_opts_default(&o);
+    o.pivot = (gs_pivot_rule)rule;
+    return gs_elim_bordered(da, dm, m, ctx, &o, NULL, d);
+}
+
 /* Eliminate the nodal matrix of the circuit text; check the determinant
    has `trees` terms, all +1 or all -1. */
 static int check_kirchhoff(const char *text, double trees, int rule)
@@ -80,7 +100,6 @@ static int check_kirchhoff(const char *text, double trees, int rule)
     gs_diag d;
     gs_mna m;
     gs_poly da, dm;
-    gs_elim_opts o;
     size_t i;
     int ok = 0;
 
@@ -96,10 +115,8 @@ static int check_kirchhoff(const char *text, double trees, int rule)
     gs_poly_init(&da);
     gs_poly_init(&dm);
     memset(&m, 0, sizeof m);
-    gs_elim_opts_default(&o);
-    o.pivot = (gs_pivot_rule)rule;
     if (gs_mna_build(&m, c, 0, ctx, &d) == GS_OK
-        && gs_elim_bordered(&da, &dm, &m, ctx, &o, NULL, &d) == GS_OK) {
+        && determinants(&da, &dm, &m, ctx, rule, &d) == GS_OK) {
         ok = fabs(trees - floor(trees + 0.5)) < 1e-6
              && (double)da.length == floor(trees + 0.5);
         for (i = 0; i < da.length; i++)
@@ -164,7 +181,7 @@ static void test_random_networks(void)
         char *text;
         rng_state = seed;
         text = random_network(n, adj);
-        for (rule = 0; rule < 4; rule++)
+        for (rule = 0; rule <= BY_MINORS; rule++)
             if (rule != GS_PIVOT_NATURAL || n <= 7)  /* natural is slow */
                 CHECK_MSG(check_kirchhoff(text, count_trees(n, adj), rule),
                           "seed %llu rule %d:\n%s", seed, rule, text);
@@ -187,6 +204,8 @@ static void test_complete_graphs(void)
                                        node_name(b, j));
         sprintf(text + len, "impedance Z = n1, gnd\n");
         CHECK_MSG(check_kirchhoff(text, pow(n, n - 2), 0), "K_%d", n);
+        CHECK_MSG(check_kirchhoff(text, pow(n, n - 2), BY_MINORS),
+                  "K_%d by minors", n);
         free(text);
     }
 }

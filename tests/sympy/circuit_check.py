@@ -5,7 +5,8 @@
 # usage: python3 tests/sympy/circuit_check.py BUILD_DIR [COUNT]
 # Each seeded random circuit (R, C, L, the four controlled sources, ideal
 # op-amps, up to 8 nodes) is written as a .gsc file and derived by
-# gainsmith; the same circuit is solved independently below by modified
+# gainsmith, once by expansion in minors and once by elimination (which
+# must print the same bytes); the same circuit is solved independently below by modified
 # nodal analysis in sympy (Cramer's rule with sympy's determinant), and
 # the two ratios must agree exactly: expand(N_g * D_s - N_s * D_g) == 0.
 # A circuit that gainsmith rejects as structurally unsound, or finds
@@ -225,12 +226,13 @@ def sympy_within(elems, out, seconds):
         signal.alarm(0)
 
 
-def run_gainsmith(binary, text):
+def run_gainsmith(binary, text, method):
     with tempfile.NamedTemporaryFile('w', suffix='.gsc', delete=False) as f:
         f.write(text)
         path = f.name
     try:
-        p = subprocess.run([binary, 'derive', path], capture_output=True,
+        p = subprocess.run([binary, 'derive', '--method', method, path],
+                           capture_output=True,
                            text=True, timeout=60)
     finally:
         os.unlink(path)
@@ -245,7 +247,14 @@ def main():
     for seed in range(count):
         rng = random.Random(seed)
         text, elems, out = make_circuit(rng)
-        rc, stdout, stderr = run_gainsmith(binary, text)
+        # both determinant methods must print the same bytes
+        rc, stdout, stderr = run_gainsmith(binary, text, 'minors')
+        rc2, stdout2, _ = run_gainsmith(binary, text, 'bareiss')
+        if (rc, stdout) != (rc2, stdout2):
+            failed += 1
+            print('seed %d: --method minors and bareiss differ:\n%s%s%s'
+                  % (seed, text, stdout, stdout2))
+            continue
         try:
             num, det = sympy_within(elems, out, 4)
         except TooSlow:

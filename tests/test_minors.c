@@ -1,0 +1,383 @@
+/* test_minors.c - determinants by expansion in minors.  See LICENSE.
+ *
+ * Checked against closed forms: the Vandermonde determinant, Vieta's
+ * formula for the solution of a Vandermonde system, and Chebyshev
+ * polynomials of the second kind as tridiagonal determinants (standard
+ * linear-algebra facts; e.g. Horn and Johnson, Matrix Analysis, 0.9.11,
+ * and Mason and Handscomb, Chebyshev Polynomials, 1.2, from memory).
+ * Random sparse matrices are also compared with elimination (elim.c),
+ * and the refusals and budgets are checked.  Kirchhoff's theorem through
+ * this module is in test_elim.c.
+ */
+#include "check.h"
+#include "elim.h"
+#include "minors.h"
+
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+static unsigned long long rng_state;
+
+static unsigned rnd(unsigned n)
+{
+    rng_state = rng_state * 6364136223846793005ull + 1442695040888963407ull;
+    return (unsigned)(rng_state >> 33) % n;
+}
+
+/* A bordered matrix of size n with every entry zero; c0 = 0, scale 1. */
+static void mna_new(gs_mna *m, int n)
+{
+    size_t cells = (size_t)(n + 1) * (size_t)(n + 1), k;
+    memset(m, 0, sizeof *m);
+    m->n = n;
+    m->m = malloc(cells * sizeof *m->m);
+    for (k = 0; k < cells; k++)
+        gs_poly_init(&m->m[k]);
+    m->unknown_name = calloc((size_t)n + 1, sizeof *m->unknown_name);
+    for (k = 0; k < (size_t)n; k++) {
+        m->unknown_name[k] = malloc(16);
+        snprintf(m->unknown_name[k], 16, "x%zu", k);
+    }
+    gs_poly_init(&m->c0);
+    gs_rat_init(&m->scale);
+    gs_rat_set_si(&m->scale, 1, 1);
+    m->nnode_unknowns = n;
+}
+
+static void set(gs_mna *m, int i, int j, const char *text,
+                const gs_polyctx *ctx)
+{
+    int rc = gs_poly_set_str(GS_MNA_AT(m, i, j), text, ctx);
+    CHECK_MSG(rc == GS_OK, "entry (%d, %d) = %s", i, j, text);
+}
+
+static gs_polyctx *context(gs_symtab *st, int nvars, const char *prefix)
+{
+    char name[16];
+    int v;
+    for (v = 0; v < nvars; v++) {
+        snprintf(name, sizeof name, "%s%d", prefix, v + 1);
+        gs_symtab_intern(st, name);
+    }
+    return gs_polyctx_new(st, nvars);
+}
+
+static int minors(gs_poly *da, gs_poly *dm, const gs_mna *m,
+                  const gs_polyctx *ctx)
+{
+    gs_minors_opts o;
+    gs_diag d;
+    int rc;
+    gs_minors_opts_default(&o);
+    o.max_products = 0;
+    gs_diag_init(&d);
+    rc = gs_minors_bordered(da, dm, m, ctx, &o, NULL, &d);
+    gs_diag_clear(&d);
+    return rc;
+}
+
+/* Does a = +-b, with the sign given by *sign when it is nonzero (set
+   otherwise)? */
+static int equal_up_to(int *sign, const gs_poly *a, const gs_poly *b,
+                       const gs_polyctx *ctx)
+{
+    gs_poly nb;
+    int ok;
+    gs_poly_init(&nb);
+    gs_poly_neg(&nb, b, ctx);
+    if (*sign == 0)
+        *sign = gs_poly_equal(a, b, ctx) ? 1 : -1;
+    ok = gs_poly_equal(a, *sign > 0 ? b : &nb, ctx);
+    gs_poly_clear(&nb);
+    return ok;
+}
+
+/* V = [x_i^j], i, j < n: det V = prod_{i<j} (x_j - x_i).  With b_i = x_i^n
+   and c = e_{n-1}, the solution's last unknown is x_1 + ... + x_n (Vieta:
+   t^n - sum a_j t^j = prod (t - x_i)), so det M = -(sum x_i) det V. */
+static void test_vandermonde(void)
+{
+    int n;
+    for (n = 1; n <= 7; n++) {
+        gs_symtab *st = gs_symtab_new();
+        gs_polyctx *ctx = context(st, n, "x");
+        gs_mna m;
+        gs_poly da, dm, want, f, sum, t;
+        char text[32];
+        int i, j, sign = 0;
+
+        mna_new(&m, n);
+        for (i = 0; i < n; i++) {
+            for (j = 0; j <= n; j++) {
+                snprintf(text, sizeof text, "x%d^%d", i + 1, j);
+                set(&m, i, j, text, ctx);
+            }
+        }
+        gs_poly_set_si(GS_MNA_AT(&m, n, n - 1), 1, ctx);
+        gs_poly_init(&da);
+        gs_poly_init(&dm);
+        gs_poly_init(&want);
+        gs_poly_init(&f);
+        gs_poly_init(&sum);
+        gs_poly_init(&t);
+        gs_poly_set_si(&want, 1, ctx);
+        for (i = 0; i < n; i++) {
+            gs_poly_set_var(&t, i, 1, ctx);
+            gs_poly_add(&sum, &sum, &t, ctx);
+            for (j = i + 1; j < n; j++) {
+                snprintf(text, sizeof text, "x%d - x%d", j + 1, i + 1);
+                gs_poly_set_str(&f, text, ctx);
+                gs_poly_mul(&want, &want, &f, ctx);
+            }
+        }
+        CHECK_MSG(minors(&da, &dm, &m, ctx) == GS_OK, "n = %d", n);
+        CHECK_MSG(equal_up_to(&sign, &da, &want, ctx), "det V, n = %d", n);
+        gs_poly_mul(&want, &want, &sum, ctx);
+        gs_poly_neg(&want, &want, ctx);
+        CHECK_MSG(equal_up_to(&sign, &dm, &want, ctx), "det M, n = %d", n);
+        gs_poly_clear(&da);
+        gs_poly_clear(&dm);
+        gs_poly_clear(&want);
+        gs_poly_clear(&f);
+        gs_poly_clear(&sum);
+        gs_poly_clear(&t);
+        gs_mna_clear(&m);
+        gs_polyctx_free(ctx);
+        gs_symtab_free(st);
+    }
+}
+
+/* The n x n tridiagonal matrix with x on the diagonal and 1 beside it has
+   determinant U_n(x/2) = sum_k (-1)^k C(n-k, k) x^(n-2k). */
+static void test_chebyshev(void)
+{
+    int n;
+    for (n = 1; n <= 40; n++) {
+        gs_symtab *st = gs_symtab_new();
+        gs_polyctx *ctx = context(st, 1, "x");
+        gs_mna m;
+        gs_poly da, dm, want, t;
+        gs_int c;
+        int i, k, sign = 0;
+
+        mna_new(&m, n);
+        for (i = 0; i < n; i++) {
+            gs_poly_set_var(GS_MNA_AT(&m, i, i), 0, 1, ctx);
+            if (i + 1 < n) {
+                gs_poly_set_si(GS_MNA_AT(&m, i, i + 1), 1, ctx);
+                gs_poly_set_si(GS_MNA_AT(&m, i + 1, i), 1, ctx);
+            }
+        }
+        gs_poly_init(&da);
+        gs_poly_init(&dm);
+        gs_poly_init(&want);
+        gs_poly_init(&t);
+        gs_int_init(&c);
+        for (k = 0; 2 * k <= n; k++) {
+            /* C(n-k, k) by the product formula, exactly */
+            int q;
+            gs_int_set_si(&c, 1);
+            for (q = 1; q <= k; q++) {
+                gs_int f;
+                gs_int_init(&f);
+                gs_int_set_si(&f, n - k - q + 1);
+                gs_int_mul(&c, &c, &f);
+                gs_int_set_si(&f, q);
+                gs_int_divexact(&c, &c, &f);
+                gs_int_clear(&f);
+            }
+            if (k & 1)
+                gs_int_neg(&c, &c);
+            gs_poly_set_var(&t, 0, (unsigned)(n - 2 * k), ctx);
+            gs_poly_mul_int(&t, &t, &c, ctx);
+            gs_poly_add(&want, &want, &t, ctx);
+        }
+        CHECK_MSG(minors(&da, &dm, &m, ctx) == GS_OK
+                  && equal_up_to(&sign, &da, &want, ctx), "U_%d", n);
+        CHECK_MSG(gs_poly_is_zero(&dm), "U_%d: border is zero", n);
+        gs_int_clear(&c);
+        gs_poly_clear(&da);
+        gs_poly_clear(&dm);
+        gs_poly_clear(&want);
+        gs_poly_clear(&t);
+        gs_mna_clear(&m);
+        gs_polyctx_free(ctx);
+        gs_symtab_free(st);
+    }
+}
+
+/* A random entry: 1-3 terms, small coefficients, degree <= 2 in 5
+   variables. */
+static void random_entry(gs_poly *e, const gs_polyctx *ctx)
+{
+    unsigned terms = 1 + rnd(3), t;
+    unsigned ex[5];
+    gs_int c;
+    gs_int_init(&c);
+    gs_poly_zero(e);
+    for (t = 0; t < terms; t++) {
+        int v;
+        for (v = 0; v < 5; v++)
+            ex[v] = rnd(4) == 0 ? rnd(3) : 0;
+        gs_int_set_si(&c, (int64_t)rnd(7) - 3);
+        gs_poly_push_term(e, &c, ex, ctx);
+    }
+    gs_poly_canonicalise(e, ctx);
+    gs_int_clear(&c);
+}
+
+static void random_matrix(gs_mna *m, int n, unsigned density,
+                          const gs_polyctx *ctx)
+{
+    int i, j;
+    mna_new(m, n);
+    for (i = 0; i <= n; i++)
+        for (j = 0; j <= n; j++)
+            if ((i < n || j < n) && (i == j || rnd(100) < density))
+                random_entry(GS_MNA_AT(m, i, j), ctx);
+}
+
+/* Expansion and elimination agree, up to their common sign. */
+static void test_against_elimination(void)
+{
+    gs_symtab *st = gs_symtab_new();
+    gs_polyctx *ctx = context(st, 5, "y");
+    int round;
+    for (round = 0; round < 300; round++) {
+        int n = 1 + (int)(round % 10), sign = 0, rm, re;
+        unsigned density = 10 + 10 * (unsigned)(round % 7);
+        gs_mna m, copy;
+        gs_poly da, dm, ea, em;
+        gs_elim_opts eo;
+        gs_diag d;
+        size_t k, cells = (size_t)(n + 1) * (size_t)(n + 1);
+
+        rng_state = 5000 + (unsigned long long)round;
+        random_matrix(&m, n, density, ctx);
+        mna_new(&copy, n);
+        for (k = 0; k < cells; k++)
+            gs_poly_set(&copy.m[k], &m.m[k], ctx);
+        gs_poly_init(&da);
+        gs_poly_init(&dm);
+        gs_poly_init(&ea);
+        gs_poly_init(&em);
+        gs_diag_init(&d);
+        gs_elim_opts_default(&eo);
+        rm = minors(&da, &dm, &m, ctx);
+        re = gs_elim_bordered(&ea, &em, &copy, ctx, &eo, NULL, &d);
+        if (re == GS_ESINGULAR) {
+            CHECK_MSG(rm == GS_ESINGULAR, "seed %d: singular", round);
+        } else {
+            CHECK_MSG(rm == GS_OK && re == GS_OK
+                      && equal_up_to(&sign, &da, &ea, ctx)
+                      && equal_up_to(&sign, &dm, &em, ctx),
+                      "seed %d, n = %d", round, n);
+        }
+        gs_diag_clear(&d);
+        gs_poly_clear(&da);
+        gs_poly_clear(&dm);
+        gs_poly_clear(&ea);
+        gs_poly_clear(&em);
+        gs_mna_clear(&m);
+        gs_mna_clear(&copy);
+    }
+    gs_polyctx_free(ctx);
+    gs_symtab_free(st);
+}
+
+/* Refusals: too many unknowns, too many products; budgets; singular. */
+static void test_limits(void)
+{
+    gs_symtab *st = gs_symtab_new();
+    gs_polyctx *ctx = context(st, 5, "y");
+    gs_minors_opts o;
+    gs_minors_stats ms;
+    gs_mna m;
+    gs_poly da, dm;
+    gs_diag d;
+    int i, j;
+
+    gs_poly_init(&da);
+    gs_poly_init(&dm);
+    gs_diag_init(&d);
+    gs_minors_opts_default(&o);
+
+    /* 64 unknowns: one more than a column mask holds */
+    mna_new(&m, GS_MINORS_MAX_UNKNOWNS + 1);
+    for (i = 0; i < m.n; i++)
+        gs_poly_set_si(GS_MNA_AT(&m, i, i), 1, ctx);
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, NULL, &d) == GS_ERANGE);
+    CHECK(d.n == 0);
+    gs_mna_clear(&m);
+
+    /* 63 unknowns on a diagonal: accepted, det = 2^63 */
+    mna_new(&m, GS_MINORS_MAX_UNKNOWNS);
+    for (i = 0; i < m.n; i++)
+        gs_poly_set_si(GS_MNA_AT(&m, i, i), 2, ctx);
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, &ms, &d) == GS_OK);
+    CHECK(da.length == 1 && gs_int_bits(&da.coeffs[0]) == 64);
+    gs_mna_clear(&m);
+
+    /* a dense 8 x 8 needs more than 100 products */
+    mna_new(&m, 8);
+    for (i = 0; i <= 8; i++)
+        for (j = 0; j <= 8; j++)
+            if (i < 8 || j < 8)
+                gs_poly_set_var(GS_MNA_AT(&m, i, j), (i + 2 * j) % 5,
+                                1 + (unsigned)(i * j % 3), ctx);
+    o.max_products = 100;
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, NULL, &d) == GS_ERANGE);
+    CHECK(d.n == 0);
+    o.max_products = 0;
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, &ms, &d) == GS_OK);
+    CHECK(ms.products > 100 && ms.minors > 0);
+    gs_mna_clear(&m);
+
+    /* term budget: the Vandermonde-like 4 x 4 of sums grows */
+    mna_new(&m, 4);
+    for (i = 0; i < 4; i++)
+        for (j = 0; j <= 4; j++) {
+            char text[32];
+            snprintf(text, sizeof text, "y%d + y%d", 1 + i, 1 + (i + j) % 5);
+            set(&m, i, j, text, ctx);
+        }
+    gs_poly_set_si(GS_MNA_AT(&m, 4, 0), 1, ctx);
+    o.max_terms = 3;
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, &ms, &d)
+          == GS_EBUDGET);
+    CHECK(d.nerrors == 1 && strstr(d.v[0].message, "budget 3") != NULL);
+    CHECK(ms.max_minor_terms > 3);
+    o.max_terms = 0;
+    gs_mna_clear(&m);
+
+    /* singular: a zero row (pruned by structure), two equal rows */
+    mna_new(&m, 3);
+    set(&m, 0, 0, "y1", ctx);
+    set(&m, 0, 1, "y2", ctx);
+    set(&m, 2, 2, "y3", ctx);
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, NULL, &d)
+          == GS_ESINGULAR);
+    set(&m, 1, 0, "y1", ctx);
+    set(&m, 1, 1, "y2", ctx);
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, NULL, &d)
+          == GS_ESINGULAR);
+    CHECK(d.nerrors == 1);      /* only the budget message above */
+    gs_mna_clear(&m);
+
+    gs_diag_clear(&d);
+    gs_poly_clear(&da);
+    gs_poly_clear(&dm);
+    gs_polyctx_free(ctx);
+    gs_symtab_free(st);
+}
+
+int main(void)
+{
+    test_vandermonde();
+    test_chebyshev();
+    test_against_elimination();
+    test_limits();
+    return check_report("minors");
+}
