@@ -37,8 +37,8 @@ static void mna_new(gs_mna *m, int n)
         gs_poly_init(&m->m[k]);
     m->unknown_name = calloc((size_t)n + 1, sizeof *m->unknown_name);
     for (k = 0; k < (size_t)n; k++) {
-        m->unknown_name[k] = malloc(16);
-        snprintf(m->unknown_name[k], 16, "x%zu", k);
+        m->unknown_name[k] = malloc(24);
+        snprintf(m->unknown_name[k], 24, "x%zu", k);
     }
     gs_poly_init(&m->c0);
     gs_rat_init(&m->scale);
