@@ -5,6 +5,7 @@
 #include "mem.h"
 #include "mna.h"
 
+#include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -24,42 +25,29 @@ static void clear_reciprocals(gs_poly *a, gs_poly *b, const gs_symtab *st,
                               const gs_polyctx *ctx)
 {
     int nv = ctx->nvars, v, any = 0;
-    long *emax = gs_calloc((size_t)nv, sizeof *emax);
-    unsigned *ex = gs_malloc((size_t)(nv ? nv : 1) * sizeof *ex);
-    gs_poly *polys[2];
-    int w;
+    unsigned *top = gs_calloc((size_t)nv + 1, sizeof *top);
+    unsigned *db = gs_calloc((size_t)nv + 1, sizeof *db);
+    int *to = gs_calloc((size_t)nv + 1, sizeof *to);
 
-    polys[0] = a;
-    polys[1] = b;
+    gs_poly_degrees(top, a, ctx);
+    gs_poly_degrees(db, b, ctx);
     for (v = 0; v < nv; v++) {
-        if (!gs_symtab_is_recip(st, v))
+        if (!gs_symtab_is_recip(st, v)) {
+            top[v] = 0;
             continue;
-        emax[v] = gs_poly_degree(a, v, ctx);
-        if (gs_poly_degree(b, v, ctx) > emax[v])
-            emax[v] = gs_poly_degree(b, v, ctx);
-        if (emax[v] > 0)
-            any = 1;
-    }
-    for (w = 0; w < 2 && any; w++) {
-        gs_poly r;
-        size_t i;
-        gs_poly_init(&r);
-        for (i = 0; i < polys[w]->length; i++) {
-            gs_poly_get_term_exps(ex, polys[w], i, ctx);
-            for (v = 0; v < nv; v++) {
-                if (emax[v] <= 0)
-                    continue;
-                ex[gs_symtab_base(st, v)] += (unsigned)emax[v] - ex[v];
-                ex[v] = 0;
-            }
-            gs_poly_push_term(&r, &polys[w]->coeffs[i], ex, ctx);
         }
-        gs_poly_canonicalise(&r, ctx);
-        gs_poly_swap(&r, polys[w]);
-        gs_poly_clear(&r);
+        if (db[v] > top[v])
+            top[v] = db[v];
+        to[v] = gs_symtab_base(st, v);
+        any |= top[v] > 0;
     }
-    free(ex);
-    free(emax);
+    if (any) {
+        gs_poly_flip_vars(a, a, to, top, ctx);
+        gs_poly_flip_vars(b, b, to, top, ctx);
+    }
+    free(top);
+    free(db);
+    free(to);
 }
 
 static void remove_monomial_content(gs_poly *a, gs_poly *b,
@@ -195,9 +183,9 @@ static char *describe(const gs_circuit *c, const gs_output *o)
    first under AUTO; elimination takes over when the expansion's plan is
    too large, and also when A is singular, since elimination can name the
    unknowns left undetermined. */
-static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
-                        const gs_polyctx *ctx, const gs_derive_opts *o,
-                        gs_derive_stats *stats, gs_diag *d)
+static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
+                           const gs_polyctx *ctx, const gs_derive_opts *o,
+                           gs_derive_stats *stats, gs_diag *d)
 {
     gs_minors_opts mo;
     int rc;
@@ -223,6 +211,73 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
     }
     stats->method = GS_DET_BAREISS;
     return gs_elim_bordered(det_a, det_m, m, ctx, &o->elim, &stats->elim, d);
+}
+
+/* The determinants only ever hold the symbols that occur in M: the
+   conductances 1/R but not R, no symbol of another output.  In a context
+   of those alone every monomial packs into fewer words, and the products
+   move less memory.  The small context's symbols are the used ones in
+   their order, so mapping back keeps the term order. */
+static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
+                        const gs_polyctx *ctx, const gs_derive_opts *o,
+                        gs_derive_stats *stats, gs_diag *d)
+{
+    size_t k, cells = (size_t)(m->n + 1) * (size_t)(m->n + 1);
+    unsigned char *used = gs_calloc((size_t)ctx->nvars + 1, 1);
+    unsigned char *here = gs_calloc((size_t)ctx->nvars + 1, 1);
+    int *fwd = gs_calloc((size_t)ctx->nvars + 1, sizeof *fwd);
+    int *back = gs_calloc((size_t)ctx->nvars + 1, sizeof *back);
+    int v, nsmall = 0, rc;
+    gs_symtab *st;
+    gs_polyctx *small;
+    gs_mna ms;
+    gs_poly sa, sm;
+
+    for (k = 0; k < cells; k++) {
+        gs_poly_used_vars(here, &m->m[k], ctx);
+        for (v = 0; v < ctx->nvars; v++)
+            used[v] |= here[v];
+    }
+    st = gs_symtab_new();
+    for (v = 0; v < ctx->nvars; v++) {
+        char name[24];
+        if (!used[v])
+            continue;
+        snprintf(name, sizeof name, "x%d", v);  /* never printed */
+        gs_symtab_intern(st, name);
+        fwd[v] = nsmall;
+        back[nsmall++] = v;
+    }
+    free(used);
+    free(here);
+    small = gs_polyctx_new(st, nsmall);
+    if (small->nwords >= ctx->nwords) {
+        rc = determinants_in(det_a, det_m, m, ctx, o, stats, d);
+    } else {
+        ms = *m;        /* names and scale borrowed, entries new */
+        ms.m = gs_malloc(cells * sizeof *ms.m);
+        for (k = 0; k < cells; k++) {
+            gs_poly_init(&ms.m[k]);
+            gs_poly_remap(&ms.m[k], &m->m[k], fwd, ctx, small);
+        }
+        gs_poly_init(&sa);
+        gs_poly_init(&sm);
+        rc = determinants_in(&sa, &sm, &ms, small, o, stats, d);
+        if (rc == GS_OK) {
+            gs_poly_remap(det_a, &sa, back, small, ctx);
+            gs_poly_remap(det_m, &sm, back, small, ctx);
+        }
+        gs_poly_clear(&sa);
+        gs_poly_clear(&sm);
+        for (k = 0; k < cells; k++)
+            gs_poly_clear(&ms.m[k]);
+        free(ms.m);
+    }
+    gs_polyctx_free(small);
+    gs_symtab_free(st);
+    free(fwd);
+    free(back);
+    return rc;
 }
 
 int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,

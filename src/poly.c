@@ -309,6 +309,57 @@ void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
     free(tmp);
 }
 
+static void put_exp(uint64_t *e, int var, unsigned x)
+{
+    int w = var / GS_POLY_VARS_PER_WORD, sh = field_shift(var);
+    e[w] = (e[w] & ~((uint64_t)0xFFFFu << sh)) | (uint64_t)x << sh;
+}
+
+void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
+                       const unsigned *top, const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords;
+    int v;
+    if (r != a)
+        gs_poly_set(r, a, ctx);
+    for (i = 0; i < r->length; i++) {
+        uint64_t *e = r->exps + i * nw;
+        for (v = 0; v < ctx->nvars; v++) {
+            unsigned k;
+            if (top[v] == 0)
+                continue;
+            k = get_exp(e, v);
+            assert(k <= top[v]);
+            put_exp(e, v, 0);
+            put_exp(e, to[v], get_exp(e, to[v]) + top[v] - k);
+        }
+    }
+    gs_poly_canonicalise(r, ctx);
+}
+
+void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
+                   const gs_polyctx *from, const gs_polyctx *to)
+{
+    size_t i, nf = (size_t)from->nwords, nt = (size_t)to->nwords;
+    int v;
+    assert(r != a);
+    gs_poly_zero(r);
+    gs_poly_fit(r, a->length, to);
+    memset(r->exps, 0, a->length * nt * sizeof *r->exps);
+    for (i = 0; i < a->length; i++) {
+        const uint64_t *e = a->exps + i * nf;
+        uint64_t *f = r->exps + i * nt;
+        for (v = 0; v < from->nvars; v++) {
+            unsigned x = get_exp(e, v);
+            if (x)
+                put_exp(f, map[v], x);
+        }
+        gs_int_init(&r->coeffs[i]);
+        gs_int_set(&r->coeffs[i], &a->coeffs[i]);
+    }
+    r->length = a->length;
+}
+
 void gs_poly_get_term_exps(unsigned *exps, const gs_poly *a, size_t i,
                            const gs_polyctx *ctx)
 {

@@ -83,6 +83,19 @@ void gs_poly_fit(gs_poly *r, size_t n, const gs_polyctx *ctx);
 /* degs[v] = degree of a in variable v for v < nvars (all 0 for a = 0). */
 void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx);
 
+/* r = a with variable v replaced by a monomial in variable to[v] for
+   every v with top[v] > 0: x_v^k becomes x_to[v]^(top[v] - k), multiplied
+   into what x_to[v] had (to[v] != v, k <= top[v]).  For clearing a
+   reciprocal symbol r = 1/B: multiplying by B^e turns r^k into B^(e-k).
+   to and top have nvars entries. */
+void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
+                       const unsigned *top, const gs_polyctx *ctx);
+/* r (in context to) = a (in context from) with variable v of from renamed
+   map[v] of to; map must be strictly increasing, so that the term order
+   is kept.  r must not alias a. */
+void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
+                   const gs_polyctx *from, const gs_polyctx *to);
+
 /* Unpack term i's exponents into exps[0 .. nvars-1]. */
 void gs_poly_get_term_exps(unsigned *exps, const gs_poly *a, size_t i,
                            const gs_polyctx *ctx);

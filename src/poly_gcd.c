@@ -1456,6 +1456,108 @@ static int modular_try(gs_poly *g, const gs_poly *a, const gs_poly *b,
     return r;
 }
 
+/* ---- gcds that leave most variables out ------------------------------ */
+
+/* Sorting terms by their exponents on the fields of a mask: each record
+   is { nwords, masked exponent words ..., term index }, so that the
+   comparison needs no state outside the records. */
+static int cmp_records(const void *p, const void *q)
+{
+    const uint64_t *x = p, *y = q;
+    size_t w, nw = (size_t)x[0];
+    for (w = 1; w <= nw + 1; w++)       /* the index last: a stable sort */
+        if (x[w] != y[w])
+            return (w <= nw) == (x[w] > y[w]) ? -1 : 1;
+    return 0;
+}
+
+/* The coefficient of a with the fewest terms, a taken as a polynomial in
+   the variables of ymask; written as a polynomial in the other variables
+   (its terms keep a's order, so it is canonical). */
+static void smallest_coeff(gs_poly *r, const gs_poly *a,
+                           const uint64_t *ymask, const gs_polyctx *ctx)
+{
+    size_t n = a->length, nw = (size_t)ctx->nwords, rs = nw + 2;
+    size_t i, g, w, best = 0, best_len = SIZE_MAX;
+    uint64_t *rec = gs_malloc((n + 1) * rs * sizeof *rec);
+    for (i = 0; i < n; i++) {
+        rec[i * rs] = nw;
+        for (w = 0; w < nw; w++)
+            rec[i * rs + 1 + w] = a->exps[i * nw + w] & ymask[w];
+        rec[i * rs + 1 + nw] = i;
+    }
+    qsort(rec, n, rs * sizeof *rec, cmp_records);
+    for (g = 0; g < n; g = i) {
+        for (i = g + 1; i < n; i++)
+            if (memcmp(rec + i * rs + 1, rec + g * rs + 1, nw * 8) != 0)
+                break;
+        if (i - g < best_len) {
+            best_len = i - g;
+            best = g;
+        }
+    }
+    gs_poly_zero(r);
+    gs_poly_fit(r, best_len, ctx);
+    for (i = 0; i < best_len; i++) {
+        size_t t = (size_t)rec[(best + i) * rs + 1 + nw];
+        for (w = 0; w < nw; w++)
+            r->exps[i * nw + w] = a->exps[t * nw + w] & ~ymask[w];
+        gs_int_init(&r->coeffs[i]);
+        gs_int_set(&r->coeffs[i], &a->coeffs[t]);
+    }
+    r->length = best_len;
+    free(rec);
+}
+
+/* When the degree bounds leave out variables that a or b contain, the
+   gcd g lies in the remaining variables X, so it divides every
+   coefficient of a and of b taken as polynomials in the others: the gcd
+   of one small coefficient of each is a multiple h of g, and if h divides
+   a and b it is g.  Circuit determinants often share a factor of a few
+   terms in a few symbols, which this finds from two small gcds and two
+   exact divisions.  Returns 1 with g set, or 0 to go the general way. */
+static int gcd_by_support(gs_poly *g, const gs_poly *a, const gs_poly *b,
+                          const long *bd, const tab *ta, const tab *tb,
+                          const gs_polyctx *ctx, gs_rng *rng)
+{
+    size_t nw = (size_t)ctx->nwords;
+    uint64_t *ymask = gs_calloc(nw, sizeof *ymask);
+    gs_poly ca, cb, h, q;
+    int v, any = 0, ok = 0;
+    for (v = 0; v < ctx->nvars; v++)
+        if (bd[v] <= 0 && (ta->deg[v] > 0 || tb->deg[v] > 0)) {
+            ymask[v / GS_POLY_VARS_PER_WORD] |=
+                (uint64_t)0xFFFFu << (GS_POLY_FIELD_BITS
+                                      * (3 - v % GS_POLY_VARS_PER_WORD));
+            any = 1;
+        }
+    if (!any) {
+        free(ymask);
+        return 0;
+    }
+    gs_poly_init(&ca);
+    gs_poly_init(&cb);
+    gs_poly_init(&h);
+    gs_poly_init(&q);
+    smallest_coeff(&ca, a, ymask, ctx);
+    smallest_coeff(&cb, b, ymask, ctx);
+    gcd_nonzero(&h, &ca, &cb, ctx, rng);
+    if (gs_poly_is_const(&h, ctx)) {
+        gs_poly_set_si(g, 1, ctx);
+        ok = 1;
+    } else if (gs_poly_divexact(&q, a, &h, ctx) == GS_OK
+               && gs_poly_divexact(&q, b, &h, ctx) == GS_OK) {
+        gs_poly_swap(g, &h);
+        ok = 1;
+    }
+    gs_poly_clear(&ca);
+    gs_poly_clear(&cb);
+    gs_poly_clear(&h);
+    gs_poly_clear(&q);
+    free(ymask);
+    return ok;
+}
+
 /* a, b primitive, positive, free of monomial content, not constant. */
 static void gcd_core(gs_poly *g, const gs_poly *a, const gs_poly *b,
                      const gs_polyctx *ctx, gs_rng *rng)
@@ -1472,7 +1574,8 @@ static void gcd_core(gs_poly *g, const gs_poly *a, const gs_poly *b,
         done = 1;
     }
     if (!done)
-        done = one_divides(g, a, b, &tb, bd, ctx)
+        done = gcd_by_support(g, a, b, bd, &ta, &tb, ctx, rng)
+               || one_divides(g, a, b, &tb, bd, ctx)
                || one_divides(g, b, a, &ta, bd, ctx);
     for (tries = 0; !done && tries < MAX_RESTARTS; tries++) {
         x = choose_main(bd, &ta, &tb, n);
@@ -1524,6 +1627,22 @@ static void gcd_nonzero(gs_poly *g, const gs_poly *a, const gs_poly *b,
     free(ma);
 }
 
+/* One of a, b is a single term: the (primitive) gcd is the common
+   monomial content, found without copying the other (transfer functions
+   often have a one-term numerator). */
+static void gcd_with_term(gs_poly *g, const gs_poly *a, const gs_poly *b,
+                          const gs_polyctx *ctx)
+{
+    size_t nw = (size_t)ctx->nwords;
+    uint64_t *ma = gs_malloc(2 * nw * sizeof *ma), *mb = ma + nw;
+    gs_poly_monomial_content(ma, a, ctx);
+    gs_poly_monomial_content(mb, b, ctx);
+    mono_min(ma, ma, mb, ctx->nwords);
+    gs_poly_set_si(g, 1, ctx);
+    gs_poly_mul_monomial(g, g, ma, ctx);
+    free(ma);
+}
+
 int gs_poly_gcd(gs_poly *g, const gs_poly *a, const gs_poly *b,
                 const gs_polyctx *ctx)
 {
@@ -1536,6 +1655,8 @@ int gs_poly_gcd(gs_poly *g, const gs_poly *a, const gs_poly *b,
         gs_poly_primitive(&t, b, ctx);
     } else if (gs_poly_is_zero(b)) {
         gs_poly_primitive(&t, a, ctx);
+    } else if (a->length == 1 || b->length == 1) {
+        gcd_with_term(&t, a, b, ctx);
     } else {
         gs_rng_seed(&rng, gs_poly_hash(a, ctx) * 0x9E3779B97F4A7C15u
                           ^ gs_poly_hash(b, ctx));

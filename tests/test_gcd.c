@@ -1159,6 +1159,73 @@ static void test_gcd_alias(void)
     gs_poly_clear(&c);
 }
 
+/* The step that looks for the gcd in the variables the degree bounds
+   leave: a = g p, b = g q with g = x0 + x1 and p, q in other variables.
+   g, p and q are of degree one in some variable with coprime
+   coefficients, hence irreducible (Gauss's lemma), and pairwise distinct,
+   hence coprime: gcd(a, b) = g. */
+static int support_step(gs_poly *g, const char *sa, const char *sb,
+                        const env *e)
+{
+    gs_poly a, b;
+    long bd[10];
+    tab ta, tb;
+    pts pt;
+    gs_rng rng;
+    int found;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    CHECK(gs_poly_set_str(&a, sa, e->ctx) == GS_OK);
+    CHECK(gs_poly_set_str(&b, sb, e->ctx) == GS_OK);
+    gs_rng_seed(&rng, seed);
+    tab_init(&ta, &a, e->ctx);
+    tab_init(&tb, &b, e->ctx);
+    pts_init(&pt, &ta, &tb, e->n);
+    found = degree_bounds(bd, &ta, &tb, &pt, &rng) != 0
+            && gcd_by_support(g, &a, &b, bd, &ta, &tb, e->ctx, &rng);
+    tab_clear(&ta);
+    tab_clear(&tb);
+    pts_clear(&pt);
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    return found;
+}
+
+static void test_gcd_small_support(void)
+{
+    static const char *const cases[][2] = {
+        /* found by the support step */
+        {"(x0 + x1)*(x2*x3 + x4)*(x9 + 3)",
+         "(x0 + x1)*(x5*x6 + x7*x2 + x8)"},
+        {"(x0 + x1)*(x2*x3 + 1)", "(x0 + x1)*(x2*x3 + x4)"},
+        /* the small coefficients share x0 too: the step must decline */
+        {"(x0 + x1)*(x2*x0 + 1)", "(x0 + x1)*(x2*x0 + x1 + 2)"},
+    };
+    env e;
+    gs_poly g, want, a, b;
+    size_t i;
+    env_init(&e, 10);
+    gs_poly_init(&g);
+    gs_poly_init(&want);
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_set_str(&want, "x0 + x1", e.ctx);
+    for (i = 0; i < sizeof cases / sizeof cases[0]; i++) {
+        int found = support_step(&g, cases[i][0], cases[i][1], &e);
+        CHECK_MSG(found == (i < 2), "case %zu: step taken %d", i, found);
+        if (found)
+            CHECK_MSG(associates(&g, &want, &e), "case %zu", i);
+        gs_poly_set_str(&a, cases[i][0], e.ctx);
+        gs_poly_set_str(&b, cases[i][1], e.ctx);
+        check_gcd(&a, &b, &want, &e, "small support", (int)i);
+    }
+    gs_poly_clear(&g);
+    gs_poly_clear(&want);
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    env_clear(&e);
+}
+
 int main(int argc, char **argv)
 {
     if (argc > 1)
@@ -1178,5 +1245,6 @@ int main(int argc, char **argv)
     test_gcd_fallback_and_bounds();
     test_gcd_lead_factor();
     test_gcd_alias();
+    test_gcd_small_support();
     return check_report("gcd");
 }

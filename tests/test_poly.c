@@ -1002,6 +1002,66 @@ static void loop_subst_eval(const gs_polyctx *ctx, uint64_t seed0, int n)
     gs_poly_clear(&s);
 }
 
+/* gs_poly_flip_vars is multiplication by x_to^top after x_v = 1/x_to:
+   flip(a)(vals) = vals[to]^top * a(vals with x_v = 1/vals[to]), checked at
+   values where every power is exact.  gs_poly_remap renames variables
+   v -> 2v - (v > 0) of the 11-symbol context (increasing) and must keep
+   values and canonical form. */
+static void loop_flip_remap(const env *e, uint64_t seed0, int n)
+{
+    const gs_polyctx *c4 = e->c4, *c11 = e->c11;
+    gs_poly a, f, m;
+    long double vals[16], vals11[16];
+    unsigned top[16], degs[16];
+    int to[16], k, v;
+    gs_poly_init(&a);
+    gs_poly_init(&f);
+    gs_poly_init(&m);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        int ok = 1, x = (int)rbelow(&r, 4), y = (x + 1 + (int)rbelow(&r, 3)) % 4;
+        long double want;
+        rand_poly(&a, &r, 1 + rbelow(&r, 12), 4, 3, 7, c4);
+        /* y must not occur in a: it receives x's flipped exponents */
+        gs_poly_subst(&f, &a, y, &m, c4);       /* m = 0: drops y */
+        gs_poly_swap(&a, &f);
+        if (gs_poly_is_zero(&a))
+            gs_poly_set_si(&a, 1, c4);
+        gs_poly_degrees(degs, &a, c4);
+        memset(top, 0, sizeof top);
+        memset(to, 0, sizeof to);
+        top[x] = degs[x];
+        to[x] = y;
+        for (v = 0; v < 4; v++)
+            vals[v] = (long double)(1 << rbelow(&r, 3))
+                      * (rnext(&r) & 1 ? -1 : 1);
+        gs_poly_flip_vars(&f, &a, to, top, c4);
+        ok &= canonical(&f, c4) && gs_poly_degree(&f, x, c4) <= 0;
+        want = gs_poly_eval_ld(&f, vals, c4);
+        vals[x] = 1 / vals[y];
+        ok &= want == powl(vals[y], (long double)top[x])
+                      * gs_poly_eval_ld(&a, vals, c4);
+        gs_poly_clear(&m);
+        gs_poly_init(&m);
+        gs_poly_remap(&m, &a, (const int[]){0, 1, 3, 5}, c4, c11);
+        memset(vals11, 0, sizeof vals11);
+        vals11[0] = vals[0];
+        vals11[1] = vals[1];
+        vals11[3] = vals[2];
+        vals11[5] = vals[3];
+        ok &= canonical(&m, c11) && m.length == a.length
+              && gs_poly_eval_ld(&m, vals11, c11)
+                 == gs_poly_eval_ld(&a, vals, c4);
+        gs_poly_clear(&m);
+        gs_poly_init(&m);
+        CHECK_MSG(ok, "flip/remap: seed %llu", (unsigned long long)seed);
+    }
+    gs_poly_clear(&a);
+    gs_poly_clear(&f);
+    gs_poly_clear(&m);
+}
+
 /* Dense shapes that pick the block method by themselves, and sparse
    ones in many variables that pick the heap: all methods agree. */
 static void loop_shapes(const env *e, uint64_t seed0, int n)
@@ -1084,6 +1144,7 @@ int main(int argc, char **argv)
     loop_subst_eval(e.c4, seed + 8000, 200);
     loop_subst_eval(e.c11, seed + 9000, 200);
     loop_shapes(&e, seed + 10000, 40);
+    loop_flip_remap(&e, seed + 11000, 300);
     env_clear(&e);
     return check_report("poly");
 }
