@@ -255,10 +255,13 @@ static void free_values(gs_poly *vals, size_t count)
    initialised.  Returns the size of the largest, or stops early (the rest
    zero) at the first minor over max_terms. */
 static size_t eval_level(gs_poly *vals, const plan *p, const view *v, int k,
-                         const gs_poly *next, gs_poly *tmp, size_t max_terms,
+                         const gs_poly *next, size_t max_terms,
                          const gs_polyctx *ctx)
 {
     const maskset *lv = &p->lv[k], *below = &p->lv[k + 1];
+    const gs_poly *ea[GS_MINORS_MAX_UNKNOWNS + 1];
+    const gs_poly *mb[GS_MINORS_MAX_UNKNOWNS + 1];
+    int neg[GS_MINORS_MAX_UNKNOWNS + 1];
     int r = p->order[k];
     size_t i, big = 0;
     for (i = 0; i < lv->count; i++)
@@ -266,19 +269,18 @@ static size_t eval_level(gs_poly *vals, const plan *p, const view *v, int k,
     for (i = 0; i < lv->count && (!max_terms || big <= max_terms); i++) {
         uint64_t S = lv->list[i], cand = S & v->nz[r];
         gs_poly *acc = &vals[i];
+        size_t np = 0;
         for (; cand; cand &= cand - 1) {
             uint64_t bit = cand & -cand;
             size_t at = maskset_find(below, S & ~bit);
             int j = lowest_bit(bit);
             if (at == NOT_FOUND || gs_poly_is_zero(&next[at]))
                 continue;
-            gs_poly_mul(tmp, v->x[(size_t)r * ((size_t)v->n + 1)
-                                  + (size_t)j], &next[at], ctx);
-            if (__builtin_popcountll(S & (bit - 1)) & 1)
-                gs_poly_sub(acc, acc, tmp, ctx);
-            else
-                gs_poly_add(acc, acc, tmp, ctx);
+            ea[np] = v->x[(size_t)r * ((size_t)v->n + 1) + (size_t)j];
+            mb[np] = &next[at];
+            neg[np++] = __builtin_popcountll(S & (bit - 1)) & 1;
         }
+        gs_poly_sum_of_products(acc, ea, mb, neg, np, ctx);
         if (acc->length > big)
             big = acc->length;
     }
@@ -291,7 +293,7 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
                     gs_minors_stats *st, gs_diag *d)
 {
     int n = v->n, k;
-    gs_poly *next, *vals, tmp;
+    gs_poly *next, *vals;
     size_t big;
 
     next = gs_malloc((p->lv[n].count ? p->lv[n].count : 1) * sizeof *next);
@@ -299,13 +301,12 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
         gs_poly_init(&next[0]);
         gs_poly_set_si(&next[0], 1, ctx);       /* the empty minor */
     }
-    gs_poly_init(&tmp);
     for (k = n - 1; k >= 0; k--) {
         if (o->progress)
             fprintf(o->progress, "\rexpansion level %d/%d", n - k, n);
         vals = gs_malloc((p->lv[k].count ? p->lv[k].count : 1)
                          * sizeof *vals);
-        big = eval_level(vals, p, v, k, next, &tmp, o->max_terms, ctx);
+        big = eval_level(vals, p, v, k, next, o->max_terms, ctx);
         free_values(next, p->lv[k + 1].count);
         next = vals;
         if (big > st->max_minor_terms)
@@ -320,13 +321,11 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
                         "a minor reached %zu terms (budget %zu)", n - k, n,
                         big, o->max_terms);
             free_values(next, p->lv[k].count);
-            gs_poly_clear(&tmp);
             return GS_EBUDGET;
         }
     }
     if (o->progress)
         fputc('\n', o->progress);
-    gs_poly_clear(&tmp);
     *top = next;
     return GS_OK;
 }

@@ -125,6 +125,14 @@ void gs_poly_mul_int(gs_poly *r, const gs_poly *a, const gs_int *c,
                      const gs_polyctx *ctx);
 void gs_poly_mul_si(gs_poly *r, const gs_poly *a, int64_t c,
                     const gs_polyctx *ctx);
+/* r = sum over k < n of (neg[k] ? -1 : 1) a[k] b[k], as one merge of all
+   the term products (each term of a[k] times b[k] is a sorted stream), so
+   that no partial product or partial sum is ever stored: meant for a few
+   small a[k] (matrix entries) times large b[k] (minors).  neg may be NULL.
+   r must not alias any input.  Same precondition on exponents as mul. */
+void gs_poly_sum_of_products(gs_poly *r, const gs_poly *const *a,
+                             const gs_poly *const *b, const int *neg,
+                             size_t n, const gs_polyctx *ctx);
 /* gs_poly_mul with the method forced, for tests and benchmarks.
    GS_POLY_MUL_AUTO is what gs_poly_mul does: it picks by shape.
    GS_POLY_MUL_HEAP merges term products with a heap; GS_POLY_MUL_DENSE

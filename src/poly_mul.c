@@ -372,6 +372,101 @@ void gs_poly_mul_method(gs_poly *r, const gs_poly *a, const gs_poly *b,
     free(radix);
 }
 
+/* One stream of gs_poly_sum_of_products: term t of a[k] times b[k]. */
+typedef struct sop_stream {
+    const gs_poly *big;
+    const uint64_t *mono;   /* exponents of the small factor's term */
+    const gs_int *c;        /* its coefficient */
+    int neg;
+    size_t pos;             /* next term of big */
+} sop_stream;
+
+/* key = big's term pos times mono: packed fields add without carries */
+static void sop_key(uint64_t *key, const sop_stream *s, int nw)
+{
+    const uint64_t *e = s->big->exps + s->pos * (size_t)nw;
+    int w;
+    for (w = 0; w < nw; w++) {
+        key[w] = e[w] + s->mono[w];
+        assert((key[w] & UINT64_C(0x8000800080008000)) == 0);
+    }
+}
+
+void gs_poly_sum_of_products(gs_poly *r, const gs_poly *const *a,
+                             const gs_poly *const *b, const int *neg,
+                             size_t n, const gs_polyctx *ctx)
+{
+    int nw = ctx->nwords;
+    size_t k, t, ns = 0, total = 0;
+    sop_stream *st;
+    uint64_t *keys, *cur;
+    gs_pheap h;
+    gs_int acc;
+
+    for (k = 0; k < n; k++) {
+        assert(r != a[k] && r != b[k]);
+        if (b[k]->length > 0) {
+            ns += a[k]->length;
+            total += a[k]->length * b[k]->length;
+        }
+    }
+    gs_poly_zero(r);
+    if (ns == 0)
+        return;
+    st = gs_malloc(ns * sizeof *st);
+    keys = gs_malloc((ns + 1) * (size_t)nw * sizeof *keys);
+    cur = keys + ns * (size_t)nw;
+    gs_pheap_init(&h, nw, ns + 1);
+    h.keys = keys;
+    ns = 0;
+    for (k = 0; k < n; k++) {
+        if (b[k]->length == 0)
+            continue;
+        for (t = 0; t < a[k]->length; t++, ns++) {
+            st[ns].big = b[k];
+            st[ns].mono = a[k]->exps + t * (size_t)nw;
+            st[ns].c = &a[k]->coeffs[t];
+            st[ns].neg = neg != NULL && neg[k];
+            st[ns].pos = 0;
+            sop_key(keys + ns * (size_t)nw, &st[ns], nw);
+            gs_pheap_push(&h, (uint64_t)ns << 32);
+        }
+    }
+    /* about as many terms as the largest product: a start, not a bound */
+    gs_poly_fit(r, total < 16 ? 16 : total / ns + 16, ctx);
+    gs_int_init(&acc);
+    while (h.n > 0) {
+        memcpy(cur, gs_pheap_key(&h, h.v[0].pl), (size_t)nw * 8);
+        gs_int_set_si(&acc, 0);
+        do {
+            size_t i = (size_t)(h.v[0].pl >> 32);
+            sop_stream *s = &st[i];
+            if (s->neg)
+                gs_int_submul(&acc, s->c, &s->big->coeffs[s->pos]);
+            else
+                gs_int_addmul(&acc, s->c, &s->big->coeffs[s->pos]);
+            if (++s->pos < s->big->length) {
+                sop_key(keys + i * (size_t)nw, s, nw);
+                gs_pheap_replace_top(&h, h.v[0].pl);
+            } else {
+                gs_pheap_pop(&h);
+            }
+        } while (h.n > 0 && gs_pheap_cmp_top(&h, cur) == 0);
+        if (!gs_int_is_zero(&acc)) {
+            if (r->length == r->alloc)
+                gs_poly_fit(r, r->length + 1, ctx);
+            memcpy(r->exps + r->length * (size_t)nw, cur, (size_t)nw * 8);
+            gs_int_init(&r->coeffs[r->length]);
+            gs_int_swap(&r->coeffs[r->length], &acc);
+            r->length++;
+        }
+    }
+    gs_int_clear(&acc);
+    gs_pheap_clear(&h);
+    free(keys);
+    free(st);
+}
+
 void gs_poly_mul(gs_poly *r, const gs_poly *a, const gs_poly *b,
                  const gs_polyctx *ctx)
 {

@@ -1002,6 +1002,57 @@ static void loop_subst_eval(const gs_polyctx *ctx, uint64_t seed0, int n)
     gs_poly_clear(&s);
 }
 
+/* gs_poly_sum_of_products against products and sums one at a time
+   (ring axioms: the same value however it is bracketed). */
+static void loop_sum_of_products(const gs_polyctx *ctx, uint64_t seed0, int n)
+{
+    gs_poly a[5], b[5], want, t, got;
+    const gs_poly *pa[5], *pb[5];
+    int neg[5], k, i;
+    for (i = 0; i < 5; i++) {
+        gs_poly_init(&a[i]);
+        gs_poly_init(&b[i]);
+        pa[i] = &a[i];
+        pb[i] = &b[i];
+    }
+    gs_poly_init(&want);
+    gs_poly_init(&t);
+    gs_poly_init(&got);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        int np = (int)rbelow(&r, 6);
+        gs_poly_zero(&want);
+        for (i = 0; i < np; i++) {
+            rand_poly(&a[i], &r, 1 + rbelow(&r, 3), ctx->nvars, 2, 70, ctx);
+            rand_poly(&b[i], &r, 1 + rbelow(&r, 30), ctx->nvars, 3, 70,
+                      ctx);
+            if (rbelow(&r, 5) == 0)
+                gs_poly_zero(&b[i]);
+            if (i == 1 && rbelow(&r, 2)) {  /* a chance to cancel a0 b0 */
+                gs_poly_set(&a[1], &a[0], ctx);
+                gs_poly_set(&b[1], &b[0], ctx);
+            }
+            neg[i] = (int)rbelow(&r, 2);
+            gs_poly_mul(&t, &a[i], &b[i], ctx);
+            if (neg[i])
+                gs_poly_sub(&want, &want, &t, ctx);
+            else
+                gs_poly_add(&want, &want, &t, ctx);
+        }
+        gs_poly_sum_of_products(&got, pa, pb, neg, (size_t)np, ctx);
+        CHECK_MSG(gs_poly_equal(&got, &want, ctx) && canonical(&got, ctx),
+                  "sum of products: seed %llu", (unsigned long long)seed);
+    }
+    for (i = 0; i < 5; i++) {
+        gs_poly_clear(&a[i]);
+        gs_poly_clear(&b[i]);
+    }
+    gs_poly_clear(&want);
+    gs_poly_clear(&t);
+    gs_poly_clear(&got);
+}
+
 /* gs_poly_flip_vars is multiplication by x_to^top after x_v = 1/x_to:
    flip(a)(vals) = vals[to]^top * a(vals with x_v = 1/vals[to]), checked at
    values where every power is exact.  gs_poly_remap renames variables
@@ -1145,6 +1196,8 @@ int main(int argc, char **argv)
     loop_subst_eval(e.c11, seed + 9000, 200);
     loop_shapes(&e, seed + 10000, 40);
     loop_flip_remap(&e, seed + 11000, 300);
+    loop_sum_of_products(e.c4, seed + 12000, 300);
+    loop_sum_of_products(e.c11, seed + 13000, 300);
     env_clear(&e);
     return check_report("poly");
 }
