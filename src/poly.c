@@ -746,6 +746,31 @@ void gs_poly_coeff_var(gs_poly *r, const gs_poly *a, int var, unsigned k,
     gs_poly_clear(&t);
 }
 
+void gs_poly_coeffs_var(gs_poly *out, size_t n, const gs_poly *a, int var,
+                        const gs_polyctx *ctx)
+{
+    size_t i, k, nw = (size_t)ctx->nwords;
+    size_t *count = gs_calloc(n + 1, sizeof *count);
+    int w = var / GS_POLY_VARS_PER_WORD;
+    uint64_t clear = ~((uint64_t)0xFFFFu << field_shift(var));
+    for (i = 0; i < a->length; i++) {
+        k = get_exp(term_exps(a, i, ctx), var);
+        assert(k < n);
+        count[k]++;
+    }
+    for (k = 0; k < n; k++) {
+        gs_poly_zero(&out[k]);
+        gs_poly_fit(&out[k], count[k], ctx);
+    }
+    for (i = 0; i < a->length; i++) {
+        const uint64_t *e = term_exps(a, i, ctx);
+        gs_poly *c = &out[get_exp(e, var)];
+        gs_int_set(append_term(c, e, ctx), &a->coeffs[i]);
+        c->exps[(c->length - 1) * nw + (size_t)w] &= clear;
+    }
+    free(count);
+}
+
 /* Subtracting one from the exponent of var in every term that has it is
    the same shift for all of them, so the order is kept. */
 void gs_poly_derivative(gs_poly *r, const gs_poly *a, int var,

@@ -191,6 +191,12 @@ void gs_poly_used_vars(unsigned char *used, const gs_poly *a,
    (collecting in s). */
 void gs_poly_coeff_var(gs_poly *r, const gs_poly *a, int var, unsigned k,
                        const gs_polyctx *ctx);
+/* All coefficients of a in x_var at once: out[k] (k = 0 .. n-1) = the
+   coefficient of x_var^k, free of x_var, in one pass over a; n must
+   exceed a's degree in x_var.  out[] are initialised polynomials, none
+   aliasing a. */
+void gs_poly_coeffs_var(gs_poly *out, size_t n, const gs_poly *a, int var,
+                        const gs_polyctx *ctx);
 /* r = d a / d x_var */
 void gs_poly_derivative(gs_poly *r, const gs_poly *a, int var,
                         const gs_polyctx *ctx);

@@ -31,6 +31,7 @@ typedef struct sbuf {
 typedef struct style {
     int latex;
     char **names;           /* per variable, owned; NULL until needed */
+    size_t *lens;           /* their lengths */
     const gs_polyctx *ctx;
 } style;
 
@@ -153,6 +154,7 @@ static void style_init(style *st, const gs_polyctx *ctx, int latex)
     st->latex = latex;
     st->ctx = ctx;
     st->names = gs_calloc((size_t)ctx->nvars + 1, sizeof *st->names);
+    st->lens = gs_calloc((size_t)ctx->nvars + 1, sizeof *st->lens);
 }
 
 static void style_clear(style *st)
@@ -161,12 +163,15 @@ static void style_clear(style *st)
     for (i = 0; i < st->ctx->nvars; i++)
         free(st->names[i]);
     free(st->names);
+    free(st->lens);
 }
 
 static const char *name_of(style *st, int id)
 {
-    if (st->names[id] == NULL)
+    if (st->names[id] == NULL) {
         st->names[id] = var_name(st, id);
+        st->lens[id] = strlen(st->names[id]);
+    }
     return st->names[id];
 }
 
@@ -174,8 +179,13 @@ static const char *name_of(style *st, int id)
 static void put_power(sbuf *b, style *st, int var, unsigned k)
 {
     char num[32];
-    sb_puts(b, name_of(st, var));
-    if (k > 1) {
+    const char *name = name_of(st, var);
+    sb_putn(b, name, st->lens[var]);
+    if (k > 1 && k < 10 && !st->latex) {    /* the common case, no printf */
+        num[0] = '^';
+        num[1] = (char)('0' + k);
+        sb_putn(b, num, 2);
+    } else if (k > 1) {
         snprintf(num, sizeof num, st->latex ? "^{%u}" : "^%u", k);
         sb_puts(b, num);
     }
@@ -282,28 +292,31 @@ static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
 {
     const gs_polyctx *ctx = st->ctx;
     unsigned *exps = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *exps);
-    long k, lo;
+    long k;
     int first = 1;
-    gs_poly c;
 
     if (gs_poly_is_zero(a)) {
         sb_puts(b, "0");
     } else if (var < 0 || var >= ctx->nvars) {
         put_terms(b, st, a, 1, 0, exps);
     } else {
-        gs_poly_init(&c);
-        lo = gs_poly_lowdegree(a, var, ctx);
-        for (k = gs_poly_degree(a, var, ctx); k >= lo; k--) {
-            gs_poly_coeff_var(&c, a, var, (unsigned)k, ctx);
-            if (gs_poly_is_zero(&c))
+        size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i;
+        gs_poly *c = gs_malloc(n * sizeof *c);
+        for (i = 0; i < n; i++)
+            gs_poly_init(&c[i]);
+        gs_poly_coeffs_var(c, n, a, var, ctx);
+        for (k = (long)n - 1; k >= 0; k--) {
+            if (gs_poly_is_zero(&c[k]))
                 continue;
             if (k == 0)
-                put_terms(b, st, &c, first, 0, exps);
+                put_terms(b, st, &c[k], first, 0, exps);
             else
-                put_group(b, st, &c, var, (unsigned)k, first, exps);
+                put_group(b, st, &c[k], var, (unsigned)k, first, exps);
             first = 0;
         }
-        gs_poly_clear(&c);
+        for (i = 0; i < n; i++)
+            gs_poly_clear(&c[i]);
+        free(c);
     }
     free(exps);
 }

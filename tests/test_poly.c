@@ -1053,6 +1053,45 @@ static void loop_sum_of_products(const gs_polyctx *ctx, uint64_t seed0, int n)
     gs_poly_clear(&got);
 }
 
+/* gs_poly_coeffs_var splits a by powers of x in one pass: each part
+   equals gs_poly_coeff_var's, and sum_k out[k] x^k gives a back. */
+static void loop_coeffs_var(const gs_polyctx *ctx, uint64_t seed0, int n)
+{
+    gs_poly a, out[5], one, back, xk;
+    int k, i;
+    gs_poly_init(&a);
+    gs_poly_init(&one);
+    gs_poly_init(&back);
+    gs_poly_init(&xk);
+    for (i = 0; i < 5; i++)
+        gs_poly_init(&out[i]);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        int x = (int)rbelow(&r, (unsigned)ctx->nvars), ok = 1;
+        rand_poly(&a, &r, 1 + rbelow(&r, 20), ctx->nvars, 4, 9, ctx);
+        gs_poly_coeffs_var(out, 5, &a, x, ctx);
+        gs_poly_zero(&back);
+        for (i = 0; i < 5; i++) {
+            gs_poly_coeff_var(&one, &a, x, (unsigned)i, ctx);
+            ok &= gs_poly_equal(&one, &out[i], ctx)
+                  && canonical(&out[i], ctx)
+                  && gs_poly_degree(&out[i], x, ctx) <= 0;
+            gs_poly_set_var(&xk, x, (unsigned)i, ctx);
+            gs_poly_mul(&xk, &xk, &out[i], ctx);
+            gs_poly_add(&back, &back, &xk, ctx);
+        }
+        ok &= gs_poly_equal(&back, &a, ctx);
+        CHECK_MSG(ok, "coeffs_var: seed %llu", (unsigned long long)seed);
+    }
+    for (i = 0; i < 5; i++)
+        gs_poly_clear(&out[i]);
+    gs_poly_clear(&a);
+    gs_poly_clear(&one);
+    gs_poly_clear(&back);
+    gs_poly_clear(&xk);
+}
+
 /* gs_poly_flip_vars is multiplication by x_to^top after x_v = 1/x_to:
    flip(a)(vals) = vals[to]^top * a(vals with x_v = 1/vals[to]), checked at
    values where every power is exact.  gs_poly_remap renames variables
@@ -1197,6 +1236,7 @@ int main(int argc, char **argv)
     loop_shapes(&e, seed + 10000, 40);
     loop_flip_remap(&e, seed + 11000, 300);
     loop_sum_of_products(e.c4, seed + 12000, 300);
+    loop_coeffs_var(e.c11, seed + 14000, 200);
     loop_sum_of_products(e.c11, seed + 13000, 300);
     env_clear(&e);
     return check_report("poly");
