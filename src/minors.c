@@ -132,17 +132,20 @@ static int viable(const view *v, uint64_t rows, uint64_t S)
 }
 
 /* The next level when row r is expanded from `from`, with `rest` the rows
-   left after r.  Stops (returning 0) once more than `limit` minors appear;
-   *products gets the number of products. */
-static int expand_level(maskset *to, size_t *products, const view *v,
-                        const maskset *from, int r, uint64_t rest,
-                        size_t limit)
+   left after r.  Returns 1 with *products set; 0 once more than `limit`
+   minors appear; -1 once *work (structure tests, shared by all trials)
+   passes work_cap. */
+static int expand_level(maskset *to, size_t *products, size_t *work,
+                        size_t work_cap, const view *v, const maskset *from,
+                        int r, uint64_t rest, size_t limit)
 {
     size_t i, prods = 0;
     for (i = 0; i < from->count; i++) {
         uint64_t S = from->list[i], cand = S & v->nz[r];
         for (; cand; cand &= cand - 1) {
             uint64_t child = S & ~(cand & -cand);
+            if (++*work > work_cap)
+                return -1;
             if (!viable(v, rest, child))
                 continue;
             prods++;
@@ -162,9 +165,13 @@ static void plan_clear(plan *p, int n)
         maskset_clear(&p->lv[k]);
 }
 
-/* Greedy row order.  Returns GS_OK or GS_ERANGE (over max_products). */
+/* Greedy row order.  Returns GS_OK, or GS_ERANGE when the plan needs
+   more than max_products products or its own search would cost more
+   than a few times that (a matrix too dense to expand; elimination is
+   then tried without much time lost). */
 static int make_plan(plan *p, const view *v, size_t max_products)
 {
+    size_t work = 0, work_cap = max_products ? 8 * max_products : SIZE_MAX;
     int n = v->n, k, r;
     uint64_t rows = (1ull << n) - 1;
     uint64_t full = (1ull << n << 1) - 1;      /* n + 1 <= 64 columns */
@@ -185,13 +192,23 @@ static int make_plan(plan *p, const view *v, size_t max_products)
         size_t best_count = SIZE_MAX, best_prods = 0;
         maskset_init(&trial);
         for (r = 0; r < n; r++) {
-            size_t prods;
+            size_t prods, limit;
             uint64_t rest = rows & ~(1ull << r);
+            int got;
             if (!(rows >> r & 1))
                 continue;
-            if (!expand_level(&trial, &prods, v, &p->lv[k], r, rest,
-                              best_count == SIZE_MAX ? budget
-                                                     : best_count)) {
+            /* every minor comes from at least one product, so the
+               products left also bound the minors of the next level */
+            limit = budget - p->products;
+            if (best_count < limit)
+                limit = best_count;
+            got = expand_level(&trial, &prods, &work, work_cap, v,
+                               &p->lv[k], r, rest, limit);
+            if (got < 0) {
+                maskset_clear(&trial);
+                return GS_ERANGE;
+            }
+            if (got == 0) {
                 maskset_clear(&trial);
                 continue;
             }
