@@ -344,6 +344,8 @@ void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
     int v;
     assert(r != a);
     gs_poly_zero(r);
+    if (a->length == 0)
+        return;
     gs_poly_fit(r, a->length, to);
     memset(r->exps, 0, a->length * nt * sizeof *r->exps);
     for (i = 0; i < a->length; i++) {

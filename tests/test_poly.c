@@ -1147,6 +1147,9 @@ static void loop_flip_remap(const env *e, uint64_t seed0, int n)
         gs_poly_init(&m);
         CHECK_MSG(ok, "flip/remap: seed %llu", (unsigned long long)seed);
     }
+    gs_poly_zero(&a);                   /* zero maps to zero */
+    gs_poly_remap(&m, &a, (const int[]){0, 1, 3, 5}, c4, c11);
+    CHECK(gs_poly_is_zero(&m));
     gs_poly_clear(&a);
     gs_poly_clear(&f);
     gs_poly_clear(&m);
