@@ -268,22 +268,35 @@ static void free_values(gs_poly *vals, size_t count)
     free(vals);
 }
 
+/* Sizes watched during an evaluation: the largest minor, and the terms
+   of all the minors alive at once (this level's and the next's). */
+typedef struct watch {
+    size_t big, alive;
+    size_t max_terms, max_alive;    /* 0: unlimited */
+} watch;
+
+static int over(const watch *w)
+{
+    return (w->max_terms && w->big > w->max_terms)
+           || (w->max_alive && w->alive > w->max_alive);
+}
+
 /* Values of level k from those of level k + 1, vals[0 .. count-1] all
-   initialised.  Returns the size of the largest, or stops early (the rest
-   zero) at the first minor over max_terms. */
-static size_t eval_level(gs_poly *vals, const plan *p, const view *v, int k,
-                         const gs_poly *next, size_t max_terms,
-                         const gs_polyctx *ctx)
+   initialised; stops early (the rest zero) once a size in w is over. */
+static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
+                       const gs_poly *next, watch *w, const gs_polyctx *ctx)
 {
     const maskset *lv = &p->lv[k], *below = &p->lv[k + 1];
     const gs_poly *ea[GS_MINORS_MAX_UNKNOWNS + 1];
     const gs_poly *mb[GS_MINORS_MAX_UNKNOWNS + 1];
     int neg[GS_MINORS_MAX_UNKNOWNS + 1];
     int r = p->order[k];
-    size_t i, big = 0;
+    size_t i;
     for (i = 0; i < lv->count; i++)
         gs_poly_init(&vals[i]);
-    for (i = 0; i < lv->count && (!max_terms || big <= max_terms); i++) {
+    for (i = 0; i < below->count; i++)
+        w->alive += next[i].length;
+    for (i = 0; i < lv->count && !over(w); i++) {
         uint64_t S = lv->list[i], cand = S & v->nz[r];
         gs_poly *acc = &vals[i];
         size_t np = 0;
@@ -298,10 +311,27 @@ static size_t eval_level(gs_poly *vals, const plan *p, const view *v, int k,
             neg[np++] = __builtin_popcountll(S & (bit - 1)) & 1;
         }
         gs_poly_sum_of_products(acc, ea, mb, neg, np, ctx);
-        if (acc->length > big)
-            big = acc->length;
+        w->alive += acc->length;
+        if (acc->length > w->big)
+            w->big = acc->length;
     }
-    return big;
+}
+
+static void report_budget(gs_diag *d, const watch *w, int level, int n)
+{
+    const char *hint = "raise the budget with --max-terms, or bind some "
+                       "symbols to numbers";
+    if (w->max_terms && w->big > w->max_terms)
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint,
+                    "term budget exceeded at expansion level %d of %d: a "
+                    "minor reached %zu terms (budget %zu)", level, n,
+                    w->big, w->max_terms);
+    else
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint,
+                    "term budget exceeded at expansion level %d of %d: the "
+                    "minors kept at once reached %zu terms (budget %d x "
+                    "%zu)", level, n, w->alive, GS_MINORS_KEPT_FACTOR,
+                    w->max_terms);
 }
 
 /* Run the plan; on GS_OK *top holds level 0's values (p->lv[0] order). */
@@ -311,8 +341,11 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
 {
     int n = v->n, k;
     gs_poly *next, *vals;
-    size_t big;
+    watch w;
 
+    w.big = 0;
+    w.max_terms = o->max_terms;
+    w.max_alive = o->max_terms * GS_MINORS_KEPT_FACTOR;
     next = gs_malloc((p->lv[n].count ? p->lv[n].count : 1) * sizeof *next);
     if (p->lv[n].count) {
         gs_poly_init(&next[0]);
@@ -323,20 +356,16 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
             fprintf(o->progress, "\rexpansion level %d/%d", n - k, n);
         vals = gs_malloc((p->lv[k].count ? p->lv[k].count : 1)
                          * sizeof *vals);
-        big = eval_level(vals, p, v, k, next, o->max_terms, ctx);
+        w.alive = 0;
+        eval_level(vals, p, v, k, next, &w, ctx);
         free_values(next, p->lv[k + 1].count);
         next = vals;
-        if (big > st->max_minor_terms)
-            st->max_minor_terms = big;
-        if (o->max_terms && big > o->max_terms) {
+        if (w.big > st->max_minor_terms)
+            st->max_minor_terms = w.big;
+        if (over(&w)) {
             if (o->progress)
                 fputc('\n', o->progress);
-            gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
-                        "raise the budget with --max-terms, or bind some "
-                        "symbols to numbers",
-                        "term budget exceeded at expansion level %d of %d: "
-                        "a minor reached %zu terms (budget %zu)", n - k, n,
-                        big, o->max_terms);
+            report_budget(d, &w, n - k, n);
             free_values(next, p->lv[k].count);
             return GS_EBUDGET;
         }

@@ -36,8 +36,14 @@
    mask of the n + 1 columns of [A b]. */
 #define GS_MINORS_MAX_UNKNOWNS 63
 
+/* With a term budget N, the minors kept at one time (two levels of the
+   expansion) may hold at most this many times N terms in all: the memory
+   bound that a budget per minor alone would not give. */
+#define GS_MINORS_KEPT_FACTOR 8
+
 typedef struct gs_minors_opts {
-    size_t max_terms;     /* budget per minor; 0 = unlimited */
+    size_t max_terms;     /* budget per minor, and GS_MINORS_KEPT_FACTOR
+                             times it for all minors kept; 0 = unlimited */
     size_t max_products;  /* refuse a plan with more entry x minor
                              products; 0 = unlimited */
     FILE *progress;       /* level counter written here, or NULL */
@@ -59,7 +65,8 @@ void gs_minors_opts_default(gs_minors_opts *o);
    unknowns or the plan needs more than o->max_products products (the
    caller eliminates instead); GS_ESINGULAR, with no message, when
    det A = 0 (elimination can say which unknowns are undetermined);
-   GS_EBUDGET, with a message in d, when a minor outgrew o->max_terms.
+   GS_EBUDGET, with a message in d, when a minor outgrew o->max_terms or
+   the minors kept at once GS_MINORS_KEPT_FACTOR times that.
    stats may be NULL. */
 int gs_minors_bordered(gs_poly *det_a, gs_poly *det_m, const gs_mna *m,
                        const gs_polyctx *ctx, const gs_minors_opts *o,

@@ -335,6 +335,16 @@ static void test_limits(void)
     o.max_products = 0;
     CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, &ms, &d) == GS_OK);
     CHECK(ms.products > 100 && ms.minors > 0);
+    /* a budget no single minor passes, while the many minors of the
+       middle levels, kept at once, do: the memory bound stops it */
+    o.max_terms = ms.max_minor_terms;
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, &ms, &d) == GS_EBUDGET);
+    CHECK(d.nerrors == 1
+          && strstr(d.v[0].message, "minors kept at once") != NULL);
+    CHECK(ms.max_minor_terms <= o.max_terms);
+    o.max_terms = 0;
+    gs_diag_clear(&d);
+    gs_diag_init(&d);
     gs_mna_clear(&m);
 
     /* term budget: the Vandermonde-like 4 x 4 of sums grows */
