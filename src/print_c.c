@@ -233,19 +233,22 @@ static void horner_step(FILE *out, const params *ps, const gs_poly *c,
 static void put_horner(FILE *out, const params *ps, const gs_poly *a, char v,
                        int s_var, const gs_polyctx *ctx)
 {
-    long k, deg = 0;
-    gs_poly c;
+    size_t n, i;
+    gs_poly *c;
     if (s_var < 0 || s_var >= ctx->nvars || gs_poly_is_zero(a)) {
         horner_step(out, ps, a, v, 1, ctx);
         return;
     }
-    gs_poly_init(&c);
-    deg = gs_poly_degree(a, s_var, ctx);
-    for (k = deg; k >= 0; k--) {
-        gs_poly_coeff_var(&c, a, s_var, (unsigned)k, ctx);
-        horner_step(out, ps, &c, v, k == deg, ctx);
-    }
-    gs_poly_clear(&c);
+    n = (size_t)gs_poly_degree(a, s_var, ctx) + 1;
+    c = gs_malloc(n * sizeof *c);
+    for (i = 0; i < n; i++)
+        gs_poly_init(&c[i]);
+    gs_poly_coeffs_var(c, n, a, s_var, ctx);
+    for (i = n; i-- > 0;)
+        horner_step(out, ps, &c[i], v, i == n - 1, ctx);
+    for (i = 0; i < n; i++)
+        gs_poly_clear(&c[i]);
+    free(c);
 }
 
 static void put_struct(FILE *out, const params *ps, const char *fn,

@@ -129,25 +129,27 @@ static void put_poly(FILE *out, const gs_poly *a, int var,
                      const gs_polyctx *ctx)
 {
     unsigned *exps = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *exps);
-    long k, lo;
     int first = 1;
-    gs_poly c;
     fputc('[', out);
     if (var < 0 || var >= ctx->nvars) {
         if (!gs_poly_is_zero(a))
             put_group(out, a, 0, ctx, exps);
     } else if (!gs_poly_is_zero(a)) {
-        gs_poly_init(&c);
-        lo = gs_poly_lowdegree(a, var, ctx);
-        for (k = gs_poly_degree(a, var, ctx); k >= lo; k--) {
-            gs_poly_coeff_var(&c, a, var, (unsigned)k, ctx);
-            if (gs_poly_is_zero(&c))
+        size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i;
+        gs_poly *c = gs_malloc(n * sizeof *c);
+        for (i = 0; i < n; i++)
+            gs_poly_init(&c[i]);
+        gs_poly_coeffs_var(c, n, a, var, ctx);
+        for (i = n; i-- > 0;) {
+            if (gs_poly_is_zero(&c[i]))
                 continue;
             fputs(first ? "" : ", ", out);
-            put_group(out, &c, k, ctx, exps);
+            put_group(out, &c[i], (long)i, ctx, exps);
             first = 0;
         }
-        gs_poly_clear(&c);
+        for (i = 0; i < n; i++)
+            gs_poly_clear(&c[i]);
+        free(c);
     }
     fputc(']', out);
     free(exps);
