@@ -11,8 +11,11 @@ CPPFLAGS_ALL = -Iinclude -Isrc -D_POSIX_C_SOURCE=200809L $(CPPFLAGS)
 CFLAGS_ALL   = -std=c11 $(OPT) $(WARN) $(SANFLAGS) $(CFLAGS)
 LDLIBS_ALL   = $(SANFLAGS) $(LDFLAGS) -lm
 
-LIB_SRC  := $(filter-out src/main.c,$(sort $(wildcard src/*.c)))
+# src/LAYER/*.c and src/api.c make the library; src/cli/ is the command.
+LIB_SRC  := $(sort $(wildcard src/*.c) $(filter-out src/cli/%,$(wildcard src/*/*.c)))
 LIB_OBJ  := $(LIB_SRC:src/%.c=$(BUILD)/obj/%.o)
+CLI_SRC  := $(sort $(wildcard src/cli/*.c))
+CLI_OBJ  := $(CLI_SRC:src/%.c=$(BUILD)/obj/%.o)
 TEST_SRC := $(sort $(wildcard tests/test_*.c))
 TEST_BIN := $(TEST_SRC:tests/%.c=$(BUILD)/tests/%)
 # tests/tool_*.c: small drivers that test scripts (tests/sympy) call
@@ -21,6 +24,9 @@ TOOL_BIN := $(TOOL_SRC:tests/%.c=$(BUILD)/tests/%)
 BENCH_SRC := $(sort $(wildcard tests/bench/bench_*.c))
 BENCH_BIN := $(BENCH_SRC:tests/bench/%.c=$(BUILD)/bench/%)
 LIB      := $(BUILD)/libgainsmith.a
+# the command's own modules, for the tests of its option parser and
+# extract; never installed
+CLI_LIB  := $(BUILD)/libgainsmith_cli.a
 BIN      := $(BUILD)/gainsmith
 
 .PHONY: all check check-sanitize bench demo install clean tests
@@ -35,12 +41,16 @@ $(LIB): $(LIB_OBJ)
 	@rm -f $@
 	ar rcs $@ $^
 
-$(BIN): $(BUILD)/obj/main.o $(LIB)
+$(CLI_LIB): $(filter-out $(BUILD)/obj/cli/main.o,$(CLI_OBJ))
+	@rm -f $@
+	ar rcs $@ $^
+
+$(BIN): $(CLI_OBJ) $(LIB)
 	$(CC) $(CFLAGS_ALL) -o $@ $^ $(LDLIBS_ALL)
 
-$(BUILD)/tests/%: tests/%.c tests/check.h $(LIB)
+$(BUILD)/tests/%: tests/%.c tests/check.h $(LIB) $(CLI_LIB)
 	@mkdir -p $(dir $@)
-	$(CC) $(CPPFLAGS_ALL) -Itests $(CFLAGS_ALL) -MMD -MP -o $@ $< $(LIB) $(LDLIBS_ALL)
+	$(CC) $(CPPFLAGS_ALL) -Itests $(CFLAGS_ALL) -MMD -MP -o $@ $< $(CLI_LIB) $(LIB) $(LDLIBS_ALL)
 
 $(BUILD)/bench/%: tests/bench/%.c $(LIB)
 	@mkdir -p $(dir $@)
@@ -77,4 +87,4 @@ install: all
 clean:
 	rm -rf build
 
--include $(LIB_OBJ:.o=.d) $(BUILD)/obj/main.d $(TEST_BIN:=.d) $(TOOL_BIN:=.d) $(BENCH_BIN:=.d)
+-include $(LIB_OBJ:.o=.d) $(CLI_OBJ:.o=.d) $(TEST_BIN:=.d) $(TOOL_BIN:=.d) $(BENCH_BIN:=.d)

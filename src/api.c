@@ -1,7 +1,7 @@
 /* api.c - the public interface of include/gainsmith.h. See LICENSE. */
 #include "gainsmith.h"
-#include "job.h"
-#include "mem.h"
+#include "analysis/job.h"
+#include "base/mem.h"
 
 #include <stdio.h>
 #include <stdlib.h>

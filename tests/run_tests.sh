@@ -47,6 +47,7 @@ if [ -z "$only" ]; then
     if [ -f tests/run_cli.sh ]; then
         run_suite cli sh tests/run_cli.sh "$build/gainsmith"
     fi
+    run_suite layers sh tests/check_layers.sh src
     run_suite latex_check sh tests/latex_check.sh "$build"
     run_suite render_check sh tests/render_check.sh "$build"
     for py in tests/sympy/*.py; do

@@ -8,7 +8,7 @@
  * Design", 1983, ch. 4).
  */
 #include "check.h"
-#include "circuit.h"
+#include "circuit/circuit.h"
 #include "gainsmith.h"
 
 #include <stdlib.h>

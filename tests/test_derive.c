@@ -8,12 +8,12 @@
  * without a limit, agree with an independent numeric solve of the circuit.
  */
 #include "check.h"
-#include "circuit.h"
-#include "derive.h"
-#include "job.h"
-#include "mna.h"
-#include "numsolve.h"
-#include "poly.h"
+#include "circuit/circuit.h"
+#include "analysis/derive.h"
+#include "analysis/job.h"
+#include "analysis/mna.h"
+#include "numeric/numsolve.h"
+#include "algebra/poly.h"
 
 #include <math.h>
 

@@ -23,11 +23,11 @@
  * extraction, must give back the chosen parameters.
  */
 #include "check.h"
-#include "circuit.h"
-#include "cmd.h"
-#include "device.h"
+#include "circuit/circuit.h"
+#include "cli/cmd.h"
+#include "circuit/device.h"
 #include "gainsmith.h"
-#include "mem.h"
+#include "base/mem.h"
 
 #include <math.h>
 #include <stdio.h>

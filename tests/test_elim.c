@@ -11,11 +11,11 @@
  * and for complete graphs by Cayley's formula n^(n-2).
  */
 #include "check.h"
-#include "circuit.h"
-#include "elim.h"
-#include "minors.h"
-#include "mna.h"
-#include "poly.h"
+#include "circuit/circuit.h"
+#include "analysis/elim.h"
+#include "analysis/minors.h"
+#include "analysis/mna.h"
+#include "algebra/poly.h"
 
 #include <math.h>
 #include <stdio.h>

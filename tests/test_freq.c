@@ -9,9 +9,9 @@
 #include <string.h>
 
 #include "check.h"
-#include "freq.h"
+#include "numeric/freq.h"
 #include "gainsmith.h"
-#include "roots.h"
+#include "numeric/roots.h"
 
 #define PI_L 3.141592653589793238462643383279502884L
 

@@ -19,11 +19,11 @@
 
 #include "check.h"
 #include "gainsmith.h"
-#include "nmod.h"
-#include "poly.h"
-#include "sym.h"
+#include "algebra/nmod.h"
+#include "algebra/poly.h"
+#include "algebra/sym.h"
 
-#include "poly_gcd.c"
+#include "algebra/poly_gcd.c"
 
 static uint64_t seed = 20261201u;
 

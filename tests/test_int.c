@@ -13,7 +13,7 @@
 
 #include "check.h"
 #include "gainsmith.h"
-#include "int.h"
+#include "algebra/int.h"
 
 /* ---- test utilities ----------------------------------------------------- */
 

@@ -10,8 +10,8 @@
  * this module is in test_elim.c.
  */
 #include "check.h"
-#include "elim.h"
-#include "minors.h"
+#include "analysis/elim.h"
+#include "analysis/minors.h"
 
 #include <stdint.h>
 #include <stdio.h>

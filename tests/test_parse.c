@@ -2,10 +2,10 @@
  * See LICENSE.
  */
 #include "check.h"
-#include "circuit.h"
+#include "circuit/circuit.h"
 #include "gainsmith.h"
-#include "lex.h"
-#include "mem.h"
+#include "circuit/lex.h"
+#include "base/mem.h"
 
 #include <math.h>
 #include <stdlib.h>

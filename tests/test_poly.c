@@ -1,8 +1,8 @@
 /* test_poly.c - unit tests of the sparse polynomial module. See LICENSE. */
 #include "check.h"
 #include "gainsmith.h"
-#include "poly.h"
-#include "sym.h"
+#include "algebra/poly.h"
+#include "algebra/sym.h"
 
 #include <complex.h>
 #include <math.h>

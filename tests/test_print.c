@@ -10,8 +10,8 @@
  */
 #include "check.h"
 #include "gainsmith.h"
-#include "mem.h"
-#include "tf.h"
+#include "base/mem.h"
+#include "analysis/tf.h"
 
 #include <math.h>
 #include <stdint.h>

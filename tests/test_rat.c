@@ -12,8 +12,8 @@
 
 #include "check.h"
 #include "gainsmith.h"
-#include "mem.h"
-#include "rat.h"
+#include "base/mem.h"
+#include "algebra/rat.h"
 
 static uint64_t seed = 20240602u;
 static uint64_t rng_state;

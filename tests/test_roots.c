@@ -9,7 +9,7 @@
 
 #include "check.h"
 #include "gainsmith.h"
-#include "roots.h"
+#include "numeric/roots.h"
 
 #define PI_L 3.141592653589793238462643383279502884L
 #define MAXN 64

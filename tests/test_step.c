@@ -10,8 +10,8 @@
 
 #include "check.h"
 #include "gainsmith.h"
-#include "roots.h"
-#include "step.h"
+#include "numeric/roots.h"
+#include "numeric/step.h"
 
 #define PI_L 3.141592653589793238462643383279502884L
 

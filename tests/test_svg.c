@@ -6,11 +6,11 @@
 #include <string.h>
 
 #include "check.h"
-#include "freq.h"
+#include "numeric/freq.h"
 #include "gainsmith.h"
-#include "roots.h"
-#include "step.h"
-#include "svg.h"
+#include "numeric/roots.h"
+#include "numeric/step.h"
+#include "output/svg.h"
 
 #define PI_L 3.141592653589793238462643383279502884L
 

@@ -9,7 +9,7 @@
  */
 #include "check.h"
 #include "gainsmith.h"
-#include "units.h"
+#include "circuit/units.h"
 
 #include <math.h>
 #include <stdio.h>

@@ -25,9 +25,9 @@
  * on with the next line.
  */
 #include "gainsmith.h"
-#include "poly.h"
-#include "rat.h"
-#include "sym.h"
+#include "algebra/poly.h"
+#include "algebra/rat.h"
+#include "algebra/sym.h"
 
 #include <stdio.h>
 #include <stdlib.h>

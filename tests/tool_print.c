@@ -11,7 +11,7 @@
  *     json VAR LINE                gs_print_json grouped likewise
  *     end
  */
-#include "tf.h"
+#include "analysis/tf.h"
 
 #include <stdint.h>
 #include <stdlib.h>

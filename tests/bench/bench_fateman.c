@@ -7,8 +7,8 @@
  * Prints "bench fateman terms=N seconds=S peak_kib=K", S the median of
  * three timings of the product alone; exits 1 if a check fails.
  */
-#include "poly.h"
-#include "sym.h"
+#include "algebra/poly.h"
+#include "algebra/sym.h"
 
 #include <stdio.h>
 #include <stdlib.h>

@@ -24,9 +24,9 @@
  * also writes the inputs and the gcd found, one term a line ("c e0 e1
  * ..."), for tests/bench/gcd_sympy.py to compute the same gcds.
  */
-#include "nmod.h"
-#include "poly.h"
-#include "sym.h"
+#include "algebra/nmod.h"
+#include "algebra/poly.h"
+#include "algebra/sym.h"
 
 #include <stdio.h>
 #include <stdlib.h>

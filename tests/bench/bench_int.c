@@ -6,7 +6,7 @@
  * printing of operands of n limbs.  S is the best of three timings.
  * Operands come from a fixed-seed generator, so runs compare.
  */
-#include "int.h"
+#include "algebra/int.h"
 
 #include <stdio.h>
 #include <stdlib.h>

@@ -19,10 +19,10 @@
 #include <stdlib.h>
 #include <time.h>
 
-#include "freq.h"
+#include "numeric/freq.h"
 #include "gainsmith.h"
-#include "roots.h"
-#include "step.h"
+#include "numeric/roots.h"
+#include "numeric/step.h"
 
 #define PI_L 3.141592653589793238462643383279502884L
 #define REPS 7

@@ -1,0 +1,974 @@
+/* poly.c - sparse polynomials over Z: storage, order, sums, scalars,
+ * monomials, content, degrees, calculus, substitution, limits, evaluation.
+ * See LICENSE.
+ *
+ * Multiplication and powers are in poly_mul.c, exact division in
+ * poly_div.c, text in poly_print.c, the gcd in poly_gcd.c.
+ */
+#include "algebra/poly.h"
+
+#include "gainsmith.h"
+#include "base/mem.h"
+
+#include <assert.h>
+#include <stdlib.h>
+#include <string.h>
+
+/* The top bit of every 16-bit field.  Exponents are at most 0x7FFF, so a
+   sum of two exponents never carries into the next field, and
+   ((x | GUARD) - y) & GUARD has a field's guard bit set exactly where
+   x >= y in that field: the usual SIMD-within-a-register trick. */
+#define GUARD UINT64_C(0x8000800080008000)
+
+static int field_shift(int var)
+{
+    return 48 - 16 * (var % GS_POLY_VARS_PER_WORD);
+}
+
+static unsigned get_exp(const uint64_t *e, int var)
+{
+    return (unsigned)(e[var / GS_POLY_VARS_PER_WORD] >> field_shift(var))
+        & 0xFFFFu;
+}
+
+static const uint64_t *term_exps(const gs_poly *a, size_t i,
+                                 const gs_polyctx *ctx)
+{
+    return a->exps + i * (size_t)ctx->nwords;
+}
+
+/* lexicographic comparison of packed exponent vectors: <0, 0, >0 */
+static int exps_cmp(const uint64_t *x, const uint64_t *y, int nw)
+{
+    int w;
+    for (w = 0; w < nw; w++)
+        if (x[w] != y[w])
+            return x[w] > y[w] ? 1 : -1;
+    return 0;
+}
+
+/* per-field x >= y in every field of every word */
+static int exps_divides(const uint64_t *y, const uint64_t *x, int nw)
+{
+    int w;
+    for (w = 0; w < nw; w++)
+        if ((((x[w] | GUARD) - y[w]) & GUARD) != GUARD)
+            return 0;
+    return 1;
+}
+
+/* per-field minimum / maximum of two words */
+static uint64_t field_min(uint64_t x, uint64_t y)
+{
+    uint64_t ge = (((x | GUARD) - y) & GUARD) >> 15;   /* 1 where x >= y */
+    uint64_t m = ge * 0xFFFFu;
+    return (y & m) | (x & ~m);
+}
+
+static uint64_t field_max(uint64_t x, uint64_t y)
+{
+    uint64_t ge = (((x | GUARD) - y) & GUARD) >> 15;
+    uint64_t m = ge * 0xFFFFu;
+    return (x & m) | (y & ~m);
+}
+
+gs_polyctx *gs_polyctx_new(const gs_symtab *st, int nvars)
+{
+    gs_polyctx *ctx = gs_malloc(sizeof *ctx);
+    assert(nvars >= 0);
+    ctx->syms = st;
+    ctx->nvars = nvars;
+    ctx->nwords = (nvars + GS_POLY_VARS_PER_WORD - 1) / GS_POLY_VARS_PER_WORD;
+    if (ctx->nwords < 1)
+        ctx->nwords = 1;
+    return ctx;
+}
+
+void gs_polyctx_free(gs_polyctx *ctx)
+{
+    free(ctx);
+}
+
+void gs_poly_init(gs_poly *p)
+{
+    p->coeffs = NULL;
+    p->exps = NULL;
+    p->length = 0;
+    p->alloc = 0;
+}
+
+void gs_poly_clear(gs_poly *p)
+{
+    size_t i;
+    for (i = 0; i < p->length; i++)
+        gs_int_clear(&p->coeffs[i]);
+    free(p->coeffs);
+    free(p->exps);
+    gs_poly_init(p);
+}
+
+void gs_poly_swap(gs_poly *a, gs_poly *b)
+{
+    gs_poly t = *a;
+    *a = *b;
+    *b = t;
+}
+
+/* Only coeffs[0 .. length-1] are live gs_ints; slots past length are raw
+   memory, so growing is a plain realloc and shrinking clears. */
+void gs_poly_fit(gs_poly *r, size_t n, const gs_polyctx *ctx)
+{
+    size_t na;
+    if (n <= r->alloc)
+        return;
+    na = r->alloc * 2 > n ? r->alloc * 2 : n;
+    if (na < 4)
+        na = 4;
+    r->coeffs = gs_reallocarray(r->coeffs, na, sizeof *r->coeffs);
+    r->exps = gs_reallocarray(r->exps, na, (size_t)ctx->nwords * 8);
+    r->alloc = na;
+}
+
+static void truncate_to(gs_poly *r, size_t n)
+{
+    while (r->length > n)
+        gs_int_clear(&r->coeffs[--r->length]);
+}
+
+void gs_poly_zero(gs_poly *r)
+{
+    truncate_to(r, 0);
+}
+
+void gs_poly_set(gs_poly *r, const gs_poly *a, const gs_polyctx *ctx)
+{
+    size_t i, n = a->length;
+    if (r == a)
+        return;
+    truncate_to(r, 0);
+    gs_poly_fit(r, n, ctx);
+    for (i = 0; i < n; i++) {
+        gs_int_init(&r->coeffs[i]);
+        gs_int_set(&r->coeffs[i], &a->coeffs[i]);
+    }
+    if (n > 0)
+        memcpy(r->exps, a->exps, n * (size_t)ctx->nwords * 8);
+    r->length = n;
+}
+
+/* Append a term after the current last one (the caller keeps the order);
+   returns the new coefficient slot, initialised to 0. */
+static gs_int *append_term(gs_poly *r, const uint64_t *e,
+                           const gs_polyctx *ctx)
+{
+    size_t nw = (size_t)ctx->nwords;
+    gs_poly_fit(r, r->length + 1, ctx);
+    if (e != NULL)
+        memcpy(r->exps + r->length * nw, e, nw * 8);
+    else
+        memset(r->exps + r->length * nw, 0, nw * 8);
+    gs_int_init(&r->coeffs[r->length]);
+    return &r->coeffs[r->length++];
+}
+
+/* Drop the last term if its coefficient came out zero. */
+static void drop_last_if_zero(gs_poly *r)
+{
+    if (r->length > 0 && gs_int_is_zero(&r->coeffs[r->length - 1]))
+        gs_int_clear(&r->coeffs[--r->length]);
+}
+
+void gs_poly_set_int(gs_poly *r, const gs_int *c, const gs_polyctx *ctx)
+{
+    gs_int t;
+    gs_int_init(&t);
+    gs_int_set(&t, c);     /* c may be a coefficient of r */
+    truncate_to(r, 0);
+    if (!gs_int_is_zero(&t))
+        gs_int_swap(append_term(r, NULL, ctx), &t);
+    gs_int_clear(&t);
+}
+
+void gs_poly_set_si(gs_poly *r, int64_t c, const gs_polyctx *ctx)
+{
+    truncate_to(r, 0);
+    if (c != 0)
+        gs_int_set_si(append_term(r, NULL, ctx), c);
+}
+
+static void pack_exps(uint64_t *e, const unsigned *exps,
+                      const gs_polyctx *ctx)
+{
+    int v;
+    memset(e, 0, (size_t)ctx->nwords * 8);
+    for (v = 0; v < ctx->nvars; v++) {
+        assert(exps[v] <= GS_POLY_MAX_EXP);
+        e[v / GS_POLY_VARS_PER_WORD] |= (uint64_t)exps[v] << field_shift(v);
+    }
+}
+
+void gs_poly_set_var(gs_poly *r, int var, unsigned e, const gs_polyctx *ctx)
+{
+    gs_int *c;
+    assert(var >= 0 && var < ctx->nvars && e <= GS_POLY_MAX_EXP);
+    truncate_to(r, 0);
+    c = append_term(r, NULL, ctx);
+    gs_int_set_si(c, 1);
+    r->exps[var / GS_POLY_VARS_PER_WORD] |= (uint64_t)e << field_shift(var);
+}
+
+void gs_poly_set_term(gs_poly *r, const gs_int *c, const unsigned *exps,
+                      const gs_polyctx *ctx)
+{
+    gs_poly_set_int(r, c, ctx);
+    if (r->length == 1)
+        pack_exps(r->exps, exps, ctx);
+}
+
+void gs_poly_push_term(gs_poly *r, const gs_int *c, const unsigned *exps,
+                       const gs_polyctx *ctx)
+{
+    gs_int *slot;
+    gs_poly_fit(r, r->length + 1, ctx);
+    pack_exps(r->exps + r->length * (size_t)ctx->nwords, exps, ctx);
+    slot = &r->coeffs[r->length];
+    gs_int_init(slot);
+    gs_int_set(slot, c);
+    r->length++;
+}
+
+static int is_canonical(const gs_poly *r, const gs_polyctx *ctx)
+{
+    size_t i;
+    for (i = 0; i < r->length; i++) {
+        if (gs_int_is_zero(&r->coeffs[i]))
+            return 0;
+        if (i > 0 && exps_cmp(term_exps(r, i - 1, ctx), term_exps(r, i, ctx),
+                              ctx->nwords) <= 0)
+            return 0;
+    }
+    return 1;
+}
+
+/* Stable merge sort of term indices by decreasing monomial (qsort has no
+   context argument, and the word count lives in ctx). */
+static void sort_perm(size_t *perm, size_t *tmp, size_t n, const gs_poly *r,
+                      const gs_polyctx *ctx)
+{
+    size_t h, i, j, k;
+    if (n < 2)
+        return;
+    h = n / 2;
+    sort_perm(perm, tmp, h, r, ctx);
+    sort_perm(perm + h, tmp, n - h, r, ctx);
+    i = 0;
+    j = h;
+    k = 0;
+    while (i < h && j < n) {
+        if (exps_cmp(term_exps(r, perm[j], ctx), term_exps(r, perm[i], ctx),
+                     ctx->nwords) > 0)
+            tmp[k++] = perm[j++];
+        else
+            tmp[k++] = perm[i++];
+    }
+    while (i < h)
+        tmp[k++] = perm[i++];
+    while (j < n)
+        tmp[k++] = perm[j++];
+    memcpy(perm, tmp, n * sizeof *perm);
+}
+
+void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
+{
+    size_t n = r->length, i, *perm, *tmp;
+    gs_poly t;
+    if (is_canonical(r, ctx))
+        return;
+    perm = gs_malloc((n + 1) * sizeof *perm);
+    tmp = gs_malloc((n + 1) * sizeof *tmp);
+    for (i = 0; i < n; i++)
+        perm[i] = i;
+    sort_perm(perm, tmp, n, r, ctx);
+    gs_poly_init(&t);
+    gs_poly_fit(&t, n, ctx);
+    for (i = 0; i < n; i++) {
+        const uint64_t *e = term_exps(r, perm[i], ctx);
+        gs_int *c = &r->coeffs[perm[i]];
+        if (t.length > 0 && exps_cmp(term_exps(&t, t.length - 1, ctx), e,
+                                     ctx->nwords) == 0) {
+            gs_int_add(&t.coeffs[t.length - 1], &t.coeffs[t.length - 1], c);
+        } else {
+            drop_last_if_zero(&t);
+            gs_int_swap(append_term(&t, e, ctx), c);
+        }
+    }
+    drop_last_if_zero(&t);
+    gs_poly_swap(r, &t);
+    gs_poly_clear(&t);
+    free(perm);
+    free(tmp);
+}
+
+static void put_exp(uint64_t *e, int var, unsigned x)
+{
+    int w = var / GS_POLY_VARS_PER_WORD, sh = field_shift(var);
+    e[w] = (e[w] & ~((uint64_t)0xFFFFu << sh)) | (uint64_t)x << sh;
+}
+
+void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
+                       const unsigned *top, const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords;
+    int v;
+    if (r != a)
+        gs_poly_set(r, a, ctx);
+    for (i = 0; i < r->length; i++) {
+        uint64_t *e = r->exps + i * nw;
+        for (v = 0; v < ctx->nvars; v++) {
+            unsigned k;
+            if (top[v] == 0)
+                continue;
+            k = get_exp(e, v);
+            assert(k <= top[v]);
+            put_exp(e, v, 0);
+            put_exp(e, to[v], get_exp(e, to[v]) + top[v] - k);
+        }
+    }
+    gs_poly_canonicalise(r, ctx);
+}
+
+void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
+                   const gs_polyctx *from, const gs_polyctx *to)
+{
+    size_t i, nf = (size_t)from->nwords, nt = (size_t)to->nwords;
+    int v;
+    assert(r != a);
+    gs_poly_zero(r);
+    if (a->length == 0)
+        return;
+    gs_poly_fit(r, a->length, to);
+    memset(r->exps, 0, a->length * nt * sizeof *r->exps);
+    for (i = 0; i < a->length; i++) {
+        const uint64_t *e = a->exps + i * nf;
+        uint64_t *f = r->exps + i * nt;
+        for (v = 0; v < from->nvars; v++) {
+            unsigned x = get_exp(e, v);
+            if (x)
+                put_exp(f, map[v], x);
+        }
+        gs_int_init(&r->coeffs[i]);
+        gs_int_set(&r->coeffs[i], &a->coeffs[i]);
+    }
+    r->length = a->length;
+}
+
+void gs_poly_get_term_exps(unsigned *exps, const gs_poly *a, size_t i,
+                           const gs_polyctx *ctx)
+{
+    int v;
+    for (v = 0; v < ctx->nvars; v++)
+        exps[v] = get_exp(term_exps(a, i, ctx), v);
+}
+
+unsigned gs_poly_term_exp(const gs_poly *a, size_t i, int var,
+                          const gs_polyctx *ctx)
+{
+    return get_exp(term_exps(a, i, ctx), var);
+}
+
+static int exps_are_zero(const uint64_t *e, int nw)
+{
+    int w;
+    for (w = 0; w < nw; w++)
+        if (e[w] != 0)
+            return 0;
+    return 1;
+}
+
+int gs_poly_is_zero(const gs_poly *a)
+{
+    return a->length == 0;
+}
+
+int gs_poly_is_one(const gs_poly *a, const gs_polyctx *ctx)
+{
+    return a->length == 1 && exps_are_zero(a->exps, ctx->nwords)
+        && gs_int_is_one(&a->coeffs[0]);
+}
+
+int gs_poly_is_const(const gs_poly *a, const gs_polyctx *ctx)
+{
+    return a->length == 0
+        || (a->length == 1 && exps_are_zero(a->exps, ctx->nwords));
+}
+
+int gs_poly_equal(const gs_poly *a, const gs_poly *b, const gs_polyctx *ctx)
+{
+    size_t i;
+    if (a->length != b->length)
+        return 0;
+    if (a->length == 0)
+        return 1;
+    if (memcmp(a->exps, b->exps, a->length * (size_t)ctx->nwords * 8) != 0)
+        return 0;
+    for (i = 0; i < a->length; i++)
+        if (!gs_int_equal(&a->coeffs[i], &b->coeffs[i]))
+            return 0;
+    return 1;
+}
+
+/* splitmix64's finaliser (Steele, Lea and Flood, OOPSLA 2014) */
+static uint64_t mix64(uint64_t x)
+{
+    x = (x ^ (x >> 30)) * UINT64_C(0xbf58476d1ce4e5b9);
+    x = (x ^ (x >> 27)) * UINT64_C(0x94d049bb133111eb);
+    return x ^ (x >> 31);
+}
+
+uint64_t gs_poly_hash(const gs_poly *a, const gs_polyctx *ctx)
+{
+    uint64_t h = mix64(a->length + UINT64_C(0x9e3779b97f4a7c15));
+    size_t i, nw = (size_t)ctx->nwords, w;
+    for (i = 0; i < a->length; i++) {
+        for (w = 0; w < nw; w++)
+            h = mix64(h ^ a->exps[i * nw + w]);
+        h = mix64(h ^ gs_int_hash(&a->coeffs[i]));
+    }
+    return h;
+}
+
+int gs_poly_sgn(const gs_poly *a)
+{
+    return a->length == 0 ? 0 : gs_int_sgn(&a->coeffs[0]);
+}
+
+void gs_poly_neg(gs_poly *r, const gs_poly *a, const gs_polyctx *ctx)
+{
+    size_t i;
+    gs_poly_set(r, a, ctx);
+    for (i = 0; i < r->length; i++)
+        gs_int_neg(&r->coeffs[i], &r->coeffs[i]);
+}
+
+/* Copy or, when the source is being overwritten anyway, move term i of a
+   onto the end of t, negated if neg. */
+static void take_term(gs_poly *t, gs_poly *a, size_t i, int steal, int neg,
+                      const gs_polyctx *ctx)
+{
+    gs_int *c = append_term(t, term_exps(a, i, ctx), ctx);
+    if (steal)
+        gs_int_swap(c, &a->coeffs[i]);
+    else
+        gs_int_set(c, &a->coeffs[i]);
+    if (neg)
+        gs_int_neg(c, c);
+}
+
+/* r = a + b or a - b: one merge of the two sorted term lists. */
+static void add_sub(gs_poly *r, const gs_poly *a, const gs_poly *b, int sub,
+                    const gs_polyctx *ctx)
+{
+    gs_poly t;
+    size_t i = 0, j = 0;
+    int sa = (r == a && r != b), sb = (r == b && r != a);
+    gs_poly *ma = (gs_poly *)a, *mb = (gs_poly *)b;  /* moved from only
+                                                        when aliased to r */
+    gs_poly_init(&t);
+    gs_poly_fit(&t, a->length + b->length, ctx);
+    while (i < a->length && j < b->length) {
+        int c = exps_cmp(term_exps(a, i, ctx), term_exps(b, j, ctx),
+                         ctx->nwords);
+        if (c > 0) {
+            take_term(&t, ma, i++, sa, 0, ctx);
+        } else if (c < 0) {
+            take_term(&t, mb, j++, sb, sub, ctx);
+        } else {
+            gs_int *s = append_term(&t, term_exps(a, i, ctx), ctx);
+            if (sub)
+                gs_int_sub(s, &a->coeffs[i], &b->coeffs[j]);
+            else
+                gs_int_add(s, &a->coeffs[i], &b->coeffs[j]);
+            drop_last_if_zero(&t);
+            i++;
+            j++;
+        }
+    }
+    while (i < a->length)
+        take_term(&t, ma, i++, sa, 0, ctx);
+    while (j < b->length)
+        take_term(&t, mb, j++, sb, sub, ctx);
+    gs_poly_swap(r, &t);
+    gs_poly_clear(&t);
+}
+
+void gs_poly_add(gs_poly *r, const gs_poly *a, const gs_poly *b,
+                 const gs_polyctx *ctx)
+{
+    add_sub(r, a, b, 0, ctx);
+}
+
+void gs_poly_sub(gs_poly *r, const gs_poly *a, const gs_poly *b,
+                 const gs_polyctx *ctx)
+{
+    add_sub(r, a, b, 1, ctx);
+}
+
+void gs_poly_mul_int(gs_poly *r, const gs_poly *a, const gs_int *c,
+                     const gs_polyctx *ctx)
+{
+    gs_int t;
+    size_t i;
+    if (gs_int_is_zero(c)) {
+        gs_poly_zero(r);
+        return;
+    }
+    gs_int_init(&t);
+    gs_int_set(&t, c);         /* c may be a coefficient of r or a */
+    gs_poly_set(r, a, ctx);
+    if (!gs_int_is_one(&t))
+        for (i = 0; i < r->length; i++)
+            gs_int_mul(&r->coeffs[i], &r->coeffs[i], &t);
+    gs_int_clear(&t);
+}
+
+void gs_poly_mul_si(gs_poly *r, const gs_poly *a, int64_t c,
+                    const gs_polyctx *ctx)
+{
+    size_t i;
+    if (c == 0) {
+        gs_poly_zero(r);
+        return;
+    }
+    gs_poly_set(r, a, ctx);
+    if (c != 1)
+        for (i = 0; i < r->length; i++)
+            gs_int_mul_si(&r->coeffs[i], &r->coeffs[i], c);
+}
+
+void gs_poly_mul_monomial(gs_poly *r, const gs_poly *a, const uint64_t *exps,
+                          const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords, w;
+    uint64_t *m = gs_malloc(nw * 8);
+    memcpy(m, exps, nw * 8);   /* exps may point into a or r */
+    gs_poly_set(r, a, ctx);
+    for (i = 0; i < r->length; i++)
+        for (w = 0; w < nw; w++) {
+            uint64_t s = r->exps[i * nw + w] + m[w];
+            assert((s & GUARD) == 0);   /* precondition: no overflow */
+            r->exps[i * nw + w] = s;
+        }
+    free(m);
+}
+
+int gs_poly_div_monomial(gs_poly *r, const gs_poly *a, const uint64_t *exps,
+                         const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords, w;
+    uint64_t *m = gs_malloc(nw * 8);
+    memcpy(m, exps, nw * 8);
+    for (i = 0; i < a->length; i++)
+        if (!exps_divides(m, term_exps(a, i, ctx), ctx->nwords)) {
+            free(m);
+            gs_poly_zero(r);
+            return GS_EINEXACT;
+        }
+    gs_poly_set(r, a, ctx);
+    for (i = 0; i < r->length; i++)
+        for (w = 0; w < nw; w++)
+            r->exps[i * nw + w] -= m[w];
+    free(m);
+    return GS_OK;
+}
+
+int gs_poly_divexact_int(gs_poly *q, const gs_poly *a, const gs_int *c,
+                         const gs_polyctx *ctx)
+{
+    gs_poly t;
+    size_t i;
+    if (gs_int_is_zero(c)) {
+        gs_poly_zero(q);
+        return GS_EDIVZERO;
+    }
+    gs_poly_init(&t);
+    gs_poly_fit(&t, a->length, ctx);
+    for (i = 0; i < a->length; i++) {
+        gs_int *s = append_term(&t, term_exps(a, i, ctx), ctx);
+        if (gs_int_divexact(s, &a->coeffs[i], c) != GS_OK) {
+            gs_poly_clear(&t);
+            gs_poly_zero(q);
+            return GS_EINEXACT;
+        }
+    }
+    gs_poly_swap(q, &t);
+    gs_poly_clear(&t);
+    return GS_OK;
+}
+
+void gs_poly_content(gs_int *c, const gs_poly *a)
+{
+    gs_int g;
+    size_t i;
+    gs_int_init(&g);
+    for (i = 0; i < a->length && !gs_int_is_one(&g); i++)
+        gs_int_gcd(&g, &g, &a->coeffs[i]);
+    if (a->length > 0 && gs_int_sgn(&a->coeffs[0]) < 0)
+        gs_int_neg(&g, &g);
+    gs_int_swap(c, &g);
+    gs_int_clear(&g);
+}
+
+void gs_poly_primitive(gs_poly *r, const gs_poly *a, const gs_polyctx *ctx)
+{
+    gs_int c;
+    gs_int_init(&c);
+    gs_poly_content(&c, a);
+    if (gs_int_is_zero(&c))
+        gs_poly_zero(r);
+    else if (gs_int_is_one(&c))
+        gs_poly_set(r, a, ctx);
+    else
+        gs_poly_divexact_int(r, a, &c, ctx);   /* exact by construction */
+    gs_int_clear(&c);
+}
+
+void gs_poly_monomial_content(uint64_t *exps, const gs_poly *a,
+                              const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords, w;
+    if (a->length == 0) {
+        memset(exps, 0, nw * 8);
+        return;
+    }
+    memcpy(exps, a->exps, nw * 8);
+    for (i = 1; i < a->length; i++)
+        for (w = 0; w < nw; w++)
+            exps[w] = field_min(exps[w], a->exps[i * nw + w]);
+}
+
+void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords, w;
+    uint64_t *m = gs_calloc(nw, 8);
+    int v;
+    for (i = 0; i < a->length; i++)
+        for (w = 0; w < nw; w++)
+            m[w] = field_max(m[w], a->exps[i * nw + w]);
+    for (v = 0; v < ctx->nvars; v++)
+        degs[v] = get_exp(m, v);
+    free(m);
+}
+
+long gs_poly_degree(const gs_poly *a, int var, const gs_polyctx *ctx)
+{
+    size_t i;
+    unsigned d = 0;
+    if (a->length == 0)
+        return -1;
+    if (var == 0)      /* lex order: the first term has the top degree */
+        return (long)get_exp(a->exps, 0);
+    for (i = 0; i < a->length; i++) {
+        unsigned e = get_exp(term_exps(a, i, ctx), var);
+        if (e > d)
+            d = e;
+    }
+    return (long)d;
+}
+
+long gs_poly_lowdegree(const gs_poly *a, int var, const gs_polyctx *ctx)
+{
+    size_t i;
+    unsigned d;
+    if (a->length == 0)
+        return -1;
+    d = GS_POLY_MAX_EXP;
+    for (i = 0; i < a->length && d > 0; i++) {
+        unsigned e = get_exp(term_exps(a, i, ctx), var);
+        if (e < d)
+            d = e;
+    }
+    return (long)d;
+}
+
+static long exps_total(const uint64_t *e, int nw)
+{
+    long t = 0;
+    int w, f;
+    for (w = 0; w < nw; w++)
+        for (f = 0; f < 4; f++)
+            t += (long)((e[w] >> (16 * f)) & 0xFFFFu);
+    return t;
+}
+
+long gs_poly_total_degree(const gs_poly *a, const gs_polyctx *ctx)
+{
+    size_t i;
+    long d = -1;
+    for (i = 0; i < a->length; i++) {
+        long t = exps_total(term_exps(a, i, ctx), ctx->nwords);
+        if (t > d)
+            d = t;
+    }
+    return d;
+}
+
+void gs_poly_used_vars(unsigned char *used, const gs_poly *a,
+                       const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords, w;
+    uint64_t *m = gs_calloc(nw, 8);
+    int v;
+    for (i = 0; i < a->length; i++)
+        for (w = 0; w < nw; w++)
+            m[w] |= a->exps[i * nw + w];
+    for (v = 0; v < ctx->nvars; v++)
+        used[v] = get_exp(m, v) != 0;
+    free(m);
+}
+
+/* Terms with equal exponent of var keep their relative order when that
+   exponent is cleared (lex order ignores an equal field), so each
+   coefficient comes out canonical without sorting. */
+void gs_poly_coeff_var(gs_poly *r, const gs_poly *a, int var, unsigned k,
+                       const gs_polyctx *ctx)
+{
+    gs_poly t;
+    size_t i;
+    int w = var / GS_POLY_VARS_PER_WORD;
+    uint64_t clear = ~((uint64_t)0xFFFFu << field_shift(var));
+    gs_poly_init(&t);
+    for (i = 0; i < a->length; i++) {
+        const uint64_t *e = term_exps(a, i, ctx);
+        if (get_exp(e, var) == k) {
+            gs_int_set(append_term(&t, e, ctx), &a->coeffs[i]);
+            t.exps[(t.length - 1) * (size_t)ctx->nwords + (size_t)w] &= clear;
+        }
+    }
+    gs_poly_swap(r, &t);
+    gs_poly_clear(&t);
+}
+
+void gs_poly_coeffs_var(gs_poly *out, size_t n, const gs_poly *a, int var,
+                        const gs_polyctx *ctx)
+{
+    size_t i, k, nw = (size_t)ctx->nwords;
+    size_t *count = gs_calloc(n + 1, sizeof *count);
+    int w = var / GS_POLY_VARS_PER_WORD;
+    uint64_t clear = ~((uint64_t)0xFFFFu << field_shift(var));
+    for (i = 0; i < a->length; i++) {
+        k = get_exp(term_exps(a, i, ctx), var);
+        assert(k < n);
+        count[k]++;
+    }
+    for (k = 0; k < n; k++) {
+        gs_poly_zero(&out[k]);
+        gs_poly_fit(&out[k], count[k], ctx);
+    }
+    for (i = 0; i < a->length; i++) {
+        const uint64_t *e = term_exps(a, i, ctx);
+        gs_poly *c = &out[get_exp(e, var)];
+        gs_int_set(append_term(c, e, ctx), &a->coeffs[i]);
+        c->exps[(c->length - 1) * nw + (size_t)w] &= clear;
+    }
+    free(count);
+}
+
+/* Subtracting one from the exponent of var in every term that has it is
+   the same shift for all of them, so the order is kept. */
+void gs_poly_derivative(gs_poly *r, const gs_poly *a, int var,
+                        const gs_polyctx *ctx)
+{
+    gs_poly t;
+    size_t i, nw = (size_t)ctx->nwords;
+    uint64_t one = (uint64_t)1 << field_shift(var);
+    gs_poly_init(&t);
+    for (i = 0; i < a->length; i++) {
+        const uint64_t *e = term_exps(a, i, ctx);
+        unsigned k = get_exp(e, var);
+        if (k > 0) {
+            gs_int *c = append_term(&t, e, ctx);
+            gs_int_mul_si(c, &a->coeffs[i], (int64_t)k);
+            t.exps[(t.length - 1) * nw + (size_t)var / 4] -= one;
+        }
+    }
+    gs_poly_swap(r, &t);
+    gs_poly_clear(&t);
+}
+
+/* c[k] = coefficient of x_var^k in a for k = 0 .. n (n = degree in var);
+   a new array of n + 1 initialised polynomials. */
+static gs_poly *split_var(long *n, const gs_poly *a, int var,
+                          const gs_polyctx *ctx)
+{
+    long d = gs_poly_degree(a, var, ctx), k;
+    gs_poly *c = gs_malloc((size_t)(d + 1 > 0 ? d + 1 : 1) * sizeof *c);
+    size_t i;
+    int w = var / GS_POLY_VARS_PER_WORD;
+    uint64_t clear = ~((uint64_t)0xFFFFu << field_shift(var));
+    for (k = 0; k <= d; k++)
+        gs_poly_init(&c[k]);
+    for (i = 0; i < a->length; i++) {
+        const uint64_t *e = term_exps(a, i, ctx);
+        gs_poly *ck = &c[get_exp(e, var)];
+        gs_int_set(append_term(ck, e, ctx), &a->coeffs[i]);
+        ck->exps[(ck->length - 1) * (size_t)ctx->nwords + (size_t)w] &= clear;
+    }
+    *n = d;
+    return c;
+}
+
+static void free_split(gs_poly *c, long n)
+{
+    long k;
+    for (k = 0; k <= n; k++)
+        gs_poly_clear(&c[k]);
+    free(c);
+}
+
+/* Horner's rule in x_var: r = (..(c_n b + c_{n-1}) b + ..) b + c_0. */
+void gs_poly_subst(gs_poly *r, const gs_poly *a, int var, const gs_poly *b,
+                   const gs_polyctx *ctx)
+{
+    long n, k;
+    gs_poly *c, t;
+    assert(r != b);
+    if (gs_poly_degree(a, var, ctx) <= 0) {
+        gs_poly_set(r, a, ctx);
+        return;
+    }
+    c = split_var(&n, a, var, ctx);
+    gs_poly_init(&t);
+    gs_poly_swap(&t, &c[n]);
+    for (k = n - 1; k >= 0; k--) {
+        gs_poly_mul(&t, &t, b, ctx);
+        gs_poly_add(&t, &t, &c[k], ctx);
+    }
+    gs_poly_swap(r, &t);
+    gs_poly_clear(&t);
+    free_split(c, n);
+}
+
+/* r = sum c_k p^k q^(n-k) by Horner's rule: r_n = c_n,
+   r_k = r_{k+1} p + c_k q^(n-k); scale = q^n. */
+void gs_poly_subst_rat(gs_poly *r, gs_int *scale, const gs_poly *a, int var,
+                       const gs_rat *v, const gs_polyctx *ctx)
+{
+    long n, k;
+    gs_poly *c, t, u;
+    gs_int qk;
+    c = split_var(&n, a, var, ctx);
+    gs_poly_init(&t);
+    gs_poly_init(&u);
+    gs_int_init(&qk);
+    gs_int_set_si(&qk, 1);
+    if (n >= 0)
+        gs_poly_swap(&t, &c[n]);
+    for (k = n - 1; k >= 0; k--) {
+        gs_int_mul(&qk, &qk, &v->den);
+        gs_poly_mul_int(&t, &t, &v->num, ctx);
+        gs_poly_mul_int(&u, &c[k], &qk, ctx);
+        gs_poly_add(&t, &t, &u, ctx);
+    }
+    gs_poly_swap(r, &t);
+    gs_int_swap(scale, &qk);
+    gs_int_clear(&qk);
+    gs_poly_clear(&u);
+    gs_poly_clear(&t);
+    free_split(c, n);
+}
+
+/* Only the extreme coefficients in x_var decide the limit of n/d: the
+   leading ones as x -> infinity, the trailing ones as x -> 0. */
+int gs_poly_limit_ratio(gs_poly *rn, gs_poly *rd, const gs_poly *n,
+                        const gs_poly *d, int var, int to_inf,
+                        const gs_polyctx *ctx)
+{
+    long dn, dd;
+    gs_poly tn, td;
+    if (gs_poly_is_zero(d))
+        return GS_EDIVZERO;
+    if (gs_poly_is_zero(n)) {
+        gs_poly_zero(rn);
+        gs_poly_set_si(rd, 1, ctx);
+        return GS_OK;
+    }
+    dn = to_inf ? gs_poly_degree(n, var, ctx) : gs_poly_lowdegree(n, var, ctx);
+    dd = to_inf ? gs_poly_degree(d, var, ctx) : gs_poly_lowdegree(d, var, ctx);
+    if (to_inf ? dn > dd : dn < dd)
+        return GS_ERANGE;
+    if (dn != dd) {
+        gs_poly_zero(rn);
+        gs_poly_set_si(rd, 1, ctx);
+        return GS_OK;
+    }
+    gs_poly_init(&tn);
+    gs_poly_init(&td);
+    gs_poly_coeff_var(&tn, n, var, (unsigned)dn, ctx);
+    gs_poly_coeff_var(&td, d, var, (unsigned)dd, ctx);
+    gs_poly_swap(rn, &tn);
+    gs_poly_swap(rd, &td);
+    gs_poly_clear(&tn);
+    gs_poly_clear(&td);
+    return GS_OK;
+}
+
+/* Evaluation: a table of powers vals[v]^k for k <= deg_v (each by one
+   more multiplication), then a plain sum of coefficient times monomial.
+   The four precisions share this body. */
+#define EVAL_BODY(T, GETC)                                                \
+    unsigned *deg = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *deg);    \
+    size_t *off = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *off);      \
+    size_t i, tot = 0;                                                    \
+    T *pw, sum = 0;                                                       \
+    int v;                                                                \
+    gs_poly_degrees(deg, a, ctx);                                         \
+    for (v = 0; v < ctx->nvars; v++) {                                    \
+        off[v] = tot;                                                     \
+        tot += (size_t)deg[v] + 1;                                        \
+    }                                                                     \
+    pw = gs_malloc((tot + 1) * sizeof *pw);                               \
+    for (v = 0; v < ctx->nvars; v++) {                                    \
+        unsigned k;                                                       \
+        pw[off[v]] = 1;                                                   \
+        for (k = 1; k <= deg[v]; k++)                                     \
+            pw[off[v] + k] = pw[off[v] + k - 1] * vals[v];                \
+    }                                                                     \
+    for (i = 0; i < a->length; i++) {                                     \
+        const uint64_t *e = term_exps(a, i, ctx);                         \
+        T m = GETC(&a->coeffs[i]);                                        \
+        for (v = 0; v < ctx->nvars; v++) {                                \
+            unsigned k = get_exp(e, v);                                   \
+            if (k != 0)                                                   \
+                m *= pw[off[v] + k];                                      \
+        }                                                                 \
+        sum += m;                                                         \
+    }                                                                     \
+    free(pw);                                                             \
+    free(off);                                                            \
+    free(deg);                                                            \
+    return sum
+
+double gs_poly_eval_d(const gs_poly *a, const double *vals,
+                      const gs_polyctx *ctx)
+{
+    EVAL_BODY(double, gs_int_get_d);
+}
+
+long double gs_poly_eval_ld(const gs_poly *a, const long double *vals,
+                            const gs_polyctx *ctx)
+{
+    EVAL_BODY(long double, gs_int_get_ld);
+}
+
+double complex gs_poly_eval_c(const gs_poly *a, const double complex *vals,
+                              const gs_polyctx *ctx)
+{
+    EVAL_BODY(double complex, gs_int_get_d);
+}
+
+long double complex gs_poly_eval_lc(const gs_poly *a,
+                                    const long double complex *vals,
+                                    const gs_polyctx *ctx)
+{
+    EVAL_BODY(long double complex, gs_int_get_ld);
+}

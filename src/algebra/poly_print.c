@@ -1,0 +1,372 @@
+/* poly_print.c - polynomials as plain text, and back. See LICENSE.
+ *
+ * The text is what people and general-purpose algebra systems type:
+ * "3*x^2*y - 2*z + 1".  A reciprocal symbol "1/R" prints in parentheses,
+ * "(1/R)", so that the text stays a product of powers.
+ */
+#include "algebra/poly.h"
+
+#include "gainsmith.h"
+#include "base/mem.h"
+
+#include <assert.h>
+#include <ctype.h>
+#include <stdlib.h>
+#include <string.h>
+
+typedef struct strbuf {
+    char *s;
+    size_t n, alloc;
+} strbuf;
+
+static void sb_add(strbuf *b, const char *t, size_t n)
+{
+    if (b->n + n + 1 > b->alloc) {
+        b->alloc = 2 * (b->n + n + 1);
+        b->s = gs_realloc(b->s, b->alloc);
+    }
+    memcpy(b->s + b->n, t, n);
+    b->n += n;
+    b->s[b->n] = '\0';
+}
+
+static void sb_puts(strbuf *b, const char *t)
+{
+    sb_add(b, t, strlen(t));
+}
+
+static unsigned get_exp(const uint64_t *e, int var)
+{
+    return (unsigned)(e[var / GS_POLY_VARS_PER_WORD]
+                      >> (48 - 16 * (var % GS_POLY_VARS_PER_WORD)))
+        & 0xFFFFu;
+}
+
+static void put_monomial(strbuf *b, const uint64_t *e, const gs_polyctx *ctx)
+{
+    int v, first = 1;
+    char num[16];
+    for (v = 0; v < ctx->nvars; v++) {
+        unsigned k = get_exp(e, v);
+        const char *name;
+        if (k == 0)
+            continue;
+        if (!first)
+            sb_puts(b, "*");
+        first = 0;
+        name = gs_symtab_name(ctx->syms, v);
+        if (gs_symtab_is_recip(ctx->syms, v)) {
+            sb_puts(b, "(");
+            sb_puts(b, name);
+            sb_puts(b, ")");
+        } else {
+            sb_puts(b, name);
+        }
+        if (k > 1) {
+            snprintf(num, sizeof num, "^%u", k);
+            sb_puts(b, num);
+        }
+    }
+}
+
+static int exps_zero(const uint64_t *e, int nw)
+{
+    int w;
+    for (w = 0; w < nw; w++)
+        if (e[w] != 0)
+            return 0;
+    return 1;
+}
+
+char *gs_poly_get_str(const gs_poly *a, const gs_polyctx *ctx)
+{
+    strbuf b = { NULL, 0, 0 };
+    size_t i;
+    sb_puts(&b, a->length == 0 ? "0" : "");
+    for (i = 0; i < a->length; i++) {
+        const uint64_t *e = a->exps + i * (size_t)ctx->nwords;
+        const gs_int *c = &a->coeffs[i];
+        int neg = gs_int_sgn(c) < 0, mono = !exps_zero(e, ctx->nwords);
+        if (i == 0)
+            sb_puts(&b, neg ? "-" : "");
+        else
+            sb_puts(&b, neg ? " - " : " + ");
+        if (!mono || !(gs_int_is_one(c) || gs_int_cmp_si(c, -1) == 0)) {
+            char *digits = gs_int_get_str(c);
+            sb_puts(&b, digits + (digits[0] == '-'));
+            free(digits);
+            if (mono)
+                sb_puts(&b, "*");
+        }
+        if (mono)
+            put_monomial(&b, e, ctx);
+    }
+    return b.s;
+}
+
+void gs_poly_print(FILE *out, const gs_poly *a, const gs_polyctx *ctx)
+{
+    char *s = gs_poly_get_str(a, ctx);
+    fputs(s, out);
+    free(s);
+}
+
+/* Recursive descent over
+     expr   = term { ("+" | "-") term }
+     term   = factor { "*" factor }
+     factor = ("+" | "-") factor | primary [ ("^" | "**") power ]
+     power  = digits | "(" digits ")"
+     primary = digits | name | "(" "1/" name ")" | "(" expr ")"
+   building the polynomial as it goes. */
+typedef struct parser {
+    const char *s;
+    const gs_polyctx *ctx;
+    unsigned *da, *db;      /* scratch degree vectors */
+    int depth;              /* nesting, bounded to keep the stack small */
+} parser;
+
+#define MAX_NESTING 200
+
+static void skip_space(parser *p)
+{
+    while (*p->s == ' ' || *p->s == '\t' || *p->s == '\n' || *p->s == '\r')
+        p->s++;
+}
+
+static int accept(parser *p, const char *tok)
+{
+    size_t n = strlen(tok);
+    skip_space(p);
+    if (strncmp(p->s, tok, n) != 0)
+        return 0;
+    p->s += n;
+    return 1;
+}
+
+static size_t name_len(const char *s)
+{
+    size_t n = 0;
+    if (!(isalpha((unsigned char)s[0]) || s[0] == '_'))
+        return 0;
+    while (isalnum((unsigned char)s[n]) || s[n] == '_')
+        n++;
+    return n;
+}
+
+static int parse_expr(parser *p, gs_poly *r);
+
+static int parse_number(parser *p, gs_poly *r)
+{
+    size_t n = 0;
+    char *digits;
+    gs_int c;
+    int rc;
+    while (isdigit((unsigned char)p->s[n]))
+        n++;
+    digits = gs_malloc(n + 1);      /* not strndup: it measures the rest */
+    memcpy(digits, p->s, n);
+    digits[n] = '\0';
+    p->s += n;
+    gs_int_init(&c);
+    rc = gs_int_set_str(&c, digits);
+    if (rc == GS_OK)
+        gs_poly_set_int(r, &c, p->ctx);
+    gs_int_clear(&c);
+    free(digits);
+    return rc;
+}
+
+/* a symbol of the context named by the n bytes at s (prefixed by pre) */
+static int lookup(parser *p, const char *pre, const char *s, size_t n,
+                  gs_poly *r)
+{
+    char *name = gs_asprintf("%s%.*s", pre, (int)n, s);
+    int id = gs_symtab_find(p->ctx->syms, name);
+    free(name);
+    if (id < 0 || id >= p->ctx->nvars)
+        return GS_EINVAL;
+    gs_poly_set_var(r, id, 1, p->ctx);
+    return GS_OK;
+}
+
+static int parse_primary(parser *p, gs_poly *r)
+{
+    size_t n;
+    int rc;
+    skip_space(p);
+    if (isdigit((unsigned char)*p->s))
+        return parse_number(p, r);
+    n = name_len(p->s);
+    if (n > 0) {
+        rc = lookup(p, "", p->s, n, r);
+        p->s += n;
+        return rc;
+    }
+    if (!accept(p, "(") || p->depth >= MAX_NESTING)
+        return GS_ESYNTAX;
+    skip_space(p);
+    if (strncmp(p->s, "1/", 2) == 0 && (n = name_len(p->s + 2)) > 0) {
+        rc = lookup(p, "1/", p->s + 2, n, r);
+        p->s += 2 + n;
+    } else {
+        p->depth++;
+        rc = parse_expr(p, r);
+        p->depth--;
+    }
+    if (rc == GS_OK && !accept(p, ")"))
+        rc = GS_ESYNTAX;
+    return rc;
+}
+
+static int parse_power(parser *p, unsigned long *e)
+{
+    int paren = accept(p, "(");
+    unsigned long v = 0;
+    skip_space(p);
+    if (!isdigit((unsigned char)*p->s))
+        return GS_ESYNTAX;
+    while (isdigit((unsigned char)*p->s)) {
+        v = v * 10 + (unsigned long)(*p->s++ - '0');
+        if (v > GS_POLY_MAX_EXP)
+            return GS_ERANGE;
+    }
+    if (paren && !accept(p, ")"))
+        return GS_ESYNTAX;
+    *e = v;
+    return GS_OK;
+}
+
+/* GS_ERANGE unless every degree of a (times k) plus b stays in range */
+static int degrees_fit(parser *p, const gs_poly *a, unsigned long k,
+                       const gs_poly *b)
+{
+    int v;
+    gs_poly_degrees(p->da, a, p->ctx);
+    if (b != NULL)
+        gs_poly_degrees(p->db, b, p->ctx);
+    for (v = 0; v < p->ctx->nvars; v++) {
+        unsigned long d = (unsigned long)p->da[v] * k
+            + (b != NULL ? p->db[v] : 0);
+        if (d > GS_POLY_MAX_EXP)
+            return GS_ERANGE;
+    }
+    return GS_OK;
+}
+
+static int parse_factor(parser *p, gs_poly *r)
+{
+    unsigned long e;
+    int rc;
+    if (accept(p, "-") || accept(p, "+")) {
+        int neg = p->s[-1] == '-';
+        if (p->depth >= MAX_NESTING)
+            return GS_ESYNTAX;
+        p->depth++;
+        rc = parse_factor(p, r);
+        p->depth--;
+        if (neg)
+            gs_poly_neg(r, r, p->ctx);
+        return rc;
+    }
+    rc = parse_primary(p, r);
+    if (rc != GS_OK)
+        return rc;
+    if (accept(p, "**") || accept(p, "^")) {
+        rc = parse_power(p, &e);
+        if (rc == GS_OK)
+            rc = degrees_fit(p, r, e, NULL);
+        if (rc == GS_OK)
+            gs_poly_pow_ui(r, r, e, p->ctx);
+    }
+    return rc;
+}
+
+static int parse_term(parser *p, gs_poly *r)
+{
+    gs_poly f;
+    int rc = parse_factor(p, r);
+    gs_poly_init(&f);
+    while (rc == GS_OK) {
+        skip_space(p);
+        if (p->s[0] != '*' || p->s[1] == '*')
+            break;
+        p->s++;
+        rc = parse_factor(p, &f);
+        if (rc == GS_OK)
+            rc = degrees_fit(p, r, 1, &f);
+        if (rc == GS_OK)
+            gs_poly_mul(r, r, &f, p->ctx);
+    }
+    gs_poly_clear(&f);
+    return rc;
+}
+
+/* Move the terms of t, negated if neg, onto the end of r, unsorted. */
+static void append_terms(gs_poly *r, gs_poly *t, int neg,
+                         const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords;
+    gs_poly_fit(r, r->length + t->length, ctx);
+    memcpy(r->exps + r->length * nw, t->exps, t->length * nw * 8);
+    for (i = 0; i < t->length; i++) {
+        gs_int *c = &r->coeffs[r->length + i];
+        gs_int_init(c);
+        gs_int_swap(c, &t->coeffs[i]);
+        if (neg)
+            gs_int_neg(c, c);
+    }
+    r->length += t->length;
+    gs_poly_zero(t);
+}
+
+/* A long sum is collected unsorted and put in order once at the end:
+   adding term by term would take quadratic time. */
+static int parse_expr(parser *p, gs_poly *r)
+{
+    gs_poly t, sum;
+    int rc, neg = 0;
+    gs_poly_init(&t);
+    gs_poly_init(&sum);
+    for (;;) {
+        rc = parse_term(p, &t);
+        if (rc != GS_OK)
+            break;
+        append_terms(&sum, &t, neg, p->ctx);
+        if (accept(p, "+"))
+            neg = 0;
+        else if (accept(p, "-"))
+            neg = 1;
+        else
+            break;
+    }
+    if (rc == GS_OK) {
+        gs_poly_canonicalise(&sum, p->ctx);
+        gs_poly_swap(r, &sum);
+    }
+    gs_poly_clear(&t);
+    gs_poly_clear(&sum);
+    return rc;
+}
+
+int gs_poly_set_str(gs_poly *r, const char *s, const gs_polyctx *ctx)
+{
+    parser p;
+    gs_poly t;
+    int rc;
+    p.s = s;
+    p.ctx = ctx;
+    p.depth = 0;
+    p.da = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *p.da);
+    p.db = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *p.db);
+    gs_poly_init(&t);
+    rc = parse_expr(&p, &t);
+    skip_space(&p);
+    if (rc == GS_OK && *p.s != '\0')
+        rc = GS_ESYNTAX;
+    if (rc == GS_OK)
+        gs_poly_swap(r, &t);
+    gs_poly_clear(&t);
+    free(p.da);
+    free(p.db);
+    return rc;
+}

@@ -1,0 +1,61 @@
+/* derive.h - circuit output -> transfer function in lowest terms.
+ * See LICENSE.
+ */
+#ifndef GS_DERIVE_H
+#define GS_DERIVE_H
+
+#include "circuit/circuit.h"
+#include "analysis/elim.h"
+#include "analysis/minors.h"
+#include "analysis/tf.h"
+
+typedef struct gs_limit {
+    int sym;        /* symbol id */
+    int to_inf;     /* 1: sym -> infinity, 0: sym -> 0 */
+} gs_limit;
+
+/* How det A and det M are computed.  Both give the same result; only the
+   work differs.  AUTO expands in minors when the plan is small enough
+   (minors.h) and eliminates otherwise. */
+typedef enum gs_det_method {
+    GS_DET_AUTO,
+    GS_DET_MINORS,
+    GS_DET_BAREISS
+} gs_det_method;
+
+typedef struct gs_derive_opts {
+    gs_det_method method;
+    gs_elim_opts elim;       /* max_terms and progress serve both methods */
+    const gs_limit *limits;  /* applied in order, after reduction */
+    size_t nlimits;
+    int no_gcd;              /* skip the final gcd (for measurements) */
+} gs_derive_opts;
+
+typedef struct gs_derive_stats {
+    int unknowns;            /* size of A */
+    gs_det_method method;    /* the one that ran: MINORS or BAREISS */
+    gs_elim_stats elim;      /* when BAREISS ran */
+    gs_minors_stats minors;  /* when MINORS ran */
+    size_t gcd_terms;        /* terms of the common factor removed */
+} gs_derive_stats;
+
+void gs_derive_opts_default(gs_derive_opts *o);
+
+/* Derive output `out` of c into tf (initialised by the caller with ctx,
+   which must cover c's whole symbol table after gs_mna_intern_symbols).
+   tf gets H = num/den in lowest terms, reciprocal symbols cleared, den's
+   leading term positive, and its name.  Returns GS_OK, GS_ESINGULAR,
+   GS_EBUDGET, GS_EINVAL or GS_ERANGE (a limit is infinite), with a
+   message in d.  stats may be NULL. */
+int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
+              const gs_polyctx *ctx, const gs_derive_opts *o,
+              gs_derive_stats *stats, gs_diag *d);
+
+/* Put num/den in lowest terms in place: reciprocal symbols cleared,
+   common monomial, integer and polynomial factors removed, sign made
+   positive on den's leading term.  gcd_terms (may be NULL) gets the size
+   of the polynomial factor removed. */
+void gs_reduce_ratio(gs_poly *num, gs_poly *den, const gs_symtab *st,
+                     const gs_polyctx *ctx, int use_gcd, size_t *gcd_terms);
+
+#endif

@@ -1,0 +1,362 @@
+/* job.c - one run over a circuit file: parse, derive, bind values.
+ * See LICENSE.
+ */
+#include "analysis/job.h"
+#include "circuit/device.h"
+#include "base/mem.h"
+#include "analysis/mna.h"
+
+#include <stdlib.h>
+#include <string.h>
+
+void gs_job_init(gs_job *j)
+{
+    memset(j, 0, sizeof *j);
+}
+
+static void free_origins(gs_job *j)
+{
+    int i;
+    if (j->origin == NULL)
+        return;
+    for (i = 0; i < gs_symtab_count(j->c->syms); i++)
+        free(j->origin[i]);
+    free(j->origin);
+    j->origin = NULL;
+}
+
+void gs_job_clear(gs_job *j)
+{
+    size_t i;
+    for (i = 0; i < j->ntf; i++)
+        gs_tf_clear(&j->tf[i]);
+    free(j->tf);
+    free(j->out_index);
+    free(j->stats);
+    free_origins(j);
+    free(j->vals);
+    free(j->set);
+    gs_polyctx_free(j->ctx);
+    gs_circuit_free(j->c);
+    gs_job_init(j);
+}
+
+int gs_job_load(gs_job *j, const char *path, gs_diag *d)
+{
+    int rc;
+    j->c = gs_circuit_new();
+    rc = gs_parse_file(j->c, path, d);
+    if (rc != GS_OK)
+        return rc;
+    gs_mna_intern_symbols(j->c);
+    j->ctx = gs_polyctx_new(j->c->syms, gs_symtab_count(j->c->syms));
+    return GS_OK;
+}
+
+/* Parse "v(a)", "v(a, b)" or "i(X)" into p. */
+static int parse_probe(gs_probe *p, const gs_circuit *c, const char *text,
+                       gs_diag *d)
+{
+    char kind, a[128] = "", b[128] = "", close = 0;
+    int n, na, nb;
+    n = sscanf(text, " %c ( %127[^,) ] %c", &kind, a, &close);
+    if (n == 3 && close == ',')
+        n = sscanf(text, " %c ( %127[^,) ] , %127[^) ] %c", &kind, a, b,
+                   &close) == 4 ? 3 : 0;
+    if (n != 3 || close != ')' || (kind != 'v' && kind != 'i')
+        || (kind == 'i' && b[0])) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                    "write v(NODE), v(NODE, NODE) or i(ELEMENT)",
+                    "--out '%s' is not an output quantity", text);
+        return GS_ESYNTAX;
+    }
+    if (kind == 'i') {
+        p->kind = GS_PROBE_I;
+        p->elem = gs_circuit_find_element(c, a);
+        if (p->elem >= 0)
+            return GS_OK;
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                    "--out: the circuit has no element '%s'", a);
+        return GS_EINVAL;
+    }
+    na = gs_circuit_find_node(c, a);
+    nb = b[0] ? gs_circuit_find_node(c, b) : 0;
+    if (na < 0 || nb < 0) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                    "--out: the circuit has no node '%s'", na < 0 ? a : b);
+        return GS_EINVAL;
+    }
+    p->kind = GS_PROBE_V;
+    p->a = na;
+    p->b = nb;
+    p->elem = -1;
+    return GS_OK;
+}
+
+int gs_job_add_transfer(gs_job *j, const char *name, const char *out,
+                        const char *src, gs_diag *d)
+{
+    gs_circuit *c = j->c;
+    gs_output *o;
+    gs_probe p;
+    int in, rc = parse_probe(&p, c, out, d);
+    if (rc != GS_OK)
+        return rc;
+    in = gs_circuit_find_element(c, src);
+    if (in < 0 || (c->elems[in].kind != GS_VSOURCE
+                   && c->elems[in].kind != GS_ISOURCE)) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                    "the input is a vsource or isource of the circuit",
+                    "--in '%s' is not an independent source of the circuit",
+                    src);
+        return GS_EINVAL;
+    }
+    c->outputs = gs_reallocarray(c->outputs, c->noutputs + 1,
+                                 sizeof *c->outputs);
+    o = &c->outputs[c->noutputs++];
+    memset(o, 0, sizeof *o);
+    o->kind = GS_OUT_TRANSFER;
+    o->name = gs_strdup(name);
+    o->out = p;
+    o->in = in;
+    o->a = o->b = -1;
+    return GS_OK;
+}
+
+static int derive_one(gs_job *j, size_t k, const gs_derive_opts *o,
+                      gs_diag *d)
+{
+    gs_tf *tf;
+    j->tf = gs_reallocarray(j->tf, j->ntf + 1, sizeof *j->tf);
+    j->out_index = gs_reallocarray(j->out_index, j->ntf + 1,
+                                   sizeof *j->out_index);
+    j->stats = gs_reallocarray(j->stats, j->ntf + 1, sizeof *j->stats);
+    tf = &j->tf[j->ntf];
+    gs_tf_init(tf, j->ctx, j->c->s_sym);
+    j->out_index[j->ntf] = k;
+    return gs_derive(tf, j->c, k, j->ctx, o, &j->stats[j->ntf++], d);
+}
+
+int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,
+                  gs_diag *d)
+{
+    size_t k;
+    int rc = GS_OK;
+    if (only) {
+        int idx = gs_circuit_find_output(j->c, only);
+        if (idx < 0) {
+            gs_diag_add(d, GS_SEV_ERROR, j->c->file, 0, 0, NULL,
+                        "no transfer or impedance named '%s'", only);
+            return GS_EINVAL;
+        }
+        return derive_one(j, (size_t)idx, o, d);
+    }
+    if (j->c->noutputs == 0) {
+        gs_diag_add(d, GS_SEV_ERROR, j->c->file, 0, 0,
+                    "add a line such as 'transfer Av = v(out) / vin'",
+                    "the file asks for no transfer or impedance");
+        return GS_EINVAL;
+    }
+    for (k = 0; k < j->c->noutputs && rc == GS_OK; k++)
+        rc = derive_one(j, k, o, d);
+    return rc;
+}
+
+/* Replace (or add) the value definition of sym by expr (owned after). */
+static void override_value(gs_circuit *c, int sym, gs_expr *expr)
+{
+    size_t i;
+    for (i = 0; i < c->nvalues; i++) {
+        if (c->values[i].sym == sym) {
+            gs_expr_free(c->values[i].expr);
+            c->values[i].expr = expr;
+            free(c->values[i].origin);
+            c->values[i].origin = gs_strdup("--set");
+            return;
+        }
+    }
+    c->values = gs_reallocarray(c->values, c->nvalues + 1,
+                                sizeof *c->values);
+    c->values[c->nvalues].sym = sym;
+    c->values[c->nvalues].expr = expr;
+    c->values[c->nvalues].origin = gs_strdup("--set");
+    c->values[c->nvalues].line = 0;
+    c->values[c->nvalues].col = 0;
+    c->nvalues++;
+}
+
+static int apply_set(gs_job *j, const char *text, gs_diag *d)
+{
+    const char *eq = strchr(text, '=');
+    char *name;
+    gs_expr *e = NULL;
+    int sym, rc;
+    if (eq == NULL || eq == text) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                    "write it as --set NAME=VALUE, e.g. --set RD=10k",
+                    "--set '%s' is not NAME=VALUE", text);
+        return GS_ESYNTAX;
+    }
+    name = gs_strndup(text, (size_t)(eq - text));
+    sym = gs_symtab_find(j->c->syms, name);
+    if (sym < 0 || sym == j->c->s_sym) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                    "--set %s: the circuit has no symbol '%s'", name, name);
+        free(name);
+        return GS_EINVAL;
+    }
+    free(name);
+    rc = gs_expr_parse_string(&e, j->c, eq + 1, "--set", d);
+    if (rc != GS_OK)
+        return rc;
+    override_value(j->c, sym, e);
+    return GS_OK;
+}
+
+unsigned char *gs_job_used_symbols(const gs_job *j)
+{
+    int nv = j->ctx->nvars, v;
+    unsigned char *used = gs_calloc((size_t)nv, 1);
+    unsigned char *tmp = gs_calloc((size_t)nv, 1);
+    size_t i;
+    for (i = 0; i < j->ntf; i++) {
+        gs_poly_used_vars(tmp, &j->tf[i].num, j->ctx);
+        for (v = 0; v < nv; v++)
+            used[v] |= tmp[v];
+        gs_poly_used_vars(tmp, &j->tf[i].den, j->ctx);
+        for (v = 0; v < nv; v++)
+            used[v] |= tmp[v];
+    }
+    free(tmp);
+    return used;
+}
+
+/* Every symbol of every derived output, other than s, must be bound. */
+static int check_bound(gs_job *j, gs_diag *d)
+{
+    int nv = j->ctx->nvars, v;
+    unsigned char *used = gs_job_used_symbols(j);
+    size_t len = 0, nmissing = 0;
+    char *list = gs_strdup("");
+    for (v = 0; v < nv; v++) {
+        const char *name = gs_symtab_name(j->c->syms, v);
+        if (!used[v] || v == j->c->s_sym || j->set[v])
+            continue;
+        list = gs_realloc(list, len + strlen(name) + 3);
+        len += (size_t)sprintf(list + len, "%s%s", nmissing ? ", " : "",
+                               name);
+        nmissing++;
+    }
+    if (nmissing)
+        gs_diag_add(d, GS_SEV_ERROR, j->c->file, 0, 0,
+                    "add 'value NAME = ...' lines to the file, or --set "
+                    "NAME=VALUE",
+                    "no value for %s %s", nmissing > 1 ? "symbols" : "symbol",
+                    list);
+    free(list);
+    free(used);
+    return nmissing ? GS_EUNBOUND : GS_OK;
+}
+
+/* The value line that binds sym, or NULL. */
+static const gs_valuedef *value_line(const gs_circuit *c, int sym)
+{
+    size_t i;
+    for (i = 0; i < c->nvalues; i++)
+        if (c->values[i].sym == sym)
+            return &c->values[i];
+    return NULL;
+}
+
+/* Bias lines set device symbols; a --set override wins over them, and a
+   value line for the same symbol is a conflict. */
+static int apply_biases(gs_job *j, gs_diag *d)
+{
+    int n = gs_symtab_count(j->c->syms), v, rc;
+    long double *bv = gs_calloc((size_t)n, sizeof *bv);
+    unsigned char *bs = gs_calloc((size_t)n, 1);
+    char **bo = gs_calloc((size_t)n, sizeof *bo);
+    rc = gs_device_apply_biases(j->c, bv, bs, bo, d);
+    for (v = 0; v < n && rc == GS_OK; v++) {
+        const gs_valuedef *vl = value_line(j->c, v);
+        if (!bs[v])
+            continue;
+        if (vl && vl->origin && strcmp(vl->origin, "--set") == 0)
+            continue;
+        if (vl) {
+            gs_diag_add(d, GS_SEV_ERROR, j->c->file, vl->line, vl->col,
+                        "remove one of the two", "%s has a value line and "
+                        "is also set by %s", gs_symtab_name(j->c->syms, v),
+                        bo[v]);
+            rc = GS_EINVAL;
+            break;
+        }
+        j->vals[v] = bv[v];
+        j->set[v] = 1;
+        j->origin[v] = bo[v];
+        bo[v] = NULL;
+    }
+    for (v = 0; v < n; v++)
+        free(bo[v]);
+    free(bo);
+    free(bs);
+    free(bv);
+    return rc;
+}
+
+int gs_job_bind(gs_job *j, char *const *sets, size_t nsets, gs_diag *d)
+{
+    size_t i, n = (size_t)gs_symtab_count(j->c->syms);
+    int rc = GS_OK;
+    for (i = 0; i < nsets && rc == GS_OK; i++)
+        rc = apply_set(j, sets[i], d);
+    if (rc != GS_OK)
+        return rc;
+    free_origins(j);
+    free(j->vals);
+    free(j->set);
+    j->vals = gs_calloc(n, sizeof *j->vals);
+    j->set = gs_calloc(n, 1);
+    j->origin = gs_calloc(n, sizeof *j->origin);
+    for (i = 0; i < j->c->nvalues; i++)
+        if (j->c->values[i].origin)
+            j->origin[j->c->values[i].sym] =
+                gs_strdup(j->c->values[i].origin);
+    rc = gs_circuit_eval_values(j->c, j->vals, j->set, d);
+    if (rc == GS_OK)
+        rc = apply_biases(j, d);
+    if (rc != GS_OK)
+        return rc;
+    return check_bound(j, d);
+}
+
+long double *gs_job_coeffs(const gs_job *j, const gs_poly *p, int *deg)
+{
+    long dg = gs_poly_degree(p, j->c->s_sym, j->ctx);
+    long double *out = gs_calloc((size_t)(dg >= 0 ? dg + 1 : 1),
+                                 sizeof *out);
+    gs_poly cf;
+    long k;
+    gs_poly_init(&cf);
+    for (k = 0; k <= dg; k++) {
+        gs_poly_coeff_var(&cf, p, j->c->s_sym, (unsigned)k, j->ctx);
+        out[k] = gs_poly_eval_ld(&cf, j->vals, j->ctx);
+    }
+    gs_poly_clear(&cf);
+    *deg = (int)dg;
+    return out;
+}
+
+int gs_job_exit_status(int rc)
+{
+    switch (rc) {
+    case GS_OK:
+        return 0;
+    case GS_ESINGULAR:
+    case GS_EBUDGET:
+    case GS_ERANGE:
+        return 1;
+    default:
+        return 2;
+    }
+}

@@ -1,0 +1,458 @@
+/* minors.c - determinants of a bordered MNA matrix by expansion in minors.
+ * See LICENSE.
+ *
+ * The work is split in two.  The plan handles column masks only: level k
+ * holds the column sets S of the minors on rows order[k..n-1] that the
+ * expansion reaches from the top, pruned where the minor is zero by its
+ * structure alone (a remaining row with no entry in S, or a column of S
+ * that no remaining row touches).  The row expanded at each level is
+ * chosen greedily: the one whose expansion leaves the fewest minors at the
+ * next level.  Then the values are computed bottom-up, level n (the empty
+ * minor, 1) to level 0, two levels alive at a time.
+ */
+#include "analysis/minors.h"
+#include "base/mem.h"
+
+#include <stdint.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define NO_MASK UINT64_MAX      /* never a column set: those have <= 63 bits */
+#define NOT_FOUND SIZE_MAX
+
+/* A set of column masks that remembers insertion order, so that plans and
+   results do not depend on hashing. */
+typedef struct maskset {
+    uint64_t *slot_key;     /* cap slots, NO_MASK when free */
+    size_t *slot_pos;       /* position in list */
+    size_t cap;
+    uint64_t *list;
+    size_t count, alloc;
+} maskset;
+
+/* The matrix seen as n rows by n + 1 columns, in one orientation. */
+typedef struct view {
+    int n;
+    const gs_poly **x;      /* x[r * (n + 1) + j] */
+    uint64_t nz[GS_MINORS_MAX_UNKNOWNS];    /* nonzero columns of row r */
+    const gs_poly **top;    /* n + 1 entries of the border */
+} view;
+
+typedef struct plan {
+    int order[GS_MINORS_MAX_UNKNOWNS];
+    maskset lv[GS_MINORS_MAX_UNKNOWNS + 1];
+    size_t products, minors;
+} plan;
+
+static void maskset_init(maskset *s)
+{
+    memset(s, 0, sizeof *s);
+}
+
+static void maskset_clear(maskset *s)
+{
+    free(s->slot_key);
+    free(s->slot_pos);
+    free(s->list);
+    maskset_init(s);
+}
+
+static size_t slot_of(uint64_t key, size_t cap)
+{
+    return (size_t)((key * 0x9E3779B97F4A7C15ull) >> 17) & (cap - 1);
+}
+
+static void maskset_grow(maskset *s)
+{
+    size_t cap = s->cap ? s->cap * 2 : 64, i;
+    free(s->slot_key);
+    free(s->slot_pos);
+    s->cap = cap;
+    s->slot_key = gs_malloc(cap * sizeof *s->slot_key);
+    s->slot_pos = gs_malloc(cap * sizeof *s->slot_pos);
+    for (i = 0; i < cap; i++)
+        s->slot_key[i] = NO_MASK;
+    for (i = 0; i < s->count; i++) {
+        size_t h = slot_of(s->list[i], cap);
+        while (s->slot_key[h] != NO_MASK)
+            h = (h + 1) & (cap - 1);
+        s->slot_key[h] = s->list[i];
+        s->slot_pos[h] = i;
+    }
+}
+
+static size_t maskset_find(const maskset *s, uint64_t key)
+{
+    size_t h;
+    if (s->cap == 0)
+        return NOT_FOUND;
+    for (h = slot_of(key, s->cap); s->slot_key[h] != NO_MASK;
+         h = (h + 1) & (s->cap - 1))
+        if (s->slot_key[h] == key)
+            return s->slot_pos[h];
+    return NOT_FOUND;
+}
+
+static void maskset_add(maskset *s, uint64_t key)
+{
+    size_t h;
+    if (2 * (s->count + 1) > s->cap)
+        maskset_grow(s);
+    for (h = slot_of(key, s->cap); s->slot_key[h] != NO_MASK;
+         h = (h + 1) & (s->cap - 1))
+        if (s->slot_key[h] == key)
+            return;
+    if (s->count == s->alloc) {
+        s->alloc = s->alloc ? 2 * s->alloc : 16;
+        s->list = gs_realloc(s->list, s->alloc * sizeof *s->list);
+    }
+    s->slot_key[h] = key;
+    s->slot_pos[h] = s->count;
+    s->list[s->count++] = key;
+}
+
+static int lowest_bit(uint64_t m)
+{
+    return __builtin_ctzll(m);
+}
+
+/* Can the minor on `rows` (a mask of rows) and columns S be nonzero, by
+   structure?  Each row needs an entry in S, each column of S an entry in
+   one of the rows. */
+static int viable(const view *v, uint64_t rows, uint64_t S)
+{
+    uint64_t reach = 0;
+    for (; rows; rows &= rows - 1) {
+        uint64_t m = v->nz[lowest_bit(rows)] & S;
+        if (m == 0)
+            return 0;
+        reach |= m;
+    }
+    return reach == S;
+}
+
+/* The next level when row r is expanded from `from`, with `rest` the rows
+   left after r.  Returns 1 with *products set; 0 once more than `limit`
+   minors appear; -1 once *work (structure tests, shared by all trials)
+   passes work_cap. */
+static int expand_level(maskset *to, size_t *products, size_t *work,
+                        size_t work_cap, const view *v, const maskset *from,
+                        int r, uint64_t rest, size_t limit)
+{
+    size_t i, prods = 0;
+    for (i = 0; i < from->count; i++) {
+        uint64_t S = from->list[i], cand = S & v->nz[r];
+        for (; cand; cand &= cand - 1) {
+            uint64_t child = S & ~(cand & -cand);
+            if (++*work > work_cap)
+                return -1;
+            if (!viable(v, rest, child))
+                continue;
+            prods++;
+            maskset_add(to, child);
+            if (to->count > limit)
+                return 0;
+        }
+    }
+    *products = prods;
+    return 1;
+}
+
+static void plan_clear(plan *p, int n)
+{
+    int k;
+    for (k = 0; k <= n; k++)
+        maskset_clear(&p->lv[k]);
+}
+
+/* Greedy row order.  Returns GS_OK, or GS_ERANGE when the plan needs
+   more than max_products products or its own search would cost more
+   than a few times that (a matrix too dense to expand; elimination is
+   then tried without much time lost). */
+static int make_plan(plan *p, const view *v, size_t max_products)
+{
+    size_t work = 0, work_cap = max_products ? 8 * max_products : SIZE_MAX;
+    int n = v->n, k, r;
+    uint64_t rows = (1ull << n) - 1;
+    uint64_t full = (1ull << n << 1) - 1;      /* n + 1 <= 64 columns */
+    maskset trial;
+    size_t budget = max_products ? max_products : SIZE_MAX;
+
+    for (k = 0; k <= n; k++)
+        maskset_init(&p->lv[k]);
+    p->products = 0;
+    p->minors = 0;
+    for (r = 0; r <= n; r++)
+        if ((r == n || !gs_poly_is_zero(v->top[r]))
+            && viable(v, rows, full & ~(1ull << r)))
+            maskset_add(&p->lv[0], full & ~(1ull << r));
+    p->minors = p->lv[0].count;
+    for (k = 0; k < n; k++) {
+        int best = -1;
+        size_t best_count = SIZE_MAX, best_prods = 0;
+        maskset_init(&trial);
+        for (r = 0; r < n; r++) {
+            size_t prods, limit;
+            uint64_t rest = rows & ~(1ull << r);
+            int got;
+            if (!(rows >> r & 1))
+                continue;
+            /* every minor comes from at least one product, so the
+               products left also bound the minors of the next level */
+            limit = budget - p->products;
+            if (best_count < limit)
+                limit = best_count;
+            got = expand_level(&trial, &prods, &work, work_cap, v,
+                               &p->lv[k], r, rest, limit);
+            if (got < 0) {
+                maskset_clear(&trial);
+                return GS_ERANGE;
+            }
+            if (got == 0) {
+                maskset_clear(&trial);
+                continue;
+            }
+            if (trial.count < best_count
+                || (trial.count == best_count && prods < best_prods)) {
+                best = r;
+                best_count = trial.count;
+                best_prods = prods;
+                maskset_clear(&p->lv[k + 1]);
+                p->lv[k + 1] = trial;
+                maskset_init(&trial);
+            } else {
+                maskset_clear(&trial);
+            }
+        }
+        if (best < 0 || p->products + best_prods > budget)
+            return GS_ERANGE;
+        p->order[k] = best;
+        p->products += best_prods;
+        p->minors += best_count;
+        rows &= ~(1ull << best);
+    }
+    return GS_OK;
+}
+
+static void view_init(view *v, const gs_mna *m, int transposed)
+{
+    int n = m->n, r, j;
+    v->n = n;
+    v->x = gs_malloc((size_t)n * ((size_t)n + 1) * sizeof *v->x);
+    v->top = gs_malloc(((size_t)n + 1) * sizeof *v->top);
+    for (r = 0; r < n; r++) {
+        v->nz[r] = 0;
+        for (j = 0; j <= n; j++) {
+            const gs_poly *e = transposed ? GS_MNA_AT(m, j, r)
+                                          : GS_MNA_AT(m, r, j);
+            v->x[(size_t)r * ((size_t)n + 1) + (size_t)j] = e;
+            if (!gs_poly_is_zero(e))
+                v->nz[r] |= 1ull << j;
+        }
+    }
+    for (j = 0; j <= n; j++)
+        v->top[j] = transposed ? GS_MNA_AT(m, j, n) : GS_MNA_AT(m, n, j);
+}
+
+static void view_clear(view *v)
+{
+    free(v->x);
+    free(v->top);
+}
+
+static void free_values(gs_poly *vals, size_t count)
+{
+    size_t i;
+    for (i = 0; vals && i < count; i++)
+        gs_poly_clear(&vals[i]);
+    free(vals);
+}
+
+/* Sizes watched during an evaluation: the largest minor, and the terms
+   of all the minors alive at once (this level's and the next's). */
+typedef struct watch {
+    size_t big, alive;
+    size_t max_terms, max_alive;    /* 0: unlimited */
+} watch;
+
+static int over(const watch *w)
+{
+    return (w->max_terms && w->big > w->max_terms)
+           || (w->max_alive && w->alive > w->max_alive);
+}
+
+/* Values of level k from those of level k + 1, vals[0 .. count-1] all
+   initialised; stops early (the rest zero) once a size in w is over. */
+static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
+                       const gs_poly *next, watch *w, const gs_polyctx *ctx)
+{
+    const maskset *lv = &p->lv[k], *below = &p->lv[k + 1];
+    const gs_poly *ea[GS_MINORS_MAX_UNKNOWNS + 1];
+    const gs_poly *mb[GS_MINORS_MAX_UNKNOWNS + 1];
+    int neg[GS_MINORS_MAX_UNKNOWNS + 1];
+    int r = p->order[k];
+    size_t i;
+    for (i = 0; i < lv->count; i++)
+        gs_poly_init(&vals[i]);
+    for (i = 0; i < below->count; i++)
+        w->alive += next[i].length;
+    for (i = 0; i < lv->count && !over(w); i++) {
+        uint64_t S = lv->list[i], cand = S & v->nz[r];
+        gs_poly *acc = &vals[i];
+        size_t np = 0;
+        for (; cand; cand &= cand - 1) {
+            uint64_t bit = cand & -cand;
+            size_t at = maskset_find(below, S & ~bit);
+            int j = lowest_bit(bit);
+            if (at == NOT_FOUND || gs_poly_is_zero(&next[at]))
+                continue;
+            ea[np] = v->x[(size_t)r * ((size_t)v->n + 1) + (size_t)j];
+            mb[np] = &next[at];
+            neg[np++] = __builtin_popcountll(S & (bit - 1)) & 1;
+        }
+        gs_poly_sum_of_products(acc, ea, mb, neg, np, ctx);
+        w->alive += acc->length;
+        if (acc->length > w->big)
+            w->big = acc->length;
+    }
+}
+
+static void report_budget(gs_diag *d, const watch *w, int level, int n)
+{
+    const char *hint = "raise the budget with --max-terms, or bind some "
+                       "symbols to numbers";
+    if (w->max_terms && w->big > w->max_terms)
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint,
+                    "term budget exceeded at expansion level %d of %d: a "
+                    "minor reached %zu terms (budget %zu)", level, n,
+                    w->big, w->max_terms);
+    else
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint,
+                    "term budget exceeded at expansion level %d of %d: the "
+                    "minors kept at once reached %zu terms (budget %d x "
+                    "%zu)", level, n, w->alive, GS_MINORS_KEPT_FACTOR,
+                    w->max_terms);
+}
+
+/* Run the plan; on GS_OK *top holds level 0's values (p->lv[0] order). */
+static int evaluate(gs_poly **top, const plan *p, const view *v,
+                    const gs_polyctx *ctx, const gs_minors_opts *o,
+                    gs_minors_stats *st, gs_diag *d)
+{
+    int n = v->n, k;
+    gs_poly *next, *vals;
+    watch w;
+
+    w.big = 0;
+    w.max_terms = o->max_terms;
+    w.max_alive = o->max_terms * GS_MINORS_KEPT_FACTOR;
+    next = gs_malloc((p->lv[n].count ? p->lv[n].count : 1) * sizeof *next);
+    if (p->lv[n].count) {
+        gs_poly_init(&next[0]);
+        gs_poly_set_si(&next[0], 1, ctx);       /* the empty minor */
+    }
+    for (k = n - 1; k >= 0; k--) {
+        if (o->progress)
+            fprintf(o->progress, "\rexpansion level %d/%d", n - k, n);
+        vals = gs_malloc((p->lv[k].count ? p->lv[k].count : 1)
+                         * sizeof *vals);
+        w.alive = 0;
+        eval_level(vals, p, v, k, next, &w, ctx);
+        free_values(next, p->lv[k + 1].count);
+        next = vals;
+        if (w.big > st->max_minor_terms)
+            st->max_minor_terms = w.big;
+        if (over(&w)) {
+            if (o->progress)
+                fputc('\n', o->progress);
+            report_budget(d, &w, n - k, n);
+            free_values(next, p->lv[k].count);
+            return GS_EBUDGET;
+        }
+    }
+    if (o->progress)
+        fputc('\n', o->progress);
+    *top = next;
+    return GS_OK;
+}
+
+/* det A and det M from level 0's values. */
+static void assemble(gs_poly *det_a, gs_poly *det_m, const plan *p,
+                     const view *v, gs_poly *top, const gs_polyctx *ctx)
+{
+    int n = v->n, j;
+    uint64_t full = (1ull << n << 1) - 1;
+    gs_poly t;
+    size_t at = maskset_find(&p->lv[0], full & ~(1ull << n));
+    gs_poly_zero(det_a);
+    if (at != NOT_FOUND)
+        gs_poly_swap(det_a, &top[at]);
+    gs_poly_zero(det_m);
+    gs_poly_init(&t);
+    for (j = 0; j <= n; j++) {
+        if (gs_poly_is_zero(v->top[j]))
+            continue;
+        at = maskset_find(&p->lv[0], full & ~(1ull << j));
+        if (at == NOT_FOUND)
+            continue;
+        gs_poly_mul(&t, v->top[j], j == n ? det_a : &top[at], ctx);
+        if ((n + j) & 1)
+            gs_poly_sub(det_m, det_m, &t, ctx);
+        else
+            gs_poly_add(det_m, det_m, &t, ctx);
+    }
+    gs_poly_clear(&t);
+}
+
+void gs_minors_opts_default(gs_minors_opts *o)
+{
+    o->max_terms = 0;
+    o->max_products = 200000;
+    o->progress = NULL;
+}
+
+int gs_minors_bordered(gs_poly *det_a, gs_poly *det_m, const gs_mna *m,
+                       const gs_polyctx *ctx, const gs_minors_opts *o,
+                       gs_minors_stats *stats, gs_diag *d)
+{
+    gs_minors_stats local;
+    view v[2];
+    plan p[2];
+    int rc[2], pick, t, n = m->n;
+    gs_poly *top = NULL;
+
+    if (stats == NULL)
+        stats = &local;
+    memset(stats, 0, sizeof *stats);
+    if (n < 1 || n > GS_MINORS_MAX_UNKNOWNS)
+        return GS_ERANGE;
+    for (t = 0; t < 2; t++) {
+        view_init(&v[t], m, t);
+        rc[t] = make_plan(&p[t], &v[t], o->max_products);
+    }
+    if (rc[0] != GS_OK && rc[1] != GS_OK)
+        pick = -1;
+    else if (rc[0] != GS_OK)
+        pick = 1;
+    else if (rc[1] != GS_OK)
+        pick = 0;
+    else
+        pick = p[1].products < p[0].products;
+    if (pick >= 0) {
+        stats->minors = p[pick].minors;
+        stats->products = p[pick].products;
+        stats->transposed = pick;
+        rc[pick] = evaluate(&top, &p[pick], &v[pick], ctx, o, stats, d);
+        if (rc[pick] == GS_OK) {
+            assemble(det_a, det_m, &p[pick], &v[pick], top, ctx);
+            free_values(top, p[pick].lv[0].count);
+            if (gs_poly_is_zero(det_a))
+                rc[pick] = GS_ESINGULAR;
+        }
+    }
+    for (t = 0; t < 2; t++) {
+        plan_clear(&p[t], n);
+        view_clear(&v[t]);
+    }
+    return pick < 0 ? GS_ERANGE : rc[pick];
+}

@@ -1,0 +1,446 @@
+/* parse_dev.c - mosfet and bjt lines, expanded into elements; bias lines.
+ * See LICENSE.
+ *
+ * A device line stands for its small-signal model, the hybrid-pi form of
+ * the textbooks (Sedra and Smith, "Microelectronic Circuits", the MOSFET
+ * and BJT small-signal models; Gray, Hurst, Lewis and Meyer, "Analysis
+ * and Design of Analog Integrated Circuits", ch. 1): a transconductance
+ * gm controlled by v(gate, source) or v(base', emitter), an output
+ * resistance, the input resistance rpi of a bjt, the body transconductance
+ * gmb of a mosfet, and the device capacitances.  Each part is an ordinary
+ * element named DEVICE.PART, added where the device line stands in the
+ * fixed order of the tables below.
+ */
+#include "gainsmith.h"
+#include "base/mem.h"
+#include "circuit/parse.h"
+
+#include <stdlib.h>
+#include <string.h>
+
+/* One parameter of a device and the element it makes. */
+typedef struct dev_param {
+    const char *key;
+    gs_elem_kind kind;
+    int node[4];        /* indices into the device's node list, -1 unused */
+    int by_default;     /* present with the symbol KEY_DEVICE if not given */
+    int inf_ok;         /* KEY=inf leaves the part out */
+    int needs_body;     /* mosfet parts that touch b */
+} dev_param;
+
+/* mosfet nodes: 0 d, 1 g, 2 s, 3 b */
+static const dev_param mos_params[] = {
+    {"gm", GS_VCCS, {0, 2, 1, 2}, 1, 0, 0},
+    {"rds", GS_RESISTOR, {0, 2, -1, -1}, 1, 1, 0},
+    {"gmb", GS_VCCS, {0, 2, 3, 2}, 0, 0, 1},
+    {"cgs", GS_CAPACITOR, {1, 2, -1, -1}, 0, 0, 0},
+    {"cgd", GS_CAPACITOR, {1, 0, -1, -1}, 0, 0, 0},
+    {"cdb", GS_CAPACITOR, {0, 3, -1, -1}, 0, 0, 1},
+    {"csb", GS_CAPACITOR, {2, 3, -1, -1}, 0, 0, 1},
+};
+
+/* bjt nodes: 0 c, 1 b, 2 e, 3 the intrinsic base b' (b itself unless rb
+   is given) */
+static const dev_param bjt_params[] = {
+    {"gm", GS_VCCS, {0, 2, 3, 2}, 1, 0, 0},
+    {"rpi", GS_RESISTOR, {3, 2, -1, -1}, 1, 1, 0},
+    {"ro", GS_RESISTOR, {0, 2, -1, -1}, 0, 1, 0},
+    {"cpi", GS_CAPACITOR, {3, 2, -1, -1}, 0, 0, 0},
+    {"cmu", GS_CAPACITOR, {3, 0, -1, -1}, 0, 0, 0},
+    {"rb", GS_RESISTOR, {1, 3, -1, -1}, 0, 0, 0},
+};
+
+#define MAX_PARAMS 7
+
+/* What a device line said about each of its parameters. */
+typedef struct dev_line {
+    const dev_param *params;
+    size_t nparams;
+    const char *word, *form;
+    const gs_token *name;
+    const gs_token *node_tok[4];
+    int node[4];
+    const gs_token *key[MAX_PARAMS];    /* NULL: not given */
+    char *raw[MAX_PARAMS];              /* the value as written */
+    int inf[MAX_PARAMS];
+    gs_monomial val[MAX_PARAMS];
+    size_t val_off[MAX_PARAMS];
+} dev_line;
+
+static void dev_line_init(dev_line *L, int is_bjt)
+{
+    size_t i;
+    memset(L, 0, sizeof *L);
+    L->params = is_bjt ? bjt_params : mos_params;
+    L->nparams = is_bjt ? sizeof bjt_params / sizeof bjt_params[0]
+                        : sizeof mos_params / sizeof mos_params[0];
+    L->word = is_bjt ? "bjt" : "mosfet";
+    L->form = is_bjt ? "bjt NAME c b e [gm=..] [rpi=..] [ro=..] [cpi=..] "
+                       "[cmu=..] [rb=..]"
+                     : "mosfet NAME d g s [b] [gm=..] [rds=..] [gmb=..] "
+                       "[cgs=..] [cgd=..] [cdb=..] [csb=..]";
+    for (i = 0; i < 4; i++)
+        L->node[i] = -1;
+    for (i = 0; i < MAX_PARAMS; i++)
+        gs_monomial_init(&L->val[i]);
+}
+
+static void dev_line_clear(dev_line *L)
+{
+    size_t i;
+    for (i = 0; i < MAX_PARAMS; i++) {
+        free(L->raw[i]);
+        gs_monomial_clear(&L->val[i]);
+    }
+}
+
+/* Is the cursor at "IDENT =", the start of a parameter? */
+static int at_key(const gs_cursor *cur)
+{
+    const gs_token *t = gs_cur_peek(cur);
+    return t->kind == GS_TK_IDENT && t[1].kind == GS_TK_PUNCT
+           && t[1].text[0] == '=';
+}
+
+/* The tokens [from, to) joined without spaces: a value as written. */
+static char *join_tokens(const gs_token *from, const gs_token *to)
+{
+    size_t n = 1;
+    const gs_token *t;
+    char *out;
+    for (t = from; t < to; t++)
+        n += strlen(t->text);
+    out = gs_malloc(n);
+    out[0] = '\0';
+    for (t = from; t < to; t++)
+        strcat(out, t->text);
+    return out;
+}
+
+static int param_index(gs_parser *p, dev_line *L, const gs_token *key)
+{
+    const char *names[MAX_PARAMS];
+    char *hint, *list;
+    size_t i;
+    for (i = 0; i < L->nparams; i++) {
+        names[i] = L->params[i].key;
+        if (strcmp(key->text, names[i]) == 0)
+            return (int)i;
+    }
+    hint = gs_suggest_hint(key->text, names, L->nparams);
+    list = gs_asprintf("the %s parameters are %s", L->word, L->nparams == 7
+                       ? "gm, rds, gmb, cgs, cgd, cdb and csb"
+                       : "gm, rpi, ro, cpi, cmu and rb");
+    gs_cur_error(&p->cur, key, hint ? hint : list, "unknown %s parameter "
+                 "'%s'", L->word, key->text);
+    free(list);
+    free(hint);
+    return -1;
+}
+
+/* One KEY=VALUE of a device line. */
+static int parse_param(gs_parser *p, dev_line *L)
+{
+    const gs_token *key = gs_cur_peek(&p->cur), *start;
+    int k;
+    if (!at_key(&p->cur)) {
+        gs_parser_expected(p, key, "a parameter KEY=VALUE", L->form);
+        return GS_ESYNTAX;
+    }
+    if ((k = param_index(p, L, key)) < 0)
+        return GS_ESYNTAX;
+    if (L->key[k] != NULL) {
+        gs_cur_error(&p->cur, key, NULL, "parameter '%s' given twice",
+                     key->text);
+        return GS_ESYNTAX;
+    }
+    gs_cur_next(&p->cur);
+    gs_cur_next(&p->cur);               /* '=' */
+    start = gs_cur_peek(&p->cur);
+    L->key[k] = key;
+    L->val_off[k] = start->off;
+    if (L->params[k].inf_ok && start->kind == GS_TK_IDENT
+        && strcmp(start->text, "inf") == 0) {
+        gs_cur_next(&p->cur);
+        L->inf[k] = 1;
+    } else if (gs_parse_monomial(&L->val[k], &p->cur, p->c) != GS_OK) {
+        return GS_ESYNTAX;
+    }
+    L->raw[k] = join_tokens(start, gs_cur_peek(&p->cur));
+    return GS_OK;
+}
+
+/* The node tokens: d g s [b] or c b e.  Only their syntax is checked
+   here; the nodes are made when the parts are. */
+static int parse_dev_nodes(gs_parser *p, dev_line *L, int is_bjt)
+{
+    static const char *const mos_roles[] = {"d", "g", "s", "b"};
+    static const char *const bjt_roles[] = {"c", "b", "e"};
+    int i, n = 3;
+    for (i = 0; i < n; i++) {
+        const gs_token *t = gs_cur_next(&p->cur);
+        char *what = gs_asprintf("node %s of %s '%s'",
+                                 is_bjt ? bjt_roles[i] : mos_roles[i],
+                                 L->word, L->name->text);
+        if (t->kind == GS_TK_END)
+            gs_parser_expected(p, t, what, L->form);
+        else if (i < 3)
+            L->node[i] = gs_parser_node(p, t, what);
+        else if (gs_parser_check_node(p, t, what) == GS_OK)
+            L->node[i] = 0;     /* made later, if a part needs it */
+        free(what);
+        if (t->kind == GS_TK_END || L->node[i] < 0)
+            return GS_ESYNTAX;
+        L->node_tok[i] = t;
+        if (i == 2 && !is_bjt && gs_cur_peek(&p->cur)->kind != GS_TK_END
+            && !at_key(&p->cur))
+            n = 4;                      /* the body node b */
+    }
+    return GS_OK;
+}
+
+/* The b node of a mosfet, made now that a part needs it, or -1. */
+static int body_node(gs_parser *p, dev_line *L, int k)
+{
+    if (L->node_tok[3] == NULL) {
+        gs_lex_report(&p->lx, p->d, GS_SEV_ERROR, L->key[k]->off,
+                      "write the body node after s: mosfet NAME d g s b",
+                      "'%s' needs the body node b, which mosfet '%s' does "
+                      "not have", L->params[k].key, L->name->text);
+        return -1;
+    }
+    return L->node[3];
+}
+
+/* Which parts exist, with zero values and missing body nodes reported. */
+static int check_params(gs_parser *p, dev_line *L, int *want)
+{
+    size_t k;
+    int rc = GS_OK;
+    for (k = 0; k < L->nparams; k++) {
+        const dev_param *dp = &L->params[k];
+        want[k] = (dp->by_default || L->key[k]) && !L->inf[k];
+        if (!want[k] || L->key[k] == NULL)
+            continue;
+        if (gs_rat_is_zero(&L->val[k].coeff)) {
+            char *part = gs_asprintf("%s.%s", L->name->text, dp->key);
+            gs_parser_zero_value(p, dp->kind, part, L->val_off[k]);
+            free(part);
+            rc = GS_ESYNTAX;
+        }
+        if (dp->needs_body && body_node(p, L, (int)k) < 0)
+            rc = GS_ESYNTAX;
+    }
+    return rc;
+}
+
+static void add_part(gs_parser *p, dev_line *L, size_t k, int dev,
+                     const int *node)
+{
+    const dev_param *dp = &L->params[k];
+    char *name = gs_asprintf("%s.%s", L->name->text, dp->key);
+    gs_element *e = gs_parser_add_element(p, dp->kind, name, L->name->off);
+    int i;
+    for (i = 0; i < 4; i++)
+        e->node[i] = dp->node[i] >= 0 ? node[dp->node[i]] : -1;
+    e->device = dev;
+    if (L->key[k] != NULL) {
+        gs_monomial_set(&e->value, &L->val[k]);
+    } else {
+        char *sym = gs_asprintf("%s_%s", dp->key, L->name->text);
+        gs_monomial_mul_sym(&e->value, gs_symtab_intern(p->c->syms, sym), 1);
+        free(sym);
+    }
+    gs_parser_set_name(p, gs_symtab_intern(p->names, name), GS_NAME_ELEM,
+                       (int)p->c->nelems - 1, L->name->off);
+    free(name);
+}
+
+/* The device record: nodes and parameters as written. */
+static int add_device(gs_parser *p, dev_line *L, int is_bjt)
+{
+    gs_circuit *c = p->c;
+    gs_device *dv;
+    size_t k, n = 0, a = p->devices_alloc;
+    c->devices = gs_grow(c->devices, c->ndevices, &p->devices_alloc,
+                         sizeof *c->devices);
+    p->dev_body = gs_grow(p->dev_body, c->ndevices, &a, sizeof *p->dev_body);
+    p->dev_body[c->ndevices] = !is_bjt && L->node_tok[3]
+                               ? gs_strdup(L->node_tok[3]->text) : NULL;
+    dv = &c->devices[c->ndevices];
+    memset(dv, 0, sizeof *dv);
+    dv->name = gs_strdup(L->name->text);
+    dv->is_bjt = is_bjt;
+    gs_lex_position(&p->lx, L->name->off, &dv->line, &dv->col);
+    for (k = 0; k < 4; k++)
+        dv->nodes[k] = k < 3 ? L->node[k] : -1;
+    for (k = 0; k < L->nparams; k++)
+        n += L->key[k] != NULL;
+    dv->keys = gs_malloc(n * sizeof *dv->keys);
+    dv->vals = gs_malloc(n * sizeof *dv->vals);
+    for (k = 0; k < L->nparams; k++) {
+        if (L->key[k] == NULL)
+            continue;
+        dv->keys[dv->nparams] = gs_strdup(L->key[k]->text);
+        dv->vals[dv->nparams++] = gs_strdup(L->raw[k]);
+    }
+    return (int)c->ndevices++;
+}
+
+/* The nodes the parts connect to, and the parts, in table order. */
+static void expand(gs_parser *p, dev_line *L, int is_bjt, int dev,
+                   const int *want)
+{
+    int node[4];
+    size_t k;
+    memcpy(node, L->node, sizeof node);
+    if (is_bjt) {
+        node[3] = node[1];
+        if (want[5]) {                  /* rb: the internal base b' */
+            char *bi = gs_asprintf("%s.b'", L->name->text);
+            gs_token t;
+            t.kind = GS_TK_IDENT;
+            t.dotted = 0;
+            t.off = L->name->off;
+            t.text = bi;
+            node[3] = gs_parser_node(p, &t, "node");
+            free(bi);
+        }
+    } else if (want[2] || want[5] || want[6]) {
+        node[3] = gs_parser_node(p, L->node_tok[3], "node b");
+    }
+    for (k = 0; k < L->nparams; k++) {
+        if (!want[k])
+            continue;
+        /* with b = s, v(b, s) is 0 and csb is shorted: no such parts */
+        if (!is_bjt && (k == 2 || k == 6) && node[3] == node[2])
+            continue;
+        add_part(p, L, k, dev, node);
+    }
+}
+
+int gs_parse_device(gs_parser *p, int is_bjt)
+{
+    dev_line L;
+    int id, rc = GS_ESYNTAX, want[MAX_PARAMS], dev;
+    dev_line_init(&L, is_bjt);
+    L.name = gs_cur_next(&p->cur);
+    if (L.name->kind != GS_TK_IDENT) {
+        char *what = gs_asprintf("%s name", L.word);
+        gs_parser_expected(p, L.name, what, L.form);
+        free(what);
+    } else if ((id = gs_parser_new_name(p, L.name)) >= 0
+               && parse_dev_nodes(p, &L, is_bjt) == GS_OK) {
+        rc = GS_OK;
+        while (rc == GS_OK && gs_cur_peek(&p->cur)->kind != GS_TK_END)
+            rc = parse_param(p, &L);
+        if (rc == GS_OK)
+            rc = check_params(p, &L, want);
+        if (rc == GS_OK) {
+            dev = add_device(p, &L, is_bjt);
+            expand(p, &L, is_bjt, dev, want);
+            gs_parser_set_name(p, id, GS_NAME_DEVICE, dev, L.name->off);
+        }
+    }
+    dev_line_clear(&L);
+    return rc;
+}
+
+/* Fill in each mosfet's b node, which may be made by a later line. */
+void gs_parser_finish_devices(gs_parser *p)
+{
+    size_t i;
+    for (i = 0; i < p->c->ndevices; i++) {
+        const char *b = p->dev_body[i];
+        if (b != NULL)
+            p->c->devices[i].nodes[3] = gs_circuit_find_node(p->c, b);
+    }
+}
+
+/* ---- bias lines ---- */
+
+static const char bias_form[] = "bias DEVICE KEY=VALUE...";
+
+/* One KEY=VALUE: the value is every token up to the next KEY= or the
+   end, as written; the device model reads it. */
+static int bias_pair(gs_parser *p, gs_bias *b)
+{
+    const gs_token *key = gs_cur_peek(&p->cur), *start;
+    int i, line;
+    if (!at_key(&p->cur)) {
+        gs_parser_expected(p, key, "a parameter KEY=VALUE", bias_form);
+        return GS_ESYNTAX;
+    }
+    for (i = 0; i < b->nparams; i++) {
+        if (strcmp(b->keys[i], key->text) == 0) {
+            gs_cur_error(&p->cur, key, NULL, "parameter '%s' given twice",
+                         key->text);
+            return GS_ESYNTAX;
+        }
+    }
+    gs_cur_next(&p->cur);
+    gs_cur_next(&p->cur);
+    start = gs_cur_peek(&p->cur);
+    while (gs_cur_peek(&p->cur)->kind != GS_TK_END && !at_key(&p->cur))
+        gs_cur_next(&p->cur);
+    if (gs_cur_peek(&p->cur) == start) {
+        gs_parser_expected(p, start, "a value", bias_form);
+        return GS_ESYNTAX;
+    }
+    b->keys = gs_reallocarray(b->keys, (size_t)b->nparams + 1,
+                              sizeof *b->keys);
+    b->vals = gs_reallocarray(b->vals, (size_t)b->nparams + 1,
+                              sizeof *b->vals);
+    b->val_col = gs_reallocarray(b->val_col, (size_t)b->nparams + 1,
+                                 sizeof *b->val_col);
+    b->keys[b->nparams] = gs_strdup(key->text);
+    b->vals[b->nparams] = join_tokens(start, gs_cur_peek(&p->cur));
+    gs_lex_position(&p->lx, start->off, &line, &b->val_col[b->nparams]);
+    b->nparams++;
+    return GS_OK;
+}
+
+static void bias_clear(gs_bias *b)
+{
+    int i;
+    for (i = 0; i < b->nparams; i++) {
+        free(b->keys[i]);
+        free(b->vals[i]);
+    }
+    free(b->keys);
+    free(b->vals);
+    free(b->val_col);
+}
+
+int gs_parse_bias(gs_parser *p)
+{
+    const gs_token *name = gs_cur_next(&p->cur);
+    gs_circuit *c = p->c;
+    gs_bias b;
+    int rc = GS_OK;
+    if (name->kind != GS_TK_IDENT || name->dotted
+        || (name[1].kind == GS_TK_PUNCT && name[1].text[0] == '=')) {
+        gs_parser_expected(p, name, "the name of a mosfet or bjt",
+                           bias_form);
+        return GS_ESYNTAX;
+    }
+    memset(&b, 0, sizeof b);
+    b.device = -1;
+    gs_lex_position(&p->lx, name->off, &b.line, &b.col);
+    if (gs_cur_peek(&p->cur)->kind == GS_TK_END) {
+        gs_parser_expected(p, gs_cur_peek(&p->cur), "a parameter KEY=VALUE",
+                           bias_form);
+        rc = GS_ESYNTAX;
+    }
+    while (rc == GS_OK && gs_cur_peek(&p->cur)->kind != GS_TK_END)
+        rc = bias_pair(p, &b);
+    if (rc != GS_OK) {
+        bias_clear(&b);
+        return rc;
+    }
+    c->biases = gs_grow(c->biases, c->nbiases, &p->biases_alloc,
+                        sizeof *c->biases);
+    c->biases[c->nbiases] = b;
+    gs_parser_add_ref(p, GS_REF_BIAS, c->nbiases++, 0, name);
+    return GS_OK;
+}

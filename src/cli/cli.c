@@ -1,0 +1,188 @@
+/* cli.c - command-line options of the subcommands. See LICENSE. */
+#include "cli/cli.h"
+#include "base/diag.h"
+#include "base/mem.h"
+#include "algebra/rat.h"
+
+#include <errno.h>
+#include <stdlib.h>
+#include <string.h>
+
+static int find_opt(const gs_cli *cl, const char *name, size_t len)
+{
+    size_t i;
+    for (i = 0; i < cl->nspec; i++)
+        if (strlen(cl->spec[i].name) == len
+            && strncmp(cl->spec[i].name, name, len) == 0)
+            return (int)i;
+    return -1;
+}
+
+static void unknown_option(const gs_cli *cl, const char *cmd,
+                           const char *arg, size_t len, FILE *err)
+{
+    const char **names = gs_malloc((cl->nspec + 1) * sizeof *names);
+    char *word = gs_strndup(arg, len);
+    const char *best;
+    size_t i;
+    for (i = 0; i < cl->nspec; i++)
+        names[i] = cl->spec[i].name;
+    names[cl->nspec] = NULL;
+    best = gs_closest_word(word, names);
+    fprintf(err, "gainsmith %s: error: unknown option '--%s'\n", cmd, word);
+    if (best)
+        fprintf(err, "gainsmith %s: hint: did you mean '--%s'?\n", cmd,
+                best);
+    else
+        fprintf(err, "gainsmith %s: hint: 'gainsmith help %s' lists the "
+                "options\n", cmd, cmd);
+    free(word);
+    free(names);
+}
+
+static void add_value(gs_cli *cl, int k, char *val)
+{
+    cl->vals[k] = gs_reallocarray(cl->vals[k], cl->count[k] + 1,
+                                  sizeof *cl->vals[k]);
+    cl->vals[k][cl->count[k]++] = val;
+}
+
+static int parse_option(gs_cli *cl, int *i, int argc, char **argv,
+                        FILE *err)
+{
+    const char *cmd = argv[0], *arg = argv[*i] + 2;
+    const char *eq = strchr(arg, '=');
+    size_t len = eq ? (size_t)(eq - arg) : strlen(arg);
+    int k = find_opt(cl, arg, len);
+    if (k < 0) {
+        unknown_option(cl, cmd, arg, len, err);
+        return 2;
+    }
+    if (cl->count[k] > 0 && !cl->spec[k].repeatable) {
+        fprintf(err, "gainsmith %s: error: option '--%s' given twice\n",
+                cmd, cl->spec[k].name);
+        return 2;
+    }
+    if (!cl->spec[k].has_arg) {
+        if (eq) {
+            fprintf(err, "gainsmith %s: error: option '--%s' takes no "
+                    "value\n", cmd, cl->spec[k].name);
+            return 2;
+        }
+        add_value(cl, k, argv[*i] + strlen(argv[*i]));
+        return 0;
+    }
+    if (eq) {
+        add_value(cl, k, (char *)eq + 1);
+        return 0;
+    }
+    if (*i + 1 >= argc) {
+        fprintf(err, "gainsmith %s: error: option '--%s' needs a value\n",
+                cmd, cl->spec[k].name);
+        return 2;
+    }
+    add_value(cl, k, argv[++*i]);
+    return 0;
+}
+
+int gs_cli_parse(gs_cli *cl, int argc, char **argv, const gs_cli_opt *spec,
+                 FILE *err)
+{
+    int i, only_pos = 0;
+    size_t n = 0;
+    while (spec[n].name)
+        n++;
+    cl->spec = spec;
+    cl->nspec = n;
+    cl->npos = 0;
+    cl->pos = gs_malloc(((size_t)argc + 1) * sizeof *cl->pos);
+    cl->count = gs_calloc(n + 1, sizeof *cl->count);
+    cl->vals = gs_calloc(n + 1, sizeof *cl->vals);
+    for (i = 1; i < argc; i++) {
+        if (!only_pos && strcmp(argv[i], "--") == 0) {
+            only_pos = 1;
+        } else if (!only_pos && strncmp(argv[i], "--", 2) == 0) {
+            if (parse_option(cl, &i, argc, argv, err) != 0)
+                return 2;
+        } else if (!only_pos && argv[i][0] == '-' && argv[i][1] != '\0') {
+            fprintf(err, "gainsmith %s: error: unknown option '%s'\n",
+                    argv[0], argv[i]);
+            fprintf(err, "gainsmith %s: hint: options are long, as in "
+                    "'--format'\n", argv[0]);
+            return 2;
+        } else {
+            cl->pos[cl->npos++] = argv[i];
+        }
+    }
+    return 0;
+}
+
+void gs_cli_clear(gs_cli *cl)
+{
+    size_t i;
+    for (i = 0; i < cl->nspec; i++)
+        free(cl->vals[i]);
+    free(cl->vals);
+    free(cl->count);
+    free(cl->pos);
+    memset(cl, 0, sizeof *cl);
+}
+
+size_t gs_cli_count(const gs_cli *cl, const char *name)
+{
+    int k = find_opt(cl, name, strlen(name));
+    return k < 0 ? 0 : cl->count[k];
+}
+
+const char *gs_cli_get(const gs_cli *cl, const char *name, size_t i)
+{
+    int k = find_opt(cl, name, strlen(name));
+    if (k < 0 || i >= cl->count[k])
+        return NULL;
+    return cl->vals[k][i];
+}
+
+int gs_cli_has(const gs_cli *cl, const char *name)
+{
+    return gs_cli_count(cl, name) > 0;
+}
+
+int gs_cli_size(size_t *out, const char *text, const char *cmd,
+                const char *name, FILE *err)
+{
+    char *end;
+    unsigned long long v;
+    errno = 0;
+    v = strtoull(text, &end, 10);
+    if (text[0] == '\0' || text[0] == '-' || *end != '\0' || errno) {
+        fprintf(err, "gainsmith %s: error: --%s expects a whole number, "
+                "got '%s'\n", cmd, name, text);
+        return 2;
+    }
+    *out = (size_t)v;
+    return 0;
+}
+
+int gs_cli_real(long double *out, const char *text, const char *unit,
+                const char *cmd, const char *name, FILE *err)
+{
+    gs_rat r;
+    const char *end;
+    int rc;
+    gs_rat_init(&r);
+    rc = gs_rat_parse(&r, text, &end);
+    if (rc == GS_OK && unit && strcmp(end, unit) == 0)
+        end += strlen(unit);
+    if (rc != GS_OK || *end != '\0') {
+        fprintf(err, "gainsmith %s: error: --%s expects a number%s%s, got "
+                "'%s'\n", cmd, name, unit ? " in " : "", unit ? unit : "",
+                text);
+        fprintf(err, "gainsmith %s: hint: numbers take SI prefixes, as in "
+                "'10k%s'\n", cmd, unit ? unit : "");
+        gs_rat_clear(&r);
+        return 2;
+    }
+    *out = gs_rat_get_ld(&r);
+    gs_rat_clear(&r);
+    return 0;
+}

@@ -1,0 +1,199 @@
+/* cmd_poles.c - the `poles` command: poles, zeros, w0, Q, stability.
+ * See LICENSE.
+ */
+#include "cli/cli.h"
+#include "cli/cmd.h"
+#include "analysis/job.h"
+#include "base/mem.h"
+#include "numeric/roots.h"
+
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+static const gs_cli_opt poles_spec[] = {
+    {"set", 1, 1}, {"only", 1, 0}, {"format", 1, 0}, {"cancel-tol", 1, 0},
+    {"limit", 1, 1}, {"max-terms", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
+};
+
+static const char *const stability_word[] = {
+    "stable", "marginally stable", "unstable"
+};
+
+/* High-frequency behaviour: H ~ hf * s^(degN - degD) as s -> inf. */
+static long double hf_gain(const gs_tfn *h, int *order)
+{
+    *order = h->num_deg - h->den_deg;
+    if (h->num_deg < 0)
+        return 0;
+    return h->num[h->num_deg] / h->den[h->den_deg];
+}
+
+static void print_root_rows(FILE *out, const char *what,
+                            const long double complex *r, int n,
+                            const int *mult, const long double *res)
+{
+    int i;
+    if (n == 0) {
+        fprintf(out, "  %s: none\n", what);
+        return;
+    }
+    fprintf(out, "  %s:\n", what);
+    fprintf(out, "    %-14s %-14s %-12s %-10s %-10s %4s %9s\n",
+            "re (rad/s)", "im (rad/s)", "|.| (Hz)", "Q", "zeta", "mult",
+            "residual");
+    for (i = 0; i < n; i++) {
+        gs_pz_info pz;
+        gs_pz_describe(&pz, r[i]);
+        fprintf(out, "    %-14.6Lg %-14.6Lg %-12.6Lg ", creall(r[i]),
+                cimagl(r[i]), pz.f0);
+        if (pz.kind == GS_PZ_COMPLEX)
+            fprintf(out, "%-10.4Lg %-10.4Lg ", pz.q, pz.zeta);
+        else
+            fprintf(out, "%-10s %-10s ", "-", "-");
+        fprintf(out, "%4d %9.2Lg%s\n", mult[i], res[i],
+                pz.rhp ? "  right half plane" : "");
+    }
+}
+
+static void print_text(FILE *out, const char *name, const gs_tfn *h,
+                       long double tol)
+{
+    gs_pz_pair pairs[16];
+    int order, i, n;
+    long double hf = hf_gain(h, &order), dc = gs_tfn_dc_gain(h);
+    fprintf(out, "%s: %d pole%s, %d zero%s, %s\n", name, h->npoles,
+            h->npoles == 1 ? "" : "s", h->nzeros, h->nzeros == 1 ? "" : "s",
+            stability_word[gs_tfn_stability(h)]);
+    fprintf(out, "  DC gain      %.10Lg", dc);
+    if (isfinite(dc) && dc != 0)
+        fprintf(out, " (%.4Lf dB)", 20 * log10l(fabsl(dc)));
+    fprintf(out, "\n  HF gain      %.10Lg", hf);
+    if (order != 0)
+        fprintf(out, " * s^%d", order);
+    fputc('\n', out);
+    print_root_rows(out, "poles", h->poles, h->npoles, h->pole_mult,
+                    h->pole_res);
+    print_root_rows(out, "zeros", h->zeros, h->nzeros, h->zero_mult,
+                    h->zero_res);
+    n = gs_pz_cancellations(pairs, 16, h, tol);
+    for (i = 0; i < n && i < 16; i++)
+        fprintf(out, "  near-cancellation: pole %d and zero %d, relative "
+                "distance %.3Lg\n", pairs[i].pole + 1, pairs[i].zero + 1,
+                pairs[i].rel_dist);
+}
+
+static void json_roots(FILE *out, const char *key,
+                       const long double complex *r, int n, const int *mult,
+                       const long double *res)
+{
+    int i;
+    fprintf(out, "  \"%s\": [", key);
+    for (i = 0; i < n; i++) {
+        gs_pz_info pz;
+        gs_pz_describe(&pz, r[i]);
+        fprintf(out, "%s\n    {\"re\": %.17Lg, \"im\": %.17Lg, "
+                "\"w0\": %.17Lg, \"f0_hz\": %.17Lg, ", i ? "," : "",
+                creall(r[i]), cimagl(r[i]), pz.w0, pz.f0);
+        if (pz.kind == GS_PZ_COMPLEX && isfinite(pz.q))
+            fprintf(out, "\"q\": %.17Lg, \"zeta\": %.17Lg, ", pz.q, pz.zeta);
+        fprintf(out, "\"rhp\": %s, \"multiplicity\": %d, "
+                "\"residual\": %.3Lg}", pz.rhp ? "true" : "false", mult[i],
+                res[i]);
+    }
+    fprintf(out, "%s]", n ? "\n  " : "");
+}
+
+static void json_number(FILE *out, long double v)
+{
+    if (isfinite(v))
+        fprintf(out, "%.17Lg", v);
+    else
+        fputs("null", out);
+}
+
+static void print_json(FILE *out, const char *name, const gs_tfn *h)
+{
+    int order;
+    long double hf = hf_gain(h, &order);
+    fprintf(out, "{\n  \"name\": \"%s\",\n  \"stability\": \"%s\",\n"
+            "  \"dc_gain\": ", name, stability_word[gs_tfn_stability(h)]);
+    json_number(out, gs_tfn_dc_gain(h));
+    fputs(",\n  \"hf_gain\": ", out);
+    json_number(out, hf);
+    fprintf(out, ",\n  \"hf_order\": %d,\n", order);
+    json_roots(out, "poles", h->poles, h->npoles, h->pole_mult, h->pole_res);
+    fputs(",\n", out);
+    json_roots(out, "zeros", h->zeros, h->nzeros, h->zero_mult, h->zero_res);
+    fputs("\n}", out);
+}
+
+static int poles_one(const gs_job *j, size_t i, int json, long double tol,
+                     FILE *out, FILE *err)
+{
+    int dn, dd, rc;
+    long double *cn = gs_job_coeffs(j, &j->tf[i].num, &dn);
+    long double *cd = gs_job_coeffs(j, &j->tf[i].den, &dd);
+    gs_tfn h;
+    rc = gs_tfn_init(&h, cn, dn, cd, dd);
+    if (rc == GS_EINVAL) {
+        fprintf(err, "gainsmith poles: error: %s: the denominator is zero "
+                "or not finite with these values\n", j->tf[i].name);
+    } else {
+        if (rc == GS_ERANGE)
+            fprintf(err, "gainsmith poles: warning: %s: the root search did "
+                    "not converge; the roots shown are the best found\n",
+                    j->tf[i].name);
+        if (json)
+            print_json(out, j->tf[i].name, &h);
+        else
+            print_text(out, j->tf[i].name, &h, tol);
+    }
+    gs_tfn_clear(&h);
+    free(cn);
+    free(cd);
+    return rc == GS_EINVAL ? 1 : 0;
+}
+
+int gs_cmd_poles(int argc, char **argv, FILE *out, FILE *err)
+{
+    gs_cli cl;
+    gs_job j;
+    size_t i;
+    long double tol = 1e-3L;
+    int status, json = 0;
+    const char *fmt, *t;
+
+    gs_job_init(&j);
+    status = gs_cli_parse(&cl, argc, argv, poles_spec, err);
+    if (status == 0 && gs_cli_has(&cl, "help")) {
+        fputs(gs_cmd_help_text("poles"), out);
+        goto done;
+    }
+    fmt = status == 0 ? gs_cli_get(&cl, "format", 0) : NULL;
+    if (fmt && strcmp(fmt, "json") && strcmp(fmt, "text")) {
+        fprintf(err, "gainsmith poles: error: --format expects text or json"
+                ", got '%s'\n", fmt);
+        status = 2;
+    }
+    json = fmt && strcmp(fmt, "json") == 0;
+    if (status == 0 && (t = gs_cli_get(&cl, "cancel-tol", 0)))
+        status = gs_cli_real(&tol, t, NULL, "poles", "cancel-tol", err);
+    if (status == 0)
+        status = gs_cmd_load_and_derive(&j, &cl, "poles", err);
+    if (status == 0)
+        status = gs_cmd_bind(&j, &cl, err);
+    if (json && status == 0)
+        fputs("[\n", out);
+    for (i = 0; status == 0 && i < j.ntf; i++) {
+        status = poles_one(&j, i, json, tol, out, err);
+        if (json)
+            fputs(i + 1 < j.ntf ? ",\n" : "\n", out);
+    }
+    if (json && status == 0)
+        fputs("]\n", out);
+done:
+    gs_cli_clear(&cl);
+    gs_job_clear(&j);
+    return status;
+}

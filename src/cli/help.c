@@ -1,0 +1,206 @@
+/* help.c - the manual text of each command. See LICENSE.
+ *
+ * Kept in step with docs/commands.md: every option a command's spec
+ * accepts is described here, and nothing else.
+ */
+#include "cli/cmd.h"
+#include "gainsmith.h"
+
+#include <string.h>
+
+static const char overview[] =
+"gainsmith " GS_VERSION " - exact small-signal transfer functions of analog "
+"circuits\n"
+"\n"
+"usage: gainsmith COMMAND FILE [options]\n"
+"       gainsmith help [COMMAND]\n"
+"       gainsmith --version\n"
+"\n"
+"commands:\n"
+"  derive    the exact transfer functions of a circuit, in lowest terms\n"
+"  eval      their numbers: DC value, values at frequencies, coefficients\n"
+"  poles     poles and zeros, w0, Q, stability, DC and HF gain\n"
+"  bode      gain, phase and group delay over frequency; CSV and SVG\n"
+"  step      step response: rise time, overshoot, settling; CSV and SVG\n"
+"  check     the exact result against an independent numeric solve\n"
+"  extract   device figures from a datasheet point -> model parameters\n"
+"  help      this text, or the manual of one command\n"
+"\n"
+"FILE is a circuit in the gainsmith language (.gsc; see docs/language.md),\n"
+"or '-' for standard input.  Exit status: 0 success, 1 the analysis\n"
+"failed (singular circuit, budget exceeded), 2 bad input or usage.\n"
+"Small-signal results are linear approximations: verify a design by\n"
+"simulation and measurement.\n";
+
+static const char derive_text[] =
+"usage: gainsmith derive FILE [options]\n"
+"\n"
+"Derives every transfer and impedance that FILE asks for, exactly, as a\n"
+"ratio of polynomials in the element symbols and s, in lowest terms\n"
+"(resistors read as R, not 1/R), and prints them.\n"
+"\n"
+"options:\n"
+"  --only NAME          derive only the transfer or impedance NAME\n"
+"  --out EXPR --in SRC  derive EXPR / SRC instead of the file's outputs:\n"
+"                       EXPR is v(NODE), v(NODE, NODE) or i(ELEMENT), SRC\n"
+"                       an independent source; named H, or --only's NAME\n"
+"  --limit SYM=inf|0    the limit as SYM goes to infinity or zero, e.g.\n"
+"                       --limit rds=inf; repeatable, applied in order\n"
+"  --format FORMAT      text (default: one line each, sympy-readable),\n"
+"                       pretty (2-D fraction), latex (equation\n"
+"                       environments), c (C99 functions), json\n"
+"  --collect SYM        group terms by powers of SYM instead of s\n"
+"  --max-terms N        stop with exit status 1 when an intermediate\n"
+"                       polynomial grows past N terms, or the minors kept\n"
+"                       at once past 8N in all (default: no limit)\n"
+"  --method METHOD      how the determinants are computed: auto (default:\n"
+"                       minors unless the expansion would be too large),\n"
+"                       minors (expansion in minors, no division) or\n"
+"                       bareiss (fraction-free elimination); the result\n"
+"                       is the same, only the work differs\n"
+"  --pivot RULE         elimination pivot rule: minwork (default),\n"
+"                       markowitz, minterms or natural; alone, it implies\n"
+"                       --method bareiss\n"
+"  --stats              after the results, one line per output on stderr:\n"
+"                       stats NAME terms_N=.. terms_D=.. unknowns=..\n"
+"                       method=.. minors=.. products=..\n"
+"                       max_entry_terms=.. big_divisions=.. gcd_terms=..\n"
+"  --help               this text\n"
+"\n"
+"example:\n"
+"  gainsmith derive examples/cs_degen.gsc --limit ro1=inf\n";
+
+static const char eval_text[] =
+"usage: gainsmith eval FILE [options]\n"
+"\n"
+"Derives the outputs of FILE exactly, binds the numbers of its value\n"
+"lines, and prints for each output its DC value (with |H| in dB and the\n"
+"phase), its value at each --at frequency, and the numeric coefficients\n"
+"of numerator and denominator in powers of s.  Numbers are evaluated\n"
+"from the exact expression in long double (about 18 significant digits;\n"
+"fewer where terms of opposite sign cancel).  Every symbol without a\n"
+"value is named in one error.\n"
+"\n"
+"options:\n"
+"  --set SYM=VALUE      bind SYM (overrides its value line; values that\n"
+"                       depend on it follow); VALUE may use SI prefixes,\n"
+"                       arithmetic and other symbols; repeatable\n"
+"  --at FREQ            also evaluate at s = j*2*pi*FREQ; FREQ in Hz, SI\n"
+"                       prefixes allowed (--at 10k, --at 1MHz); repeatable\n"
+"  --only NAME          only the output NAME\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
+static const char check_text[] =
+"usage: gainsmith check FILE [options]\n"
+"\n"
+"Derives each output exactly, binds the file's values, and compares the\n"
+"exact expression with an independent numeric solve of the same circuit\n"
+"(the MNA stamped again with numbers and solved by LU factorisation with\n"
+"partial pivoting in long double complex) at log-spaced frequencies.\n"
+"Prints the worst relative error of each output and where it occurred;\n"
+"exits with status 1 when one exceeds the tolerance.\n"
+"\n"
+"options:\n"
+"  --tol X              largest relative error accepted (default 1e-9)\n"
+"  --from F, --to F     the sweep in Hz (default 10m to 10G)\n"
+"  --points N           frequencies in the sweep (default 61)\n"
+"  --set SYM=VALUE      as for eval; repeatable\n"
+"  --only NAME          only the output NAME\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
+static const char poles_text[] =
+"usage: gainsmith poles FILE [options]\n"
+"\n"
+"Derives each output exactly, binds the file's values, and finds the\n"
+"roots of numerator and denominator numerically (Aberth-Ehrlich\n"
+"iteration in long double with Newton-polygon starting points, polished\n"
+"on the original coefficients; docs/analysis.md).  For each output:\n"
+"the stability verdict, the DC gain and the high-frequency gain, then a\n"
+"row per pole and per zero: real and imaginary parts in rad/s, |p| in\n"
+"Hz, Q and zeta for complex pairs, the estimated multiplicity and the\n"
+"relative residual; right-half-plane roots are marked, and pole-zero\n"
+"pairs closer than --cancel-tol are reported as near-cancellations.\n"
+"\n"
+"options:\n"
+"  --format text|json   the table (default) or one JSON array\n"
+"  --cancel-tol X       relative distance for a near-cancellation\n"
+"                       (default 1e-3)\n"
+"  --set SYM=VALUE      as for eval; repeatable\n"
+"  --only NAME          only the output NAME\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
+static const char bode_text[] =
+"usage: gainsmith bode FILE --from F --to F [options]\n"
+"\n"
+"Derives each output exactly, binds the file's values, and sweeps s =\n"
+"j*2*pi*f over log-spaced frequencies: magnitude in dB, phase in degrees\n"
+"(unwrapped continuously from the low-frequency asymptote) and group\n"
+"delay in seconds.  Prints each output's -3 dB bandwidth and unity-gain\n"
+"frequency (and, with --loop, its phase and gain margins); the sweep\n"
+"itself goes to --csv, or to standard output when neither --csv nor\n"
+"--svg is given.\n"
+"\n"
+"options:\n"
+"  --from F, --to F     the sweep in Hz (required; SI prefixes allowed)\n"
+"  --points N           points in the sweep (default 201)\n"
+"  --per-decade N       points per decade instead of --points\n"
+"  --csv FILE           the sweep as CSV: freq_Hz, then NAME_mag_dB,\n"
+"                       NAME_phase_deg, NAME_group_delay_s per output\n"
+"  --svg FILE           a Bode plot: magnitude and phase panels, poles\n"
+"                       (x) and zeros (o) on the frequency axis, the\n"
+"                       bandwidth and unity-gain frequency marked, every\n"
+"                       output overlaid with a legend\n"
+"  --loop               the outputs are loop gains: report and mark the\n"
+"                       phase margin and gain margin\n"
+"  --set SYM=VALUE      as for eval; repeatable\n"
+"  --only NAME          only the output NAME\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
+static const char step_text[] =
+"usage: gainsmith step FILE [options]\n"
+"\n"
+"Derives each output exactly, binds the file's values, and computes the\n"
+"response to a unit step from the partial-fraction expansion of H(s)/s\n"
+"(repeated poles included).  Prints the final value, the 10-90 % rise\n"
+"time, the overshoot and the 1 % settling time, where they exist.\n"
+"\n"
+"options:\n"
+"  --until T            the time span in seconds (default: from the\n"
+"                       slowest pole)\n"
+"  --points N           samples written to --csv and --svg (default 1001)\n"
+"  --csv FILE           time_s, step, impulse_per_s\n"
+"  --svg FILE           a plot of the step response with the metrics\n"
+"                       marked (one output: use --only with several)\n"
+"  --set SYM=VALUE      as for eval; repeatable\n"
+"  --only NAME          only the output NAME\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
+const char *gs_cmd_help_text(const char *command)
+{
+    if (command == NULL)
+        return overview;
+    if (strcmp(command, "derive") == 0)
+        return derive_text;
+    if (strcmp(command, "eval") == 0)
+        return eval_text;
+    if (strcmp(command, "poles") == 0)
+        return poles_text;
+    if (strcmp(command, "bode") == 0)
+        return bode_text;
+    if (strcmp(command, "step") == 0)
+        return step_text;
+    if (strcmp(command, "check") == 0)
+        return check_text;
+    if (strcmp(command, "extract") == 0)
+        return gs_cmd_extract_help();
+    return NULL;
+}

@@ -1,0 +1,272 @@
+/* numsolve.c - an independent numeric solve of a circuit at one s.
+ * See LICENSE.
+ *
+ * Unknowns: the voltages of nodes 1 .. nnodes-1, then one current for each
+ * element that defines a voltage (inductor, voltage source, VCVS, CCVS,
+ * op-amp output).  Rows: KCL at each node (currents leaving through
+ * elements), then each such element's voltage equation.
+ */
+#include "numeric/numsolve.h"
+#include "base/mem.h"
+
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+typedef long double complex cplx;
+
+typedef struct numsys {
+    int n;
+    cplx *a;            /* n x n, row-major */
+    cplx *rhs;
+    int *branch;        /* element -> current unknown, or -1 */
+    const gs_circuit *c;
+    const long double *vals;
+    cplx s;
+    int input;          /* the input source, or -1 */
+} numsys;
+
+static long double value_of(const numsys *sy, const gs_monomial *m)
+{
+    long double v = gs_rat_get_ld(&m->coeff);
+    int i;
+    for (i = 0; i < m->n; i++)
+        v *= powl(sy->vals[m->sym[i]], (long double)m->exp[i]);
+    return v;
+}
+
+static void add(numsys *sy, int node_row, int col, cplx v)
+{
+    if (node_row >= 0 && col >= 0)
+        sy->a[(size_t)node_row * (size_t)sy->n + (size_t)col] += v;
+}
+
+static int vidx(int node)
+{
+    return node - 1;        /* node 0 is ground: -1, dropped */
+}
+
+/* The current through element k as coefficients over the unknowns plus a
+   known part (the input source's unit current). */
+static void current_coeffs(cplx *row, cplx *known, const numsys *sy, int k,
+                           cplx scale, int depth)
+{
+    const gs_element *e = &sy->c->elems[k];
+    cplx y;
+    if (depth > (int)sy->c->nelems)
+        return;             /* a control loop: mna.c reports it */
+    if (sy->branch[k] >= 0) {
+        row[sy->branch[k]] += scale;
+        return;
+    }
+    switch (e->kind) {
+    case GS_RESISTOR:
+    case GS_CONDUCTANCE:
+    case GS_CAPACITOR:
+        y = value_of(sy, &e->value);
+        if (e->kind == GS_RESISTOR)
+            y = 1 / y;
+        if (e->kind == GS_CAPACITOR)
+            y *= sy->s;
+        if (vidx(e->node[0]) >= 0)
+            row[vidx(e->node[0])] += scale * y;
+        if (vidx(e->node[1]) >= 0)
+            row[vidx(e->node[1])] -= scale * y;
+        break;
+    case GS_VCCS:
+        y = value_of(sy, &e->value);
+        if (vidx(e->node[2]) >= 0)
+            row[vidx(e->node[2])] += scale * y;
+        if (vidx(e->node[3]) >= 0)
+            row[vidx(e->node[3])] -= scale * y;
+        break;
+    case GS_CCCS:
+        current_coeffs(row, known, sy, e->ctrl,
+                       scale * value_of(sy, &e->value), depth + 1);
+        break;
+    case GS_ISOURCE:
+        if (k == sy->input)
+            *known += scale;
+        break;
+    default:
+        break;
+    }
+}
+
+/* A current (row . x + known) flowing from node a through the element to
+   node b. */
+static void stamp_flow(numsys *sy, int a, int b, const cplx *row, cplx known)
+{
+    int j;
+    for (j = 0; j < sy->n; j++) {
+        if (row[j] == 0)
+            continue;
+        add(sy, vidx(a), j, row[j]);
+        add(sy, vidx(b), j, -row[j]);
+    }
+    if (vidx(a) >= 0)
+        sy->rhs[vidx(a)] -= known;
+    if (vidx(b) >= 0)
+        sy->rhs[vidx(b)] += known;
+}
+
+static void stamp_voltage_row(numsys *sy, int k, const gs_element *e)
+{
+    int br = sy->branch[k];
+    add(sy, vidx(e->node[0]), br, 1);
+    add(sy, vidx(e->node[1]), br, -1);
+    add(sy, br, vidx(e->node[0]), 1);
+    add(sy, br, vidx(e->node[1]), -1);
+}
+
+static void stamp(numsys *sy, int k, cplx *row)
+{
+    const gs_element *e = &sy->c->elems[k];
+    int br = sy->branch[k], j;
+    cplx known = 0, g;
+    memset(row, 0, (size_t)sy->n * sizeof *row);
+    switch (e->kind) {
+    case GS_VSOURCE:
+        stamp_voltage_row(sy, k, e);
+        if (k == sy->input)
+            sy->rhs[br] += 1;
+        break;
+    case GS_INDUCTOR:
+        stamp_voltage_row(sy, k, e);
+        add(sy, br, br, -sy->s * value_of(sy, &e->value));
+        break;
+    case GS_VCVS:
+        stamp_voltage_row(sy, k, e);
+        g = value_of(sy, &e->value);
+        add(sy, br, vidx(e->node[2]), -g);
+        add(sy, br, vidx(e->node[3]), g);
+        break;
+    case GS_CCVS:
+        stamp_voltage_row(sy, k, e);
+        current_coeffs(row, &known, sy, e->ctrl, value_of(sy, &e->value),
+                       1);
+        for (j = 0; j < sy->n; j++)
+            add(sy, br, j, -row[j]);
+        sy->rhs[br] += known;
+        break;
+    case GS_OPAMP:
+        add(sy, vidx(e->node[0]), br, 1);
+        add(sy, br, vidx(e->node[1]), 1);
+        add(sy, br, vidx(e->node[2]), -1);
+        break;
+    default:
+        current_coeffs(row, &known, sy, k, 1, 0);
+        stamp_flow(sy, e->node[0], e->node[1], row, known);
+        break;
+    }
+}
+
+/* Solve a x = rhs in place (x in rhs) by LU with partial pivoting. */
+static int lu_solve(cplx *a, cplx *rhs, int n)
+{
+    int i, j, k, p;
+    long double scale = 0;
+    for (i = 0; i < n * n; i++)
+        if (cabsl(a[i]) > scale)
+            scale = cabsl(a[i]);
+    for (k = 0; k < n; k++) {
+        p = k;
+        for (i = k + 1; i < n; i++)
+            if (cabsl(a[i * n + k]) > cabsl(a[p * n + k]))
+                p = i;
+        if (cabsl(a[p * n + k]) <= scale * 1e-30L)
+            return GS_ESINGULAR;
+        if (p != k) {
+            for (j = 0; j < n; j++) {
+                cplx t = a[k * n + j];
+                a[k * n + j] = a[p * n + j];
+                a[p * n + j] = t;
+            }
+            { cplx t = rhs[k]; rhs[k] = rhs[p]; rhs[p] = t; }
+        }
+        for (i = k + 1; i < n; i++) {
+            cplx f = a[i * n + k] / a[k * n + k];
+            if (f == 0)
+                continue;
+            for (j = k; j < n; j++)
+                a[i * n + j] -= f * a[k * n + j];
+            rhs[i] -= f * rhs[k];
+        }
+    }
+    for (k = n - 1; k >= 0; k--) {
+        cplx acc = rhs[k];
+        for (j = k + 1; j < n; j++)
+            acc -= a[k * n + j] * rhs[j];
+        rhs[k] = acc / a[k * n + k];
+    }
+    return GS_OK;
+}
+
+static int is_voltage_defined(gs_elem_kind k)
+{
+    return k == GS_INDUCTOR || k == GS_VSOURCE || k == GS_VCVS
+        || k == GS_CCVS || k == GS_OPAMP;
+}
+
+/* The output: v(a) - v(b), or an element's current, from the solution. */
+static cplx probe_value(const numsys *sy, const gs_output *o, const cplx *x,
+                        cplx *row)
+{
+    cplx known = 0, v = 0;
+    int j, a = o->out.a, b = o->out.b;
+    if (o->kind == GS_OUT_IMPEDANCE || o->out.kind == GS_PROBE_V) {
+        if (o->kind == GS_OUT_IMPEDANCE) {
+            a = o->a;
+            b = o->b;
+        }
+        return (vidx(a) >= 0 ? x[vidx(a)] : 0)
+             - (vidx(b) >= 0 ? x[vidx(b)] : 0);
+    }
+    memset(row, 0, (size_t)sy->n * sizeof *row);
+    current_coeffs(row, &known, sy, o->out.elem, 1, 0);
+    for (j = 0; j < sy->n; j++)
+        v += row[j] * x[j];
+    return v + known;
+}
+
+int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
+                const long double *vals, long double complex s, gs_diag *d)
+{
+    const gs_output *o = &c->outputs[out];
+    numsys sy;
+    size_t k;
+    int n = c->nnodes - 1, rc;
+    cplx *row;
+
+    sy.branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy.branch);
+    for (k = 0; k < c->nelems; k++)
+        sy.branch[k] = is_voltage_defined(c->elems[k].kind) ? n++ : -1;
+    sy.n = n;
+    sy.c = c;
+    sy.vals = vals;
+    sy.s = s;
+    sy.input = o->kind == GS_OUT_TRANSFER ? o->in : -1;
+    sy.a = gs_calloc((size_t)n * (size_t)n + 1, sizeof *sy.a);
+    sy.rhs = gs_calloc((size_t)n + 1, sizeof *sy.rhs);
+    row = gs_calloc((size_t)n + 1, sizeof *row);
+    for (k = 0; k < c->nelems; k++)
+        stamp(&sy, (int)k, row);
+    if (o->kind == GS_OUT_IMPEDANCE) {   /* unit test current into a */
+        if (vidx(o->a) >= 0)
+            sy.rhs[vidx(o->a)] += 1;
+        if (vidx(o->b) >= 0)
+            sy.rhs[vidx(o->b)] -= 1;
+    }
+    rc = lu_solve(sy.a, sy.rhs, n);
+    if (rc == GS_OK)
+        *h = probe_value(&sy, o, sy.rhs, row);
+    else
+        gs_diag_add(d, GS_SEV_ERROR, c->file, o->line, o->col, NULL,
+                    "%s: the numeric numsys is singular at s = %Lg%+Lgj",
+                    o->name, creall(s), cimagl(s));
+    free(row);
+    free(sy.a);
+    free(sy.rhs);
+    free(sy.branch);
+    return rc;
+}

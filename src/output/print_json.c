@@ -1,0 +1,183 @@
+/* print_json.c - a transfer function as one JSON object. See LICENSE.
+ *
+ * The layout is documented in docs/json.md.  Strings follow RFC 8259:
+ * '"', '\' and control characters are escaped; bytes that are not valid
+ * UTF-8 are replaced by U+FFFD so the output is always valid JSON.
+ */
+#include "analysis/tf.h"
+#include "base/mem.h"
+
+#include <stdlib.h>
+#include <string.h>
+
+/* Length of the valid UTF-8 sequence at s (RFC 3629, section 4), or 0. */
+static size_t utf8_len(const unsigned char *s)
+{
+    size_t n, i;
+    unsigned char lo = 0x80, hi = 0xBF;
+    if (s[0] >= 0xC2 && s[0] <= 0xDF)
+        n = 2;
+    else if (s[0] >= 0xE0 && s[0] <= 0xEF)
+        n = 3;
+    else if (s[0] >= 0xF0 && s[0] <= 0xF4)
+        n = 4;
+    else
+        return 0;
+    if (s[0] == 0xE0)
+        lo = 0xA0;
+    else if (s[0] == 0xED)
+        hi = 0x9F;
+    else if (s[0] == 0xF0)
+        lo = 0x90;
+    else if (s[0] == 0xF4)
+        hi = 0x8F;
+    if (s[1] < lo || s[1] > hi)
+        return 0;
+    for (i = 2; i < n; i++)
+        if (s[i] < 0x80 || s[i] > 0xBF)
+            return 0;
+    return n;
+}
+
+static void json_str(FILE *out, const char *str)
+{
+    const unsigned char *s = (const unsigned char *)str;
+    fputc('"', out);
+    while (*s) {
+        size_t n;
+        if (*s == '"' || *s == '\\') {
+            fputc('\\', out);
+            fputc(*s++, out);
+        } else if (*s == '\n') {
+            fputs("\\n", out);
+            s++;
+        } else if (*s == '\t') {
+            fputs("\\t", out);
+            s++;
+        } else if (*s < 0x20) {
+            fprintf(out, "\\u%04x", (unsigned)*s++);
+        } else if (*s < 0x80) {
+            fputc(*s++, out);
+        } else if ((n = utf8_len(s)) > 0) {
+            fwrite(s, 1, n, out);
+            s += n;
+        } else {
+            fputs("\\ufffd", out);
+            s++;
+        }
+    }
+    fputc('"', out);
+}
+
+static void json_name_or_null(FILE *out, const gs_polyctx *ctx, int var)
+{
+    if (var >= 0 && var < ctx->nvars)
+        json_str(out, gs_symtab_name(ctx->syms, var));
+    else
+        fputs("null", out);
+}
+
+/* "symbols": every symbol of num or den but s, in symbol order. */
+static void put_symbols(FILE *out, const gs_tf *tf)
+{
+    const gs_polyctx *ctx = tf->ctx;
+    unsigned char *used = gs_calloc((size_t)ctx->nvars + 1, 2);
+    unsigned char *used_d = used + ctx->nvars + 1;
+    int i, first = 1;
+    gs_poly_used_vars(used, &tf->num, ctx);
+    gs_poly_used_vars(used_d, &tf->den, ctx);
+    fputc('[', out);
+    for (i = 0; i < ctx->nvars; i++) {
+        if (i == tf->s_var || !(used[i] || used_d[i]))
+            continue;
+        fputs(first ? "" : ", ", out);
+        json_str(out, gs_symtab_name(ctx->syms, i));
+        first = 0;
+    }
+    fputc(']', out);
+    free(used);
+}
+
+/* {"power": k, "terms": [{"coeff": "-2", "exps": {"gm": 1}}, ...]} */
+static void put_group(FILE *out, const gs_poly *c, long power,
+                      const gs_polyctx *ctx, unsigned *exps)
+{
+    size_t i;
+    int v, first;
+    fprintf(out, "{\"power\": %ld, \"terms\": [", power);
+    for (i = 0; i < c->length; i++) {
+        char *digits = gs_int_get_str(&c->coeffs[i]);
+        fprintf(out, "%s{\"coeff\": \"%s\", \"exps\": {", i ? ", " : "",
+                digits);
+        free(digits);
+        gs_poly_get_term_exps(exps, c, i, ctx);
+        for (v = 0, first = 1; v < ctx->nvars; v++) {
+            if (exps[v] == 0)
+                continue;
+            fputs(first ? "" : ", ", out);
+            json_str(out, gs_symtab_name(ctx->syms, v));
+            fprintf(out, ": %u", exps[v]);
+            first = 0;
+        }
+        fputs("}}", out);
+    }
+    fputs("]}", out);
+}
+
+/* The groups of a by descending power of var (one group when var < 0). */
+static void put_poly(FILE *out, const gs_poly *a, int var,
+                     const gs_polyctx *ctx)
+{
+    unsigned *exps = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *exps);
+    int first = 1;
+    fputc('[', out);
+    if (var < 0 || var >= ctx->nvars) {
+        if (!gs_poly_is_zero(a))
+            put_group(out, a, 0, ctx, exps);
+    } else if (!gs_poly_is_zero(a)) {
+        size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i;
+        gs_poly *c = gs_malloc(n * sizeof *c);
+        for (i = 0; i < n; i++)
+            gs_poly_init(&c[i]);
+        gs_poly_coeffs_var(c, n, a, var, ctx);
+        for (i = n; i-- > 0;) {
+            if (gs_poly_is_zero(&c[i]))
+                continue;
+            fputs(first ? "" : ", ", out);
+            put_group(out, &c[i], (long)i, ctx, exps);
+            first = 0;
+        }
+        for (i = 0; i < n; i++)
+            gs_poly_clear(&c[i]);
+        free(c);
+    }
+    fputc(']', out);
+    free(exps);
+}
+
+void gs_print_json(FILE *out, const gs_tf *tf, int collect_var)
+{
+    char *text = gs_tf_get_str(tf, collect_var);
+    fputs("{\"name\": ", out);
+    json_str(out, gs_tf_name(tf));
+    fprintf(out, ", \"kind\": \"%s\", \"description\": ",
+            tf->kind == GS_TF_IMPEDANCE ? "impedance" : "transfer");
+    if (tf->description != NULL)
+        json_str(out, tf->description);
+    else
+        fputs("null", out);
+    fputs(", \"s\": ", out);
+    json_name_or_null(out, tf->ctx, tf->s_var);
+    fputs(", \"collect\": ", out);
+    json_name_or_null(out, tf->ctx, collect_var);
+    fputs(", \"symbols\": ", out);
+    put_symbols(out, tf);
+    fputs(", \"num\": ", out);
+    put_poly(out, &tf->num, collect_var, tf->ctx);
+    fputs(", \"den\": ", out);
+    put_poly(out, &tf->den, collect_var, tf->ctx);
+    fputs(", \"text\": ", out);
+    json_str(out, text);
+    fputc('}', out);
+    free(text);
+}

@@ -1,0 +1,460 @@
+/* print_text.c - text, 2-D text and LaTeX forms of a transfer function.
+ * See LICENSE.
+ *
+ * All three write N and D as sums over the powers of a collecting
+ * variable (normally s), highest power first: a power whose coefficient
+ * is one term reads "C*R*s^2", one with several "(C*R*RD + 1)*s^2", and
+ * the power 0 comes last, its terms written out.  Within a coefficient
+ * the terms keep the canonical order of poly.h, so output is determined
+ * by the polynomials alone.  docs/output.md describes the formats.
+ */
+#include "analysis/tf.h"
+#include "base/mem.h"
+
+#include <ctype.h>
+#include <stdlib.h>
+#include <string.h>
+
+#define PRETTY_COLS 79      /* longest line of the 2-D form, if it can */
+#define PRETTY_MIN 20       /* narrowest block it wraps to */
+
+/* A growing string that also records where a line may be broken: at the
+   space that starts each " + " or " - " between terms. */
+typedef struct sbuf {
+    char *p;
+    size_t n, cap;
+    size_t *brk;
+    size_t nbrk, capbrk;
+} sbuf;
+
+/* How names, products, powers and groups are spelt. */
+typedef struct style {
+    int latex;
+    char **names;           /* per variable, owned; NULL until needed */
+    size_t *lens;           /* their lengths */
+    const gs_polyctx *ctx;
+} style;
+
+static void sb_init(sbuf *b)
+{
+    b->cap = 64;
+    b->p = gs_malloc(b->cap);
+    b->p[0] = '\0';
+    b->n = 0;
+    b->brk = NULL;
+    b->nbrk = b->capbrk = 0;
+}
+
+static void sb_free(sbuf *b)
+{
+    free(b->p);
+    free(b->brk);
+}
+
+static void sb_putn(sbuf *b, const char *s, size_t n)
+{
+    if (b->n + n + 1 > b->cap) {
+        while (b->n + n + 1 > b->cap)
+            b->cap *= 2;
+        b->p = gs_realloc(b->p, b->cap);
+    }
+    memcpy(b->p + b->n, s, n);
+    b->n += n;
+    b->p[b->n] = '\0';
+}
+
+static void sb_puts(sbuf *b, const char *s)
+{
+    sb_putn(b, s, strlen(s));
+}
+
+static void sb_mark_break(sbuf *b)
+{
+    if (b->nbrk == b->capbrk) {
+        b->capbrk = b->capbrk ? 2 * b->capbrk : 16;
+        b->brk = gs_reallocarray(b->brk, b->capbrk, sizeof *b->brk);
+    }
+    b->brk[b->nbrk++] = b->n;
+}
+
+static int is_identifier(const char *s)
+{
+    if (!isalpha((unsigned char)*s))
+        return 0;
+    for (s++; *s; s++)
+        if (!isalnum((unsigned char)*s) && *s != '_')
+            return 0;
+    return 1;
+}
+
+/* A name that gs_sym_latex_name cannot take (not an identifier) in
+   upright type, with the characters LaTeX reserves escaped. */
+static char *latex_escape(const char *name)
+{
+    sbuf b;
+    char one[2] = {0, 0};
+    sb_init(&b);
+    sb_puts(&b, "\\mathrm{");
+    for (; *name; name++) {
+        unsigned char c = (unsigned char)*name;
+        if (c == ' ')
+            sb_puts(&b, "\\ ");
+        else if (strchr("#$%&_{}", c) != NULL) {
+            one[0] = (char)c;
+            sb_puts(&b, "\\");
+            sb_puts(&b, one);
+        } else if (c < 0x20 || c >= 0x7F || strchr("\\^~", c) != NULL) {
+            sb_puts(&b, "?");
+        } else {
+            one[0] = (char)c;
+            sb_puts(&b, one);
+        }
+    }
+    sb_puts(&b, "}");
+    free(b.brk);
+    return b.p;
+}
+
+/* LaTeX for a plain name.  The "{}" that gs_sym_latex_name puts after a
+   bare Greek letter is dropped: here a name is always followed by a
+   space, a thin space, a superscript or the end of a group. */
+static char *latex_plain(const char *name)
+{
+    char *t;
+    size_t n;
+    if (!is_identifier(name))
+        return latex_escape(name);
+    t = gs_sym_latex_name(name);
+    n = strlen(t);
+    if (n > 2 && strcmp(t + n - 2, "{}") == 0)
+        t[n - 2] = '\0';
+    return t;
+}
+
+static char *var_name(const style *st, int id)
+{
+    const gs_symtab *syms = st->ctx->syms;
+    int base = gs_symtab_base(syms, id);
+    char *inner, *out;
+    if (!st->latex) {
+        if (base < 0)
+            return gs_strdup(gs_symtab_name(syms, id));
+        return gs_asprintf("(%s)", gs_symtab_name(syms, id));
+    }
+    if (base < 0)
+        return latex_plain(gs_symtab_name(syms, id));
+    inner = latex_plain(gs_symtab_name(syms, base));
+    out = gs_asprintf("{\\frac{1}{%s}}", inner);
+    free(inner);
+    return out;
+}
+
+static void style_init(style *st, const gs_polyctx *ctx, int latex)
+{
+    st->latex = latex;
+    st->ctx = ctx;
+    st->names = gs_calloc((size_t)ctx->nvars + 1, sizeof *st->names);
+    st->lens = gs_calloc((size_t)ctx->nvars + 1, sizeof *st->lens);
+}
+
+static void style_clear(style *st)
+{
+    int i;
+    for (i = 0; i < st->ctx->nvars; i++)
+        free(st->names[i]);
+    free(st->names);
+    free(st->lens);
+}
+
+static const char *name_of(style *st, int id)
+{
+    if (st->names[id] == NULL) {
+        st->names[id] = var_name(st, id);
+        st->lens[id] = strlen(st->names[id]);
+    }
+    return st->names[id];
+}
+
+/* x_var^k; k >= 1 */
+static void put_power(sbuf *b, style *st, int var, unsigned k)
+{
+    char num[32];
+    const char *name = name_of(st, var);
+    sb_putn(b, name, st->lens[var]);
+    if (k > 1 && k < 10 && !st->latex) {    /* the common case, no printf */
+        num[0] = '^';
+        num[1] = (char)('0' + k);
+        sb_putn(b, num, 2);
+    } else if (k > 1) {
+        snprintf(num, sizeof num, st->latex ? "^{%u}" : "^%u", k);
+        sb_puts(b, num);
+    }
+}
+
+static const char *mul_sign(const style *st)
+{
+    return st->latex ? "\\," : "*";
+}
+
+/* The monomial of exps (every variable but skip); 0 when it is 1. */
+static int put_monomial(sbuf *b, style *st, const unsigned *exps, int skip)
+{
+    int i, count = 0;
+    for (i = 0; i < st->ctx->nvars; i++) {
+        if (i == skip || exps[i] == 0)
+            continue;
+        if (count++ > 0)
+            sb_puts(b, mul_sign(st));
+        put_power(b, st, i, exps[i]);
+    }
+    return count;
+}
+
+static int monomial_is_one(const unsigned *exps, int nvars)
+{
+    int i;
+    for (i = 0; i < nvars; i++)
+        if (exps[i] != 0)
+            return 0;
+    return 1;
+}
+
+static int is_unit(const gs_int *c)
+{
+    return gs_int_is_one(c) || gs_int_cmp_si(c, -1) == 0;
+}
+
+/* |c| times the monomial; "1" for the constant term +-1. */
+static void put_term(sbuf *b, style *st, const gs_int *c,
+                     const unsigned *exps)
+{
+    int one = monomial_is_one(exps, st->ctx->nvars);
+    if (one || !is_unit(c)) {
+        char *digits = gs_int_get_str(c);
+        sb_puts(b, digits[0] == '-' ? digits + 1 : digits);
+        free(digits);
+        if (!one)
+            sb_puts(b, mul_sign(st));
+    }
+    if (!one)
+        put_monomial(b, st, exps, -1);
+}
+
+/* The sign before a term: nothing or "-" first, " + " or " - " after. */
+static void put_sign(sbuf *b, int negative, int first)
+{
+    if (first) {
+        if (negative)
+            sb_puts(b, "-");
+        return;
+    }
+    sb_mark_break(b);
+    sb_puts(b, negative ? " - " : " + ");
+}
+
+/* The terms of a, one after the other; flip negates each sign. */
+static void put_terms(sbuf *b, style *st, const gs_poly *a, int first,
+                      int flip, unsigned *exps)
+{
+    size_t i;
+    for (i = 0; i < a->length; i++) {
+        int neg = (gs_int_sgn(&a->coeffs[i]) < 0) != (flip != 0);
+        gs_poly_get_term_exps(exps, a, i, st->ctx);
+        put_sign(b, neg, first && i == 0);
+        put_term(b, st, &a->coeffs[i], exps);
+    }
+}
+
+/* c * x_var^k for k >= 1, c free of x_var and nonzero.  A coefficient of
+   several terms goes in parentheses, its leading sign outside. */
+static void put_group(sbuf *b, style *st, const gs_poly *c, int var,
+                      unsigned k, int first, unsigned *exps)
+{
+    int neg = gs_int_sgn(&c->coeffs[0]) < 0;
+    put_sign(b, neg, first);
+    if (c->length == 1) {
+        gs_poly_get_term_exps(exps, c, 0, st->ctx);
+        if (!monomial_is_one(exps, st->ctx->nvars)
+            || !is_unit(&c->coeffs[0])) {
+            put_term(b, st, &c->coeffs[0], exps);
+            sb_puts(b, mul_sign(st));
+        }
+    } else {
+        sb_puts(b, st->latex ? "\\left( " : "(");
+        put_terms(b, st, c, 1, neg, exps);
+        sb_puts(b, st->latex ? " \\right) " : ")*");
+    }
+    put_power(b, st, var, k);
+}
+
+/* a written as a sum over the powers of x_var (var < 0: as it is). */
+static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
+{
+    const gs_polyctx *ctx = st->ctx;
+    unsigned *exps = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *exps);
+    long k;
+    int first = 1;
+
+    if (gs_poly_is_zero(a)) {
+        sb_puts(b, "0");
+    } else if (var < 0 || var >= ctx->nvars) {
+        put_terms(b, st, a, 1, 0, exps);
+    } else {
+        size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i;
+        gs_poly *c = gs_malloc(n * sizeof *c);
+        for (i = 0; i < n; i++)
+            gs_poly_init(&c[i]);
+        gs_poly_coeffs_var(c, n, a, var, ctx);
+        for (k = (long)n - 1; k >= 0; k--) {
+            if (gs_poly_is_zero(&c[k]))
+                continue;
+            if (k == 0)
+                put_terms(b, st, &c[k], first, 0, exps);
+            else
+                put_group(b, st, &c[k], var, (unsigned)k, first, exps);
+            first = 0;
+        }
+        for (i = 0; i < n; i++)
+            gs_poly_clear(&c[i]);
+        free(c);
+    }
+    free(exps);
+}
+
+static char *poly_str(const gs_tf *tf, const gs_poly *a, int collect_var,
+                      int latex)
+{
+    style st;
+    sbuf b;
+    sb_init(&b);
+    style_init(&st, tf->ctx, latex);
+    put_poly(&b, &st, a, collect_var);
+    style_clear(&st);
+    free(b.brk);
+    return b.p;
+}
+
+char *gs_tf_get_str(const gs_tf *tf, int collect_var)
+{
+    char *n = poly_str(tf, &tf->num, collect_var, 0);
+    char *d = poly_str(tf, &tf->den, collect_var, 0);
+    char *line = gs_asprintf("%s = (%s)/(%s)", gs_tf_name(tf), n, d);
+    free(n);
+    free(d);
+    return line;
+}
+
+void gs_print_text(FILE *out, const gs_tf *tf, int collect_var)
+{
+    char *line = gs_tf_get_str(tf, collect_var);
+    fprintf(out, "%s\n", line);
+    free(line);
+}
+
+void gs_print_latex(FILE *out, const gs_tf *tf, int collect_var)
+{
+    char *name = latex_plain(gs_tf_name(tf));
+    char *n = poly_str(tf, &tf->num, collect_var, 1);
+    char *d = poly_str(tf, &tf->den, collect_var, 1);
+    fprintf(out, "\\begin{equation}\n%s = \\frac{%s}{%s}\n\\end{equation}\n",
+            name, n, d);
+    free(name);
+    free(n);
+    free(d);
+}
+
+/* ---- 2-D text ---- */
+
+/* Lines of a wrapped block: line i is text[start[i] .. start[i]+len[i]). */
+typedef struct block {
+    const char *text;
+    size_t *start, *len;
+    size_t nlines, width;
+} block;
+
+static void block_add(block *bl, size_t from, size_t to)
+{
+    bl->start = gs_reallocarray(bl->start, bl->nlines + 1,
+                                sizeof *bl->start);
+    bl->len = gs_reallocarray(bl->len, bl->nlines + 1, sizeof *bl->len);
+    bl->start[bl->nlines] = from;
+    bl->len[bl->nlines] = to - from;
+    if (to - from > bl->width)
+        bl->width = to - from;
+    bl->nlines++;
+}
+
+/* Greedy fill: break at the last break point that keeps a line within
+   width; a single term longer than that gets a line of its own. */
+static void block_wrap(block *bl, const sbuf *b, size_t width)
+{
+    size_t j, start = 0, cut = 0, bp;
+    int have_cut = 0;
+    bl->text = b->p;
+    bl->start = bl->len = NULL;
+    bl->nlines = bl->width = 0;
+    for (j = 0; j <= b->nbrk; j++) {
+        bp = j < b->nbrk ? b->brk[j] : b->n;
+        if (bp - start > width && have_cut && cut > start) {
+            block_add(bl, start, cut);
+            start = cut + 1;        /* the line goes on with "+ term" */
+        }
+        cut = bp;
+        have_cut = 1;
+    }
+    block_add(bl, start, b->n);
+}
+
+static void block_free(block *bl)
+{
+    free(bl->start);
+    free(bl->len);
+}
+
+static void put_spaces(FILE *out, size_t n)
+{
+    while (n-- > 0)
+        fputc(' ', out);
+}
+
+static void block_print(FILE *out, const block *bl, size_t indent,
+                        size_t rule)
+{
+    size_t i;
+    for (i = 0; i < bl->nlines; i++) {
+        put_spaces(out, indent + (rule - bl->width) / 2);
+        fwrite(bl->text + bl->start[i], 1, bl->len[i], out);
+        fputc('\n', out);
+    }
+}
+
+void gs_print_pretty(FILE *out, const gs_tf *tf, int collect_var)
+{
+    const char *name = gs_tf_name(tf);
+    size_t indent = strlen(name) + 3, width, rule, i;
+    style st;
+    sbuf n, d;
+    block bn, bd;
+
+    width = indent + 2 + PRETTY_MIN < PRETTY_COLS
+                ? PRETTY_COLS - indent - 2 : PRETTY_MIN;
+    sb_init(&n);
+    sb_init(&d);
+    style_init(&st, tf->ctx, 0);
+    put_poly(&n, &st, &tf->num, collect_var);
+    put_poly(&d, &st, &tf->den, collect_var);
+    style_clear(&st);
+    block_wrap(&bn, &n, width);
+    block_wrap(&bd, &d, width);
+    rule = (bn.width > bd.width ? bn.width : bd.width) + 2;
+    block_print(out, &bn, indent, rule);
+    fprintf(out, "%s = ", name);
+    for (i = 0; i < rule; i++)
+        fputc('-', out);
+    fputc('\n', out);
+    block_print(out, &bd, indent, rule);
+    block_free(&bn);
+    block_free(&bd);
+    sb_free(&n);
+    sb_free(&d);
+}

@@ -1,0 +1,86 @@
+/* svg.h - Bode and step-response plots as SVG. See LICENSE.
+ *
+ * The plots are plain and print well in black and white: traces differ
+ * by dash pattern as well as colour, grids are light grey, text is black
+ * on white.  A Bode plot has a magnitude panel over a phase panel on one
+ * logarithmic frequency axis with decade and 2..9 sub-decade grid lines;
+ * between them a strip marks the poles (x) and zeros (o) of each trace at
+ * |p| / 2 pi.  Tick labels use SI prefixes (100 m, 1, 10 k, 2 G) and the
+ * unit is in the axis title.  Numbers are written without the C library's
+ * locale, so the file is the same whatever LC_NUMERIC says.
+ */
+#ifndef GS_SVG_H
+#define GS_SVG_H
+
+#include <complex.h>
+#include <stddef.h>
+#include <stdio.h>
+
+#include "numeric/roots.h"
+#include "numeric/step.h"
+
+/* Format v with `digits` significant digits (1..6) and an SI prefix
+ * (y .. Y, "u" written as the micro sign), then unit: "1.59 kHz", "100 m",
+ * "47 nF", "0 s", "-2.2 MV".  Trailing zeros are dropped.  unit may be
+ * NULL or "".  Writes at most n bytes including the NUL and returns buf. */
+char *gs_si_format(char *buf, size_t n, long double v, int digits,
+                   const char *unit);
+
+/* What a Bode trace can have marked.  Arrays are borrowed. */
+typedef struct gs_plot_marks {
+    const long double complex *poles;   /* drawn as x at |p| / 2 pi */
+    int npoles;
+    const long double complex *zeros;   /* drawn as o */
+    int nzeros;
+    int has_bw;                 /* -3 dB bandwidth */
+    long double bw_hz;
+    int has_unity;              /* unity-gain (0 dB) frequency */
+    long double unity_hz;
+    int has_pm;                 /* phase margin, for a loop gain */
+    long double pm_deg, pm_hz;
+    int has_gm;                 /* gain margin, for a loop gain */
+    long double gm_db, gm_hz;
+} gs_plot_marks;
+
+/* One trace.  Arrays are borrowed and hold n points; x ascending. */
+typedef struct gs_plot_trace {
+    const char *label;          /* legend text (UTF-8), may be NULL */
+    size_t n;
+    const long double *x;       /* frequency in Hz, or time in s */
+    const long double *y;       /* magnitude in dB, or the response */
+    const long double *y2;      /* phase in degrees (Bode only) */
+    const gs_plot_marks *marks;         /* Bode; may be NULL */
+    const gs_step_metrics *metrics;     /* step; may be NULL */
+} gs_plot_trace;
+
+typedef struct gs_plot {
+    const char *title;          /* may be NULL */
+    const char *ylabel;         /* step plot's y axis title; NULL: "Output" */
+    int width, height;          /* pixels; 0 picks 760 x 600 (Bode) or
+                                   760 x 420 (step) */
+    const gs_plot_trace *traces;
+    size_t ntraces;             /* 1 or more; up to 6 get distinct styles,
+                                   then the styles repeat */
+} gs_plot;
+
+/* Write a Bode plot.  Non-finite points break a trace; values outside a
+ * panel are clipped; the magnitude axis spans at most 240 dB below the
+ * highest value.  Annotations: -3 dB bandwidth and unity-gain frequency on
+ * the magnitude panel, gain margin as a bar from the magnitude to 0 dB,
+ * phase margin as a bar from the phase to -180 degrees.  Returns GS_OK,
+ * GS_EINVAL (no traces, a trace without points, or nothing finite to
+ * draw), or GS_EIO on a write error. */
+int gs_svg_bode(FILE *out, const gs_plot *p);
+
+/* Write a step-response plot: one panel, linear time axis in seconds.
+ * With metrics: the final value, the 10 % and 90 % points, the overshoot
+ * peak and the 1 % settling time are marked.  Returns as gs_svg_bode. */
+int gs_svg_step(FILE *out, const gs_plot *p);
+
+/* Fill m from h: its poles and zeros (borrowed from h, which must outlive
+ * m), bandwidth and unity-gain frequency where they exist, and, when
+ * loop_gain is nonzero, the margins of h as a loop gain.  Returns GS_OK or
+ * GS_ERANGE if a root search failed (m is still usable). */
+int gs_plot_marks_fill(gs_plot_marks *m, const gs_tfn *h, int loop_gain);
+
+#endif
