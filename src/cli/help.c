@@ -24,6 +24,7 @@ static const char overview[] =
 "  step      step response: rise time, overshoot, settling; CSV and SVG\n"
 "  check     the exact result against an independent numeric solve\n"
 "  extract   device figures from a datasheet point -> model parameters\n"
+"  sens      normalised sensitivities of gain, poles, w0, Q, bandwidth\n"
 "  help      this text, or the manual of one command\n"
 "\n"
 "FILE is a circuit in the gainsmith language (.gsc; see docs/language.md),\n"
@@ -184,8 +185,30 @@ static const char step_text[] =
 "  --max-terms N        as for derive\n"
 "  --help               this text\n";
 
+static const char sens_text[] =
+"usage: gainsmith sens FILE [options]\n"
+"\n"
+"Normalised sensitivities S(Q, x) = (x/Q) dQ/dx of each output's figures\n"
+"to every symbol x, at the bound values: the DC gain, |H| and phase at\n"
+"each --at, every real pole and zero, w0 and Q of every complex pair,\n"
+"and the -3 dB bandwidth.  The derivatives of N and D are exact\n"
+"(symbolic), evaluated in long double; a root p moves by\n"
+"dp/dx = -(dD/dx)/(dD/ds) at s = p (docs/sens.md).  Each figure's table\n"
+"is sorted by |S|; symbols with |S| < 0.001 are folded into one line.\n"
+"\n"
+"options:\n"
+"  --at FREQ            |H| and phase at FREQ (Hz; repeatable)\n"
+"  --only NAME          only the output NAME\n"
+"  --set SYM=VALUE      override a value (repeatable)\n"
+"  --format text|json   the tables (default) or one JSON array\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
 const char *gs_cmd_help_text(const char *command)
 {
+    if (command && strcmp(command, "sens") == 0)
+        return sens_text;
     if (command == NULL)
         return overview;
     if (strcmp(command, "derive") == 0)
