@@ -134,14 +134,17 @@ static void fig_at(gs_sens *r, work *w, long double hz,
     sh_at(sh, w, s);
     fm->freq = hz;
     fm->value = cabsl(h);
+    for (v = 0; v < w->nv; v++)
+        if (w->used[v])
+            fm->s[v] = creall(sh[v]);
+    if (cargl(h) == 0)      /* S of a zero phase is undefined */
+        return;
     fp = add_fig(r, GS_SENS_PHASE);
     fp->freq = hz;
     fp->value = cargl(h);
     for (v = 0; v < w->nv; v++)
-        if (w->used[v]) {
-            fm->s[v] = creall(sh[v]);
+        if (w->used[v])
             fp->s[v] = cimagl(sh[v]) / cargl(h);
-        }
 }
 
 /* A simple nonzero root p of P (dP/ds = Ps, dP/dx = dx[]). */
@@ -197,7 +200,6 @@ static void fig_bw(gs_sens *r, work *w, const gs_tfn *h,
 {
     long double hz, wb, den;
     long double complex s, n, d;
-    const gs_sens_fig *dc = &r->fig[0];
     gs_sens_fig *f;
     int v;
     if (gs_freq_bandwidth(&hz, h) != GS_OK || h->origin != 0)
@@ -215,7 +217,7 @@ static void fig_bw(gs_sens *r, work *w, const gs_tfn *h,
     f->value = wb;
     for (v = 0; v < w->nv; v++)
         if (w->used[v])
-            f->s[v] = -(creall(sh[v]) - dc->s[v]) / den;
+            f->s[v] = -(creall(sh[v]) - r->fig[0].s[v]) / den;
 }
 
 static long double *num_coeffs(work *w, const gs_poly *p, int *deg)
