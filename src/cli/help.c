@@ -25,6 +25,7 @@ static const char overview[] =
 "  check     the exact result against an independent numeric solve\n"
 "  extract   device figures from a datasheet point -> model parameters\n"
 "  sens      normalised sensitivities of gain, poles, w0, Q, bandwidth\n"
+"  report    the review document: HTML, Markdown or LaTeX\n"
 "  help      this text, or the manual of one command\n"
 "\n"
 "FILE is a circuit in the gainsmith language (.gsc; see docs/language.md),\n"
@@ -205,8 +206,31 @@ static const char sens_text[] =
 "  --max-terms N        as for derive\n"
 "  --help               this text\n";
 
+static const char report_text[] =
+"usage: gainsmith report FILE -o DOC [options]\n"
+"\n"
+"Writes one self-contained review document of the circuit; the name's\n"
+"extension picks the format: .html (one file, MathML formulas, inline\n"
+"SVG plots, a print style, no script), .md (LaTeX formulas in $$, the\n"
+"plots written beside it as DOC-N.svg) or .tex (a LaTeX article for\n"
+"pdflatex, long equations broken across lines, no plots).  Contents:\n"
+"the listing with line numbers, the bound values and where each came\n"
+"from, and per output the exact result (folded when long), the DC gain,\n"
+"poles and zeros, the Bode plot, the step response and the\n"
+"sensitivities; then the caution.  See docs/report.md.\n"
+"\n"
+"options:\n"
+"  -o DOC, --output DOC the document to write (never the input file)\n"
+"  --set SYM=VALUE      override a value (repeatable)\n"
+"  --only NAME          only the output NAME\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
 const char *gs_cmd_help_text(const char *command)
 {
+    if (command && strcmp(command, "report") == 0)
+        return report_text;
     if (command && strcmp(command, "sens") == 0)
         return sens_text;
     if (command == NULL)

@@ -22,6 +22,7 @@ static const command commands[] = {
     {"check", gs_cmd_check},
     {"extract", gs_cmd_extract},
     {"sens", gs_cmd_sens},
+    {"report", gs_cmd_report},
 };
 
 #define NCOMMANDS (sizeof commands / sizeof commands[0])
