@@ -161,9 +161,11 @@ static void fig_root(gs_sens *r, work *w, long double complex p, int zero,
         f = add_fig(r, zero ? GS_SENS_ZERO : GS_SENS_POLE);
         f->value = p;
     } else {
-        f = add_fig(r, zero ? GS_SENS_ZW0 : GS_SENS_W0);
-        f->value = w0;
+        /* add both first: adding may move the array */
+        add_fig(r, zero ? GS_SENS_ZW0 : GS_SENS_W0);
         fq = add_fig(r, zero ? GS_SENS_ZQ : GS_SENS_Q);
+        f = fq - 1;
+        f->value = w0;
         fq->value = w0 / (-2 * creall(p));
         fq->root = p;
     }

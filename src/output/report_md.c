@@ -89,7 +89,7 @@ static void tok(int kind, const char *t, size_t len, unsigned pw, void *arg)
         fprintf(f, "%.*s", (int)len, t);
         break;
     case 'e':
-        fputs(" + \\cdots", f);
+        fputs("\\cdots", f);
         break;
     default:
         if (*t == '*')

@@ -12,8 +12,11 @@
 
 #include "algebra/sym.h"
 
-/* Terms per line of a broken equation. */
-#define TERMS_PER_LINE 4
+/* A broken equation's line ends at the first + or - after this many
+   characters of the source text; a table wider than TABLE_COLS columns
+   is set as several tables that repeat the first column. */
+#define LINE_CHARS 48
+#define TABLE_COLS 7
 
 static void esc(FILE *f, const char *s)
 {
@@ -64,18 +67,18 @@ static void t_listing(gs_report_out *o, char *const *lines, size_t n)
     fputs("\\end{verbatim}\n}\n", o->f);
 }
 
-static void t_table(gs_report_out *o, char *const *cells, size_t rows,
-                    size_t cols)
+static void t_table_part(gs_report_out *o, char *const *cells,
+                         size_t rows, size_t cols, size_t c0, size_t c1)
 {
     size_t r, c;
     fputs("{\\footnotesize\n\\begin{tabular}{l", o->f);
-    for (c = 1; c < cols; c++)
+    for (c = c0; c < c1; c++)
         fputc('r', o->f);
     fputs("}\n", o->f);
     for (r = 0; r < rows; r++) {
-        for (c = 0; c < cols; c++) {
-            if (c)
-                fputs(" & ", o->f);
+        esc(o->f, cells[r * cols]);
+        for (c = c0; c < c1; c++) {
+            fputs(" & ", o->f);
             esc(o->f, cells[r * cols + c]);
         }
         fputs(r == 0 ? " \\\\ \\hline\n" : " \\\\\n", o->f);
@@ -83,15 +86,26 @@ static void t_table(gs_report_out *o, char *const *cells, size_t rows,
     fputs("\\end{tabular}\n}\n\n", o->f);
 }
 
+static void t_table(gs_report_out *o, char *const *cells, size_t rows,
+                    size_t cols)
+{
+    size_t c0;
+    for (c0 = 1; c0 < cols || c0 == 1; c0 += TABLE_COLS - 1)
+        t_table_part(o, cells, rows, cols, c0, c0 + TABLE_COLS - 1 < cols
+                     ? c0 + TABLE_COLS - 1 : cols);
+}
+
 typedef struct tstate {
     FILE *f;
-    int terms, depth;
+    size_t chars;
+    int depth;
 } tstate;
 
 static void tok(int kind, const char *t, size_t len, unsigned pw, void *arg)
 {
     tstate *st = arg;
     char name[128], *lx;
+    st->chars += len;
     switch (kind) {
     case 'i':
         snprintf(name, sizeof name, "%.*s", (int)len, t);
@@ -105,7 +119,7 @@ static void tok(int kind, const char *t, size_t len, unsigned pw, void *arg)
         fprintf(st->f, "%.*s", (int)len, t);
         break;
     case 'e':
-        fputs(" + \\cdots", st->f);
+        fputs("\\cdots", st->f);
         break;
     default:
         if (*t == '(')
@@ -116,19 +130,19 @@ static void tok(int kind, const char *t, size_t len, unsigned pw, void *arg)
             fputs("\\,", st->f);
             break;
         }
-        if ((*t == '+' || *t == '-') && st->depth == 0 && ++st->terms
-            % TERMS_PER_LINE == 0)
+        if ((*t == '+' || *t == '-') && st->depth == 0
+            && st->chars > LINE_CHARS) {
             fputs("\\\\\n", st->f);
+            st->chars = 0;
+        }
         fprintf(st->f, " %c ", *t);
     }
 }
 
-static void side(gs_report_out *o, const char *lhs, const char *which,
-                 const char *s)
+static void side(gs_report_out *o, const char *lhs, const char *s)
 {
     tstate st = {o->f, 0, 0};
     fputs("\\begin{multline*}\n", o->f);
-    (void)which;
     fprintf(o->f, "%s = ", lhs);
     gs_report_tokens(s, tok, &st);
     fputs("\n\\end{multline*}\n", o->f);
@@ -139,8 +153,8 @@ static void t_formula(gs_report_out *o, const char *lhs, const char *num,
 {
     char *l = gs_sym_latex_name(lhs);
     fprintf(o->f, "\\[ %s = \\frac{N}{D} \\]\nwith\n", l);
-    side(o, "N", "", num);
-    side(o, "D", "", den);
+    side(o, "N", num);
+    side(o, "D", den);
     free(l);
 }
 
