@@ -41,9 +41,11 @@ for gsc in examples/*.gsc; do
     grep -q '^\$\$.*\$\$$' "$tmp/$ex.md" && pass || fail "$ex.md: no \$\$"
 done
 
-# the text of one document, tags stripped
-sed -e 's/<[^>]*>//g' "$tmp/sallen_key.html" | grep -v '^ *$' \
-    | grep -v 'examples/' >"$tmp/sk.txt"
+# the text of one document, tags stripped; the check's error (last bits
+# of long double, which may differ between compilers) is left out
+sed -e 's/<[^>]*>//g' -e 's/worst relative error [^ ]* at [^ ]* Hz/worst/' \
+    "$tmp/sallen_key.html" | grep -v '^ *$' | grep -v 'examples/' \
+    >"$tmp/sk.txt"
 if cmp -s "$tmp/sk.txt" tests/report/sallen_key.txt; then pass
 else fail "the text of sallen_key.html differs from tests/report/sallen_key.txt"
     diff "$tmp/sk.txt" tests/report/sallen_key.txt | head -20
