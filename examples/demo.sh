@@ -24,4 +24,8 @@ run bode examples/sallen_key.gsc --from 100 --to 1M --points 5
 run check examples/sallen_key.gsc
 run eval examples/cs_biased.gsc
 run extract mos --id=200u --vds=1.5 --gm=1.3115m --gds=9.3023u --vth=0.45
+run sens examples/sallen_key.gsc --at 10k
+demo_doc=${TMPDIR:-/tmp}/gainsmith-demo-review.html
+run report examples/miller_opamp.gsc -o "$demo_doc"
+echo "# the review document of the two-stage op-amp is $demo_doc"
 exit $status

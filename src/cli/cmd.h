@@ -20,6 +20,10 @@ int gs_cmd_poles(int argc, char **argv, FILE *out, FILE *err);
 int gs_cmd_bode(int argc, char **argv, FILE *out, FILE *err);
 int gs_cmd_step(int argc, char **argv, FILE *out, FILE *err);
 int gs_cmd_check(int argc, char **argv, FILE *out, FILE *err);
+/* gainsmith sens FILE: normalised sensitivities (cmd_sens.c). */
+int gs_cmd_sens(int argc, char **argv, FILE *out, FILE *err);
+/* gainsmith report FILE -o DOC: the review document (cmd_report.c). */
+int gs_cmd_report(int argc, char **argv, FILE *out, FILE *err);
 /* gainsmith extract mos|bjt --KEY=VAL...: device figures to model
    parameters (cmd_extract.c, docs/devices.md). */
 int gs_cmd_extract(int argc, char **argv, FILE *out, FILE *err);

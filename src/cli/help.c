@@ -24,6 +24,8 @@ static const char overview[] =
 "  step      step response: rise time, overshoot, settling; CSV and SVG\n"
 "  check     the exact result against an independent numeric solve\n"
 "  extract   device figures from a datasheet point -> model parameters\n"
+"  sens      normalised sensitivities of gain, poles, w0, Q, bandwidth\n"
+"  report    the review document: HTML, Markdown or LaTeX\n"
 "  help      this text, or the manual of one command\n"
 "\n"
 "FILE is a circuit in the gainsmith language (.gsc; see docs/language.md),\n"
@@ -184,8 +186,53 @@ static const char step_text[] =
 "  --max-terms N        as for derive\n"
 "  --help               this text\n";
 
+static const char sens_text[] =
+"usage: gainsmith sens FILE [options]\n"
+"\n"
+"Normalised sensitivities S(Q, x) = (x/Q) dQ/dx of each output's figures\n"
+"to every symbol x, at the bound values: the DC gain, |H| and phase at\n"
+"each --at, every real pole and zero, w0 and Q of every complex pair,\n"
+"and the -3 dB bandwidth.  The derivatives of N and D are exact\n"
+"(symbolic), evaluated in long double; a root p moves by\n"
+"dp/dx = -(dD/dx)/(dD/ds) at s = p (docs/sens.md).  Each figure's table\n"
+"is sorted by |S|; symbols with |S| < 0.001 are folded into one line.\n"
+"\n"
+"options:\n"
+"  --at FREQ            |H| and phase at FREQ (Hz; repeatable)\n"
+"  --only NAME          only the output NAME\n"
+"  --set SYM=VALUE      override a value (repeatable)\n"
+"  --format text|json   the tables (default) or one JSON array\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
+static const char report_text[] =
+"usage: gainsmith report FILE -o DOC [options]\n"
+"\n"
+"Writes one self-contained review document of the circuit; the name's\n"
+"extension picks the format: .html (one file, MathML formulas, inline\n"
+"SVG plots, a print style, no script), .md (LaTeX formulas in $$, the\n"
+"plots written beside it as DOC-N.svg) or .tex (a LaTeX article for\n"
+"pdflatex, long equations broken across lines, no plots).  Contents:\n"
+"the listing with line numbers, the bound values and where each came\n"
+"from, and per output the exact result (folded when long), the DC gain,\n"
+"poles and zeros, the Bode plot, the step response and the\n"
+"sensitivities; then the caution.  See docs/report.md.\n"
+"\n"
+"options:\n"
+"  -o DOC, --output DOC the document to write (never the input file)\n"
+"  --set SYM=VALUE      override a value (repeatable)\n"
+"  --only NAME          only the output NAME\n"
+"  --limit SYM=inf|0    as for derive\n"
+"  --max-terms N        as for derive\n"
+"  --help               this text\n";
+
 const char *gs_cmd_help_text(const char *command)
 {
+    if (command && strcmp(command, "report") == 0)
+        return report_text;
+    if (command && strcmp(command, "sens") == 0)
+        return sens_text;
     if (command == NULL)
         return overview;
     if (strcmp(command, "derive") == 0)

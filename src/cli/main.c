@@ -21,6 +21,8 @@ static const command commands[] = {
     {"step", gs_cmd_step},
     {"check", gs_cmd_check},
     {"extract", gs_cmd_extract},
+    {"sens", gs_cmd_sens},
+    {"report", gs_cmd_report},
 };
 
 #define NCOMMANDS (sizeof commands / sizeof commands[0])

@@ -237,6 +237,15 @@ for script in fateman_sympy.py gcd_sympy.py; do
         { echo "run_bench.sh: $script exited with $?" >&2; status=1; }
 done
 
+# The review document of each example, whole process, without a browser.
+for gsc in examples/*.gsc; do
+    ex=$(basename "$gsc" .gsc)
+    t=$("$timer" -n 5 -s 10 -l "$limit" -m "$max_mib" -e "$tmp/err" -- \
+        "$bin" report "$gsc" -o "$tmp/report-$ex.html")
+    echo "bench report-$ex seconds=$(field seconds "$t")" \
+        "peak_kib=$(field peak_kib "$t") status=$(field status "$t")"
+done
+
 # The goals: 100x faster than maxima on every case, rc_ladder_12 under
 # 100 ms, peak resident memory under 64 MiB everywhere.
 if [ -n "$min_ratio" ]; then

@@ -1,0 +1,108 @@
+#!/bin/sh
+# report_check.sh - the review documents of the examples, checked.
+# See LICENSE.
+#
+# usage: tests/report_check.sh [BUILD]
+# Writes the .html, .md and .tex document of every example and checks:
+# every section in the Markdown and in the HTML, MathML in the HTML, the
+# HTML's text content against tests/report/sallen_key.txt; with Debian's
+# chromium, the DOM as the browser parsed it (--dump-dom) and a
+# screenshot whose pixels are not all one colour; with pdflatex, the .tex
+# compiles without errors and without overfull boxes over 10 pt.  A
+# missing tool is a loud skip, and a failure under CI=true.
+build=${1:-build}
+name=report_check.sh
+bin=$build/gainsmith
+passed=0
+failed=0
+pass() { passed=$((passed + 1)); }
+fail() { failed=$((failed + 1)); echo "$name: FAILED: $1"; }
+missing() {
+    echo "*** SKIPPED in $name: $1 not found (apt-get install $2) ***"
+    [ "$CI" = true ] && fail "$1 is required under CI=true"
+}
+tmp=$(mktemp -d)
+trap 'rm -rf "$tmp"' EXIT
+sections="Circuit Values Exact Poles Sensitivities Check Caution"
+
+for gsc in examples/*.gsc; do
+    ex=$(basename "$gsc" .gsc)
+    for f in html md tex; do
+        if "$bin" report "$gsc" -o "$tmp/$ex.$f" >/dev/null; then pass
+        else fail "$ex.$f not written"; fi
+    done
+    for s in $sections; do
+        grep -q "^#.* $s" "$tmp/$ex.md" && pass || fail "$ex.md: no $s"
+        grep -q "<h[23]>$s" "$tmp/$ex.html" && pass || fail "$ex.html: no $s"
+    done
+    grep -q "<math display=\"block\">" "$tmp/$ex.html" && pass \
+        || fail "$ex.html: no MathML"
+    grep -q "<script" "$tmp/$ex.html" && fail "$ex.html: a script" || pass
+    grep -q '^\$\$.*\$\$$' "$tmp/$ex.md" && pass || fail "$ex.md: no \$\$"
+done
+
+# the text of one document, tags stripped; the check's error (last bits
+# of long double, which may differ between compilers) is left out
+sed -e 's/<[^>]*>//g' -e 's/worst relative error [^ ]* at [^ ]* Hz/worst/' \
+    "$tmp/sallen_key.html" | grep -v '^ *$' | grep -v 'examples/' \
+    >"$tmp/sk.txt"
+if cmp -s "$tmp/sk.txt" tests/report/sallen_key.txt; then pass
+else fail "the text of sallen_key.html differs from tests/report/sallen_key.txt"
+    diff "$tmp/sk.txt" tests/report/sallen_key.txt | head -20
+fi
+
+if command -v chromium >/dev/null 2>&1; then
+    for ex in sallen_key miller_opamp; do
+        flags="--headless --no-sandbox --disable-gpu --no-first-run
+            --disable-background-networking --disable-component-update
+            --disable-sync --user-data-dir=$tmp/profile"
+        # shellcheck disable=SC2086
+        timeout 120 chromium $flags --dump-dom "file://$tmp/$ex.html" \
+            >"$tmp/$ex.dom" 2>/dev/null
+        n=$(grep -o '<math' "$tmp/$ex.dom" | wc -l)
+        [ "$n" -ge 1 ] && pass || fail "$ex: no MathML in the DOM"
+        grep -q 'parsererror' "$tmp/$ex.dom" && fail "$ex: parse error" || pass
+        for s in $sections; do
+            grep -q ">$s" "$tmp/$ex.dom" && pass || fail "$ex DOM: no $s"
+        done
+        grep -q '<svg' "$tmp/$ex.dom" && pass || fail "$ex DOM: no SVG"
+        # shellcheck disable=SC2086
+        timeout 120 chromium $flags --window-size=900,3000 \
+            --screenshot="$tmp/$ex.png" "file://$tmp/$ex.html" \
+            >/dev/null 2>&1
+        if python3 - "$tmp/$ex.png" <<'PY'
+import sys, zlib, struct
+d = open(sys.argv[1], 'rb').read()
+assert d[:8] == b'\x89PNG\r\n\x1a\n'
+# count distinct bytes of the image data: a blank page has almost none
+i, idat = 8, b''
+while i < len(d):
+    n, t = struct.unpack('>I4s', d[i:i + 8])
+    if t == b'IDAT':
+        idat += d[i + 8:i + 8 + n]
+    i += 12 + n
+raw = zlib.decompress(idat)
+sys.exit(0 if len(set(raw)) > 8 and raw.count(0xff) < len(raw) * 0.995
+         else 1)
+PY
+        then pass; else fail "$ex: the screenshot is blank"; fi
+    done
+else
+    missing chromium chromium
+fi
+
+if command -v pdflatex >/dev/null 2>&1; then
+    for ex in sallen_key miller_opamp cascode; do
+        (cd "$tmp" && pdflatex -interaction=nonstopmode -halt-on-error \
+            "$ex.tex" >/dev/null 2>&1)
+        [ -f "$tmp/$ex.pdf" ] && pass || fail "$ex.tex does not compile"
+        bad=$(grep -o 'Overfull \\hbox ([0-9.]*pt' "$tmp/$ex.log" \
+            | sed 's/.*(//; s/pt//' | awk '$1 > 10' | wc -l)
+        [ "$bad" -eq 0 ] && pass || fail "$ex.tex: $bad overfull boxes > 10pt"
+    done
+else
+    missing pdflatex texlive-latex-base
+fi
+
+echo "$name: $passed passed, $failed failed"
+[ "$failed" -eq 0 ]

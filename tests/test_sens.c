@@ -1,0 +1,321 @@
+/* test_sens.c - normalised sensitivities. See LICENSE. */
+#include <complex.h>
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <unistd.h>
+
+#include "check.h"
+#include "gainsmith.h"
+#include "analysis/job.h"
+#include "analysis/sens.h"
+
+static int load(gs_job *j, const char *path)
+{
+    gs_derive_opts o;
+    gs_diag d;
+    int rc;
+    gs_derive_opts_default(&o);
+    gs_diag_init(&d);
+    rc = gs_job_load(j, path, &d);
+    if (rc == GS_OK)
+        rc = gs_job_derive(j, NULL, &o, &d);
+    if (rc == GS_OK)
+        rc = gs_job_bind(j, NULL, 0, &d);
+    if (rc != GS_OK)
+        gs_diag_print(stderr, &d);
+    gs_diag_clear(&d);
+    return rc;
+}
+
+static int load_text(gs_job *j, const char *text)
+{
+    char path[] = "/tmp/gs_test_sensXXXXXX";
+    int fd = mkstemp(path), rc;
+    FILE *f = fdopen(fd, "w");
+    fputs(text, f);
+    fclose(f);
+    rc = load(j, path);
+    unlink(path);
+    return rc;
+}
+
+static long double sens_of(const gs_job *j, size_t i, gs_sens_kind k,
+                           const char *sym)
+{
+    gs_sens r;
+    size_t n;
+    long double v = NAN;
+    int id = gs_symtab_find(j->c->syms, sym);
+    gs_sens_init(&r);
+    gs_sens_compute(&r, &j->tf[i], j->vals, NULL, 0);
+    for (n = 0; n < r.n; n++)
+        if (r.fig[n].kind == k && id >= 0) {
+            v = r.fig[n].s[id];
+            break;
+        }
+    gs_sens_clear(&r);
+    return v;
+}
+
+/* Unity-gain Sallen-Key low-pass: S(w0, Ri) = S(w0, Ci) = -1/2, since
+   w0 = 1/sqrt(R1 R2 C1 C2) (Schaumann and Van Valkenburg, "Design of
+   Analog Filters", sensitivity chapter, from memory). */
+static void test_sallen_key(void)
+{
+    gs_job j;
+    const char *sym[] = {"R1", "R2", "C1", "C2"};
+    int k;
+    gs_job_init(&j);
+    CHECK(load(&j, "examples/sallen_key.gsc") == GS_OK);
+    for (k = 0; k < 4 && j.ntf; k++)
+        CHECK_MSG(fabsl(sens_of(&j, 0, GS_SENS_W0, sym[k]) + 0.5L) < 1e-15L,
+                  "%s", sym[k]);
+    gs_job_clear(&j);
+}
+
+/* Degenerated common source with ro -> inf: Av = -gm RD / (1 + gm RS),
+   so S(Av, gm) = 1 / (1 + gm RS) (by hand from Sedra & Smith,
+   "Microelectronic Circuits", ch. on MOS amplifiers). */
+static void test_cs_degen(void)
+{
+    gs_job j;
+    gs_job_init(&j);
+    CHECK(load_text(&j, "vsource vin in gnd\n"
+                        "mosfet M1 out in src gm=gm1 rds=inf\n"
+                        "resistor RD out gnd\nresistor RS src gnd\n"
+                        "value RD = 10k\nvalue RS = 1k\nvalue gm1 = 2m\n"
+                        "transfer Av = v(out)/vin\n") == GS_OK);
+    if (j.ntf)
+        CHECK(fabsl(sens_of(&j, 0, GS_SENS_DC, "gm1") - 1.0L / 3) < 1e-15L);
+    gs_job_clear(&j);
+}
+
+/* Scaling weights per symbol: z[v] the power of k a symbol takes under
+   impedance scaling (R, L, transresistance times k; C, G, gm over k),
+   f[v] under frequency scaling (L and C over k).  0 if a symbol is in
+   elements of different classes (then *ok = 0). */
+static void weights(int *z, int *f, int *ok, const gs_job *j)
+{
+    int nv = j->ctx->nvars, v;
+    size_t e;
+    int i;
+    unsigned char *seen = calloc((size_t)nv, 1);
+    *ok = 1;
+    for (v = 0; v < nv; v++)
+        z[v] = f[v] = 0;
+    for (e = 0; e < j->c->nelems; e++) {
+        const gs_element *el = &j->c->elems[e];
+        int cz = 0, cf = 0;
+        switch (el->kind) {
+        case GS_RESISTOR: case GS_CCVS: cz = 1; break;
+        case GS_INDUCTOR: cz = 1; cf = -1; break;
+        case GS_CAPACITOR: cz = -1; cf = -1; break;
+        case GS_CONDUCTANCE: case GS_VCCS: cz = -1; break;
+        default: break;
+        }
+        if (el->kind == GS_VSOURCE || el->kind == GS_ISOURCE)
+            continue;
+        for (i = 0; i < el->value.n; i++) {
+            v = el->value.sym[i];
+            if (seen[v] && (z[v] != cz * el->value.exp[i]
+                            || f[v] != cf * el->value.exp[i]))
+                *ok = 0;
+            seen[v] = 1;
+            z[v] = cz * el->value.exp[i];
+            f[v] = cf * el->value.exp[i];
+        }
+    }
+    free(seen);
+}
+
+/* The power of k the output itself takes under impedance scaling. */
+static int out_degree(const gs_job *j, size_t i)
+{
+    const gs_output *o = &j->c->outputs[j->out_index[i]];
+    int src_i;
+    if (o->kind == GS_OUT_IMPEDANCE)
+        return 1;
+    src_i = j->c->elems[o->in].kind == GS_ISOURCE;
+    /* V/V and I/I are dimensionless; V/I an impedance; I/V an admittance */
+    if (o->out.kind == GS_PROBE_V)
+        return src_i ? 1 : 0;
+    return src_i ? 0 : -1;
+}
+
+static long double fig_value(const gs_sens_fig *f)
+{
+    return creall(f->value);
+}
+
+/* Central difference of ln Q in ln x with one Richardson step:
+   D(h) = (Q(x(1+h)) - Q(x(1-h))) / (2 h Q), error O(h^2), and
+   (4 D(h/2) - D(h)) / 3 cancels the h^2 term (Richardson 1911). */
+static long double fd_sens(gs_job *j, size_t i, size_t fig, int v,
+                           const long double *at, size_t nat, int *ok)
+{
+    long double x = j->vals[v], d[2], h = 1e-3L, q0 = 0;
+    int step, sgn;
+    gs_sens r;
+    gs_sens_init(&r);
+    *ok = 1;
+    for (step = 0; step < 2; step++, h /= 2) {
+        long double q[2];
+        for (sgn = 0; sgn < 2; sgn++) {
+            j->vals[v] = x * (1 + (sgn ? -h : h));
+            gs_sens_compute(&r, &j->tf[i], j->vals, at, nat);
+            if (r.n <= fig) {
+                *ok = 0;
+                q[sgn] = 0;
+            } else {
+                q[sgn] = fig_value(&r.fig[fig]);
+            }
+        }
+        j->vals[v] = x;
+        gs_sens_compute(&r, &j->tf[i], j->vals, at, nat);
+        q0 = fig_value(&r.fig[fig]);
+        d[step] = (q[0] - q[1]) / (2 * h * q0);
+    }
+    gs_sens_clear(&r);
+    return (4 * d[1] - d[0]) / 3;
+}
+
+static void check_job(gs_job *j, const char *what, int fd)
+{
+    int nv = j->ctx->nvars, ok, v;
+    int *z = malloc((size_t)nv * sizeof *z), *f = malloc((size_t)nv * sizeof *f);
+    long double at[1] = {1e3L};
+    size_t i, k;
+    weights(z, f, &ok, j);
+    for (i = 0; i < j->ntf; i++) {
+        gs_sens r;
+        gs_sens_init(&r);
+        if (gs_sens_compute(&r, &j->tf[i], j->vals, at, 1) != GS_OK) {
+            gs_sens_clear(&r);
+            continue;
+        }
+        for (k = 0; k < r.n; k++) {
+            const gs_sens_fig *g = &r.fig[k];
+            long double sz = 0, sf = 0, ez = 0, big = 1;
+            for (v = 0; v < nv; v++)
+                if (r.used[v]) {
+                    sz += z[v] * g->s[v];
+                    sf += f[v] * g->s[v];
+                    if (fabsl(g->s[v]) > big)
+                        big = fabsl(g->s[v]);
+                }
+            if (g->kind == GS_SENS_DC || g->kind == GS_SENS_MAG)
+                ez = out_degree(j, i);
+            /* Frequency scaling (L, C over k) multiplies every root, w0
+               and the bandwidth by k: with weight -1 on L and C the sum
+               is 1, i.e. the plain sum over L and C of S is -1. */
+            /* Euler's theorem on homogeneous functions: for Q(k^z x)
+               = k^d Q(x), sum z_x S(Q, x) = d (a math fact). */
+            if (ok && g->kind != GS_SENS_PHASE)
+                CHECK_MSG(fabsl(sz - ez) < 1e-9L * big, "%s %s fig %zu: "
+                          "impedance sum %Lg, want %Lg", what,
+                          j->tf[i].name, k, sz, ez);
+            if (ok && g->kind != GS_SENS_MAG && g->kind != GS_SENS_PHASE) {
+                long double ef = g->kind == GS_SENS_DC || g->kind == GS_SENS_Q
+                                 || g->kind == GS_SENS_ZQ ? 0 : 1;
+                CHECK_MSG(fabsl(sf - ef) < 1e-9L * big, "%s %s fig %zu: "
+                          "frequency sum %Lg, want %Lg", what,
+                          j->tf[i].name, k, sf, ef);
+            }
+            for (v = 0; fd && v < nv; v++) {
+                long double s;
+                int fok;
+                if (!r.used[v])
+                    continue;
+                s = fd_sens(j, i, k, v, at, 1, &fok);
+                if (fok)
+                    CHECK_MSG(fabsl(s - g->s[v]) < 1e-6L * (1 + fabsl(s)),
+                              "%s %s fig %zu sym %s: exact %Lg, difference "
+                              "%Lg", what, j->tf[i].name, k,
+                              gs_symtab_name(j->c->syms, v), g->s[v], s);
+            }
+        }
+        gs_sens_clear(&r);
+    }
+    free(z);
+    free(f);
+}
+
+static void test_examples(void)
+{
+    static const char *const ex[] = {
+        "bjt_ce_degen", "cascode", "cs_biased", "cs_degen", "inverting_amp",
+        "sallen_key", "source_follower", "miller_opamp"
+    };
+    size_t e;
+    char path[128];
+    for (e = 0; e < sizeof ex / sizeof ex[0]; e++) {
+        gs_job j;
+        gs_job_init(&j);
+        snprintf(path, sizeof path, "examples/%s.gsc", ex[e]);
+        CHECK_MSG(load(&j, path) == GS_OK, "%s", path);
+        check_job(&j, path, 1);
+        gs_job_clear(&j);
+    }
+}
+
+/* Knuth's 64-bit linear congruential generator (TAOCP vol. 2, 3.3.4). */
+static int rnd(unsigned long long *seed)
+{
+    *seed = *seed * 6364136223846793005ULL + 1442695040888963407ULL;
+    return (int)((*seed >> 33) % 1000);
+}
+
+/* 50 random RC/transconductance circuits (seeded LCG). */
+static void test_random(void)
+{
+    unsigned long long seed = 12345;
+    int c, loaded = 0;
+    for (c = 0; c < 50; c++) {
+        char text[2048], name[32];
+        size_t n = 0;
+        int e, a, b;
+        gs_job j;
+        n += (size_t)snprintf(text + n, sizeof text - n,
+                              "vsource vin 1 gnd\n");
+        for (e = 0; e < 4; e++)
+            n += (size_t)snprintf(text + n, sizeof text - n,
+                                  "resistor Ra%d %d %d\nvalue Ra%d = %dk\n"
+                                  "resistor Rb%d %d gnd\nvalue Rb%d = %dk\n",
+                                  e, e + 1, e + 2, e, 1 + rnd(&seed) % 90,
+                                  e, e + 2, e, 1 + rnd(&seed) % 90);
+        for (e = 0; e < 3; e++) {
+            a = 1 + rnd(&seed) % 5;
+            b = rnd(&seed) % 6;
+            if (b == a)
+                b = 0;
+            n += (size_t)snprintf(text + n, sizeof text - n,
+                                  "capacitor C%d %d %d\nvalue C%d = %dn\n",
+                                  e, a, b, e, 1 + rnd(&seed) % 90);
+        }
+        if (rnd(&seed) % 2)
+            n += (size_t)snprintf(text + n, sizeof text - n,
+                                  "vccs g1 %d gnd %d gnd\nvalue g1 = %du\n",
+                                  2 + rnd(&seed) % 4, 1 + rnd(&seed) % 4,
+                                  1 + rnd(&seed) % 50);
+        snprintf(text + n, sizeof text - n, "transfer H = v(5)/vin\n");
+        snprintf(name, sizeof name, "random %d (seed 12345)", c);
+        gs_job_init(&j);
+        if (load_text(&j, text) == GS_OK) {
+            loaded++;
+            check_job(&j, name, c < 10);
+        }
+        gs_job_clear(&j);
+    }
+    CHECK_MSG(loaded >= 45, "only %d of 50 random circuits derived", loaded);
+}
+
+int main(void)
+{
+    test_sallen_key();
+    test_cs_degen();
+    test_examples();
+    test_random();
+    return check_report("sens");
+}
