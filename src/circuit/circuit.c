@@ -239,6 +239,7 @@ void gs_circuit_free(gs_circuit *c)
     free_strings(c->ref_alias, c->nref_alias);
     free_elements(c);
     free_lines(c);
+    gs_expr_free(c->temperature);
     free(c);
 }
 

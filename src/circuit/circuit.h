@@ -178,6 +178,10 @@ typedef struct gs_circuit {
     gs_device *devices;
     size_t nbiases;
     gs_bias *biases;
+    gs_expr *temperature;    /* a temperature line's expression in kelvin
+                                (owned), or NULL: the noise analysis then
+                                takes 300 K */
+    int temp_line, temp_col; /* where it is written */
 } gs_circuit;
 
 gs_circuit *gs_circuit_new(void);

@@ -412,6 +412,37 @@ static int parse_value(gs_parser *p, const stmt_kind *k)
     return GS_OK;
 }
 
+/* The temperature of the noise analysis, in kelvin: an expression as on
+   a value line, at most one line per file. */
+static int parse_temperature(gs_parser *p, const stmt_kind *k)
+{
+    const gs_token *kw = &p->cur.tok[0], *t = gs_cur_peek(&p->cur);
+    gs_expr *e = NULL;
+    int line, col;
+    if (t->kind == GS_TK_END) {
+        gs_parser_expected(p, t, "the temperature in kelvin", k->form);
+        return GS_ESYNTAX;
+    }
+    if (gs_parse_expr(&e, &p->cur, p->c) != GS_OK)
+        return GS_ESYNTAX;
+    if (expect_end(p, k->form) != GS_OK) {
+        gs_expr_free(e);
+        return GS_ESYNTAX;
+    }
+    if (p->c->temperature != NULL) {
+        gs_cur_error(&p->cur, kw, "give the temperature once", "second "
+                     "temperature (the first is at %d:%d)",
+                     p->c->temp_line, p->c->temp_col);
+        gs_expr_free(e);
+        return GS_ESYNTAX;
+    }
+    gs_lex_position(&p->lx, kw->off, &line, &col);
+    p->c->temperature = e;
+    p->c->temp_line = line;
+    p->c->temp_col = col;
+    return GS_OK;
+}
+
 /* ---- transfer and impedance ---- */
 
 static gs_output *new_output(gs_parser *p, gs_output_kind kind,
@@ -618,6 +649,8 @@ static const stmt_kind kinds[] = {
      "transfer NAME = v(NODE) / SOURCE"},
     {"impedance", parse_impedance, GS_VCCS, 0, NONE, 0, 0,
      "impedance NAME = NODE [, NODE]"},
+    {"temperature", parse_temperature, GS_VCCS, 0, NONE, 0, 0,
+     "temperature KELVIN"},
 };
 #define NKINDS (sizeof kinds / sizeof kinds[0])
 

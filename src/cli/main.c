@@ -21,6 +21,7 @@ static const command commands[] = {
     {"step", gs_cmd_step},
     {"check", gs_cmd_check},
     {"extract", gs_cmd_extract},
+    {"noise", gs_cmd_noise},
 };
 
 #define NCOMMANDS (sizeof commands / sizeof commands[0])

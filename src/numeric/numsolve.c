@@ -270,3 +270,62 @@ int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
     free(sy.branch);
     return rc;
 }
+
+int gs_numsolve_adjoint(long double complex *h, const gs_circuit *c,
+                        size_t out, const long double *vals,
+                        long double complex s, const int *from,
+                        const int *to, size_t n, gs_diag *d)
+{
+    const gs_output *o = &c->outputs[out];
+    numsys sy;
+    size_t k;
+    int nu = c->nnodes - 1, rc, i, j;
+    cplx *row, *y, known = 0;
+
+    if (o->kind != GS_OUT_TRANSFER)
+        return GS_EINVAL;
+    sy.branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy.branch);
+    for (k = 0; k < c->nelems; k++)
+        sy.branch[k] = is_voltage_defined(c->elems[k].kind) ? nu++ : -1;
+    sy.n = nu;
+    sy.c = c;
+    sy.vals = vals;
+    sy.s = s;
+    sy.input = -1;              /* every source nulled */
+    sy.a = gs_calloc((size_t)nu * (size_t)nu + 1, sizeof *sy.a);
+    sy.rhs = gs_calloc((size_t)nu + 1, sizeof *sy.rhs);
+    row = gs_calloc((size_t)nu + 1, sizeof *row);
+    y = gs_calloc((size_t)nu + 1, sizeof *y);
+    for (k = 0; k < c->nelems; k++)
+        stamp(&sy, (int)k, row);
+    /* the output row c: a voltage difference or an element's current */
+    if (o->out.kind == GS_PROBE_V) {
+        if (vidx(o->out.a) >= 0)
+            y[vidx(o->out.a)] += 1;
+        if (vidx(o->out.b) >= 0)
+            y[vidx(o->out.b)] -= 1;
+    } else {
+        memset(row, 0, (size_t)nu * sizeof *row);
+        current_coeffs(y, &known, &sy, o->out.elem, 1, 0);
+    }
+    for (i = 0; i < nu; i++)            /* A := A^T */
+        for (j = i + 1; j < nu; j++) {
+            cplx t = sy.a[i * nu + j];
+            sy.a[i * nu + j] = sy.a[j * nu + i];
+            sy.a[j * nu + i] = t;
+        }
+    rc = lu_solve(sy.a, y, nu);
+    for (k = 0; k < n && rc == GS_OK; k++)  /* b_k: -1 at from, +1 at to */
+        h[k] = (vidx(to[k]) >= 0 ? y[vidx(to[k])] : 0)
+             - (vidx(from[k]) >= 0 ? y[vidx(from[k])] : 0);
+    if (rc != GS_OK)
+        gs_diag_add(d, GS_SEV_ERROR, c->file, o->line, o->col, NULL,
+                    "%s: the adjoint system is singular at s = %Lg%+Lgj",
+                    o->name, creall(s), cimagl(s));
+    free(row);
+    free(y);
+    free(sy.a);
+    free(sy.rhs);
+    free(sy.branch);
+    return rc;
+}
