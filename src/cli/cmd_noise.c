@@ -496,11 +496,13 @@ static int load(gs_job *j, gs_noise *n, const gs_cli *cl, nopts *o,
                 && n->src[k].kind == GS_NZ_RESISTOR)
                 o->rs_src = (int)k;
         if (o->rs_src < 0) {
-            gs_diag_add(&d, GS_SEV_ERROR, NULL, 0, 0, "name the resistor "
-                        "of the signal source, part of the circuit",
-                        "--source-resistor '%s' is not a resistor of the "
-                        "circuit", o->rs);
-            rc = GS_EINVAL;
+            gs_diag_print(err, &d);
+            gs_diag_clear(&d);
+            fprintf(err, "gainsmith noise: error: --source-resistor '%s' "
+                    "is not a resistor of the circuit\n", o->rs);
+            fprintf(err, "gainsmith noise: hint: name the resistor of the "
+                    "signal source, drawn in the circuit\n");
+            return 2;
         }
     }
     for (i = 0; rc == GS_OK && i < n->ntarget; i++) {
