@@ -575,6 +575,10 @@ int gs_cmd_noise(int argc, char **argv, FILE *out, FILE *err)
             free(part);
         }
     }
+    if (status == 0 && !json && (o.nat || o.has_band))
+        fputs("note: small-signal white-plus-flicker noise models at one "
+              "operating point\n      and one temperature "
+              "(docs/noise.md)\n", out);
     if (status == 0 && (o.csv || o.svg))
         status = spectrum(&j, &n, &nn, &o, err);
 done:
