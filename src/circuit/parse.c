@@ -443,6 +443,115 @@ static int parse_temperature(gs_parser *p, const stmt_kind *k)
     return GS_OK;
 }
 
+/* ---- balanced drive and sensing of a node pair ---- */
+
+/* A part NAME.SUFFIX of a balanced or sense line: an element known by
+   that name to the other lines. */
+static gs_element *pair_part(gs_parser *p, gs_elem_kind kind,
+                             const gs_token *name, const char *suffix,
+                             int n0, int n1, int c0, int c1, int half)
+{
+    char *nm = gs_asprintf("%s.%s", name->text, suffix);
+    gs_element *e = gs_parser_add_element(p, kind, nm, name->off);
+    e->node[0] = n0;
+    e->node[1] = n1;
+    e->node[2] = c0;
+    e->node[3] = c1;
+    if (half)
+        gs_rat_set_si(&e->value.coeff, 1, 2);
+    gs_parser_set_name(p, gs_symtab_intern(p->names, nm), GS_NAME_ELEM,
+                       (int)p->c->nelems - 1, name->off);
+    free(nm);
+    return e;
+}
+
+static int pair_node(gs_parser *p, const gs_token *name, const char *suffix)
+{
+    char *nm = gs_asprintf("%s.%s", name->text, suffix);
+    gs_token t;
+    int id;
+    t.kind = GS_TK_IDENT;
+    t.dotted = 0;
+    t.off = name->off;
+    t.text = nm;
+    id = gs_parser_node(p, &t, "node");
+    free(nm);
+    return id;
+}
+
+/* NAME P N: the name (reserved like an element's) and the two nodes. */
+static int pair_head(gs_parser *p, const stmt_kind *k, const gs_token **name,
+                     int *a, int *b)
+{
+    const gs_token *t = gs_cur_next(&p->cur), *u;
+    int id;
+    if (t->kind != GS_TK_IDENT) {
+        gs_parser_expected(p, t, "a name", k->form);
+        return GS_ESYNTAX;
+    }
+    *name = t;
+    u = gs_cur_next(&p->cur);
+    if (u->kind == GS_TK_END) {
+        gs_parser_expected(p, u, "the first node of the pair", k->form);
+        return GS_ESYNTAX;
+    }
+    if ((*a = gs_parser_node(p, u, "the first node of the pair")) < 0)
+        return GS_ESYNTAX;
+    u = gs_cur_next(&p->cur);
+    if (u->kind == GS_TK_END) {
+        gs_parser_expected(p, u, "the second node of the pair", k->form);
+        return GS_ESYNTAX;
+    }
+    if ((*b = gs_parser_node(p, u, "the second node of the pair")) < 0)
+        return GS_ESYNTAX;
+    if (expect_end(p, k->form) != GS_OK)
+        return GS_ESYNTAX;
+    if (*a == *b) {
+        gs_cur_error(&p->cur, u, "name two different nodes", "the pair of "
+                     "%s '%s' is one node", k->word, t->text);
+        return GS_ESYNTAX;
+    }
+    if ((id = gs_parser_new_name(p, t)) < 0)
+        return GS_ESYNTAX;
+    gs_parser_set_name(p, id, GS_NAME_BAD, -1, t->off);
+    return GS_OK;
+}
+
+/* balanced NAME P N: v(P) = vc + vd/2, v(N) = vc - vd/2, with the
+   independent sources NAME.dm (vd, to node NAME.vd) and NAME.cm (vc, to
+   node NAME.vc) and the halves as vcvs NAME.p and NAME.n of gain 1/2. */
+static int parse_balanced(gs_parser *p, const stmt_kind *k)
+{
+    const gs_token *name;
+    int a, b, vd, vc;
+    if (pair_head(p, k, &name, &a, &b) != GS_OK)
+        return GS_ESYNTAX;
+    vd = pair_node(p, name, "vd");
+    vc = pair_node(p, name, "vc");
+    pair_part(p, GS_VSOURCE, name, "dm", vd, 0, -1, -1, 0);
+    pair_part(p, GS_VSOURCE, name, "cm", vc, 0, -1, -1, 0);
+    pair_part(p, GS_VCVS, name, "p", a, vc, vd, 0, 1);
+    pair_part(p, GS_VCVS, name, "n", vc, b, vd, 0, 1);
+    return GS_OK;
+}
+
+/* sense NAME P N: node NAME.dm carries v(P) - v(N) and node NAME.cm
+   (v(P) + v(N))/2, as outputs of vcvs that draw no current from P, N. */
+static int parse_sense(gs_parser *p, const stmt_kind *k)
+{
+    const gs_token *name;
+    int a, b, dm, cm, h;
+    if (pair_head(p, k, &name, &a, &b) != GS_OK)
+        return GS_ESYNTAX;
+    dm = pair_node(p, name, "dm");
+    cm = pair_node(p, name, "cm");
+    h = pair_node(p, name, "half");
+    pair_part(p, GS_VCVS, name, "dm", dm, 0, a, b, 0);
+    pair_part(p, GS_VCVS, name, "cp", cm, h, a, 0, 1);
+    pair_part(p, GS_VCVS, name, "cn", h, 0, b, 0, 1);
+    return GS_OK;
+}
+
 /* ---- transfer and impedance ---- */
 
 static gs_output *new_output(gs_parser *p, gs_output_kind kind,
@@ -651,6 +760,10 @@ static const stmt_kind kinds[] = {
      "impedance NAME = NODE [, NODE]"},
     {"temperature", parse_temperature, GS_VCCS, 0, NONE, 0, 0,
      "temperature KELVIN"},
+    {"balanced", parse_balanced, GS_VCCS, 0, NONE, 0, 0,
+     "balanced NAME NODE+ NODE-"},
+    {"sense", parse_sense, GS_VCCS, 0, NONE, 0, 0,
+     "sense NAME NODE+ NODE-"},
 };
 #define NKINDS (sizeof kinds / sizeof kinds[0])
 
