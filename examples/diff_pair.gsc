@@ -13,3 +13,4 @@ transfer Adm   = v(vo.dm) / vi.dm
 transfer Acm   = v(vo.cm) / vi.cm
 transfer Acmdm = v(vo.dm) / vi.cm
 transfer Admcm = v(vo.cm) / vi.dm
+figure   CMRR  = Adm / Acm

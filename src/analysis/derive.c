@@ -280,6 +280,172 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
     return rc;
 }
 
+/* ---- figures: rational functions of other outputs ---- */
+
+/* The text of a figure's expression, as written but with the least
+   parentheses: "Adm / Acm". */
+static char *expr_text(const gs_circuit *c, const gs_expr *e, int prec)
+{
+    char *l, *r, *t;
+    const char *op;
+    int mine;
+    switch (e->kind) {
+    case GS_EX_NUM:
+        return gs_rat_get_str(&e->num);
+    case GS_EX_SYM:
+        return gs_strdup(gs_symtab_name(c->syms, e->sym));
+    case GS_EX_NEG:
+        l = expr_text(c, e->lhs, 3);
+        t = gs_asprintf(prec > 1 ? "(-%s)" : "-%s", l);
+        free(l);
+        return t;
+    default:
+        break;
+    }
+    switch (e->kind) {
+    case GS_EX_ADD: op = " + "; mine = 1; break;
+    case GS_EX_SUB: op = " - "; mine = 1; break;
+    case GS_EX_MUL: op = "*"; mine = 2; break;
+    case GS_EX_DIV: op = " / "; mine = 2; break;
+    default: op = "^"; mine = 4; break;
+    }
+    l = expr_text(c, e->lhs, mine);
+    r = expr_text(c, e->rhs, mine + 1);
+    t = gs_asprintf(mine < prec ? "(%s%s%s)" : "%s%s%s", l, op, r);
+    free(l);
+    free(r);
+    return t;
+}
+
+typedef struct ratfn {
+    gs_poly num, den;
+} ratfn;
+
+static void ratfn_init(ratfn *r)
+{
+    gs_poly_init(&r->num);
+    gs_poly_init(&r->den);
+}
+
+static void ratfn_clear(ratfn *r)
+{
+    gs_poly_clear(&r->num);
+    gs_poly_clear(&r->den);
+}
+
+/* r = the value of e, each name the output of that name derived again
+   (depth bounds figures of figures; the parser refuses cycles). */
+static int figure_eval(ratfn *r, const gs_circuit *c, const gs_output *fig,
+                       const gs_expr *e, const gs_polyctx *ctx,
+                       const gs_derive_opts *o, gs_diag *d, int depth)
+{
+    ratfn a, b;
+    gs_poly t;
+    gs_tf tf;
+    long n, k;
+    int rc = GS_OK, idx;
+    if (depth > (int)c->noutputs + 1)
+        return GS_EINVAL;
+    if (e->kind == GS_EX_NUM) {
+        gs_poly_set_int(&r->num, &e->num.num, ctx);
+        gs_poly_set_int(&r->den, &e->num.den, ctx);
+        return GS_OK;
+    }
+    if (e->kind == GS_EX_SYM) {
+        idx = gs_circuit_find_output(c, gs_symtab_name(c->syms, e->sym));
+        if (idx < 0)
+            return GS_EINVAL;
+        gs_tf_init(&tf, ctx, c->s_sym);
+        rc = gs_derive_figure_part(&tf, c, (size_t)idx, ctx, o, d,
+                                   depth + 1);
+        if (rc == GS_OK) {
+            gs_poly_swap(&r->num, &tf.num);
+            gs_poly_swap(&r->den, &tf.den);
+        }
+        gs_tf_clear(&tf);
+        return rc;
+    }
+    ratfn_init(&a);
+    ratfn_init(&b);
+    gs_poly_init(&t);
+    rc = figure_eval(&a, c, fig, e->lhs, ctx, o, d, depth);
+    if (rc == GS_OK && e->rhs && e->kind != GS_EX_POW)
+        rc = figure_eval(&b, c, fig, e->rhs, ctx, o, d, depth);
+    if (rc == GS_OK) {
+        switch (e->kind) {
+        case GS_EX_NEG:
+            gs_poly_neg(&r->num, &a.num, ctx);
+            gs_poly_set(&r->den, &a.den, ctx);
+            break;
+        case GS_EX_ADD:
+        case GS_EX_SUB:
+            gs_poly_mul(&r->num, &a.num, &b.den, ctx);
+            gs_poly_mul(&t, &b.num, &a.den, ctx);
+            if (e->kind == GS_EX_ADD)
+                gs_poly_add(&r->num, &r->num, &t, ctx);
+            else
+                gs_poly_sub(&r->num, &r->num, &t, ctx);
+            gs_poly_mul(&r->den, &a.den, &b.den, ctx);
+            break;
+        case GS_EX_MUL:
+            gs_poly_mul(&r->num, &a.num, &b.num, ctx);
+            gs_poly_mul(&r->den, &a.den, &b.den, ctx);
+            break;
+        case GS_EX_DIV:
+            gs_poly_mul(&r->num, &a.num, &b.den, ctx);
+            gs_poly_mul(&r->den, &a.den, &b.num, ctx);
+            break;
+        case GS_EX_POW:
+            n = e->rhs->kind == GS_EX_NEG
+                ? -(long)gs_rat_get_ld(&e->rhs->lhs->num)
+                : (long)gs_rat_get_ld(&e->rhs->num);
+            gs_poly_set_si(&r->num, 1, ctx);
+            gs_poly_set_si(&r->den, 1, ctx);
+            for (k = 0; k < (n < 0 ? -n : n) && k < 64; k++) {
+                gs_poly_mul(&r->num, &r->num, n < 0 ? &a.den : &a.num, ctx);
+                gs_poly_mul(&r->den, &r->den, n < 0 ? &a.num : &a.den, ctx);
+            }
+            break;
+        default:
+            rc = GS_EINVAL;
+            break;
+        }
+    }
+    if (rc == GS_OK && gs_poly_is_zero(&r->den)) {
+        gs_diag_add(d, GS_SEV_ERROR, c->file, e->line, e->col,
+                    "a figure may not divide by an output that is zero",
+                    "figure '%s': division by zero", fig->name);
+        rc = GS_ESINGULAR;
+    }
+    if (rc == GS_OK)
+        gs_reduce_ratio(&r->num, &r->den, c->syms, ctx, 1, NULL);
+    gs_poly_clear(&t);
+    ratfn_clear(&a);
+    ratfn_clear(&b);
+    return rc;
+}
+
+int gs_derive_figure_part(gs_tf *tf, const gs_circuit *c, size_t out,
+                          const gs_polyctx *ctx, const gs_derive_opts *o,
+                          gs_diag *d, int depth)
+{
+    const gs_output *op = &c->outputs[out];
+    gs_derive_opts plain = *o;
+    ratfn r;
+    int rc;
+    plain.nlimits = 0;          /* limits apply to the whole figure */
+    if (op->kind != GS_OUT_FIGURE)
+        return gs_derive(tf, c, out, ctx, &plain, NULL, d);
+    ratfn_init(&r);
+    rc = figure_eval(&r, c, op, op->figure, ctx, &plain, d, depth);
+    if (rc == GS_OK) {
+        gs_poly_swap(&tf->num, &r.num);
+        gs_poly_swap(&tf->den, &r.den);
+    }
+    ratfn_clear(&r);
+    return rc;
+}
+
 int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
               const gs_polyctx *ctx, const gs_derive_opts *o,
               gs_derive_stats *stats, gs_diag *d)
@@ -288,12 +454,24 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
     gs_derive_stats local;
     gs_mna m;
     gs_poly det_a, det_m;
-    char *desc = describe(c, op);
+    char *desc;
     int rc;
 
     if (stats == NULL)
         stats = &local;
     memset(stats, 0, sizeof *stats);
+    if (op->kind == GS_OUT_FIGURE) {
+        desc = expr_text(c, op->figure, 0);
+        gs_tf_set_name(tf, op->name);
+        gs_tf_set_description(tf, desc);
+        free(desc);
+        tf->kind = GS_TF_TRANSFER;
+        rc = gs_derive_figure_part(tf, c, out, ctx, o, d, 0);
+        if (rc == GS_OK)
+            rc = apply_limits(tf, c, op, o, d);
+        return rc;
+    }
+    desc = describe(c, op);
     gs_tf_set_name(tf, op->name);
     gs_tf_set_description(tf, desc);
     free(desc);

@@ -204,8 +204,10 @@ static void free_elements(gs_circuit *c)
 static void free_lines(gs_circuit *c)
 {
     size_t i;
-    for (i = 0; i < c->noutputs; i++)
+    for (i = 0; i < c->noutputs; i++) {
         free(c->outputs[i].name);
+        gs_expr_free(c->outputs[i].figure);
+    }
     free(c->outputs);
     for (i = 0; i < c->nvalues; i++) {
         gs_expr_free(c->values[i].expr);

@@ -91,8 +91,11 @@ typedef struct gs_probe {
 
 typedef enum gs_output_kind {
     GS_OUT_TRANSFER,     /* name = probe / source */
-    GS_OUT_IMPEDANCE     /* name = a, b: driving-point impedance */
+    GS_OUT_IMPEDANCE,    /* name = a, b: driving-point impedance */
+    GS_OUT_FIGURE        /* name = an expression in other outputs */
 } gs_output_kind;
+
+struct gs_expr;
 
 typedef struct gs_output {
     gs_output_kind kind;
@@ -101,6 +104,8 @@ typedef struct gs_output {
     gs_probe out;        /* transfer: the output quantity */
     int in;              /* transfer: index of the independent source */
     int a, b;            /* impedance: the two nodes */
+    struct gs_expr *figure;  /* figure: the expression (owned), whose
+                                symbols name outputs */
 } gs_output;
 
 /* Expressions of `value` lines: evaluated numerically (long double). */

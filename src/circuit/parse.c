@@ -443,6 +443,108 @@ static int parse_temperature(gs_parser *p, const stmt_kind *k)
     return GS_OK;
 }
 
+/* ---- figures: expressions in other outputs ---- */
+
+static gs_output *new_output(gs_parser *p, gs_output_kind kind,
+                             const gs_token *name);
+static const gs_token *output_head(gs_parser *p, const stmt_kind *k);
+
+static int parse_figure(gs_parser *p, const stmt_kind *k)
+{
+    const gs_token *name = output_head(p, k);
+    gs_expr *e = NULL;
+    gs_output *o;
+    if (name == NULL)
+        return GS_ESYNTAX;
+    if (gs_cur_peek(&p->cur)->kind == GS_TK_END) {
+        gs_parser_expected(p, gs_cur_peek(&p->cur), "an expression in "
+                           "outputs", k->form);
+        return GS_ESYNTAX;
+    }
+    if (gs_parse_expr(&e, &p->cur, p->c) != GS_OK)
+        return GS_ESYNTAX;
+    if (expect_end(p, k->form) != GS_OK) {
+        gs_expr_free(e);
+        return GS_ESYNTAX;
+    }
+    o = new_output(p, GS_OUT_FIGURE, name);
+    o->figure = e;
+    return GS_OK;
+}
+
+/* Once the file is read: every name in a figure is an output, powers are
+   whole numbers, no functions, and no figure depends on itself. */
+static void check_figure_expr(gs_parser *p, const gs_output *o,
+                              const gs_expr *e, int depth)
+{
+    gs_circuit *c = p->c;
+    const char *nm;
+    int k;
+    if (e == NULL)
+        return;
+    switch (e->kind) {
+    case GS_EX_SYM:
+        nm = gs_symtab_name(c->syms, e->sym);
+        k = gs_circuit_find_output(c, nm);
+        if (k < 0) {
+            const char **names = gs_malloc((c->noutputs + 1)
+                                           * sizeof *names);
+            size_t i;
+            char *hint;
+            for (i = 0; i < c->noutputs; i++)
+                names[i] = c->outputs[i].name;
+            hint = gs_suggest_hint(nm, names, c->noutputs);
+            gs_diag_add(p->d, GS_SEV_ERROR, c->file, e->line, e->col,
+                        hint ? hint : "a figure combines transfer, "
+                        "impedance and figure lines of the file",
+                        "figure '%s': '%s' is not an output", o->name, nm);
+            free(hint);
+            free(names);
+        } else if (c->outputs[k].kind == GS_OUT_FIGURE) {
+            if (&c->outputs[k] == o || depth > (int)c->noutputs)
+                gs_diag_add(p->d, GS_SEV_ERROR, c->file, e->line, e->col,
+                            "a figure may use other figures, but not "
+                            "itself", "figure '%s' depends on itself",
+                            o->name);
+            else
+                check_figure_expr(p, o, c->outputs[k].figure, depth + 1);
+        }
+        return;
+    case GS_EX_CALL:
+        gs_diag_add(p->d, GS_SEV_ERROR, c->file, e->line, e->col,
+                    "a figure is a rational function: + - * / and whole "
+                    "powers only", "figure '%s': '%s' is not allowed in "
+                    "a figure", o->name, e->func);
+        return;
+    case GS_EX_POW:
+        if (e->rhs->kind != GS_EX_NUM
+            && !(e->rhs->kind == GS_EX_NEG && e->rhs->lhs->kind
+                 == GS_EX_NUM)) {
+            gs_diag_add(p->d, GS_SEV_ERROR, c->file, e->rhs->line,
+                        e->rhs->col, "write the power as a whole number",
+                        "figure '%s': the power must be a number",
+                        o->name);
+            return;
+        }
+        break;
+    default:
+        break;
+    }
+    if (depth == 0 || e->kind != GS_EX_SYM) {
+        check_figure_expr(p, o, e->lhs, depth);
+        check_figure_expr(p, o, e->rhs, depth);
+    }
+}
+
+static void check_figures(gs_parser *p)
+{
+    size_t i;
+    for (i = 0; i < p->c->noutputs; i++)
+        if (p->c->outputs[i].kind == GS_OUT_FIGURE)
+            check_figure_expr(p, &p->c->outputs[i],
+                              p->c->outputs[i].figure, 0);
+}
+
 /* ---- balanced drive and sensing of a node pair ---- */
 
 /* A part NAME.SUFFIX of a balanced or sense line: an element known by
@@ -760,6 +862,8 @@ static const stmt_kind kinds[] = {
      "impedance NAME = NODE [, NODE]"},
     {"temperature", parse_temperature, GS_VCCS, 0, NONE, 0, 0,
      "temperature KELVIN"},
+    {"figure", parse_figure, GS_VCCS, 0, NONE, 0, 0,
+     "figure NAME = EXPRESSION IN OUTPUTS"},
     {"balanced", parse_balanced, GS_VCCS, 0, NONE, 0, 0,
      "balanced NAME NODE+ NODE-"},
     {"sense", parse_sense, GS_VCCS, 0, NONE, 0, 0,
@@ -872,6 +976,7 @@ int gs_parse_text(gs_circuit *c, const char *name, const char *text,
         parse_statement(&p);
     }
     gs_parser_resolve(&p);
+    check_figures(&p);
     gs_parser_finish_devices(&p);
     parser_clear(&p);
     if (d->nerrors != before)

@@ -229,6 +229,47 @@ static cplx probe_value(const numsys *sy, const gs_output *o, const cplx *x,
     return v + known;
 }
 
+/* A figure's value from the values of the outputs it names. */
+static int figure_value(cplx *h, const gs_circuit *c, const gs_expr *e,
+                        const long double *vals, cplx s, gs_diag *d,
+                        int depth)
+{
+    cplx a = 0, b = 0;
+    int rc = GS_OK, idx;
+    if (depth > (int)c->noutputs + 1)
+        return GS_EINVAL;
+    switch (e->kind) {
+    case GS_EX_NUM:
+        *h = gs_rat_get_ld(&e->num);
+        return GS_OK;
+    case GS_EX_SYM:
+        idx = gs_circuit_find_output(c, gs_symtab_name(c->syms, e->sym));
+        if (idx < 0)
+            return GS_EINVAL;
+        if (c->outputs[idx].kind == GS_OUT_FIGURE)
+            return figure_value(h, c, c->outputs[idx].figure, vals, s, d,
+                                depth + 1);
+        return gs_numsolve(h, c, (size_t)idx, vals, s, d);
+    default:
+        break;
+    }
+    rc = figure_value(&a, c, e->lhs, vals, s, d, depth);
+    if (rc == GS_OK && e->rhs)
+        rc = figure_value(&b, c, e->rhs, vals, s, d, depth);
+    if (rc != GS_OK)
+        return rc;
+    switch (e->kind) {
+    case GS_EX_NEG: *h = -a; break;
+    case GS_EX_ADD: *h = a + b; break;
+    case GS_EX_SUB: *h = a - b; break;
+    case GS_EX_MUL: *h = a * b; break;
+    case GS_EX_DIV: *h = a / b; break;
+    case GS_EX_POW: *h = cpowl(a, b); break;
+    default: return GS_EINVAL;
+    }
+    return GS_OK;
+}
+
 int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
                 const long double *vals, long double complex s, gs_diag *d)
 {
@@ -237,6 +278,9 @@ int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
     size_t k;
     int n = c->nnodes - 1, rc;
     cplx *row;
+
+    if (o->kind == GS_OUT_FIGURE)
+        return figure_value(h, c, o->figure, vals, s, d, 0);
 
     sy.branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy.branch);
     for (k = 0; k < c->nelems; k++)
