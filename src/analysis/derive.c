@@ -282,6 +282,10 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
 
 /* ---- figures: rational functions of other outputs ---- */
 
+static int derive_loop(gs_tf *tf, const gs_circuit *cc, size_t out,
+                       const gs_polyctx *ctx, const gs_derive_opts *o,
+                       gs_derive_stats *stats, gs_diag *d);
+
 /* The text of a figure's expression, as written but with the least
    parentheses: "Adm / Acm". */
 static char *expr_text(const gs_circuit *c, const gs_expr *e, int prec)
@@ -434,6 +438,8 @@ int gs_derive_figure_part(gs_tf *tf, const gs_circuit *c, size_t out,
     ratfn r;
     int rc;
     plain.nlimits = 0;          /* limits apply to the whole figure */
+    if (op->kind == GS_OUT_LOOP)
+        return derive_loop(tf, c, out, ctx, &plain, NULL, d);
     if (op->kind != GS_OUT_FIGURE)
         return gs_derive(tf, c, out, ctx, &plain, NULL, d);
     ratfn_init(&r);
@@ -444,6 +450,74 @@ int gs_derive_figure_part(gs_tf *tf, const gs_circuit *c, size_t out,
     }
     ratfn_clear(&r);
     return rc;
+}
+
+/* ---- the return ratio ---- */
+
+/* The return ratio of controlled source X (Bode's definition; Gray,
+   Hurst, Lewis and Meyer, feedback chapter; Rosenstark, "Feedback
+   Amplifier Principles", from memory): X made an independent source of
+   its own kind (current or voltage) with every other independent source
+   set to zero, T = -(gain of X) * (the control X sees) / (what X
+   injects).  The circuit is changed for the derivation and restored:
+   the element becomes an isource or vsource of amplitude 1 and the output
+   a transfer from it to X's control. */
+static int derive_loop(gs_tf *tf, const gs_circuit *cc, size_t out,
+                       const gs_polyctx *ctx, const gs_derive_opts *o,
+                       gs_derive_stats *stats, gs_diag *d)
+{
+    gs_circuit *c = (gs_circuit *)cc;     /* restored before returning */
+    gs_output *op = &c->outputs[out], saved_out = *op;
+    gs_element *x = &c->elems[op->in], saved_x = *x;
+    gs_derive_opts plain = *o;
+    gs_poly g, t;
+    char *desc;
+    int rc, i;
+
+    if (x->kind == GS_VCCS || x->kind == GS_VCVS) {
+        op->out.kind = GS_PROBE_V;
+        op->out.a = x->node[2];
+        op->out.b = x->node[3];
+    } else {
+        op->out.kind = GS_PROBE_I;
+        op->out.elem = x->ctrl;
+    }
+    op->kind = GS_OUT_TRANSFER;
+    x->kind = x->kind == GS_VCCS || x->kind == GS_CCCS ? GS_ISOURCE
+                                                       : GS_VSOURCE;
+    gs_monomial_init(&x->value);
+    plain.nlimits = 0;
+    rc = gs_derive(tf, c, out, ctx, &plain, stats, d);
+    gs_monomial_clear(&x->value);
+    *x = saved_x;
+    *op = saved_out;
+    if (rc != GS_OK)
+        return rc;
+    /* T = -g H, g a monomial of the gain's symbols */
+    gs_poly_init(&g);
+    gs_poly_init(&t);
+    gs_poly_set_int(&t, &x->value.coeff.num, ctx);
+    gs_poly_neg(&t, &t, ctx);
+    gs_poly_mul(&tf->num, &tf->num, &t, ctx);
+    gs_poly_set_int(&t, &x->value.coeff.den, ctx);
+    gs_poly_mul(&tf->den, &tf->den, &t, ctx);
+    for (i = 0; i < x->value.n; i++) {
+        int e = x->value.exp[i];
+        gs_poly_set_var(&g, x->value.sym[i], (unsigned)(e < 0 ? -e : e),
+                        ctx);
+        if (e > 0)
+            gs_poly_mul(&tf->num, &tf->num, &g, ctx);
+        else
+            gs_poly_mul(&tf->den, &tf->den, &g, ctx);
+    }
+    gs_poly_clear(&g);
+    gs_poly_clear(&t);
+    gs_reduce_ratio(&tf->num, &tf->den, c->syms, ctx, !o->no_gcd, NULL);
+    gs_tf_set_name(tf, op->name);
+    desc = gs_asprintf("return ratio of %s", x->name);
+    gs_tf_set_description(tf, desc);
+    free(desc);
+    return apply_limits(tf, c, op, o, d);
 }
 
 int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
@@ -460,6 +534,8 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
     if (stats == NULL)
         stats = &local;
     memset(stats, 0, sizeof *stats);
+    if (op->kind == GS_OUT_LOOP)
+        return derive_loop(tf, c, out, ctx, o, stats, d);
     if (op->kind == GS_OUT_FIGURE) {
         desc = expr_text(c, op->figure, 0);
         gs_tf_set_name(tf, op->name);

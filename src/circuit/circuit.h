@@ -92,7 +92,9 @@ typedef struct gs_probe {
 typedef enum gs_output_kind {
     GS_OUT_TRANSFER,     /* name = probe / source */
     GS_OUT_IMPEDANCE,    /* name = a, b: driving-point impedance */
-    GS_OUT_FIGURE        /* name = an expression in other outputs */
+    GS_OUT_FIGURE,       /* name = an expression in other outputs */
+    GS_OUT_LOOP          /* name = the return ratio of controlled source
+                            `in` (Bode's definition) */
 } gs_output_kind;
 
 struct gs_expr;

@@ -545,6 +545,49 @@ static void check_figures(gs_parser *p)
                               p->c->outputs[i].figure, 0);
 }
 
+/* ---- loop gain by the return ratio ---- */
+
+/* loopgain NAME = SOURCE: the return ratio of a controlled source. */
+static int parse_loopgain(gs_parser *p, const stmt_kind *k)
+{
+    const gs_token *name = output_head(p, k), *t;
+    gs_output *o;
+    if (name == NULL)
+        return GS_ESYNTAX;
+    t = gs_cur_next(&p->cur);
+    if (t->kind != GS_TK_IDENT) {
+        gs_parser_expected(p, t, "a controlled source (vccs, vcvs, cccs, "
+                           "ccvs, or a device's gm)", k->form);
+        return GS_ESYNTAX;
+    }
+    if (expect_end(p, k->form) != GS_OK)
+        return GS_ESYNTAX;
+    o = new_output(p, GS_OUT_LOOP, name);
+    gs_parser_add_ref(p, GS_REF_SOURCE, p->c->noutputs - 1, 0, t);
+    (void)o;
+    return GS_OK;
+}
+
+static void check_loops(gs_parser *p)
+{
+    gs_circuit *c = p->c;
+    size_t i;
+    for (i = 0; i < c->noutputs; i++) {
+        const gs_output *o = &c->outputs[i];
+        const gs_element *e;
+        if (o->kind != GS_OUT_LOOP || o->in < 0)
+            continue;
+        e = &c->elems[o->in];
+        if (e->kind != GS_VCCS && e->kind != GS_VCVS && e->kind != GS_CCCS
+            && e->kind != GS_CCVS)
+            gs_diag_add(p->d, GS_SEV_ERROR, c->file, o->line, o->col,
+                        "the return ratio is that of a vccs, vcvs, cccs or "
+                        "ccvs, or of a device's gm (M1.gm)",
+                        "loopgain '%s': %s '%s' is not a controlled source",
+                        o->name, gs_elem_kind_name(e->kind), e->name);
+    }
+}
+
 /* ---- balanced drive and sensing of a node pair ---- */
 
 /* A part NAME.SUFFIX of a balanced or sense line: an element known by
@@ -862,6 +905,8 @@ static const stmt_kind kinds[] = {
      "impedance NAME = NODE [, NODE]"},
     {"temperature", parse_temperature, GS_VCCS, 0, NONE, 0, 0,
      "temperature KELVIN"},
+    {"loopgain", parse_loopgain, GS_VCCS, 0, NONE, 0, 0,
+     "loopgain NAME = CONTROLLED-SOURCE"},
     {"figure", parse_figure, GS_VCCS, 0, NONE, 0, 0,
      "figure NAME = EXPRESSION IN OUTPUTS"},
     {"balanced", parse_balanced, GS_VCCS, 0, NONE, 0, 0,
@@ -977,6 +1022,7 @@ int gs_parse_text(gs_circuit *c, const char *name, const char *text,
     }
     gs_parser_resolve(&p);
     check_figures(&p);
+    check_loops(&p);
     gs_parser_finish_devices(&p);
     parser_clear(&p);
     if (d->nerrors != before)

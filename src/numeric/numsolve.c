@@ -229,6 +229,38 @@ static cplx probe_value(const numsys *sy, const gs_output *o, const cplx *x,
     return v + known;
 }
 
+/* The return ratio of a controlled source, as derive.c defines it: the
+   circuit changed for the solve and restored. */
+static int loop_value(cplx *h, const gs_circuit *cc, size_t out,
+                      const long double *vals, cplx s, gs_diag *d)
+{
+    gs_circuit *c = (gs_circuit *)cc;
+    gs_output *op = &c->outputs[out], saved_out = *op;
+    gs_element *x = &c->elems[op->in], saved_x = *x;
+    long double g = 1;
+    int rc, i;
+    g = gs_rat_get_ld(&x->value.coeff);
+    for (i = 0; i < x->value.n; i++)
+        g *= powl(vals[x->value.sym[i]], (long double)x->value.exp[i]);
+    if (x->kind == GS_VCCS || x->kind == GS_VCVS) {
+        op->out.kind = GS_PROBE_V;
+        op->out.a = x->node[2];
+        op->out.b = x->node[3];
+    } else {
+        op->out.kind = GS_PROBE_I;
+        op->out.elem = x->ctrl;
+    }
+    op->kind = GS_OUT_TRANSFER;
+    x->kind = x->kind == GS_VCCS || x->kind == GS_CCCS ? GS_ISOURCE
+                                                       : GS_VSOURCE;
+    rc = gs_numsolve(h, c, out, vals, s, d);
+    *x = saved_x;
+    *op = saved_out;
+    if (rc == GS_OK)
+        *h *= -g;
+    return rc;
+}
+
 /* A figure's value from the values of the outputs it names. */
 static int figure_value(cplx *h, const gs_circuit *c, const gs_expr *e,
                         const long double *vals, cplx s, gs_diag *d,
@@ -281,6 +313,8 @@ int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
 
     if (o->kind == GS_OUT_FIGURE)
         return figure_value(h, c, o->figure, vals, s, d, 0);
+    if (o->kind == GS_OUT_LOOP)
+        return loop_value(h, c, out, vals, s, d);
 
     sy.branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy.branch);
     for (k = 0; k < c->nelems; k++)

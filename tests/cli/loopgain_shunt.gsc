@@ -1,0 +1,12 @@
+# A common-source stage with shunt feedback RF from drain to gate, driven
+# through RS.  By hand (Bode's return ratio with M1.gm made an
+# independent current source): the returned gate voltage is the drain
+# current through RD || (RF + RS) divided by RS/(RF + RS), so
+# T = gm*RD*RS/(RD + RF + RS) at DC.
+vsource  vin in gnd
+resistor RS  in g
+resistor RF  d g
+mosfet   M1  d g gnd gm=gm rds=inf cgs=Cgs
+resistor RD  d gnd
+transfer Av = v(d) / vin
+loopgain T  = M1.gm
