@@ -462,6 +462,92 @@ int gs_derive_figure_part(gs_tf *tf, const gs_circuit *c, size_t out,
    injects).  The circuit is changed for the derivation and restored:
    the element becomes an isource or vsource of amplitude 1 and the output
    a transfer from it to X's control. */
+/* The transfer loop_of with controlled source X set to zero (made an
+   independent source, which superposition then nulls): the direct
+   feed-through d of the asymptotic-gain model. */
+static int derive_direct(gs_tf *tf, gs_circuit *c, const gs_output *op,
+                         const gs_polyctx *ctx, const gs_derive_opts *o,
+                         gs_diag *d)
+{
+    gs_element *x = &c->elems[op->in];
+    gs_elem_kind kind = x->kind;
+    int rc;
+    x->kind = kind == GS_VCCS || kind == GS_CCCS ? GS_ISOURCE : GS_VSOURCE;
+    rc = gs_derive_figure_part(tf, c, (size_t)op->loop_of, ctx, o, d, 1);
+    x->kind = kind;
+    return rc;
+}
+
+/* The parts of the asymptotic-gain model (Rosenstark, "Feedback
+   Amplifier Principles"; Gray, Hurst, Lewis and Meyer, feedback chapter,
+   from memory): A = Ainf T/(1 + T) + d/(1 + T), so
+   Ainf = (A (1 + T) - d) / T; part 2 is d itself. */
+static int derive_loop_part(gs_tf *tf, gs_circuit *c, size_t out,
+                            const gs_polyctx *ctx, const gs_derive_opts *o,
+                            gs_diag *d)
+{
+    gs_output *op = &c->outputs[out];
+    gs_derive_opts plain = *o;
+    gs_tf a, t, dd;
+    gs_poly x, y;
+    char *desc;
+    int rc;
+    if (op->loop_of < 0)
+        return GS_EINVAL;
+    plain.nlimits = 0;
+    gs_tf_init(&a, ctx, c->s_sym);
+    gs_tf_init(&t, ctx, c->s_sym);
+    gs_tf_init(&dd, ctx, c->s_sym);
+    rc = derive_direct(&dd, c, op, ctx, &plain, d);
+    if (rc == GS_OK && op->loop_part == 1) {
+        rc = gs_derive_figure_part(&a, c, (size_t)op->loop_of, ctx, &plain,
+                                   d, 1);
+        if (rc == GS_OK) {
+            op->loop_part = 0;
+            rc = derive_loop(&t, c, out, ctx, &plain, NULL, d);
+            op->loop_part = 1;
+        }
+        if (rc == GS_OK && gs_poly_is_zero(&t.num)) {
+            gs_diag_add(d, GS_SEV_ERROR, c->file, op->line, op->col, NULL,
+                        "%s: the return ratio is zero: no asymptotic gain",
+                        op->name);
+            rc = GS_ESINGULAR;
+        }
+        if (rc == GS_OK) {
+            /* a/b, t/u, e/f: (a f (u + t) - e b u) / (b f t) */
+            gs_poly_init(&x);
+            gs_poly_init(&y);
+            gs_poly_add(&x, &t.den, &t.num, ctx);
+            gs_poly_mul(&x, &x, &a.num, ctx);
+            gs_poly_mul(&x, &x, &dd.den, ctx);
+            gs_poly_mul(&y, &dd.num, &a.den, ctx);
+            gs_poly_mul(&y, &y, &t.den, ctx);
+            gs_poly_sub(&tf->num, &x, &y, ctx);
+            gs_poly_mul(&x, &a.den, &dd.den, ctx);
+            gs_poly_mul(&tf->den, &x, &t.num, ctx);
+            gs_poly_clear(&x);
+            gs_poly_clear(&y);
+            gs_reduce_ratio(&tf->num, &tf->den, c->syms, ctx, 1, NULL);
+        }
+    } else if (rc == GS_OK) {
+        gs_poly_swap(&tf->num, &dd.num);
+        gs_poly_swap(&tf->den, &dd.den);
+    }
+    gs_tf_clear(&a);
+    gs_tf_clear(&t);
+    gs_tf_clear(&dd);
+    gs_tf_set_name(tf, op->name);
+    desc = gs_asprintf(op->loop_part == 1 ? "asymptotic gain of %s for %s"
+                       : "direct feed-through of %s, %s set to zero",
+                       c->outputs[op->loop_of].name, c->elems[op->in].name);
+    gs_tf_set_description(tf, desc);
+    free(desc);
+    tf->kind = GS_TF_TRANSFER;
+    if (rc == GS_OK)
+        rc = apply_limits(tf, c, op, o, d);
+    return rc;
+}
+
 static int derive_loop(gs_tf *tf, const gs_circuit *cc, size_t out,
                        const gs_polyctx *ctx, const gs_derive_opts *o,
                        gs_derive_stats *stats, gs_diag *d)
@@ -474,6 +560,8 @@ static int derive_loop(gs_tf *tf, const gs_circuit *cc, size_t out,
     char *desc;
     int rc, i;
 
+    if (op->loop_part != 0)
+        return derive_loop_part(tf, c, out, ctx, o, d);
     if (x->kind == GS_VCCS || x->kind == GS_VCVS) {
         op->out.kind = GS_PROBE_V;
         op->out.a = x->node[2];

@@ -207,6 +207,7 @@ static void free_lines(gs_circuit *c)
     for (i = 0; i < c->noutputs; i++) {
         free(c->outputs[i].name);
         gs_expr_free(c->outputs[i].figure);
+        free(c->outputs[i].loop_for);
     }
     free(c->outputs);
     for (i = 0; i < c->nvalues; i++) {

@@ -108,6 +108,12 @@ typedef struct gs_output {
     int a, b;            /* impedance: the two nodes */
     struct gs_expr *figure;  /* figure: the expression (owned), whose
                                 symbols name outputs */
+    int loop_part;           /* loop: 0 the return ratio T, 1 the
+                                asymptotic gain, 2 the direct feed-through
+                                of transfer loop_of */
+    int loop_of;             /* with `for`: index of the transfer, else -1 */
+    char *loop_for;          /* its name as written (owned), or NULL */
+    int for_line, for_col;   /* where */
 } gs_output;
 
 /* Expressions of `value` lines: evaluated numerically (long double). */

@@ -547,10 +547,12 @@ static void check_figures(gs_parser *p)
 
 /* ---- loop gain by the return ratio ---- */
 
-/* loopgain NAME = SOURCE: the return ratio of a controlled source. */
+/* loopgain NAME = SOURCE [for TRANSFER]: the return ratio of a
+   controlled source, and with `for` the asymptotic gain and the direct
+   feed-through of that transfer. */
 static int parse_loopgain(gs_parser *p, const stmt_kind *k)
 {
-    const gs_token *name = output_head(p, k), *t;
+    const gs_token *name = output_head(p, k), *t, *of = NULL, *w;
     gs_output *o;
     if (name == NULL)
         return GS_ESYNTAX;
@@ -560,11 +562,44 @@ static int parse_loopgain(gs_parser *p, const stmt_kind *k)
                            "ccvs, or a device's gm)", k->form);
         return GS_ESYNTAX;
     }
+    w = gs_cur_peek(&p->cur);
+    if (w->kind == GS_TK_IDENT && strcmp(w->text, "for") == 0) {
+        gs_cur_next(&p->cur);
+        of = gs_cur_next(&p->cur);
+        if (of->kind != GS_TK_IDENT) {
+            gs_parser_expected(p, of, "the transfer to decompose", k->form);
+            return GS_ESYNTAX;
+        }
+    }
     if (expect_end(p, k->form) != GS_OK)
         return GS_ESYNTAX;
     o = new_output(p, GS_OUT_LOOP, name);
+    o->loop_of = -1;
     gs_parser_add_ref(p, GS_REF_SOURCE, p->c->noutputs - 1, 0, t);
-    (void)o;
+    if (of != NULL) {
+        /* the asymptotic-gain parts: NAME_inf and NAME_direct */
+        static const char *suffix[2] = {"inf", "direct"};
+        int part;
+        size_t src = p->c->noutputs - 1;
+        for (part = 1; part <= 2; part++) {
+            char *nm = gs_asprintf("%s_%s", name->text, suffix[part - 1]);
+            gs_token pt = *name;
+            pt.text = nm;
+            if (gs_circuit_find_output(p->c, nm) >= 0)
+                gs_cur_error(&p->cur, name, NULL, "duplicate output '%s'",
+                             nm);
+            o = new_output(p, GS_OUT_LOOP, &pt);
+            o->loop_part = part;
+            o->loop_of = -1;
+            gs_parser_add_ref(p, GS_REF_SOURCE, p->c->noutputs - 1, 0, t);
+            free(nm);
+        }
+        for (part = 0; part < 3; part++) {
+            gs_output *q = &p->c->outputs[src + (size_t)part];
+            q->loop_for = gs_strdup(of->text);
+            gs_lex_position(&p->lx, of->off, &q->for_line, &q->for_col);
+        }
+    }
     return GS_OK;
 }
 
@@ -576,6 +611,20 @@ static void check_loops(gs_parser *p)
         const gs_output *o = &c->outputs[i];
         const gs_element *e;
         if (o->kind != GS_OUT_LOOP || o->in < 0)
+            continue;
+        if (o->loop_for != NULL) {
+            int k = gs_circuit_find_output(c, o->loop_for);
+            if (k < 0 || c->outputs[k].kind != GS_OUT_TRANSFER) {
+                if (o->loop_part == 0)
+                    gs_diag_add(p->d, GS_SEV_ERROR, c->file, o->for_line,
+                                o->for_col, "name a transfer line of the "
+                                "file", "loopgain '%s': '%s' is not a "
+                                "transfer", o->name, o->loop_for);
+            } else {
+                c->outputs[i].loop_of = k;
+            }
+        }
+        if (o->loop_part != 0)
             continue;
         e = &c->elems[o->in];
         if (e->kind != GS_VCCS && e->kind != GS_VCVS && e->kind != GS_CCCS

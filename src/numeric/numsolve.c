@@ -239,6 +239,29 @@ static int loop_value(cplx *h, const gs_circuit *cc, size_t out,
     gs_element *x = &c->elems[op->in], saved_x = *x;
     long double g = 1;
     int rc, i;
+    if (op->loop_part != 0) {
+        /* the asymptotic-gain parts, as derive.c defines them */
+        gs_elem_kind kind = x->kind;
+        cplx a = 0, t = 0, dd = 0;
+        if (op->loop_of < 0)
+            return GS_EINVAL;
+        x->kind = kind == GS_VCCS || kind == GS_CCCS ? GS_ISOURCE
+                                                     : GS_VSOURCE;
+        rc = gs_numsolve(&dd, c, (size_t)op->loop_of, vals, s, d);
+        x->kind = kind;
+        if (rc != GS_OK || op->loop_part == 2) {
+            *h = dd;
+            return rc;
+        }
+        rc = gs_numsolve(&a, c, (size_t)op->loop_of, vals, s, d);
+        op->loop_part = 0;
+        if (rc == GS_OK)
+            rc = loop_value(&t, c, out, vals, s, d);
+        op->loop_part = 1;
+        if (rc == GS_OK)
+            *h = (a * (1 + t) - dd) / t;
+        return rc;
+    }
     g = gs_rat_get_ld(&x->value.coeff);
     for (i = 0; i < x->value.n; i++)
         g *= powl(vals[x->value.sym[i]], (long double)x->value.exp[i]);

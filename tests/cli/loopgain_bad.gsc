@@ -6,3 +6,4 @@ transfer H = v(out) / vin
 loopgain T1 = R1
 loopgain T2 = Gx
 loopgain T3 =
+loopgain T4 = G1 for Zq
