@@ -280,6 +280,334 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
     return rc;
 }
 
+/* ---- figures: rational functions of other outputs ---- */
+
+static int derive_loop(gs_tf *tf, const gs_circuit *cc, size_t out,
+                       const gs_polyctx *ctx, const gs_derive_opts *o,
+                       gs_derive_stats *stats, gs_diag *d);
+
+/* The text of a figure's expression, as written but with the least
+   parentheses: "Adm / Acm". */
+static char *expr_text(const gs_circuit *c, const gs_expr *e, int prec)
+{
+    char *l, *r, *t;
+    const char *op;
+    int mine;
+    switch (e->kind) {
+    case GS_EX_NUM:
+        return gs_rat_get_str(&e->num);
+    case GS_EX_SYM:
+        return gs_strdup(gs_symtab_name(c->syms, e->sym));
+    case GS_EX_NEG:
+        l = expr_text(c, e->lhs, 3);
+        t = gs_asprintf(prec > 1 ? "(-%s)" : "-%s", l);
+        free(l);
+        return t;
+    default:
+        break;
+    }
+    switch (e->kind) {
+    case GS_EX_ADD: op = " + "; mine = 1; break;
+    case GS_EX_SUB: op = " - "; mine = 1; break;
+    case GS_EX_MUL: op = "*"; mine = 2; break;
+    case GS_EX_DIV: op = " / "; mine = 2; break;
+    default: op = "^"; mine = 4; break;
+    }
+    l = expr_text(c, e->lhs, mine);
+    r = expr_text(c, e->rhs, mine + 1);
+    t = gs_asprintf(mine < prec ? "(%s%s%s)" : "%s%s%s", l, op, r);
+    free(l);
+    free(r);
+    return t;
+}
+
+typedef struct ratfn {
+    gs_poly num, den;
+} ratfn;
+
+static void ratfn_init(ratfn *r)
+{
+    gs_poly_init(&r->num);
+    gs_poly_init(&r->den);
+}
+
+static void ratfn_clear(ratfn *r)
+{
+    gs_poly_clear(&r->num);
+    gs_poly_clear(&r->den);
+}
+
+/* r = the value of e, each name the output of that name derived again
+   (depth bounds figures of figures; the parser refuses cycles). */
+static int figure_eval(ratfn *r, const gs_circuit *c, const gs_output *fig,
+                       const gs_expr *e, const gs_polyctx *ctx,
+                       const gs_derive_opts *o, gs_diag *d, int depth)
+{
+    ratfn a, b;
+    gs_poly t;
+    gs_tf tf;
+    long n, k;
+    int rc = GS_OK, idx;
+    if (depth > (int)c->noutputs + 1)
+        return GS_EINVAL;
+    if (e->kind == GS_EX_NUM) {
+        gs_poly_set_int(&r->num, &e->num.num, ctx);
+        gs_poly_set_int(&r->den, &e->num.den, ctx);
+        return GS_OK;
+    }
+    if (e->kind == GS_EX_SYM) {
+        idx = gs_circuit_find_output(c, gs_symtab_name(c->syms, e->sym));
+        if (idx < 0)
+            return GS_EINVAL;
+        gs_tf_init(&tf, ctx, c->s_sym);
+        rc = gs_derive_figure_part(&tf, c, (size_t)idx, ctx, o, d,
+                                   depth + 1);
+        if (rc == GS_OK) {
+            gs_poly_swap(&r->num, &tf.num);
+            gs_poly_swap(&r->den, &tf.den);
+        }
+        gs_tf_clear(&tf);
+        return rc;
+    }
+    ratfn_init(&a);
+    ratfn_init(&b);
+    gs_poly_init(&t);
+    rc = figure_eval(&a, c, fig, e->lhs, ctx, o, d, depth);
+    if (rc == GS_OK && e->rhs && e->kind != GS_EX_POW)
+        rc = figure_eval(&b, c, fig, e->rhs, ctx, o, d, depth);
+    if (rc == GS_OK) {
+        switch (e->kind) {
+        case GS_EX_NEG:
+            gs_poly_neg(&r->num, &a.num, ctx);
+            gs_poly_set(&r->den, &a.den, ctx);
+            break;
+        case GS_EX_ADD:
+        case GS_EX_SUB:
+            gs_poly_mul(&r->num, &a.num, &b.den, ctx);
+            gs_poly_mul(&t, &b.num, &a.den, ctx);
+            if (e->kind == GS_EX_ADD)
+                gs_poly_add(&r->num, &r->num, &t, ctx);
+            else
+                gs_poly_sub(&r->num, &r->num, &t, ctx);
+            gs_poly_mul(&r->den, &a.den, &b.den, ctx);
+            break;
+        case GS_EX_MUL:
+            gs_poly_mul(&r->num, &a.num, &b.num, ctx);
+            gs_poly_mul(&r->den, &a.den, &b.den, ctx);
+            break;
+        case GS_EX_DIV:
+            gs_poly_mul(&r->num, &a.num, &b.den, ctx);
+            gs_poly_mul(&r->den, &a.den, &b.num, ctx);
+            break;
+        case GS_EX_POW:
+            n = e->rhs->kind == GS_EX_NEG
+                ? -(long)gs_rat_get_ld(&e->rhs->lhs->num)
+                : (long)gs_rat_get_ld(&e->rhs->num);
+            gs_poly_set_si(&r->num, 1, ctx);
+            gs_poly_set_si(&r->den, 1, ctx);
+            for (k = 0; k < (n < 0 ? -n : n) && k < 64; k++) {
+                gs_poly_mul(&r->num, &r->num, n < 0 ? &a.den : &a.num, ctx);
+                gs_poly_mul(&r->den, &r->den, n < 0 ? &a.num : &a.den, ctx);
+            }
+            break;
+        default:
+            rc = GS_EINVAL;
+            break;
+        }
+    }
+    if (rc == GS_OK && gs_poly_is_zero(&r->den)) {
+        gs_diag_add(d, GS_SEV_ERROR, c->file, e->line, e->col,
+                    "a figure may not divide by an output that is zero",
+                    "figure '%s': division by zero", fig->name);
+        rc = GS_ESINGULAR;
+    }
+    if (rc == GS_OK)
+        gs_reduce_ratio(&r->num, &r->den, c->syms, ctx, 1, NULL);
+    gs_poly_clear(&t);
+    ratfn_clear(&a);
+    ratfn_clear(&b);
+    return rc;
+}
+
+int gs_derive_figure_part(gs_tf *tf, const gs_circuit *c, size_t out,
+                          const gs_polyctx *ctx, const gs_derive_opts *o,
+                          gs_diag *d, int depth)
+{
+    const gs_output *op = &c->outputs[out];
+    gs_derive_opts plain = *o;
+    ratfn r;
+    int rc;
+    plain.nlimits = 0;          /* limits apply to the whole figure */
+    if (op->kind == GS_OUT_LOOP)
+        return derive_loop(tf, c, out, ctx, &plain, NULL, d);
+    if (op->kind != GS_OUT_FIGURE)
+        return gs_derive(tf, c, out, ctx, &plain, NULL, d);
+    ratfn_init(&r);
+    rc = figure_eval(&r, c, op, op->figure, ctx, &plain, d, depth);
+    if (rc == GS_OK) {
+        gs_poly_swap(&tf->num, &r.num);
+        gs_poly_swap(&tf->den, &r.den);
+    }
+    ratfn_clear(&r);
+    return rc;
+}
+
+/* ---- the return ratio ---- */
+
+/* The return ratio of controlled source X (Bode's definition; Gray,
+   Hurst, Lewis and Meyer, feedback chapter; Rosenstark, "Feedback
+   Amplifier Principles", from memory): X made an independent source of
+   its own kind (current or voltage) with every other independent source
+   set to zero, T = -(gain of X) * (the control X sees) / (what X
+   injects).  The circuit is changed for the derivation and restored:
+   the element becomes an isource or vsource of amplitude 1 and the output
+   a transfer from it to X's control. */
+/* The transfer loop_of with controlled source X set to zero (made an
+   independent source, which superposition then nulls): the direct
+   feed-through d of the asymptotic-gain model. */
+static int derive_direct(gs_tf *tf, gs_circuit *c, const gs_output *op,
+                         const gs_polyctx *ctx, const gs_derive_opts *o,
+                         gs_diag *d)
+{
+    gs_element *x = &c->elems[op->in];
+    gs_elem_kind kind = x->kind;
+    int rc;
+    x->kind = kind == GS_VCCS || kind == GS_CCCS ? GS_ISOURCE : GS_VSOURCE;
+    rc = gs_derive_figure_part(tf, c, (size_t)op->loop_of, ctx, o, d, 1);
+    x->kind = kind;
+    return rc;
+}
+
+/* The parts of the asymptotic-gain model (Rosenstark, "Feedback
+   Amplifier Principles"; Gray, Hurst, Lewis and Meyer, feedback chapter,
+   from memory): A = Ainf T/(1 + T) + d/(1 + T), so
+   Ainf = (A (1 + T) - d) / T; part 2 is d itself. */
+static int derive_loop_part(gs_tf *tf, gs_circuit *c, size_t out,
+                            const gs_polyctx *ctx, const gs_derive_opts *o,
+                            gs_diag *d)
+{
+    gs_output *op = &c->outputs[out];
+    gs_derive_opts plain = *o;
+    gs_tf a, t, dd;
+    gs_poly x, y;
+    char *desc;
+    int rc;
+    if (op->loop_of < 0)
+        return GS_EINVAL;
+    plain.nlimits = 0;
+    gs_tf_init(&a, ctx, c->s_sym);
+    gs_tf_init(&t, ctx, c->s_sym);
+    gs_tf_init(&dd, ctx, c->s_sym);
+    rc = derive_direct(&dd, c, op, ctx, &plain, d);
+    if (rc == GS_OK && op->loop_part == 1) {
+        rc = gs_derive_figure_part(&a, c, (size_t)op->loop_of, ctx, &plain,
+                                   d, 1);
+        if (rc == GS_OK) {
+            op->loop_part = 0;
+            rc = derive_loop(&t, c, out, ctx, &plain, NULL, d);
+            op->loop_part = 1;
+        }
+        if (rc == GS_OK && gs_poly_is_zero(&t.num)) {
+            gs_diag_add(d, GS_SEV_ERROR, c->file, op->line, op->col, NULL,
+                        "%s: the return ratio is zero: no asymptotic gain",
+                        op->name);
+            rc = GS_ESINGULAR;
+        }
+        if (rc == GS_OK) {
+            /* a/b, t/u, e/f: (a f (u + t) - e b u) / (b f t) */
+            gs_poly_init(&x);
+            gs_poly_init(&y);
+            gs_poly_add(&x, &t.den, &t.num, ctx);
+            gs_poly_mul(&x, &x, &a.num, ctx);
+            gs_poly_mul(&x, &x, &dd.den, ctx);
+            gs_poly_mul(&y, &dd.num, &a.den, ctx);
+            gs_poly_mul(&y, &y, &t.den, ctx);
+            gs_poly_sub(&tf->num, &x, &y, ctx);
+            gs_poly_mul(&x, &a.den, &dd.den, ctx);
+            gs_poly_mul(&tf->den, &x, &t.num, ctx);
+            gs_poly_clear(&x);
+            gs_poly_clear(&y);
+            gs_reduce_ratio(&tf->num, &tf->den, c->syms, ctx, 1, NULL);
+        }
+    } else if (rc == GS_OK) {
+        gs_poly_swap(&tf->num, &dd.num);
+        gs_poly_swap(&tf->den, &dd.den);
+    }
+    gs_tf_clear(&a);
+    gs_tf_clear(&t);
+    gs_tf_clear(&dd);
+    gs_tf_set_name(tf, op->name);
+    desc = gs_asprintf(op->loop_part == 1 ? "asymptotic gain of %s for %s"
+                       : "direct feed-through of %s, %s set to zero",
+                       c->outputs[op->loop_of].name, c->elems[op->in].name);
+    gs_tf_set_description(tf, desc);
+    free(desc);
+    tf->kind = GS_TF_TRANSFER;
+    if (rc == GS_OK)
+        rc = apply_limits(tf, c, op, o, d);
+    return rc;
+}
+
+static int derive_loop(gs_tf *tf, const gs_circuit *cc, size_t out,
+                       const gs_polyctx *ctx, const gs_derive_opts *o,
+                       gs_derive_stats *stats, gs_diag *d)
+{
+    gs_circuit *c = (gs_circuit *)cc;     /* restored before returning */
+    gs_output *op = &c->outputs[out], saved_out = *op;
+    gs_element *x = &c->elems[op->in], saved_x = *x;
+    gs_derive_opts plain = *o;
+    gs_poly g, t;
+    char *desc;
+    int rc, i;
+
+    if (op->loop_part != 0)
+        return derive_loop_part(tf, c, out, ctx, o, d);
+    if (x->kind == GS_VCCS || x->kind == GS_VCVS) {
+        op->out.kind = GS_PROBE_V;
+        op->out.a = x->node[2];
+        op->out.b = x->node[3];
+    } else {
+        op->out.kind = GS_PROBE_I;
+        op->out.elem = x->ctrl;
+    }
+    op->kind = GS_OUT_TRANSFER;
+    x->kind = x->kind == GS_VCCS || x->kind == GS_CCCS ? GS_ISOURCE
+                                                       : GS_VSOURCE;
+    gs_monomial_init(&x->value);
+    plain.nlimits = 0;
+    rc = gs_derive(tf, c, out, ctx, &plain, stats, d);
+    gs_monomial_clear(&x->value);
+    *x = saved_x;
+    *op = saved_out;
+    if (rc != GS_OK)
+        return rc;
+    /* T = -g H, g a monomial of the gain's symbols */
+    gs_poly_init(&g);
+    gs_poly_init(&t);
+    gs_poly_set_int(&t, &x->value.coeff.num, ctx);
+    gs_poly_neg(&t, &t, ctx);
+    gs_poly_mul(&tf->num, &tf->num, &t, ctx);
+    gs_poly_set_int(&t, &x->value.coeff.den, ctx);
+    gs_poly_mul(&tf->den, &tf->den, &t, ctx);
+    for (i = 0; i < x->value.n; i++) {
+        int e = x->value.exp[i];
+        gs_poly_set_var(&g, x->value.sym[i], (unsigned)(e < 0 ? -e : e),
+                        ctx);
+        if (e > 0)
+            gs_poly_mul(&tf->num, &tf->num, &g, ctx);
+        else
+            gs_poly_mul(&tf->den, &tf->den, &g, ctx);
+    }
+    gs_poly_clear(&g);
+    gs_poly_clear(&t);
+    gs_reduce_ratio(&tf->num, &tf->den, c->syms, ctx, !o->no_gcd, NULL);
+    gs_tf_set_name(tf, op->name);
+    desc = gs_asprintf("return ratio of %s", x->name);
+    gs_tf_set_description(tf, desc);
+    free(desc);
+    return apply_limits(tf, c, op, o, d);
+}
+
 int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
               const gs_polyctx *ctx, const gs_derive_opts *o,
               gs_derive_stats *stats, gs_diag *d)
@@ -288,12 +616,26 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
     gs_derive_stats local;
     gs_mna m;
     gs_poly det_a, det_m;
-    char *desc = describe(c, op);
+    char *desc;
     int rc;
 
     if (stats == NULL)
         stats = &local;
     memset(stats, 0, sizeof *stats);
+    if (op->kind == GS_OUT_LOOP)
+        return derive_loop(tf, c, out, ctx, o, stats, d);
+    if (op->kind == GS_OUT_FIGURE) {
+        desc = expr_text(c, op->figure, 0);
+        gs_tf_set_name(tf, op->name);
+        gs_tf_set_description(tf, desc);
+        free(desc);
+        tf->kind = GS_TF_TRANSFER;
+        rc = gs_derive_figure_part(tf, c, out, ctx, o, d, 0);
+        if (rc == GS_OK)
+            rc = apply_limits(tf, c, op, o, d);
+        return rc;
+    }
+    desc = describe(c, op);
     gs_tf_set_name(tf, op->name);
     gs_tf_set_description(tf, desc);
     free(desc);

@@ -51,6 +51,14 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
               const gs_polyctx *ctx, const gs_derive_opts *o,
               gs_derive_stats *stats, gs_diag *d);
 
+/* The same for an output that may be a figure (a rational expression in
+   other outputs, each derived again; depth counts the nesting), without
+   the limits of o and without setting the name: num/den in lowest
+   terms.  gs_derive calls it for figures. */
+int gs_derive_figure_part(gs_tf *tf, const gs_circuit *c, size_t out,
+                          const gs_polyctx *ctx, const gs_derive_opts *o,
+                          gs_diag *d, int depth);
+
 /* Put num/den in lowest terms in place: reciprocal symbols cleared,
    common monomial, integer and polynomial factors removed, sign made
    positive on den's leading term.  gcd_terms (may be NULL) gets the size

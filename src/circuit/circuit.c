@@ -204,8 +204,11 @@ static void free_elements(gs_circuit *c)
 static void free_lines(gs_circuit *c)
 {
     size_t i;
-    for (i = 0; i < c->noutputs; i++)
+    for (i = 0; i < c->noutputs; i++) {
         free(c->outputs[i].name);
+        gs_expr_free(c->outputs[i].figure);
+        free(c->outputs[i].loop_for);
+    }
     free(c->outputs);
     for (i = 0; i < c->nvalues; i++) {
         gs_expr_free(c->values[i].expr);
@@ -239,6 +242,7 @@ void gs_circuit_free(gs_circuit *c)
     free_strings(c->ref_alias, c->nref_alias);
     free_elements(c);
     free_lines(c);
+    gs_expr_free(c->temperature);
     free(c);
 }
 

@@ -91,8 +91,13 @@ typedef struct gs_probe {
 
 typedef enum gs_output_kind {
     GS_OUT_TRANSFER,     /* name = probe / source */
-    GS_OUT_IMPEDANCE     /* name = a, b: driving-point impedance */
+    GS_OUT_IMPEDANCE,    /* name = a, b: driving-point impedance */
+    GS_OUT_FIGURE,       /* name = an expression in other outputs */
+    GS_OUT_LOOP          /* name = the return ratio of controlled source
+                            `in` (Bode's definition) */
 } gs_output_kind;
+
+struct gs_expr;
 
 typedef struct gs_output {
     gs_output_kind kind;
@@ -101,6 +106,14 @@ typedef struct gs_output {
     gs_probe out;        /* transfer: the output quantity */
     int in;              /* transfer: index of the independent source */
     int a, b;            /* impedance: the two nodes */
+    struct gs_expr *figure;  /* figure: the expression (owned), whose
+                                symbols name outputs */
+    int loop_part;           /* loop: 0 the return ratio T, 1 the
+                                asymptotic gain, 2 the direct feed-through
+                                of transfer loop_of */
+    int loop_of;             /* with `for`: index of the transfer, else -1 */
+    char *loop_for;          /* its name as written (owned), or NULL */
+    int for_line, for_col;   /* where */
 } gs_output;
 
 /* Expressions of `value` lines: evaluated numerically (long double). */
@@ -178,6 +191,10 @@ typedef struct gs_circuit {
     gs_device *devices;
     size_t nbiases;
     gs_bias *biases;
+    gs_expr *temperature;    /* a temperature line's expression in kelvin
+                                (owned), or NULL: the noise analysis then
+                                takes 300 K */
+    int temp_line, temp_col; /* where it is written */
 } gs_circuit;
 
 gs_circuit *gs_circuit_new(void);

@@ -412,6 +412,340 @@ static int parse_value(gs_parser *p, const stmt_kind *k)
     return GS_OK;
 }
 
+/* The temperature of the noise analysis, in kelvin: an expression as on
+   a value line, at most one line per file. */
+static int parse_temperature(gs_parser *p, const stmt_kind *k)
+{
+    const gs_token *kw = &p->cur.tok[0], *t = gs_cur_peek(&p->cur);
+    gs_expr *e = NULL;
+    int line, col;
+    if (t->kind == GS_TK_END) {
+        gs_parser_expected(p, t, "the temperature in kelvin", k->form);
+        return GS_ESYNTAX;
+    }
+    if (gs_parse_expr(&e, &p->cur, p->c) != GS_OK)
+        return GS_ESYNTAX;
+    if (expect_end(p, k->form) != GS_OK) {
+        gs_expr_free(e);
+        return GS_ESYNTAX;
+    }
+    if (p->c->temperature != NULL) {
+        gs_cur_error(&p->cur, kw, "give the temperature once", "second "
+                     "temperature (the first is at %d:%d)",
+                     p->c->temp_line, p->c->temp_col);
+        gs_expr_free(e);
+        return GS_ESYNTAX;
+    }
+    gs_lex_position(&p->lx, kw->off, &line, &col);
+    p->c->temperature = e;
+    p->c->temp_line = line;
+    p->c->temp_col = col;
+    return GS_OK;
+}
+
+/* ---- figures: expressions in other outputs ---- */
+
+static gs_output *new_output(gs_parser *p, gs_output_kind kind,
+                             const gs_token *name);
+static const gs_token *output_head(gs_parser *p, const stmt_kind *k);
+
+static int parse_figure(gs_parser *p, const stmt_kind *k)
+{
+    const gs_token *name = output_head(p, k);
+    gs_expr *e = NULL;
+    gs_output *o;
+    if (name == NULL)
+        return GS_ESYNTAX;
+    if (gs_cur_peek(&p->cur)->kind == GS_TK_END) {
+        gs_parser_expected(p, gs_cur_peek(&p->cur), "an expression in "
+                           "outputs", k->form);
+        return GS_ESYNTAX;
+    }
+    if (gs_parse_expr(&e, &p->cur, p->c) != GS_OK)
+        return GS_ESYNTAX;
+    if (expect_end(p, k->form) != GS_OK) {
+        gs_expr_free(e);
+        return GS_ESYNTAX;
+    }
+    o = new_output(p, GS_OUT_FIGURE, name);
+    o->figure = e;
+    return GS_OK;
+}
+
+/* Once the file is read: every name in a figure is an output, powers are
+   whole numbers, no functions, and no figure depends on itself. */
+static void check_figure_expr(gs_parser *p, const gs_output *o,
+                              const gs_expr *e, int depth)
+{
+    gs_circuit *c = p->c;
+    const char *nm;
+    int k;
+    if (e == NULL)
+        return;
+    switch (e->kind) {
+    case GS_EX_SYM:
+        nm = gs_symtab_name(c->syms, e->sym);
+        k = gs_circuit_find_output(c, nm);
+        if (k < 0) {
+            const char **names = gs_malloc((c->noutputs + 1)
+                                           * sizeof *names);
+            size_t i;
+            char *hint;
+            for (i = 0; i < c->noutputs; i++)
+                names[i] = c->outputs[i].name;
+            hint = gs_suggest_hint(nm, names, c->noutputs);
+            gs_diag_add(p->d, GS_SEV_ERROR, c->file, e->line, e->col,
+                        hint ? hint : "a figure combines transfer, "
+                        "impedance and figure lines of the file",
+                        "figure '%s': '%s' is not an output", o->name, nm);
+            free(hint);
+            free(names);
+        } else if (c->outputs[k].kind == GS_OUT_FIGURE) {
+            if (&c->outputs[k] == o || depth > (int)c->noutputs)
+                gs_diag_add(p->d, GS_SEV_ERROR, c->file, e->line, e->col,
+                            "a figure may use other figures, but not "
+                            "itself", "figure '%s' depends on itself",
+                            o->name);
+            else
+                check_figure_expr(p, o, c->outputs[k].figure, depth + 1);
+        }
+        return;
+    case GS_EX_CALL:
+        gs_diag_add(p->d, GS_SEV_ERROR, c->file, e->line, e->col,
+                    "a figure is a rational function: + - * / and whole "
+                    "powers only", "figure '%s': '%s' is not allowed in "
+                    "a figure", o->name, e->func);
+        return;
+    case GS_EX_POW:
+        if (e->rhs->kind != GS_EX_NUM
+            && !(e->rhs->kind == GS_EX_NEG && e->rhs->lhs->kind
+                 == GS_EX_NUM)) {
+            gs_diag_add(p->d, GS_SEV_ERROR, c->file, e->rhs->line,
+                        e->rhs->col, "write the power as a whole number",
+                        "figure '%s': the power must be a number",
+                        o->name);
+            return;
+        }
+        break;
+    default:
+        break;
+    }
+    if (depth == 0 || e->kind != GS_EX_SYM) {
+        check_figure_expr(p, o, e->lhs, depth);
+        check_figure_expr(p, o, e->rhs, depth);
+    }
+}
+
+static void check_figures(gs_parser *p)
+{
+    size_t i;
+    for (i = 0; i < p->c->noutputs; i++)
+        if (p->c->outputs[i].kind == GS_OUT_FIGURE)
+            check_figure_expr(p, &p->c->outputs[i],
+                              p->c->outputs[i].figure, 0);
+}
+
+/* ---- loop gain by the return ratio ---- */
+
+/* loopgain NAME = SOURCE [for TRANSFER]: the return ratio of a
+   controlled source, and with `for` the asymptotic gain and the direct
+   feed-through of that transfer. */
+static int parse_loopgain(gs_parser *p, const stmt_kind *k)
+{
+    const gs_token *name = output_head(p, k), *t, *of = NULL, *w;
+    gs_output *o;
+    if (name == NULL)
+        return GS_ESYNTAX;
+    t = gs_cur_next(&p->cur);
+    if (t->kind != GS_TK_IDENT) {
+        gs_parser_expected(p, t, "a controlled source (vccs, vcvs, cccs, "
+                           "ccvs, or a device's gm)", k->form);
+        return GS_ESYNTAX;
+    }
+    w = gs_cur_peek(&p->cur);
+    if (w->kind == GS_TK_IDENT && strcmp(w->text, "for") == 0) {
+        gs_cur_next(&p->cur);
+        of = gs_cur_next(&p->cur);
+        if (of->kind != GS_TK_IDENT) {
+            gs_parser_expected(p, of, "the transfer to decompose", k->form);
+            return GS_ESYNTAX;
+        }
+    }
+    if (expect_end(p, k->form) != GS_OK)
+        return GS_ESYNTAX;
+    o = new_output(p, GS_OUT_LOOP, name);
+    o->loop_of = -1;
+    gs_parser_add_ref(p, GS_REF_SOURCE, p->c->noutputs - 1, 0, t);
+    if (of != NULL) {
+        /* the asymptotic-gain parts: NAME_inf and NAME_direct */
+        static const char *suffix[2] = {"inf", "direct"};
+        int part;
+        size_t src = p->c->noutputs - 1;
+        for (part = 1; part <= 2; part++) {
+            char *nm = gs_asprintf("%s_%s", name->text, suffix[part - 1]);
+            gs_token pt = *name;
+            pt.text = nm;
+            if (gs_circuit_find_output(p->c, nm) >= 0)
+                gs_cur_error(&p->cur, name, NULL, "duplicate output '%s'",
+                             nm);
+            o = new_output(p, GS_OUT_LOOP, &pt);
+            o->loop_part = part;
+            o->loop_of = -1;
+            gs_parser_add_ref(p, GS_REF_SOURCE, p->c->noutputs - 1, 0, t);
+            free(nm);
+        }
+        for (part = 0; part < 3; part++) {
+            gs_output *q = &p->c->outputs[src + (size_t)part];
+            q->loop_for = gs_strdup(of->text);
+            gs_lex_position(&p->lx, of->off, &q->for_line, &q->for_col);
+        }
+    }
+    return GS_OK;
+}
+
+static void check_loops(gs_parser *p)
+{
+    gs_circuit *c = p->c;
+    size_t i;
+    for (i = 0; i < c->noutputs; i++) {
+        const gs_output *o = &c->outputs[i];
+        const gs_element *e;
+        if (o->kind != GS_OUT_LOOP || o->in < 0)
+            continue;
+        if (o->loop_for != NULL) {
+            int k = gs_circuit_find_output(c, o->loop_for);
+            if (k < 0 || c->outputs[k].kind != GS_OUT_TRANSFER) {
+                if (o->loop_part == 0)
+                    gs_diag_add(p->d, GS_SEV_ERROR, c->file, o->for_line,
+                                o->for_col, "name a transfer line of the "
+                                "file", "loopgain '%s': '%s' is not a "
+                                "transfer", o->name, o->loop_for);
+            } else {
+                c->outputs[i].loop_of = k;
+            }
+        }
+        if (o->loop_part != 0)
+            continue;
+        e = &c->elems[o->in];
+        if (e->kind != GS_VCCS && e->kind != GS_VCVS && e->kind != GS_CCCS
+            && e->kind != GS_CCVS)
+            gs_diag_add(p->d, GS_SEV_ERROR, c->file, o->line, o->col,
+                        "the return ratio is that of a vccs, vcvs, cccs or "
+                        "ccvs, or of a device's gm (M1.gm)",
+                        "loopgain '%s': %s '%s' is not a controlled source",
+                        o->name, gs_elem_kind_name(e->kind), e->name);
+    }
+}
+
+/* ---- balanced drive and sensing of a node pair ---- */
+
+/* A part NAME.SUFFIX of a balanced or sense line: an element known by
+   that name to the other lines. */
+static gs_element *pair_part(gs_parser *p, gs_elem_kind kind,
+                             const gs_token *name, const char *suffix,
+                             int n0, int n1, int c0, int c1, int half)
+{
+    char *nm = gs_asprintf("%s.%s", name->text, suffix);
+    gs_element *e = gs_parser_add_element(p, kind, nm, name->off);
+    e->node[0] = n0;
+    e->node[1] = n1;
+    e->node[2] = c0;
+    e->node[3] = c1;
+    if (half)
+        gs_rat_set_si(&e->value.coeff, 1, 2);
+    gs_parser_set_name(p, gs_symtab_intern(p->names, nm), GS_NAME_ELEM,
+                       (int)p->c->nelems - 1, name->off);
+    free(nm);
+    return e;
+}
+
+static int pair_node(gs_parser *p, const gs_token *name, const char *suffix)
+{
+    char *nm = gs_asprintf("%s.%s", name->text, suffix);
+    gs_token t;
+    int id;
+    t.kind = GS_TK_IDENT;
+    t.dotted = 0;
+    t.off = name->off;
+    t.text = nm;
+    id = gs_parser_node(p, &t, "node");
+    free(nm);
+    return id;
+}
+
+/* NAME P N: the name (reserved like an element's) and the two nodes. */
+static int pair_head(gs_parser *p, const stmt_kind *k, const gs_token **name,
+                     int *a, int *b)
+{
+    const gs_token *t = gs_cur_next(&p->cur), *u;
+    int id;
+    if (t->kind != GS_TK_IDENT) {
+        gs_parser_expected(p, t, "a name", k->form);
+        return GS_ESYNTAX;
+    }
+    *name = t;
+    u = gs_cur_next(&p->cur);
+    if (u->kind == GS_TK_END) {
+        gs_parser_expected(p, u, "the first node of the pair", k->form);
+        return GS_ESYNTAX;
+    }
+    if ((*a = gs_parser_node(p, u, "the first node of the pair")) < 0)
+        return GS_ESYNTAX;
+    u = gs_cur_next(&p->cur);
+    if (u->kind == GS_TK_END) {
+        gs_parser_expected(p, u, "the second node of the pair", k->form);
+        return GS_ESYNTAX;
+    }
+    if ((*b = gs_parser_node(p, u, "the second node of the pair")) < 0)
+        return GS_ESYNTAX;
+    if (expect_end(p, k->form) != GS_OK)
+        return GS_ESYNTAX;
+    if (*a == *b) {
+        gs_cur_error(&p->cur, u, "name two different nodes", "the pair of "
+                     "%s '%s' is one node", k->word, t->text);
+        return GS_ESYNTAX;
+    }
+    if ((id = gs_parser_new_name(p, t)) < 0)
+        return GS_ESYNTAX;
+    gs_parser_set_name(p, id, GS_NAME_BAD, -1, t->off);
+    return GS_OK;
+}
+
+/* balanced NAME P N: v(P) = vc + vd/2, v(N) = vc - vd/2, with the
+   independent sources NAME.dm (vd, to node NAME.vd) and NAME.cm (vc, to
+   node NAME.vc) and the halves as vcvs NAME.p and NAME.n of gain 1/2. */
+static int parse_balanced(gs_parser *p, const stmt_kind *k)
+{
+    const gs_token *name;
+    int a, b, vd, vc;
+    if (pair_head(p, k, &name, &a, &b) != GS_OK)
+        return GS_ESYNTAX;
+    vd = pair_node(p, name, "vd");
+    vc = pair_node(p, name, "vc");
+    pair_part(p, GS_VSOURCE, name, "dm", vd, 0, -1, -1, 0);
+    pair_part(p, GS_VSOURCE, name, "cm", vc, 0, -1, -1, 0);
+    pair_part(p, GS_VCVS, name, "p", a, vc, vd, 0, 1);
+    pair_part(p, GS_VCVS, name, "n", vc, b, vd, 0, 1);
+    return GS_OK;
+}
+
+/* sense NAME P N: node NAME.dm carries v(P) - v(N) and node NAME.cm
+   (v(P) + v(N))/2, as outputs of vcvs that draw no current from P, N. */
+static int parse_sense(gs_parser *p, const stmt_kind *k)
+{
+    const gs_token *name;
+    int a, b, dm, cm, h;
+    if (pair_head(p, k, &name, &a, &b) != GS_OK)
+        return GS_ESYNTAX;
+    dm = pair_node(p, name, "dm");
+    cm = pair_node(p, name, "cm");
+    h = pair_node(p, name, "half");
+    pair_part(p, GS_VCVS, name, "dm", dm, 0, a, b, 0);
+    pair_part(p, GS_VCVS, name, "cp", cm, h, a, 0, 1);
+    pair_part(p, GS_VCVS, name, "cn", h, 0, b, 0, 1);
+    return GS_OK;
+}
+
 /* ---- transfer and impedance ---- */
 
 static gs_output *new_output(gs_parser *p, gs_output_kind kind,
@@ -618,6 +952,16 @@ static const stmt_kind kinds[] = {
      "transfer NAME = v(NODE) / SOURCE"},
     {"impedance", parse_impedance, GS_VCCS, 0, NONE, 0, 0,
      "impedance NAME = NODE [, NODE]"},
+    {"temperature", parse_temperature, GS_VCCS, 0, NONE, 0, 0,
+     "temperature KELVIN"},
+    {"loopgain", parse_loopgain, GS_VCCS, 0, NONE, 0, 0,
+     "loopgain NAME = CONTROLLED-SOURCE"},
+    {"figure", parse_figure, GS_VCCS, 0, NONE, 0, 0,
+     "figure NAME = EXPRESSION IN OUTPUTS"},
+    {"balanced", parse_balanced, GS_VCCS, 0, NONE, 0, 0,
+     "balanced NAME NODE+ NODE-"},
+    {"sense", parse_sense, GS_VCCS, 0, NONE, 0, 0,
+     "sense NAME NODE+ NODE-"},
 };
 #define NKINDS (sizeof kinds / sizeof kinds[0])
 
@@ -726,6 +1070,8 @@ int gs_parse_text(gs_circuit *c, const char *name, const char *text,
         parse_statement(&p);
     }
     gs_parser_resolve(&p);
+    check_figures(&p);
+    check_loops(&p);
     gs_parser_finish_devices(&p);
     parser_clear(&p);
     if (d->nerrors != before)

@@ -27,6 +27,9 @@ int gs_cmd_report(int argc, char **argv, FILE *out, FILE *err);
 /* gainsmith extract mos|bjt --KEY=VAL...: device figures to model
    parameters (cmd_extract.c, docs/devices.md). */
 int gs_cmd_extract(int argc, char **argv, FILE *out, FILE *err);
+/* gainsmith noise FILE: noise densities, their transfers and integrated
+   noise (cmd_noise.c, docs/noise.md). */
+int gs_cmd_noise(int argc, char **argv, FILE *out, FILE *err);
 
 /* The steps derive, eval and check share (cmd_derive.c): read the file
    argument and the derive options of cl, parse and derive into j.

@@ -26,6 +26,7 @@ static const char overview[] =
 "  extract   device figures from a datasheet point -> model parameters\n"
 "  sens      normalised sensitivities of gain, poles, w0, Q, bandwidth\n"
 "  report    the review document: HTML, Markdown or LaTeX\n"
+"  noise     noise densities, their exact transfers, rms over a band\n"
 "  help      this text, or the manual of one command\n"
 "\n"
 "FILE is a circuit in the gainsmith language (.gsc; see docs/language.md),\n"
@@ -226,6 +227,34 @@ static const char report_text[] =
 "  --limit SYM=inf|0    as for derive\n"
 "  --max-terms N        as for derive\n"
 "  --help               this text\n";
+static const char noise_text[] =
+"usage: gainsmith noise FILE [options]\n"
+"\n"
+"The noise of every resistor, conductance, mosfet and bjt of the circuit\n"
+"at the output of each transfer: S_out = sum |H_k|^2 S_k with each H_k\n"
+"exact, and S_in = S_out/|H|^2 referred to the transfer's input.  Device\n"
+"noise: channel 4kT*gamma*gm (gamma_M 2/3 unless bound), flicker\n"
+"gm^2*kf/(cox*w*l*f) when kf_M is bound, shot 2kT*gm and 2kT/rpi, rb\n"
+"thermal.  T from a 'temperature' line, 300 K without one.  Small-signal\n"
+"white-plus-flicker models at one operating point (docs/noise.md).\n"
+"\n"
+"options:\n"
+"  --only NAME             only the transfer NAME\n"
+"  --format FMT            text (default), pretty, latex or json; json\n"
+"                          needs --band\n"
+"  --at F                  densities and each source's part at F Hz,\n"
+"                          largest first (repeatable)\n"
+"  --band F1:F2            rms noise over F1..F2 Hz, output and input-\n"
+"                          referred, and per source, largest first\n"
+"  --source-resistor R     the noise figure, R being the signal source's\n"
+"                          resistor in the circuit\n"
+"  --csv FILE, --svg FILE  the spectrum, log-spaced over --from..--to\n"
+"                          (the band, or 1 Hz..1 GHz), --points N (201)\n"
+"  --set SYM=EXPR          as for eval (repeatable)\n"
+"  --max-terms N           as for derive\n"
+"\n"
+"example:\n"
+"  gainsmith noise examples/noise_cs.gsc --at 1k --band 10:1M\n";
 
 const char *gs_cmd_help_text(const char *command)
 {
@@ -249,5 +278,7 @@ const char *gs_cmd_help_text(const char *command)
         return check_text;
     if (strcmp(command, "extract") == 0)
         return gs_cmd_extract_help();
+    if (strcmp(command, "noise") == 0)
+        return noise_text;
     return NULL;
 }

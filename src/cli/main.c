@@ -23,6 +23,7 @@ static const command commands[] = {
     {"extract", gs_cmd_extract},
     {"sens", gs_cmd_sens},
     {"report", gs_cmd_report},
+    {"noise", gs_cmd_noise},
 };
 
 #define NCOMMANDS (sizeof commands / sizeof commands[0])

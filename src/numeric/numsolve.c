@@ -229,6 +229,102 @@ static cplx probe_value(const numsys *sy, const gs_output *o, const cplx *x,
     return v + known;
 }
 
+/* The return ratio of a controlled source, as derive.c defines it: the
+   circuit changed for the solve and restored. */
+static int loop_value(cplx *h, const gs_circuit *cc, size_t out,
+                      const long double *vals, cplx s, gs_diag *d)
+{
+    gs_circuit *c = (gs_circuit *)cc;
+    gs_output *op = &c->outputs[out], saved_out = *op;
+    gs_element *x = &c->elems[op->in], saved_x = *x;
+    long double g = 1;
+    int rc, i;
+    if (op->loop_part != 0) {
+        /* the asymptotic-gain parts, as derive.c defines them */
+        gs_elem_kind kind = x->kind;
+        cplx a = 0, t = 0, dd = 0;
+        if (op->loop_of < 0)
+            return GS_EINVAL;
+        x->kind = kind == GS_VCCS || kind == GS_CCCS ? GS_ISOURCE
+                                                     : GS_VSOURCE;
+        rc = gs_numsolve(&dd, c, (size_t)op->loop_of, vals, s, d);
+        x->kind = kind;
+        if (rc != GS_OK || op->loop_part == 2) {
+            *h = dd;
+            return rc;
+        }
+        rc = gs_numsolve(&a, c, (size_t)op->loop_of, vals, s, d);
+        op->loop_part = 0;
+        if (rc == GS_OK)
+            rc = loop_value(&t, c, out, vals, s, d);
+        op->loop_part = 1;
+        if (rc == GS_OK)
+            *h = (a * (1 + t) - dd) / t;
+        return rc;
+    }
+    g = gs_rat_get_ld(&x->value.coeff);
+    for (i = 0; i < x->value.n; i++)
+        g *= powl(vals[x->value.sym[i]], (long double)x->value.exp[i]);
+    if (x->kind == GS_VCCS || x->kind == GS_VCVS) {
+        op->out.kind = GS_PROBE_V;
+        op->out.a = x->node[2];
+        op->out.b = x->node[3];
+    } else {
+        op->out.kind = GS_PROBE_I;
+        op->out.elem = x->ctrl;
+    }
+    op->kind = GS_OUT_TRANSFER;
+    x->kind = x->kind == GS_VCCS || x->kind == GS_CCCS ? GS_ISOURCE
+                                                       : GS_VSOURCE;
+    rc = gs_numsolve(h, c, out, vals, s, d);
+    *x = saved_x;
+    *op = saved_out;
+    if (rc == GS_OK)
+        *h *= -g;
+    return rc;
+}
+
+/* A figure's value from the values of the outputs it names. */
+static int figure_value(cplx *h, const gs_circuit *c, const gs_expr *e,
+                        const long double *vals, cplx s, gs_diag *d,
+                        int depth)
+{
+    cplx a = 0, b = 0;
+    int rc = GS_OK, idx;
+    if (depth > (int)c->noutputs + 1)
+        return GS_EINVAL;
+    switch (e->kind) {
+    case GS_EX_NUM:
+        *h = gs_rat_get_ld(&e->num);
+        return GS_OK;
+    case GS_EX_SYM:
+        idx = gs_circuit_find_output(c, gs_symtab_name(c->syms, e->sym));
+        if (idx < 0)
+            return GS_EINVAL;
+        if (c->outputs[idx].kind == GS_OUT_FIGURE)
+            return figure_value(h, c, c->outputs[idx].figure, vals, s, d,
+                                depth + 1);
+        return gs_numsolve(h, c, (size_t)idx, vals, s, d);
+    default:
+        break;
+    }
+    rc = figure_value(&a, c, e->lhs, vals, s, d, depth);
+    if (rc == GS_OK && e->rhs)
+        rc = figure_value(&b, c, e->rhs, vals, s, d, depth);
+    if (rc != GS_OK)
+        return rc;
+    switch (e->kind) {
+    case GS_EX_NEG: *h = -a; break;
+    case GS_EX_ADD: *h = a + b; break;
+    case GS_EX_SUB: *h = a - b; break;
+    case GS_EX_MUL: *h = a * b; break;
+    case GS_EX_DIV: *h = a / b; break;
+    case GS_EX_POW: *h = cpowl(a, b); break;
+    default: return GS_EINVAL;
+    }
+    return GS_OK;
+}
+
 int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
                 const long double *vals, long double complex s, gs_diag *d)
 {
@@ -237,6 +333,11 @@ int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
     size_t k;
     int n = c->nnodes - 1, rc;
     cplx *row;
+
+    if (o->kind == GS_OUT_FIGURE)
+        return figure_value(h, c, o->figure, vals, s, d, 0);
+    if (o->kind == GS_OUT_LOOP)
+        return loop_value(h, c, out, vals, s, d);
 
     sy.branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy.branch);
     for (k = 0; k < c->nelems; k++)
@@ -265,6 +366,65 @@ int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
                     "%s: the numeric numsys is singular at s = %Lg%+Lgj",
                     o->name, creall(s), cimagl(s));
     free(row);
+    free(sy.a);
+    free(sy.rhs);
+    free(sy.branch);
+    return rc;
+}
+
+int gs_numsolve_adjoint(long double complex *h, const gs_circuit *c,
+                        size_t out, const long double *vals,
+                        long double complex s, const int *from,
+                        const int *to, size_t n, gs_diag *d)
+{
+    const gs_output *o = &c->outputs[out];
+    numsys sy;
+    size_t k;
+    int nu = c->nnodes - 1, rc, i, j;
+    cplx *row, *y, known = 0;
+
+    if (o->kind != GS_OUT_TRANSFER)
+        return GS_EINVAL;
+    sy.branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy.branch);
+    for (k = 0; k < c->nelems; k++)
+        sy.branch[k] = is_voltage_defined(c->elems[k].kind) ? nu++ : -1;
+    sy.n = nu;
+    sy.c = c;
+    sy.vals = vals;
+    sy.s = s;
+    sy.input = -1;              /* every source nulled */
+    sy.a = gs_calloc((size_t)nu * (size_t)nu + 1, sizeof *sy.a);
+    sy.rhs = gs_calloc((size_t)nu + 1, sizeof *sy.rhs);
+    row = gs_calloc((size_t)nu + 1, sizeof *row);
+    y = gs_calloc((size_t)nu + 1, sizeof *y);
+    for (k = 0; k < c->nelems; k++)
+        stamp(&sy, (int)k, row);
+    /* the output row c: a voltage difference or an element's current */
+    if (o->out.kind == GS_PROBE_V) {
+        if (vidx(o->out.a) >= 0)
+            y[vidx(o->out.a)] += 1;
+        if (vidx(o->out.b) >= 0)
+            y[vidx(o->out.b)] -= 1;
+    } else {
+        memset(row, 0, (size_t)nu * sizeof *row);
+        current_coeffs(y, &known, &sy, o->out.elem, 1, 0);
+    }
+    for (i = 0; i < nu; i++)            /* A := A^T */
+        for (j = i + 1; j < nu; j++) {
+            cplx t = sy.a[i * nu + j];
+            sy.a[i * nu + j] = sy.a[j * nu + i];
+            sy.a[j * nu + i] = t;
+        }
+    rc = lu_solve(sy.a, y, nu);
+    for (k = 0; k < n && rc == GS_OK; k++)  /* b_k: -1 at from, +1 at to */
+        h[k] = (vidx(to[k]) >= 0 ? y[vidx(to[k])] : 0)
+             - (vidx(from[k]) >= 0 ? y[vidx(from[k])] : 0);
+    if (rc != GS_OK)
+        gs_diag_add(d, GS_SEV_ERROR, c->file, o->line, o->col, NULL,
+                    "%s: the adjoint system is singular at s = %Lg%+Lgj",
+                    o->name, creall(s), cimagl(s));
+    free(row);
+    free(y);
     free(sy.a);
     free(sy.rhs);
     free(sy.branch);

@@ -20,4 +20,18 @@
 int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
                 const long double *vals, long double complex s, gs_diag *d);
 
+/* The transfers h[k] from unit currents injected into the circuit to the
+   output quantity of transfer `out` (every independent source of the
+   circuit set to zero), all from one solve of the transposed system:
+   with A x = b and the output c^T x, c^T A^-1 b_k = y^T b_k where
+   A^T y = c, the adjoint network of S. W. Director and R. A. Rohrer,
+   "The generalized adjoint network and network sensitivities", IEEE
+   Trans. Circuit Theory 16 (1969).  Current k flows from node from[k]
+   through its injector to node to[k], as an isource from[k] to[k] would.
+   GS_OK, GS_EINVAL (out is not a transfer) or GS_ESINGULAR. */
+int gs_numsolve_adjoint(long double complex *h, const gs_circuit *c,
+                        size_t out, const long double *vals,
+                        long double complex s, const int *from,
+                        const int *to, size_t n, gs_diag *d);
+
 #endif

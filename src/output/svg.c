@@ -970,3 +970,49 @@ int gs_plot_marks_fill(gs_plot_marks *m, const gs_tfn *h, int loop_gain)
     }
     return rc;
 }
+
+/* --- Noise spectra --------------------------------------------------------- */
+
+int gs_svg_spectrum(FILE *out, const gs_plot *p)
+{
+    panel pn;
+    long double xlo, xhi, ylo, yhi;
+    int w, h, rc = check_plot(p, 0);
+
+    if (rc != GS_OK)
+        return rc;
+    if (!data_range(&xlo, &xhi, p, 0, 1) || !data_range(&ylo, &yhi, p, 1, 1))
+        return GS_EINVAL;
+    w = p->width > 0 ? p->width : 760;
+    h = p->height > 0 ? p->height : 420;
+    pn.x = 74;
+    pn.y = p->title != NULL ? 38 : 14;
+    pn.w = w - pn.x - 18;
+    pn.h = h - pn.y - 48;
+    pn.id = 0;
+    xlo = log10l(xlo);
+    xhi = log10l(xhi);
+    widen(&xlo, &xhi, 0.5L);
+    pn.ax = (axis){xlo, xhi, 1, 0, 0};
+    ylo = fmaxl(ylo, yhi - MAX_DB_SPAN);
+    widen(&ylo, &yhi, 10);
+    pn.ay = (axis){ylo, yhi, 0, 0, 0};
+    pn.ystep = nice_step(yhi - ylo, 8);
+    snap(&pn.ay, pn.ystep);
+    set_axes(&pn);
+    begin(out, w, h, p->title);
+    fputs("<defs>\n", out);
+    clip_def(out, &pn);
+    fputs("</defs>\n", out);
+    log_grid(out, &pn, 1);
+    lin_grid_y(out, &pn, pn.ystep, 0);
+    for (size_t i = 0; i < p->ntraces; i++)
+        trace_path(out, &pn, p->traces[i].x, p->traces[i].y, p->traces[i].n,
+                   (int)i);
+    frame(out, &pn);
+    legend(out, &pn, p, 0);
+    y_title(out, &pn, p->ylabel != NULL ? p->ylabel : "Density (dB)");
+    text(out, pn.x + pn.w / 2, pn.y + pn.h + 36, "middle", "",
+         "Frequency (Hz)");
+    return finish(out);
+}

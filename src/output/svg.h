@@ -77,6 +77,11 @@ int gs_svg_bode(FILE *out, const gs_plot *p);
  * peak and the 1 % settling time are marked.  Returns as gs_svg_bode. */
 int gs_svg_step(FILE *out, const gs_plot *p);
 
+/* Write a noise spectrum: one panel, logarithmic frequency axis in Hz,
+ * each trace's y a density in dB (20 log10 of unit/sqrt(Hz)), the axis
+ * title p->ylabel (NULL: "Density (dB)").  Returns as gs_svg_bode. */
+int gs_svg_spectrum(FILE *out, const gs_plot *p);
+
 /* Fill m from h: its poles and zeros (borrowed from h, which must outlive
  * m), bandwidth and unity-gain frequency where they exist, and, when
  * loop_gain is nonzero, the margins of h as a loop gain.  Returns GS_OK or

@@ -244,6 +244,30 @@ for gsc in examples/*.gsc; do
         "$bin" report "$gsc" -o "$tmp/report-$ex.html")
     echo "bench report-$ex seconds=$(field seconds "$t")" \
         "peak_kib=$(field peak_kib "$t") status=$(field status "$t")"
+# Noise: the symbolic density of every source, the integrated band and a
+# 1000-point spectrum, on the examples and the two-stage op-amp case.
+noise_ok=yes
+noise_max=0
+for f in examples/noise_*.gsc examples/miller_opamp.gsc \
+         "$here/miller_ota.gsc"; do
+    [ -f "$f" ] || continue
+    name=${f##*/}
+    name=${name%.gsc}
+    # the bench case is symbolic only: an invented design point for it
+    sets=
+    [ "$name" = miller_ota ] && sets="--set gm1=200u --set R1=400k \
+        --set C1=50f --set gm6=2m --set R2=100k --set CL=5p --set Cc=2p"
+    # shellcheck disable=SC2086
+    t=$("$timer" -n 5 -s 10 -l "$limit" -m "$max_mib" -o "$tmp/out" -- \
+        "$bin" noise "$f" --at 1k --band 1:100M --points 1000 \
+        --csv "$tmp/noise.csv" $sets)
+    sec=$(field seconds "$t")
+    st=$(field status "$t")
+    echo "bench noise-$name seconds=$sec peak_kib=$(field peak_kib "$t")" \
+        "status=$st"
+    [ "$st" = ok ] || { noise_ok=no; status=1; }
+    larger 0.1 "$sec" || noise_ok=no
+    if larger "$sec" "$noise_max"; then noise_max=$sec; fi
 done
 
 # The goals: 100x faster than maxima on every case, rc_ladder_12 under
@@ -255,6 +279,7 @@ fi
 if [ -n "$ladder12" ]; then
     echo "bench goal rc_ladder_12_under_100ms=$ladder12_ok $ladder12"
 fi
+echo "bench goal noise_under_100ms=$noise_ok max_seconds=$noise_max"
 echo "bench goal peak_under_64MiB=$(yes_no larger 65536 "$max_peak")" \
     "max_peak_kib=$max_peak"
 

@@ -1,0 +1,2 @@
+resistor R1 a gnd
+impedance Z = a

@@ -1,0 +1,333 @@
+/* test_noise.c - noise densities against textbook closed forms, and every
+ * symbolic density against the adjoint numeric solve (numsolve.c).
+ * See LICENSE.
+ */
+#include "check.h"
+#include "analysis/job.h"
+#include "analysis/mna.h"
+#include "analysis/noise.h"
+#include "numeric/numsolve.h"
+#include "numeric/spectrum.h"
+
+#include <complex.h>
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+typedef struct fixture {
+    gs_job j;
+    gs_noise n;
+    gs_noise_num nn;
+    int ok;
+} fixture;
+
+/* Parse, set up the noise sources, derive every target and transfer,
+   bind the values and make the numbers. */
+static void load(fixture *f, const char *text)
+{
+    gs_derive_opts o;
+    gs_diag d;
+    size_t i;
+    int rc;
+    gs_job_init(&f->j);
+    gs_noise_init(&f->n);
+    memset(&f->nn, 0, sizeof f->nn);
+    gs_diag_init(&d);
+    f->j.c = gs_circuit_new();
+    rc = gs_parse_string(f->j.c, "t.gsc", text, &d);
+    if (rc == GS_OK) {
+        gs_mna_intern_symbols(f->j.c);
+        f->j.ctx = gs_polyctx_new(f->j.c->syms,
+                                  gs_symtab_count(f->j.c->syms));
+        rc = gs_noise_setup(&f->n, f->j.c, NULL, &d);
+    }
+    gs_derive_opts_default(&o);
+    for (i = 0; rc == GS_OK && i < f->j.c->noutputs; i++)
+        rc = gs_job_derive(&f->j, f->j.c->outputs[i].name, &o, &d);
+    if (rc == GS_OK)
+        rc = gs_job_bind(&f->j, NULL, 0, &d);
+    if (rc == GS_OK)
+        rc = gs_noise_num_make(&f->nn, &f->n, &f->j, &d);
+    if (rc != GS_OK)
+        gs_diag_print(stderr, &d);
+    gs_diag_clear(&d);
+    f->ok = rc == GS_OK;
+}
+
+static void unload(fixture *f)
+{
+    gs_noise_num_clear(&f->nn);
+    gs_noise_clear(&f->n);
+    gs_job_clear(&f->j);
+}
+
+static int src_index(const fixture *f, const char *name)
+{
+    size_t k;
+    for (k = 0; k < f->n.nsrc; k++)
+        if (strcmp(f->n.src[k].name, name) == 0)
+            return (int)k;
+    return -1;
+}
+
+static int close_to(long double a, long double b, long double rel)
+{
+    return fabsl(a - b) <= rel * fabsl(b);
+}
+
+/* Every source's output density, from the exact H_k, against the
+   transfer from the adjoint solve at several frequencies: 1e-9. */
+static int adjoint_agrees(const fixture *f)
+{
+    static const long double fr[] = {1.0L, 37.0L, 1e3L, 4.2e4L, 1e6L,
+                                     3e8L};
+    const gs_circuit *c = f->j.c;
+    size_t i, k, q, ns = f->n.nsrc;
+    int *from = calloc(ns, sizeof *from), *to = calloc(ns, sizeof *to);
+    long double complex *h = calloc(ns, sizeof *h);
+    long double *part = calloc(ns, sizeof *part), worst = 0;
+    gs_diag d;
+    int ok = 1;
+    gs_diag_init(&d);
+    for (k = 0; k < ns; k++) {
+        from[k] = f->n.src[k].from;
+        to[k] = f->n.src[k].to;
+    }
+    for (i = 0; i < f->n.ntarget && ok; i++)
+        for (q = 0; q < sizeof fr / sizeof fr[0] && ok; q++) {
+            long double tot = gs_noise_out_psd(&f->nn, i, fr[q], part);
+            long double sum = 0;
+            ok = gs_numsolve_adjoint(h, c, f->n.target[i].out, f->j.vals,
+                                     2 * acosl(-1) * fr[q] * I, from, to,
+                                     ns, &d) == GS_OK;
+            for (k = 0; k < ns && ok; k++) {
+                const gs_noise_term *t = &f->nn.term[i * ns + k];
+                long double s = t->white + t->flicker / fr[q];
+                long double a = cabsl(h[k]) * cabsl(h[k]) * s;
+                long double e = fabsl(part[k] - a);
+                sum += a;
+                if (a > 0 || part[k] > 0)
+                    e /= fmaxl(a, part[k]);
+                worst = fmaxl(worst, e);
+            }
+            worst = fmaxl(worst, fabsl(tot - sum) / sum);
+        }
+    if (worst > 1e-9L) {
+        fprintf(stderr, "adjoint disagreement %Lg\n", worst);
+        ok = 0;
+    }
+    gs_diag_clear(&d);
+    free(from);
+    free(to);
+    free(h);
+    free(part);
+    return ok;
+}
+
+static long double kT(long double t)
+{
+    return GS_BOLTZMANN * t;
+}
+
+/* A divider's output noise is the thermal noise of R1 || R2
+   (Johnson-Nyquist, a textbook fact): 4kT R1 R2/(R1 + R2). */
+static void test_divider(void)
+{
+    fixture f;
+    long double r = 10e3L * 40e3L / 50e3L, fr;
+    load(&f, "vsource vin in gnd\nresistor R1 in out = 10k\n"
+             "resistor R2 out gnd = 40k\ntransfer Av = v(out) / vin\n");
+    CHECK(f.ok);
+    if (!f.ok)
+        return;
+    CHECK(f.n.nsrc == 2);
+    CHECK(close_to(f.nn.t, 300, 1e-15L));
+    for (fr = 1; fr < 1e9L; fr *= 31)
+        CHECK(close_to(gs_noise_out_psd(&f.nn, 0, fr, NULL),
+                       4 * kT(300) * r, 1e-12L));
+    /* referred to the input: over |Av|^2 = (4/5)^2 */
+    CHECK(close_to(gs_noise_in_psd(&f.nn, 0, 1e3L),
+                   4 * kT(300) * r / 0.64L, 1e-12L));
+    CHECK(adjoint_agrees(&f));
+    unload(&f);
+}
+
+/* An RC low-pass integrates to kT/C whatever R (Gray, Hurst, Lewis and
+   Meyer, noise chapter, from memory); over a finite band exactly
+   (kT/C)(2/pi)(atan(f2/fc) - atan(f1/fc)), fc = 1/(2 pi R C). */
+static void test_rc_ktc(void)
+{
+    static const char *r[] = {"1k", "220k"};
+    static const long double rv[] = {1e3L, 220e3L};
+    int i;
+    for (i = 0; i < 2; i++) {
+        fixture f;
+        char text[256];
+        long double out, in, c = 1e-9L, fc, pi = acosl(-1);
+        snprintf(text, sizeof text, "vsource vin in gnd\n"
+                 "resistor R in out = %s\ncapacitor C out gnd = 1n\n"
+                 "temperature 290\ntransfer H = v(out) / vin\n", r[i]);
+        load(&f, text);
+        CHECK(f.ok);
+        if (!f.ok)
+            continue;
+        CHECK(close_to(f.nn.t, 290, 1e-15L));
+        gs_noise_band(&out, &in, NULL, &f.nn, 0, 1e-9L, 1e18L);
+        CHECK_MSG(close_to(out, kT(290) / c, 1e-8L), "%Lg vs %Lg", out,
+                  kT(290) / c);
+        fc = 1 / (2 * pi * rv[i] * c);
+        gs_noise_band(&out, &in, NULL, &f.nn, 0, fc / 7, fc * 3);
+        CHECK(close_to(out, kT(290) / c * 2 / pi
+                            * (atanl(3) - atanl(1.0L / 7)), 1e-10L));
+        CHECK(adjoint_agrees(&f));
+        unload(&f);
+    }
+}
+
+/* A common-source stage, input-referred: 4kT gamma/gm + 4kT RD/(gm RD)^2
+   (Razavi, "Design of Analog CMOS Integrated Circuits", noise chapter,
+   from memory), gamma 2/3 by default and 1 when bound. */
+static void test_cs_stage(void)
+{
+    static const char *gam[] = {"", "value gamma_M1 = 1\n"};
+    static const long double gv[] = {2.0L / 3.0L, 1.0L};
+    int i;
+    for (i = 0; i < 2; i++) {
+        fixture f;
+        char text[512];
+        long double gm = 2e-3L, rd = 5e3L, want;
+        snprintf(text, sizeof text, "vsource vin g gnd\n"
+                 "mosfet M1 d g gnd gm=gm1 rds=inf\nresistor RD d vdd\n"
+                 "ground vdd\nvalue gm1 = 2m\nvalue RD = 5k\n%s"
+                 "transfer Av = v(d) / vin\n", gam[i]);
+        load(&f, text);
+        CHECK(f.ok);
+        if (!f.ok)
+            continue;
+        CHECK(src_index(&f, "M1.channel") >= 0 && src_index(&f, "RD") >= 0);
+        want = 4 * kT(300) * gv[i] / gm
+             + 4 * kT(300) * rd / ((gm * rd) * (gm * rd));
+        CHECK(close_to(gs_noise_in_psd(&f.nn, 0, 1e3L), want, 1e-12L));
+        CHECK(adjoint_agrees(&f));
+        unload(&f);
+    }
+}
+
+/* Flicker noise: gm^2 K/(Cox W L f) at the drain, so the gate-referred
+   density falls as 1/f (Razavi, noise chapter, from memory). */
+static void test_flicker(void)
+{
+    fixture f;
+    long double k = 1e-25L, cox = 5e-3L, w = 10e-6L, l = 1e-6L, gm = 1e-3L;
+    load(&f, "vsource vin g gnd\nmosfet M1 d g gnd gm=gm1 rds=ro\n"
+             "resistor RD d gnd = 10k\nvalue gm1 = 1m\nvalue ro = 100k\n"
+             "value kf_M1 = 1e-25\nvalue cox_M1 = 5m\nvalue w_M1 = 10u\n"
+             "value l_M1 = 1u\ntransfer Av = v(d) / vin\n");
+    CHECK(f.ok);
+    if (!f.ok)
+        return;
+    {
+        int fl = src_index(&f, "M1.flicker");
+        long double *part = calloc(f.n.nsrc, sizeof *part);
+        CHECK(fl >= 0);
+        gs_noise_out_psd(&f.nn, 0, 100, part);
+        /* referred to the gate: over |Av|^2 */
+        if (fl >= 0)
+            CHECK(close_to(part[fl] / gs_spectrum_term(&f.nn.in[0], 100),
+                           k / (cox * w * l * 100), 1e-12L));
+        (void)gm;
+        free(part);
+    }
+    CHECK(adjoint_agrees(&f));
+    unload(&f);
+}
+
+/* A non-inverting amplifier: a noise voltage at the + input reaches the
+   output through the noise gain 1 + R2/R1 (Franco, "Design with
+   Operational Amplifiers and Analog Integrated Circuits", noise chapter,
+   from memory).  The voltage is the thermal noise 4kT Rn of a resistor
+   in series with the input. */
+static void test_noninverting(void)
+{
+    fixture f;
+    int k;
+    long double *part;
+    load(&f, "vsource vin in gnd\nresistor Rn in p = 100\n"
+             "opamp A out p m\nresistor R1 m gnd = 1k\n"
+             "resistor R2 out m = 9k\ntransfer Av = v(out) / vin\n");
+    CHECK(f.ok);
+    if (!f.ok)
+        return;
+    k = src_index(&f, "Rn");
+    part = calloc(f.n.nsrc, sizeof *part);
+    gs_noise_out_psd(&f.nn, 0, 1e3L, part);
+    CHECK(k >= 0);
+    if (k >= 0)
+        CHECK(close_to(part[k], 100 * 4 * kT(300) * 100, 1e-12L));
+    CHECK(adjoint_agrees(&f));
+    free(part);
+    unload(&f);
+}
+
+/* A bjt stage's noise figure with the source resistance at its optimum
+   sqrt(beta)/gm: about 1 + 1/sqrt(beta) (Gray, Hurst, Lewis and Meyer,
+   noise chapter, from memory, with rb = 0); exactly, from the shot
+   noises 2qIC, 2qIB and the source's 4kT Rs,
+   F = 1 + Rs/(2 rpi) + (Rs + rpi)^2/(2 gm Rs rpi^2)  (by hand). */
+static void test_bjt_nf(void)
+{
+    fixture f;
+    long double gm = 40e-3L, beta = 100, rpi = beta / gm;
+    long double rs = sqrtl(beta) / gm, fexact, fgot, *part;
+    int k;
+    load(&f, "vsource vin src gnd\nresistor RS src b = 250\n"
+             "bjt Q1 c b gnd gm=40m rpi=2.5k\nresistor RC c gnd = 1\n"
+             "transfer Av = v(c) / vin\n");
+    CHECK(f.ok);
+    if (!f.ok)
+        return;
+    k = src_index(&f, "RS");
+    CHECK(k >= 0 && src_index(&f, "Q1.collector") >= 0
+          && src_index(&f, "Q1.base") >= 0);
+    part = calloc(f.n.nsrc, sizeof *part);
+    fgot = gs_noise_out_psd(&f.nn, 0, 1e3L, part) / part[k];
+    /* the load RC's own noise is left out of the device's figure */
+    fgot -= part[src_index(&f, "RC")] / part[k];
+    fexact = 1 + rs / (2 * rpi) + (rs + rpi) * (rs + rpi)
+                                  / (2 * gm * rs * rpi * rpi);
+    CHECK(close_to(fgot, fexact, 1e-12L));
+    CHECK(fabsl(fgot - (1 + 1 / sqrtl(beta))) < 0.15L / sqrtl(beta));
+    CHECK(adjoint_agrees(&f));
+    free(part);
+    unload(&f);
+}
+
+/* A bjt with base resistance and capacitances, two transfers: only the
+   adjoint check, over frequency. */
+static void test_bjt_adjoint(void)
+{
+    fixture f;
+    load(&f, "vsource vin src gnd\nresistor RS src b = 1k\n"
+             "bjt Q1 c b e gm=20m rpi=5k ro=80k cpi=10p cmu=1p rb=200\n"
+             "resistor RC c vdd = 4.7k\nresistor RE e gnd = 100\n"
+             "capacitor CL c gnd = 2p\nground vdd\n"
+             "transfer Av = v(c) / vin\ntransfer Ae = v(e) / vin\n");
+    CHECK(f.ok);
+    if (!f.ok)
+        return;
+    CHECK(f.n.ntarget == 2 && src_index(&f, "Q1.rb") >= 0);
+    CHECK(adjoint_agrees(&f));
+    unload(&f);
+}
+
+int main(void)
+{
+    test_divider();
+    test_rc_ktc();
+    test_cs_stage();
+    test_flicker();
+    test_noninverting();
+    test_bjt_nf();
+    test_bjt_adjoint();
+    return check_report("noise");
+}
