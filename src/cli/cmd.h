@@ -24,6 +24,9 @@ int gs_cmd_check(int argc, char **argv, FILE *out, FILE *err);
    parameters (cmd_extract.c, docs/devices.md). */
 int gs_cmd_extract(int argc, char **argv, FILE *out, FILE *err);
 
+/* gainsmith approx FILE: short forms with a measured error
+   (cmd_approx.c, docs/approx.md). */
+int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err);
 /* The steps derive, eval and check share (cmd_derive.c): read the file
    argument and the derive options of cl, parse and derive into j.
    Returns an exit status; messages go to err prefixed by cmd. */

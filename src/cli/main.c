@@ -21,6 +21,7 @@ static const command commands[] = {
     {"step", gs_cmd_step},
     {"check", gs_cmd_check},
     {"extract", gs_cmd_extract},
+    {"approx", gs_cmd_approx},
 };
 
 #define NCOMMANDS (sizeof commands / sizeof commands[0])
