@@ -48,6 +48,83 @@ static void put_root_num(FILE *out, long double complex z)
         fprintf(out, "%.6Lg%+.6Lgj", creall(z), cimagl(z));
 }
 
+/* K (1 + s/wz ...)/(1 + s/wp ...) over the roots inside the band, when
+   each has an estimate (Middlebrook's normalised form); NULL otherwise. */
+static char *normalised(const gs_approx_result *r, int style)
+{
+    const gs_polyctx *ctx = r->ctx;
+    char *k = gs_approx_form(&r->dcn, &r->dcd, style, ctx), *part[2];
+    size_t i;
+    int w, any = 0;
+    long double wmax = 2 * 3.141592653589793238462643383279502884L
+                       * r->f_hi;
+    part[0] = gs_strdup("");
+    part[1] = gs_strdup("");
+    for (i = 0; i < r->nroots; i++) {
+        const gs_approx_root *x = &r->roots[i];
+        char *f = NULL, *a, *b, *t;
+        gs_poly n;
+        if (x->at_origin || x->pair_of >= 0 || cabsl(x->exact) > wmax)
+            continue;
+        if (x->est == GS_APPROX_EST_NONE) {
+            free(k);
+            free(part[0]);
+            free(part[1]);
+            return NULL;
+        }
+        gs_poly_init(&n);
+        if (x->est == GS_APPROX_EST_REAL) {
+            int rhp = gs_poly_sgn(&x->wn) * gs_poly_sgn(&x->wd) < 0;
+            if (rhp)
+                gs_poly_neg(&n, &x->wn, ctx);
+            else
+                gs_poly_set(&n, &x->wn, ctx);
+            a = gs_approx_form(&n, &x->wd, style, ctx);
+            f = gs_asprintf("(1 %s s/(%s))", rhp ? "-" : "+", a);
+            free(a);
+        } else {
+            a = gs_approx_form(&x->a1, &x->a0, style, ctx);
+            b = gs_approx_form(&x->a2, &x->a0, style, ctx);
+            f = gs_asprintf("(1 + s*(%s) + s^2*(%s))", a, b);
+            free(a);
+            free(b);
+        }
+        gs_poly_clear(&n);
+        w = x->is_zero ? 0 : 1;
+        t = gs_asprintf("%s%s%s", part[w], *part[w] ? "*" : "", f);
+        free(part[w]);
+        part[w] = t;
+        free(f);
+        any = 1;
+    }
+    if (!any) {
+        free(k);
+        free(part[0]);
+        free(part[1]);
+        return NULL;
+    }
+    {
+        char *t = gs_asprintf("(%s)%s%s%s%s%s", k, r->dc_order ? "*s^" : "",
+                              "", *part[0] ? "*" : "", part[0],
+                              *part[1] ? "/(" : "");
+        char *u = gs_asprintf("%s%s%s", t, part[1], *part[1] ? ")" : "");
+        free(t);
+        t = u;
+        if (r->dc_order) {
+            u = gs_asprintf("(%s)*s^%d%s%s%s%s%s", k, r->dc_order,
+                            *part[0] ? "*" : "", part[0],
+                            *part[1] ? "/(" : "", part[1],
+                            *part[1] ? ")" : "");
+            free(t);
+            t = u;
+        }
+        free(k);
+        free(part[0]);
+        free(part[1]);
+        return t;
+    }
+}
+
 void gs_print_approx(FILE *out, const gs_approx_result *r, int style)
 {
     const gs_polyctx *ctx = r->ctx;
@@ -126,6 +203,10 @@ void gs_print_approx(FILE *out, const gs_approx_result *r, int style)
         else
             fputs("none needed)\n", out);
     }
+    if ((s = normalised(r, style)) != NULL) {
+        fprintf(out, "%snormalised: %s ~ %s\n", ll, name, s);
+        free(s);
+    }
     if (r->ncond) {
         fprintf(out, "%sassumes", ll);
         for (i = 0; i < r->ncond; i++)
@@ -136,7 +217,6 @@ void gs_print_approx(FILE *out, const gs_approx_result *r, int style)
                     r->ncond_total - r->ncond);
         fputc('\n', out);
     }
-    (void)name;
 }
 
 static void json_str(FILE *out, const char *s)
@@ -249,7 +329,14 @@ void gs_print_approx_json(FILE *out, const gs_approx_result *r)
         fputc('}', out);
         free(t);
     }
-    fprintf(out, "], \"conditions_total\": %zu, \"path\": ", r->ncond_total);
+    fputs("], \"normalised\": ", out);
+    s = normalised(r, GS_FORM_TEXT);
+    if (s)
+        json_str(out, s);
+    else
+        fputs("null", out);
+    free(s);
+    fprintf(out, ", \"conditions_total\": %zu, \"path\": ", r->ncond_total);
     json_str(out, r->path);
     fputc('}', out);
 }

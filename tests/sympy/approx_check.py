@@ -55,6 +55,17 @@ C1, C2 = S('C1 C2')
 r = approx('examples/sallen_key.gsc')[0]
 w0 = [x for x in r['roots'] if x['expr']][0]['expr'].split(';')[0]
 same('sallen w0^2', expr(w0), 1 / (R1 * R2 * C1 * C2))
+# Two-stage Miller op-amp at 1 dB: A0 = -gm1*gm6*(r1||r3)*(r6||R7) and
+# p1 ~ -1/(gm6*R1*R2*Cc) with R1 = r1||r3, R2 = r6||R7 (Gray, Hurst, Lewis,
+# Meyer, "Analysis and Design of Analog Integrated Circuits", ch. 9, from
+# memory).
+gm6, r1, r3, r6, R7, Cc = S('gm6 r1 r3 r6 R7 Cc')
+pr = lambda a, b: a * b / (a + b)
+r = approx('examples/miller_opamp.gsc', '--tol', '1')[0]
+same('miller dc', expr(r['dc']['expr']),
+     -gm1 * gm6 * pr(r1, r3) * pr(r6, R7))
+p1 = [x for x in r['roots'] if x['kind'] == 'pole'][0]
+same('miller p1', expr(p1['expr']), -1 / (gm6 * pr(r1, r3) * pr(r6, R7) * Cc))
 # Tightening --tol never gives a larger error (the fixed ladder of cuts,
 # docs/approx.md), and --tol 0 gives the exact H (derive's text).
 errs = []
