@@ -23,6 +23,8 @@ run step examples/sallen_key.gsc
 run bode examples/sallen_key.gsc --from 100 --to 1M --points 5
 run check examples/sallen_key.gsc
 run eval examples/cs_biased.gsc
+run approx examples/miller_opamp.gsc
+run approx examples/miller_opamp.gsc --tol 1 --format pretty
 run extract mos --id=200u --vds=1.5 --gm=1.3115m --gds=9.3023u --vth=0.45
 run sens examples/sallen_key.gsc --at 10k
 demo_doc=${TMPDIR:-/tmp}/gainsmith-demo-review.html

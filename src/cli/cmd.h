@@ -31,6 +31,9 @@ int gs_cmd_extract(int argc, char **argv, FILE *out, FILE *err);
    noise (cmd_noise.c, docs/noise.md). */
 int gs_cmd_noise(int argc, char **argv, FILE *out, FILE *err);
 
+/* gainsmith approx FILE: short forms with a measured error
+   (cmd_approx.c, docs/approx.md). */
+int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err);
 /* The steps derive, eval and check share (cmd_derive.c): read the file
    argument and the derive options of cl, parse and derive into j.
    Returns an exit status; messages go to err prefixed by cmd. */

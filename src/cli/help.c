@@ -27,6 +27,7 @@ static const char overview[] =
 "  sens      normalised sensitivities of gain, poles, w0, Q, bandwidth\n"
 "  report    the review document: HTML, Markdown or LaTeX\n"
 "  noise     noise densities, their exact transfers, rms over a band\n"
+"  approx    short symbolic forms with a measured error, root estimates\n"
 "  help      this text, or the manual of one command\n"
 "\n"
 "FILE is a circuit in the gainsmith language (.gsc; see docs/language.md),\n"
@@ -262,6 +263,38 @@ const char *gs_cmd_help_text(const char *command)
         return report_text;
     if (command && strcmp(command, "sens") == 0)
         return sens_text;
+static const char approx_text[] =
+"usage: gainsmith approx FILE [options]\n"
+"\n"
+"Short symbolic forms of each output at the nominal values (value and\n"
+"bias lines, --set): per power of s the smallest terms are dropped while\n"
+"the error against the exact H, measured on a log grid over the band and\n"
+"over a box of parameter spreads, stays within the tolerance; then the\n"
+"DC gain in its shortest form, every pole and zero with a dominant-root\n"
+"estimate where the roots are separated (p ~ -a0/a1, ...; w0 and Q for a\n"
+"complex pair), compared with the exact root, and the conditions the\n"
+"dropped terms rest on.  par(a, b) = a*b/(a + b).  See docs/approx.md.\n"
+"The errors are measured near the nominal point: no substitute for\n"
+"simulation across corners.\n"
+"\n"
+"options:\n"
+"  --tol X              dB (and 10 X degrees), DB/DEG, or P%; default 0.1\n"
+"  --band F1:F2         band in Hz (default from the roots and unity gain)\n"
+"  --spread P           vary every symbol by +-P % (default 20; 0 none)\n"
+"  --only NAME          one output\n"
+"  --set SYM=VALUE      override a value (repeatable)\n"
+"  --format F           text (default), pretty, latex or json\n"
+"  --max-terms N        refuse a circuit whose expansion exceeds N terms\n"
+"  --stats              which path ran, terms, grid, on standard error\n"
+"  --help               this text\n"
+"\n"
+"Exit status 1 when the tolerance cannot be met (the best form is shown)\n"
+"or the budget is exceeded; 2 for bad input or an unbound symbol.\n";
+
+const char *gs_cmd_help_text(const char *command)
+{
+    if (command && strcmp(command, "approx") == 0)
+        return approx_text;
     if (command == NULL)
         return overview;
     if (strcmp(command, "derive") == 0)

@@ -24,6 +24,7 @@ static const command commands[] = {
     {"sens", gs_cmd_sens},
     {"report", gs_cmd_report},
     {"noise", gs_cmd_noise},
+    {"approx", gs_cmd_approx},
 };
 
 #define NCOMMANDS (sizeof commands / sizeof commands[0])

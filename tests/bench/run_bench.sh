@@ -244,6 +244,8 @@ for gsc in examples/*.gsc; do
         "$bin" report "$gsc" -o "$tmp/report-$ex.html")
     echo "bench report-$ex seconds=$(field seconds "$t")" \
         "peak_kib=$(field peak_kib "$t") status=$(field status "$t")"
+done
+
 # Noise: the symbolic density of every source, the integrated band and a
 # 1000-point spectrum, on the examples and the two-stage op-amp case.
 noise_ok=yes
@@ -269,6 +271,30 @@ for f in examples/noise_*.gsc examples/miller_opamp.gsc \
     larger 0.1 "$sec" || noise_ok=no
     if larger "$sec" "$noise_max"; then noise_max=$sec; fi
 done
+# approx: whole-process time of `gainsmith approx FILE --stats` (median of
+# 5) on the examples with a transfer function worth simplifying and on the
+# full-capacitance op-amp; terms kept and the worst magnitude error.
+# Goals: every example under 50 ms, the op-amp under 300 ms and 64 MiB.
+approx_ok=yes
+for f in examples/miller_opamp.gsc examples/cs_degen.gsc \
+         examples/sallen_key.gsc $here/opamp_full_caps.gsc; do
+    n=$(basename "$f" .gsc)
+    t=$("$timer" -n 5 -s 10 -l "$limit" -m "$max_mib" -e "$tmp/err" \
+        -o "$tmp/out" -- "$bin" approx "$f" --stats --format json)
+    sec=$(field seconds "$t")
+    kib=$(field peak_kib "$t")
+    terms=$(sed -n 's/.*terms_kept=\([0-9]*\).*/\1/p' "$tmp/err" | head -1)
+    err=$(sed -n 's/.*"mag_db": \([^,]*\),.*"spread_mag_db": \([^,]*\),.*/\1 \2/p' \
+        "$tmp/out" | awk '{m = $1 > $2 ? $1 : $2; if (m > w) w = m} \
+        END {print w + 0}')
+    echo "bench approx-$n seconds=$sec terms=${terms:--} err_db=$err" \
+        "peak_kib=$kib status=$(field status "$t")"
+    goal=0.05
+    [ "$n" = opamp_full_caps ] && goal=0.3
+    [ "$(yes_no larger "$goal" "$sec")" = yes ] || approx_ok=no
+    [ "$(yes_no larger 65536 "$kib")" = yes ] || approx_ok=no
+done
+echo "bench goal approx_examples_50ms_opamp_300ms_64MiB=$approx_ok"
 
 # The goals: 100x faster than maxima on every case, rc_ladder_12 under
 # 100 ms, peak resident memory under 64 MiB everywhere.

@@ -1,0 +1,164 @@
+/* cmd_approx.c - the `approx` command: short forms with a measured error.
+ * See LICENSE; docs/approx.md.
+ */
+#include "cli/cli.h"
+#include "cli/cmd.h"
+#include "analysis/approx.h"
+#include "analysis/job.h"
+#include "output/print_approx.h"
+
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+static const gs_cli_opt approx_spec[] = {
+    {"tol", 1, 0}, {"band", 1, 0}, {"spread", 1, 0}, {"only", 1, 0},
+    {"set", 1, 1}, {"format", 1, 0}, {"max-terms", 1, 0}, {"stats", 0, 0},
+    {"help", 0, 0}, {NULL, 0, 0}
+};
+
+/* --tol X (dB, phase 10 X degrees), X/Y (dB/degrees) or P% (a relative
+   error P: 20 log10(1 + P) dB, asin(P) degrees). */
+static int parse_tol(gs_approx_opts *o, const char *t, FILE *err)
+{
+    char *end;
+    long double a = strtold(t, &end), b;
+    if (end != t && a >= 0 && *end == '%' && end[1] == 0) {
+        a /= 100;
+        o->tol_db = 20 * log10l(1 + a);
+        o->tol_deg = asinl(a < 1 ? a : 1) * 180
+                     / 3.141592653589793238462643383279502884L;
+        return 0;
+    }
+    if (end != t && a >= 0 && *end == 0) {
+        o->tol_db = a;
+        o->tol_deg = 10 * a;
+        return 0;
+    }
+    if (end != t && a >= 0 && *end == '/') {
+        const char *u = end + 1;
+        b = strtold(u, &end);
+        if (end != u && b >= 0 && *end == 0) {
+            o->tol_db = a;
+            o->tol_deg = b;
+            return 0;
+        }
+    }
+    fprintf(err, "gainsmith approx: error: --tol expects DB, DB/DEG or "
+            "PERCENT%%, got '%s'\n", t);
+    fprintf(err, "gainsmith approx: hint: e.g. --tol 0.1, --tol 0.1/1 or "
+            "--tol 1%%\n");
+    return 2;
+}
+
+static int parse_band(gs_approx_opts *o, const char *t, FILE *err)
+{
+    const char *colon = strchr(t, ':');
+    char lo[64];
+    if (colon && (size_t)(colon - t) < sizeof lo) {
+        memcpy(lo, t, (size_t)(colon - t));
+        lo[colon - t] = 0;
+        if (gs_cli_real(&o->f_lo, lo, "Hz", "approx", "band", err))
+            return 2;
+        if (gs_cli_real(&o->f_hi, colon + 1, "Hz", "approx", "band", err))
+            return 2;
+        if (o->f_lo > 0 && o->f_hi > o->f_lo)
+            return 0;
+    }
+    fprintf(err, "gainsmith approx: error: --band expects F1:F2 with "
+            "0 < F1 < F2, got '%s'\n", t);
+    return 2;
+}
+
+int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
+{
+    gs_cli cl;
+    gs_job j;
+    gs_approx_opts o;
+    size_t i;
+    int status, style = GS_FORM_TEXT, json = 0, unmet = 0;
+    const char *fmt, *t;
+
+    gs_job_init(&j);
+    gs_approx_opts_default(&o);
+    status = gs_cli_parse(&cl, argc, argv, approx_spec, err);
+    if (status == 0 && gs_cli_has(&cl, "help")) {
+        fputs(gs_cmd_help_text("approx"), out);
+        goto done;
+    }
+    fmt = status == 0 ? gs_cli_get(&cl, "format", 0) : NULL;
+    if (fmt) {
+        if (strcmp(fmt, "json") == 0)
+            json = 1;
+        else if (strcmp(fmt, "pretty") == 0)
+            style = GS_FORM_PRETTY;
+        else if (strcmp(fmt, "latex") == 0)
+            style = GS_FORM_LATEX;
+        else if (strcmp(fmt, "text")) {
+            fprintf(err, "gainsmith approx: error: --format expects text, "
+                    "pretty, latex or json, got '%s'\n", fmt);
+            status = 2;
+        }
+    }
+    if (status == 0 && (t = gs_cli_get(&cl, "tol", 0)))
+        status = parse_tol(&o, t, err);
+    if (status == 0 && (t = gs_cli_get(&cl, "band", 0)))
+        status = parse_band(&o, t, err);
+    if (status == 0 && (t = gs_cli_get(&cl, "spread", 0))) {
+        long double p;
+        status = gs_cli_real(&p, t, "%", "approx", "spread", err);
+        if (status == 0 && (p < 0 || p >= 100)) {
+            fprintf(err, "gainsmith approx: error: --spread expects a "
+                    "percentage from 0 to below 100, got '%s'\n", t);
+            status = 2;
+        }
+        o.spread = p / 100;
+    }
+    if (status == 0)
+        status = gs_cmd_load_and_derive(&j, &cl, "approx", err);
+    if (status == 0)
+        status = gs_cmd_bind(&j, &cl, err);
+    if (json && status == 0)
+        fputs("[\n", out);
+    for (i = 0; status == 0 && i < j.ntf; i++) {
+        gs_approx_result r;
+        gs_diag d;
+        int rc;
+        gs_diag_init(&d);
+        gs_approx_result_init(&r);
+        rc = gs_approx_run(&r, &j, i, &o, &d);
+        if (rc != GS_OK) {
+            fprintf(err, "gainsmith approx: error: %s: ", j.tf[i].name);
+            gs_diag_print(err, &d);
+            status = 1;
+        } else {
+            if (json)
+                gs_print_approx_json(out, &r);
+            else
+                gs_print_approx(out, &r, style);
+            if (json)
+                fputs(i + 1 < j.ntf ? ",\n" : "\n", out);
+            if (!r.met) {
+                fprintf(err, "gainsmith approx: error: %s: the tolerance "
+                        "could not be met; the best form reached is "
+                        "shown\n", j.tf[i].name);
+                unmet = 1;
+            }
+            if (gs_cli_has(&cl, "stats"))
+                fprintf(err, "approx %s: path=%s terms_exact=%zu "
+                        "terms_kept=%zu eps=%.3Lg points=%d spread_points=%d"
+                        "\n", j.tf[i].name, r.path, r.terms_exact,
+                        r.terms_kept, r.eps, r.npoints, r.nspread);
+        }
+        gs_approx_result_clear(&r);
+        gs_diag_clear(&d);
+    }
+    if (json && status == 0)
+        fputs("]\n", out);
+    if (status == 0 && unmet)
+        status = 1;
+done:
+    gs_cli_clear(&cl);
+    gs_job_clear(&j);
+    return status;
+}
