@@ -257,12 +257,6 @@ static const char noise_text[] =
 "example:\n"
 "  gainsmith noise examples/noise_cs.gsc --at 1k --band 10:1M\n";
 
-const char *gs_cmd_help_text(const char *command)
-{
-    if (command && strcmp(command, "report") == 0)
-        return report_text;
-    if (command && strcmp(command, "sens") == 0)
-        return sens_text;
 static const char approx_text[] =
 "usage: gainsmith approx FILE [options]\n"
 "\n"
@@ -295,6 +289,10 @@ const char *gs_cmd_help_text(const char *command)
 {
     if (command && strcmp(command, "approx") == 0)
         return approx_text;
+    if (command && strcmp(command, "report") == 0)
+        return report_text;
+    if (command && strcmp(command, "sens") == 0)
+        return sens_text;
     if (command == NULL)
         return overview;
     if (strcmp(command, "derive") == 0)
