@@ -637,13 +637,13 @@ static long double *take(const long double *src, size_t len, int *deg)
     return out;
 }
 
-void gs_mgraph_coeffs_ld(long double **cn, int *dn, long double **cd,
-                         int *dd, const gs_mgraph *g, int s_var,
-                         const long double *vals)
+/* The numeric polynomial in s of every node: node v's coefficients at
+   c[off[v] .. off[v+1]-1], ascending.  Both arrays new. */
+long double *gs_mgraph_node_coeffs(size_t **off_out, const gs_mgraph *g,
+                                   int s_var, const long double *vals)
 {
     size_t *eoff, *off = gs_malloc((g->nnodes + 1) * sizeof *off), v, e;
     long double *ec = entry_coeffs(&eoff, g, s_var, vals), *c;
-    long double sc = gs_rat_get_ld(&g->scale);
     /* degree bound of each node: the largest along its edges */
     off[0] = 0;
     for (v = 0; v < g->nnodes; v++) {
@@ -671,14 +671,25 @@ void gs_mgraph_coeffs_ld(long double **cn, int *dn, long double **cd,
                     acc[i + k] += g->neg[e] ? -a[i] * b[k] : a[i] * b[k];
         }
     }
+    free(ec);
+    free(eoff);
+    *off_out = off;
+    return c;
+}
+
+void gs_mgraph_coeffs_ld(long double **cn, int *dn, long double **cd,
+                         int *dd, const gs_mgraph *g, int s_var,
+                         const long double *vals)
+{
+    size_t *off, v;
+    long double *c = gs_mgraph_node_coeffs(&off, g, s_var, vals);
+    long double sc = gs_rat_get_ld(&g->scale);
     *cn = take(c + off[g->root_n], off[g->root_n + 1] - off[g->root_n], dn);
     for (v = 0; (int)v <= *dn; v++)
         (*cn)[v] *= sc;
     *cd = take(c + off[g->root_d], off[g->root_d + 1] - off[g->root_d], dd);
     free(c);
     free(off);
-    free(ec);
-    free(eoff);
 }
 
 int gs_mgraph_expand(gs_poly *r, const gs_mgraph *g, size_t root,

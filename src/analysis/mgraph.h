@@ -84,6 +84,11 @@ void gs_mgraph_coeffs_ld(long double **cn, int *dn, long double **cd,
                          int *dd, const gs_mgraph *g, int s_var,
                          const long double *vals);
 
+/* The same for every node, unscaled: node v's coefficients are
+   c[off[v] .. off[v+1]-1], ascending (both arrays new, caller frees). */
+long double *gs_mgraph_node_coeffs(size_t **off, const gs_mgraph *g,
+                                   int s_var, const long double *vals);
+
 /* The full expansion of a root (tests, and derive beyond 63 unknowns).
    Returns GS_OK, or GS_EBUDGET when a node outgrows max_terms (0 for no
    limit). */
@@ -109,8 +114,8 @@ typedef struct gs_mgraph_terms {
                                monomial once; zero sums dropped), in
                                decreasing |value| */
     long double *value;     /* each term's value at vals */
-    long double total;      /* the coefficient of s^power at vals, from
-                               the graph's numeric pass */
+    long double total;      /* the coefficient of s^power of the root at
+                               vals (before scale), from the numeric pass */
     long double rest;       /* total - sum of the kept values */
     int complete;           /* 1: every path was taken (rest is rounding) */
 } gs_mgraph_terms;
