@@ -22,30 +22,30 @@ value rds2 = 100k
 value cgs2 = 30f
 value cgd2 = 4f
 value cdb2 = 10f
-vccs      gm11 tail gnd gnd gnd
+vccs      gm11 tail gnd b2 gnd
 resistor  rds11 tail gnd
-capacitor cgs11 gnd gnd
-capacitor cgd11 gnd tail
+capacitor cgs11 b2 gnd
+capacitor cgd11 b2 tail
 capacitor cdb11 tail gnd
 value gm11 = 0.5m
 value rds11 = 200k
 value cgs11 = 30f
 value cgd11 = 4f
 value cdb11 = 10f
-vccs      gm5 f1 gnd gnd gnd
+vccs      gm5 f1 gnd b2 gnd
 resistor  rds5 f1 gnd
-capacitor cgs5 gnd gnd
-capacitor cgd5 gnd f1
+capacitor cgs5 b2 gnd
+capacitor cgd5 b2 f1
 capacitor cdb5 f1 gnd
 value gm5 = 1.2m
 value rds5 = 60k
 value cgs5 = 30f
 value cgd5 = 4f
 value cdb5 = 10f
-vccs      gm6 f2 gnd gnd gnd
+vccs      gm6 f2 gnd b2 gnd
 resistor  rds6 f2 gnd
-capacitor cgs6 gnd gnd
-capacitor cgd6 gnd f2
+capacitor cgs6 b2 gnd
+capacitor cgd6 b2 f2
 capacitor cdb6 f2 gnd
 value gm6 = 1.2m
 value rds6 = 60k
@@ -114,6 +114,8 @@ value cgd10 = 4f
 value cdb10 = 10f
 resistor  Rb b1 gnd
 value Rb = 10k
+resistor  Rb2 b2 gnd
+value Rb2 = 10k
 capacitor CL out gnd
 value CL = 1p
 transfer  H = v(out) / vin

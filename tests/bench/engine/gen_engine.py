@@ -57,9 +57,9 @@ def folded_cascode():
          "value vref = 0"]
     fet(L, "1", "f1", "inp", "tail", "1m", "100k")
     fet(L, "2", "f2", "inn", "tail", "1m", "100k")
-    fet(L, "11", "tail", "gnd", "gnd", "0.5m", "200k")
-    fet(L, "5", "f1", "gnd", "gnd", "1.2m", "60k")
-    fet(L, "6", "f2", "gnd", "gnd", "1.2m", "60k")
+    fet(L, "11", "tail", "b2", "gnd", "0.5m", "200k")
+    fet(L, "5", "f1", "b2", "gnd", "1.2m", "60k")
+    fet(L, "6", "f2", "b2", "gnd", "1.2m", "60k")
     fet(L, "3", "c1", "gnd", "f1", "1.5m", "80k")
     fet(L, "4", "out", "gnd", "f2", "1.5m", "80k")
     fet(L, "7", "c1", "b1", "m1", "1m", "90k")
@@ -67,6 +67,7 @@ def folded_cascode():
     fet(L, "9", "m1", "c1", "gnd", "0.8m", "70k")
     fet(L, "10", "m2", "c1", "gnd", "0.8m", "70k")
     L += ["resistor  Rb b1 gnd", "value Rb = 10k",
+          "resistor  Rb2 b2 gnd", "value Rb2 = 10k",
           "capacitor CL out gnd", "value CL = 1p",
           "transfer  H = v(out) / vin"]
     return L
