@@ -265,6 +265,127 @@ static void check_fibonacci(int n, const char *expect)
     gs_symtab_free(st);
 }
 
+/* Number of spanning trees of a graph on k + 1 vertices (vertex k the
+   ground): det of the reduced Laplacian with unit weights (Kirchhoff's
+   matrix-tree theorem), by Gaussian elimination in doubles, rounded. */
+static long spanning_trees(const int *ea, const int *eb, int ne, int k)
+{
+    double a[8][8];
+    double det = 1;
+    int i, j, r;
+    memset(a, 0, sizeof a);
+    for (i = 0; i < ne; i++) {
+        if (ea[i] < k)
+            a[ea[i]][ea[i]] += 1;
+        if (eb[i] < k)
+            a[eb[i]][eb[i]] += 1;
+        if (ea[i] < k && eb[i] < k) {
+            a[ea[i]][eb[i]] -= 1;
+            a[eb[i]][ea[i]] -= 1;
+        }
+    }
+    for (i = 0; i < k; i++) {
+        int p = i;
+        for (r = i + 1; r < k; r++)
+            if (fabs(a[r][i]) > fabs(a[p][i]))
+                p = r;
+        if (a[p][i] == 0)
+            return 0;
+        if (p != i) {
+            for (j = 0; j < k; j++) {
+                double t = a[i][j];
+                a[i][j] = a[p][j];
+                a[p][j] = t;
+            }
+            det = -det;
+        }
+        det *= a[i][i];
+        for (r = i + 1; r < k; r++) {
+            double f = a[r][i] / a[i][i];
+            for (j = i; j < k; j++)
+                a[r][j] -= f * a[i][j];
+        }
+    }
+    return lround(det);
+}
+
+/* Random resistive networks as reduced Laplacians of conductance symbols:
+   det A is the sum over spanning trees of their conductance products, so
+   its expansion from the graph has one term per spanning tree, and the
+   best-first search with no tolerance yields exactly those terms. */
+static void check_matrix_tree(int trial)
+{
+    int k = 3 + trial % 5, ne = 0, i, ea[32], eb[32];
+    gs_symtab *st = gs_symtab_new();
+    gs_polyctx *ctx;
+    gs_mna m;
+    gs_mgraph g;
+    gs_poly e;
+    gs_mgraph_terms t;
+    long double vals[32];
+    size_t cells = (size_t)(k + 1) * (size_t)(k + 1), c;
+    /* a spanning path to the ground first, so the network is connected */
+    for (i = 0; i < k; i++) {
+        ea[ne] = i;
+        eb[ne++] = i + 1;
+    }
+    while (ne < k + 1 + (int)rnd((unsigned)k + 2) && ne < 32) {
+        int a = (int)rnd((unsigned)k + 1), b = (int)rnd((unsigned)k + 1);
+        if (a == b)
+            continue;
+        ea[ne] = a;
+        eb[ne++] = b;
+    }
+    for (i = 0; i < ne; i++) {
+        char name[16];
+        snprintf(name, sizeof name, "g%d", i);
+        gs_symtab_intern(st, name);
+        vals[i] = 1 + (long double)rnd(1000) / 37;
+    }
+    ctx = gs_polyctx_new(st, ne);
+    memset(&m, 0, sizeof m);
+    m.n = k;
+    m.m = malloc(cells * sizeof *m.m);
+    for (c = 0; c < cells; c++)
+        gs_poly_init(&m.m[c]);
+    gs_poly_init(&m.c0);
+    gs_rat_init(&m.scale);
+    gs_rat_set_si(&m.scale, 1, 1);
+    gs_poly_init(&e);
+    for (i = 0; i < ne; i++) {
+        int a = ea[i], b = eb[i];
+        gs_poly_set_var(&e, i, 1, ctx);
+        if (a < k)
+            gs_poly_add(GS_MNA_AT(&m, a, a), GS_MNA_AT(&m, a, a), &e, ctx);
+        if (b < k)
+            gs_poly_add(GS_MNA_AT(&m, b, b), GS_MNA_AT(&m, b, b), &e, ctx);
+        if (a < k && b < k) {
+            gs_poly_sub(GS_MNA_AT(&m, a, b), GS_MNA_AT(&m, a, b), &e, ctx);
+            gs_poly_sub(GS_MNA_AT(&m, b, a), GS_MNA_AT(&m, b, a), &e, ctx);
+        }
+    }
+    gs_poly_set_si(GS_MNA_AT(&m, 0, k), 1, ctx);
+    gs_poly_set_si(GS_MNA_AT(&m, k, 0), 1, ctx);
+    CHECK(gs_mgraph_build(&g, &m, GS_MGRAPH_ORDER_GREEDY, ctx) == GS_OK);
+    CHECK(gs_mgraph_expand(&e, &g, g.root_d, 0) == GS_OK);
+    CHECK_MSG((long)e.length == spanning_trees(ea, eb, ne, k),
+              "trial %d: %zu terms, %ld spanning trees", trial, e.length,
+              spanning_trees(ea, eb, ne, k));
+    gs_mgraph_dominant(&t, &g, g.root_d, -1, 0, vals, 0, 0);
+    CHECK_MSG((long)t.count == spanning_trees(ea, eb, ne, k),
+              "trial %d: %zu dominant terms", trial, t.count);
+    gs_mgraph_terms_clear(&t);
+    gs_poly_clear(&e);
+    gs_mgraph_clear(&g);
+    for (c = 0; c < cells; c++)
+        gs_poly_clear(&m.m[c]);
+    free(m.m);
+    gs_poly_clear(&m.c0);
+    gs_rat_clear(&m.scale);
+    gs_polyctx_free(ctx);
+    gs_symtab_free(st);
+}
+
 int main(void)
 {
     static const char *const files[] = {
@@ -286,5 +407,7 @@ int main(void)
     check_fibonacci(12, "233");
     check_fibonacci(20, "10946");
     check_fibonacci(100, "573147844013817084101");
+    for (i = 0; i < 20; i++)
+        check_matrix_tree(i);
     return check_report("mgraph");
 }

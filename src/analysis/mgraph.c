@@ -606,7 +606,8 @@ static long double *entry_coeffs(size_t **off_out, const gs_mgraph *g,
     gs_poly cf;
     off[0] = 0;
     for (i = 0; i < g->nentries; i++) {
-        long d = gs_poly_degree(&g->entries[i], s_var, g->ctx);
+        long d = s_var < 0 ? (gs_poly_is_zero(&g->entries[i]) ? -1 : 0)
+                           : gs_poly_degree(&g->entries[i], s_var, g->ctx);
         off[i + 1] = off[i] + (size_t)(d + 1);
     }
     c = gs_calloc(off[g->nentries] ? off[g->nentries] : 1, sizeof *c);
@@ -614,6 +615,10 @@ static long double *entry_coeffs(size_t **off_out, const gs_mgraph *g,
     for (i = 0; i < g->nentries; i++) {
         size_t k;
         for (k = 0; k < off[i + 1] - off[i]; k++) {
+            if (s_var < 0) {        /* no variable split off */
+                c[off[i]] = gs_poly_eval_ld(&g->entries[i], vals, g->ctx);
+                continue;
+            }
             gs_poly_coeff_var(&cf, &g->entries[i], s_var, (unsigned)k,
                               g->ctx);
             c[off[i] + k] = gs_poly_eval_ld(&cf, vals, g->ctx);

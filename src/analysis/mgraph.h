@@ -79,7 +79,8 @@ void gs_mgraph_eval_rat(gs_rat *num, gs_rat *den, const gs_mgraph *g,
 /* The numeric coefficients of N and D in powers of the variable s_var,
    the other variables at vals: new arrays (ascending powers) the caller
    frees, degrees in *dn, *dd (-1 for zero).  Each node carries its
-   polynomial in s through the pass. */
+   polynomial in s through the pass.  s_var = -1: no variable split off
+   (one coefficient, the value). */
 void gs_mgraph_coeffs_ld(long double **cn, int *dn, long double **cd,
                          int *dd, const gs_mgraph *g, int s_var,
                          const long double *vals);

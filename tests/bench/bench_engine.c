@@ -1,7 +1,9 @@
 /* bench_engine.c - the graph of minors on one circuit.  See LICENSE.
  *
- * usage: bench_engine FILE.gsc   (no argument: nothing, for the generic
- * loop of run_bench.sh, which runs it once per engine circuit)
+ * usage: bench_engine FILE.gsc [--orders]   (no argument: nothing, for
+ * the generic loop of run_bench.sh, which runs it once per circuit)
+ * --orders prints instead the graph sizes under each row order:
+ *   bench engine-order-NAME greedy=NODES/EDGES/SECONDS natural=... sparse=...
  * Prints: bench engine-NAME graph_nodes=N graph_edges=E build_seconds=B
  *         bode_1k_seconds=T paths_D=P peak_kib=K
  * build_seconds: MNA and graph (both orientations tried); bode_1k_seconds:
@@ -50,6 +52,29 @@ int main(int argc, char **argv)
         gs_diag_print(stderr, &d);
         return 1;
     }
+    base = strrchr(argv[1], '/');
+    base = base ? base + 1 : argv[1];
+    dot = strrchr(base, '.');
+    if (argc > 2 && strcmp(argv[2], "--orders") == 0) {
+        static const char *const names[] = {"greedy", "natural", "sparse"};
+        memset(&m, 0, sizeof m);
+        if (gs_mna_build(&m, j.c, 0, j.ctx, &d) != GS_OK)
+            return 1;
+        printf("bench engine-order-%.*s",
+               (int)(dot ? dot - base : (long)strlen(base)), base);
+        for (k = 0; k < 3; k++) {
+            double ts = now();
+            gs_mgraph_build(&g, &m, (gs_mgraph_order)k, j.ctx);
+            printf(" %s=%zu/%zu/%.4fs", names[k], g.nnodes, g.nedges,
+                   now() - ts);
+            gs_mgraph_clear(&g);
+        }
+        printf("\n");
+        gs_mna_clear(&m);
+        gs_diag_clear(&d);
+        gs_job_clear(&j);
+        return 0;
+    }
     t0 = now();
     memset(&m, 0, sizeof m);
     if (gs_mna_build(&m, j.c, 0, j.ctx, &d) != GS_OK
@@ -88,9 +113,6 @@ int main(int argc, char **argv)
     gs_mgraph_count_paths(&pc, &g, g.root_d);
     paths = gs_int_get_str(&pc);
     getrusage(RUSAGE_SELF, &ru);
-    base = strrchr(argv[1], '/');
-    base = base ? base + 1 : argv[1];
-    dot = strrchr(base, '.');
     printf("bench engine-%.*s graph_nodes=%zu graph_edges=%zu "
            "build_seconds=%.4f bode_1k_seconds=%.4f paths_D=%s "
            "peak_kib=%ld%s\n", (int)(dot ? dot - base : (long)strlen(base)),

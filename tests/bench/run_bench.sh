@@ -13,6 +13,7 @@
 #   benchmark scripts, passed through...
 #   bench engine-NAME graph_nodes=N graph_edges=E build_seconds=B
 #         bode_1k_seconds=T paths_D=P peak_kib=K   (bench_engine.c)
+#   bench engine-order-NAME greedy=N/E/S natural=N/E/S sparse=N/E/S
 #   bench goal KEY=yes|no ...
 #   bench load loadavg_1min=L
 #   bench summary cases=C mismatches=M max_peak_kib=K
@@ -229,6 +230,7 @@ done
 for f in "$here"/engine/*.gsc; do
     "$build/bench/bench_engine" "$f" \
         || { echo "run_bench.sh: bench_engine $f failed" >&2; status=1; }
+    "$build/bench/bench_engine" "$f" --orders || status=1
 done
 
 for b in "$build"/bench/bench_*; do
