@@ -733,12 +733,18 @@ int gs_mgraph_expand(gs_poly *r, const gs_mgraph *g, size_t root,
         if (max_terms && val[v].length > max_terms)
             rc = GS_EBUDGET;
         for (e = g->first[v]; e < g->first[v + 1]; e++)
-            if (last[g->child[e]] == v)
+            if (last[g->child[e]] == v) {
                 gs_poly_clear(&val[g->child[e]]);
+                last[g->child[e]] = NONE;       /* freed */
+            }
     }
     if (rc == GS_OK)
         gs_poly_swap(r, &val[root]);
-    gs_poly_clear(&val[root]);
+    /* what no parent up to root used up: the root and nodes other roots
+       share */
+    for (v = 0; v <= root; v++)
+        if (last[v] != NONE)
+            gs_poly_clear(&val[v]);
     free(val);
     free(last);
     free(ea);

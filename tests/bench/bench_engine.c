@@ -5,10 +5,16 @@
  * --orders prints instead the graph sizes under each row order:
  *   bench engine-order-NAME greedy=NODES/EDGES/SECONDS natural=... sparse=...
  * Prints: bench engine-NAME graph_nodes=N graph_edges=E build_seconds=B
- *         bode_1k_seconds=T paths_D=P peak_kib=K
+ *         bode_1k_seconds=T paths_D=P dominant_D1_terms=K
+ *         dominant_D1_rest=R dominant_D1_seconds=S peak_kib=K
  * build_seconds: MNA and graph (both orientations tried); bode_1k_seconds:
  * the coefficients in s from one pass over the graph, then 1000
- * log-spaced points from 1 Hz to 10 GHz by Horner's rule, as bode does; peak_kib: the process's peak resident set (getrusage).
+ * log-spaced points from 1 Hz to 10 GHz by Horner's rule, as bode does;
+ * paths_D: the terms of D before equal monomials combine;
+ * dominant_D1_*: the best-first terms of the coefficient of s^1 in D to
+ * a remainder of 1 % (at most 10000 terms): how many, the remainder left
+ * relative to the coefficient, the time; peak_kib: the process's peak
+ * resident set (getrusage).
  */
 #include "analysis/job.h"
 #include "analysis/mgraph.h"
@@ -42,6 +48,8 @@ int main(int argc, char **argv)
     const char *base, *dot;
     char *paths;
     int k, v, nv;
+    double dom_seconds, dom_rest;
+    size_t dom_terms;
 
     if (argc < 2)
         return 0;
@@ -109,14 +117,28 @@ int main(int argc, char **argv)
     (void)num;
     (void)den;
     t2 = now();
+    /* the dominant terms of D's s^1 coefficient to 1 %, at most 10000 */
+    {
+        gs_mgraph_terms dt;
+        double td = now();
+        gs_mgraph_dominant(&dt, &g, g.root_d, j.c->s_sym, 1, lv, 0.01L,
+                           10000);
+        dom_seconds = now() - td;
+        dom_terms = dt.count;
+        dom_rest = dt.total != 0 ? (double)fabsl(dt.rest / dt.total) : 0;
+        gs_mgraph_terms_clear(&dt);
+    }
     gs_int_init(&pc);
     gs_mgraph_count_paths(&pc, &g, g.root_d);
     paths = gs_int_get_str(&pc);
     getrusage(RUSAGE_SELF, &ru);
     printf("bench engine-%.*s graph_nodes=%zu graph_edges=%zu "
            "build_seconds=%.4f bode_1k_seconds=%.4f paths_D=%s "
-           "peak_kib=%ld%s\n", (int)(dot ? dot - base : (long)strlen(base)),
-           base, g.nnodes, g.nedges, t1 - t0, t2 - t1, paths, ru.ru_maxrss,
+           "dominant_D1_terms=%zu dominant_D1_rest=%.2g "
+           "dominant_D1_seconds=%.4f peak_kib=%ld%s\n",
+           (int)(dot ? dot - base : (long)strlen(base)),
+           base, g.nnodes, g.nedges, t1 - t0, t2 - t1, paths, dom_terms,
+           dom_rest, dom_seconds, ru.ru_maxrss,
            isfinite((double)creall(sink)) ? "" : " nonfinite=1");
     free(paths);
     gs_int_clear(&pc);
