@@ -4,6 +4,7 @@
 #include "analysis/derive.h"
 #include "base/mem.h"
 #include "analysis/mna.h"
+#include "analysis/mgraph.h"
 
 #include <stdio.h>
 #include <stdlib.h>
@@ -183,12 +184,53 @@ static char *describe(const gs_circuit *c, const gs_output *o)
    first under AUTO; elimination takes over when the expansion's plan is
    too large, and also when A is singular, since elimination can name the
    unknowns left undetermined. */
+/* Under AUTO with no budget given, the graph of minors is built first
+   (it takes a fraction of the expansion's time) and its path counts say
+   how large the expansion would be; one far past what anyone reads is
+   refused, naming the graph that holds it instead.  Returns GS_OK to go
+   on expanding. */
+static int size_gate(const gs_mna *m, const gs_polyctx *ctx,
+                     gs_derive_stats *stats, gs_diag *d)
+{
+    gs_mgraph g;
+    gs_int c;
+    int rc = gs_mgraph_build(&g, m, GS_MGRAPH_ORDER_GREEDY, ctx);
+    if (rc != GS_OK) {
+        gs_mgraph_clear(&g);
+        return GS_OK;       /* singular: elimination says why */
+    }
+    gs_int_init(&c);
+    stats->graph_nodes = g.nnodes;
+    stats->graph_edges = g.nedges;
+    gs_mgraph_count_paths(&c, &g, g.root_n);
+    stats->graph_paths_n = (double)gs_int_get_d(&c);
+    gs_mgraph_count_paths(&c, &g, g.root_d);
+    stats->graph_paths_d = (double)gs_int_get_d(&c);
+    gs_int_clear(&c);
+    gs_mgraph_clear(&g);
+    if (stats->graph_paths_n <= GS_DERIVE_MAX_PATHS
+        && stats->graph_paths_d <= GS_DERIVE_MAX_PATHS)
+        return GS_OK;
+    gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                "eval, bode, poles and check compute from the graph, approx "
+                "gives the dominant terms; --max-terms N expands anyway",
+                "the expansion is too large to print: about %.3g terms in "
+                "N and %.3g in D, held as a graph of %zu minors and %zu "
+                "edges", stats->graph_paths_n, stats->graph_paths_d,
+                stats->graph_nodes, stats->graph_edges);
+    return GS_EBUDGET;
+}
+
 static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
                            const gs_polyctx *ctx, const gs_derive_opts *o,
                            gs_derive_stats *stats, gs_diag *d)
 {
     gs_minors_opts mo;
     int rc;
+    if (o->method == GS_DET_AUTO && o->elim.max_terms == 0
+        && m->n <= GS_MINORS_MAX_UNKNOWNS
+        && (rc = size_gate(m, ctx, stats, d)) != GS_OK)
+        return rc;
     if (o->method != GS_DET_BAREISS) {
         gs_minors_opts_default(&mo);
         mo.max_terms = o->elim.max_terms;

@@ -37,7 +37,16 @@ typedef struct gs_derive_stats {
     gs_elim_stats elim;      /* when BAREISS ran */
     gs_minors_stats minors;  /* when MINORS ran */
     size_t gcd_terms;        /* terms of the common factor removed */
+    size_t graph_nodes;      /* the graph of minors, when it was built */
+    size_t graph_edges;      /* (mgraph.h); 0 otherwise */
+    double graph_paths_n;    /* its path counts: the terms N and D would */
+    double graph_paths_d;    /* have before equal monomials combine */
 } gs_derive_stats;
+
+/* Under AUTO without a term budget, an expansion whose graph has more
+   paths than this for N or D is refused (GS_EBUDGET): the numbers come
+   from the graph instead, and --max-terms expands anyway. */
+#define GS_DERIVE_MAX_PATHS 2000000.0
 
 void gs_derive_opts_default(gs_derive_opts *o);
 

@@ -28,8 +28,14 @@ static void free_origins(gs_job *j)
 void gs_job_clear(gs_job *j)
 {
     size_t i;
-    for (i = 0; i < j->ntf; i++)
+    for (i = 0; i < j->ntf; i++) {
         gs_tf_clear(&j->tf[i]);
+        if (j->graph && j->graph[i]) {
+            gs_mgraph_clear(j->graph[i]);
+            free(j->graph[i]);
+        }
+    }
+    free(j->graph);
     free(j->tf);
     free(j->out_index);
     free(j->stats);
@@ -123,10 +129,37 @@ int gs_job_add_transfer(gs_job *j, const char *name, const char *out,
     return GS_OK;
 }
 
+/* The graph of minors of output k, for its numbers (mgraph.h). */
+static int keep_graph(gs_job *j, size_t k, gs_diag *d)
+{
+    gs_mna m;
+    gs_mgraph *g = gs_malloc(sizeof *g);
+    int rc;
+    memset(&m, 0, sizeof m);
+    rc = gs_mna_build(&m, j->c, k, j->ctx, d);
+    if (rc == GS_OK)
+        rc = gs_mgraph_build(g, &m, GS_MGRAPH_ORDER_GREEDY, j->ctx);
+    gs_mna_clear(&m);
+    if (rc == GS_OK) {
+        j->graph[j->ntf - 1] = g;
+        j->stats[j->ntf - 1].graph_nodes = g->nnodes;
+        j->stats[j->ntf - 1].graph_edges = g->nedges;
+        return GS_OK;
+    }
+    if (rc == GS_ESINGULAR)
+        gs_mgraph_clear(g);
+    free(g);
+    return rc;
+}
+
 static int derive_one(gs_job *j, size_t k, const gs_derive_opts *o,
                       gs_diag *d)
 {
     gs_tf *tf;
+    gs_diag here;
+    int rc;
+    j->graph = gs_reallocarray(j->graph, j->ntf + 1, sizeof *j->graph);
+    j->graph[j->ntf] = NULL;
     j->tf = gs_reallocarray(j->tf, j->ntf + 1, sizeof *j->tf);
     j->out_index = gs_reallocarray(j->out_index, j->ntf + 1,
                                    sizeof *j->out_index);
@@ -134,7 +167,19 @@ static int derive_one(gs_job *j, size_t k, const gs_derive_opts *o,
     tf = &j->tf[j->ntf];
     gs_tf_init(tf, j->ctx, j->c->s_sym);
     j->out_index[j->ntf] = k;
-    return gs_derive(tf, j->c, k, j->ctx, o, &j->stats[j->ntf++], d);
+    if (!j->graph_ok || o->nlimits)
+        return gs_derive(tf, j->c, k, j->ctx, o, &j->stats[j->ntf++], d);
+    /* an expansion over the budget: the numbers come from the graph */
+    gs_diag_init(&here);
+    rc = gs_derive(tf, j->c, k, j->ctx, o, &j->stats[j->ntf++], &here);
+    if (rc == GS_EBUDGET) {
+        gs_diag_clear(&here);
+        gs_diag_init(&here);
+        rc = keep_graph(j, k, &here);
+    }
+    gs_diag_append(d, &here);
+    gs_diag_clear(&here);
+    return rc;
 }
 
 int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,
@@ -220,6 +265,16 @@ unsigned char *gs_job_used_symbols(const gs_job *j)
     unsigned char *tmp = gs_calloc((size_t)nv, 1);
     size_t i;
     for (i = 0; i < j->ntf; i++) {
+        const gs_mgraph *g = j->graph ? j->graph[i] : NULL;
+        size_t e;
+        for (e = 0; g && e < g->nentries; e++) {
+            gs_poly_used_vars(tmp, &g->entries[e], j->ctx);
+            for (v = 0; v < nv; v++)
+                if (tmp[v]) {
+                    int b = gs_symtab_base(j->c->syms, v);
+                    used[b >= 0 ? b : v] = 1;
+                }
+        }
         gs_poly_used_vars(tmp, &j->tf[i].num, j->ctx);
         for (v = 0; v < nv; v++)
             used[v] |= tmp[v];
@@ -330,8 +385,41 @@ int gs_job_bind(gs_job *j, char *const *sets, size_t nsets, gs_diag *d)
     return check_bound(j, d);
 }
 
+/* Coefficients of num or den of a graph-held output: both come out of
+   one pass; a power of s common to both is divided out, as the exact
+   reduction would. */
+static long double *graph_coeffs(const gs_job *j, const gs_mgraph *g,
+                                 int want_num, int *deg)
+{
+    long double *vals = gs_malloc(((size_t)j->ctx->nvars + 1)
+                                  * sizeof *vals);
+    long double *cn, *cd, *out;
+    int dn, dd, low = 0, k;
+    memcpy(vals, j->vals, (size_t)j->ctx->nvars * sizeof *vals);
+    gs_mgraph_fill_recips(vals, j->c->syms, j->ctx->nvars);
+    gs_mgraph_coeffs_ld(&cn, &dn, &cd, &dd, g, j->c->s_sym, vals);
+    while (dn >= 0 && low <= dn && low <= dd && cn[low] == 0
+           && cd[low] == 0)
+        low++;
+    out = want_num ? cn : cd;
+    *deg = want_num ? dn : dd;
+    if (low && *deg >= 0) {
+        for (k = low; k <= *deg; k++)
+            out[k - low] = out[k];
+        *deg -= low;
+    }
+    free(want_num ? cd : cn);
+    free(vals);
+    return out;
+}
+
 long double *gs_job_coeffs(const gs_job *j, const gs_poly *p, int *deg)
 {
+    size_t i;
+    for (i = 0; j->graph && i < j->ntf; i++)
+        if (j->graph[i] && (p == &j->tf[i].num || p == &j->tf[i].den))
+            return graph_coeffs(j, j->graph[i], p == &j->tf[i].num, deg);
+    {
     long dg = gs_poly_degree(p, j->c->s_sym, j->ctx);
     long double *out = gs_calloc((size_t)(dg >= 0 ? dg + 1 : 1),
                                  sizeof *out);
@@ -345,6 +433,7 @@ long double *gs_job_coeffs(const gs_job *j, const gs_poly *p, int *deg)
     gs_poly_clear(&cf);
     *deg = (int)dg;
     return out;
+    }
 }
 
 int gs_job_exit_status(int rc)

@@ -10,6 +10,7 @@
 
 #include "circuit/circuit.h"
 #include "analysis/derive.h"
+#include "analysis/mgraph.h"
 #include "base/diag.h"
 #include "analysis/tf.h"
 
@@ -24,6 +25,10 @@ typedef struct gs_job {
     unsigned char *set;     /* per symbol: 1 when bound */
     char **origin;          /* per symbol: "bias M1", "--set", or NULL for
                                a value line (owned strings) */
+    int graph_ok;           /* set before gs_job_derive: an output whose
+                               expansion exceeds the budget is kept as its
+                               graph of minors, for the numbers */
+    gs_mgraph **graph;      /* per output: that graph, or NULL */
 } gs_job;
 
 void gs_job_init(gs_job *j);
@@ -57,7 +62,9 @@ unsigned char *gs_job_used_symbols(const gs_job *j);
 
 /* Numeric coefficients of p in powers of s (ascending: out[k] is the
    coefficient of s^k, deg+1 entries, allocated, caller frees), from the
-   bound values.  *deg gets the degree (-1 for p = 0). */
+   bound values.  *deg gets the degree (-1 for p = 0).  For the num or
+   den of an output held as a graph, they come from the graph (the same
+   ratio, before any common factor is cancelled). */
 long double *gs_job_coeffs(const gs_job *j, const gs_poly *p, int *deg);
 
 /* Exit status for a library status code: 2 for bad input, 1 otherwise. */

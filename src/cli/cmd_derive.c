@@ -157,6 +157,7 @@ int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
         rc = GS_EINVAL;
     if (rc == GS_OK)
         rc = adhoc_transfer(j, cl, cmd, &d, err, &status);
+    j->graph_ok = strcmp(cmd, "derive") != 0;
     if (rc == GS_OK) {
         o.limits = limits;
         o.nlimits = gs_cli_count(cl, "limit");
@@ -242,6 +243,10 @@ static void print_stats(const gs_job *j, FILE *err)
                 minors ? st->minors.max_minor_terms
                        : st->elim.max_entry_terms,
                 st->elim.big_divisions, st->gcd_terms);
+        if (st->graph_nodes)
+            fprintf(err, "graph %s nodes=%zu edges=%zu paths_N=%.17g "
+                    "paths_D=%.17g\n", j->tf[i].name, st->graph_nodes,
+                    st->graph_edges, st->graph_paths_n, st->graph_paths_d);
     }
 }
 

@@ -11,6 +11,9 @@
 #   bench derive-NAME-ratio maxima_over_gainsmith=R
 #   ...the lines of every BUILD/bench/bench_* program and of the sympy
 #   benchmark scripts, passed through...
+#   bench engine-NAME graph_nodes=N graph_edges=E build_seconds=B
+#         bode_1k_seconds=T paths_D=P peak_kib=K   (bench_engine.c)
+#   bench engine-order-NAME greedy=N/E/S natural=N/E/S sparse=N/E/S
 #   bench goal KEY=yes|no ...
 #   bench load loadavg_1min=L
 #   bench summary cases=C mismatches=M max_peak_kib=K
@@ -220,6 +223,14 @@ for name in rc_ladder_8 rc_ladder_10 rc_ladder_12 rand_8 rand_9 rand_10; do
         echo "bench pivot-$rule-$name seconds=$(field seconds "$t")" \
             "peak_kib=$(field peak_kib "$t") status=$(field status "$t")"
     done
+done
+
+# the graph of minors on the engine circuits (tests/bench/engine), one
+# process each
+for f in "$here"/engine/*.gsc; do
+    "$build/bench/bench_engine" "$f" \
+        || { echo "run_bench.sh: bench_engine $f failed" >&2; status=1; }
+    "$build/bench/bench_engine" "$f" --orders || status=1
 done
 
 for b in "$build"/bench/bench_*; do
