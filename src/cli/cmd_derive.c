@@ -127,6 +127,17 @@ static int adhoc_transfer(gs_job *j, const gs_cli *cl, const char *cmd,
                                out, in, d);
 }
 
+static int numbers_only(const char *cmd)
+{
+    static const char *const numeric[] = {"eval", "poles", "bode", "step",
+                                          "check"};
+    size_t i;
+    for (i = 0; i < sizeof numeric / sizeof numeric[0]; i++)
+        if (strcmp(cmd, numeric[i]) == 0)
+            return 1;
+    return 0;
+}
+
 int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
                            FILE *err)
 {
@@ -157,7 +168,10 @@ int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
         rc = GS_EINVAL;
     if (rc == GS_OK)
         rc = adhoc_transfer(j, cl, cmd, &d, err, &status);
-    j->graph_ok = strcmp(cmd, "derive") != 0;
+    /* The numeric commands can take their numbers from the graph of
+       minors when the expansion is over budget; derive and the symbolic
+       analyses (approx, sens, noise, report) need the expanded N and D. */
+    j->graph_ok = numbers_only(cmd);
     if (rc == GS_OK) {
         o.limits = limits;
         o.nlimits = gs_cli_count(cl, "limit");
