@@ -127,32 +127,59 @@ int gs_diag_column(const char *line_start, size_t off)
     return col;
 }
 
-int gs_edit_distance(const char *a, const char *b, int cap)
+static int fold_letter(int ch, int fold_case)
+{
+    return fold_case && ch >= 'A' && ch <= 'Z' ? ch - 'A' + 'a' : ch;
+}
+
+/* Optimal string alignment distance: the Levenshtein distance with a swap
+   of two neighbouring letters counted as one edit (Damerau 1964), computed
+   with three rows of the Wagner-Fischer table (Wagner & Fischer 1974;
+   the restricted form of Lowrance & Wagner 1975, where no substring is
+   edited twice).  "otu" is one edit from "out", as a typist sees it. */
+int gs_osa_distance(const char *a, const char *b, int cap, int fold_case)
 {
     size_t la = strlen(a), lb = strlen(b), i, j;
-    int *prev, *cur, *tmp, result;
+    int *prev2, *prev, *cur, *tmp, result;
     if (la > lb + (size_t)cap || lb > la + (size_t)cap)
         return cap + 1;
+    prev2 = gs_malloc((lb + 1) * sizeof *prev2);
     prev = gs_malloc((lb + 1) * sizeof *prev);
     cur = gs_malloc((lb + 1) * sizeof *cur);
     for (j = 0; j <= lb; j++)
-        prev[j] = (int)j;
+        prev[j] = prev2[j] = (int)j;
     for (i = 1; i <= la; i++) {
+        int ai = fold_letter((unsigned char)a[i - 1], fold_case);
         cur[0] = (int)i;
         for (j = 1; j <= lb; j++) {
-            int sub = prev[j - 1] + (a[i - 1] != b[j - 1]);
+            int bj = fold_letter((unsigned char)b[j - 1], fold_case);
+            int sub = prev[j - 1] + (ai != bj);
             int del = prev[j] + 1, ins = cur[j - 1] + 1;
             int best = sub < del ? sub : del;
-            cur[j] = best < ins ? best : ins;
+            if (ins < best)
+                best = ins;
+            if (i > 1 && j > 1
+                && ai == fold_letter((unsigned char)b[j - 2], fold_case)
+                && bj == fold_letter((unsigned char)a[i - 2], fold_case)
+                && ai != bj && prev2[j - 2] + 1 < best)
+                best = prev2[j - 2] + 1;
+            cur[j] = best;
         }
-        tmp = prev;
+        tmp = prev2;
+        prev2 = prev;
         prev = cur;
         cur = tmp;
     }
     result = prev[lb] > cap ? cap + 1 : prev[lb];
+    free(prev2);
     free(prev);
     free(cur);
     return result;
+}
+
+int gs_edit_distance(const char *a, const char *b, int cap)
+{
+    return gs_osa_distance(a, b, cap, 0);
 }
 
 const char *gs_closest_word(const char *word, const char *const *candidates)

@@ -411,42 +411,6 @@ void gs_cur_expected(const gs_cursor *cur, const gs_token *t,
 
 /* ---- did you mean ---- */
 
-static int fold(int ch)
-{
-    return ch >= 'A' && ch <= 'Z' ? ch - 'A' + 'a' : ch;
-}
-
-/* Levenshtein distance of a and b, letter case ignored, computed with one
-   row of the Wagner-Fischer table; gives up (returns limit + 1) when the
-   lengths alone differ by more than limit. */
-static size_t edit_distance(const char *a, const char *b, size_t limit)
-{
-    size_t la = strlen(a), lb = strlen(b), i, j, *row, result;
-    if ((la > lb ? la - lb : lb - la) > limit)
-        return limit + 1;
-    row = gs_malloc((lb + 1) * sizeof *row);
-    for (j = 0; j <= lb; j++)
-        row[j] = j;
-    for (i = 1; i <= la; i++) {
-        size_t diag = row[0];
-        row[0] = i;
-        for (j = 1; j <= lb; j++) {
-            size_t up = row[j];
-            size_t best = diag + (fold((unsigned char)a[i - 1])
-                                  != fold((unsigned char)b[j - 1]));
-            if (up + 1 < best)
-                best = up + 1;
-            if (row[j - 1] + 1 < best)
-                best = row[j - 1] + 1;
-            row[j] = best;
-            diag = up;
-        }
-    }
-    result = row[lb];
-    free(row);
-    return result;
-}
-
 const char *gs_suggest(const char *word, const char *const *cand, size_t n)
 {
     size_t limit = strlen(word) <= 3 ? 1 : 2, best = limit + 1, i;
@@ -455,7 +419,8 @@ const char *gs_suggest(const char *word, const char *const *cand, size_t n)
         size_t dist;
         if (cand[i] == NULL || strcmp(cand[i], word) == 0)
             continue;
-        dist = edit_distance(word, cand[i], limit);
+        /* a swap of neighbours ("otu" for "out") is one edit */
+        dist = (size_t)gs_osa_distance(word, cand[i], (int)limit, 1);
         if (dist < best) {
             best = dist;
             pick = cand[i];
