@@ -670,6 +670,13 @@ static void test_suggest(void)
     CHECK(gs_osa_distance("OTU", "out", 5, 1) == 1);
     CHECK(gs_osa_distance("OTU", "out", 5, 0) == 3);
     CHECK(gs_edit_distance("resitsor", "resistor", 2) == 1);
+    CHECK(gs_number_is_well_formed("1e999999"));
+    CHECK(gs_number_is_well_formed("2.5E-3k"));
+    CHECK(gs_number_is_well_formed(".5"));
+    CHECK(!gs_number_is_well_formed("1e"));
+    CHECK(!gs_number_is_well_formed("1.2.3"));
+    CHECK(!gs_number_is_well_formed("1e3x"));
+    CHECK(!gs_number_is_well_formed("1kk"));
 }
 
 static void test_file(void)

@@ -110,7 +110,11 @@ static void find_lines(gs_lexer *lx)
     lx->line_start = gs_malloc(alloc * sizeof *lx->line_start);
     lx->line_start[lx->nlines++] = 0;
     for (i = 0; i < lx->len; i++) {
-        if (lx->text[i] != '\n')
+        /* a line ends at LF, CR LF, or a CR alone (the old Macintosh
+           convention); the CR of CR LF is blank space in the line */
+        if (lx->text[i] != '\n'
+            && (lx->text[i] != '\r'
+                || (i + 1 < lx->len && lx->text[i + 1] == '\n')))
             continue;
         if (lx->nlines == alloc) {
             alloc *= 2;
@@ -167,6 +171,33 @@ static const char *scan_number(const char *p, const char *end)
             break;
     }
     return q;
+}
+
+int gs_number_is_well_formed(const char *text)
+{
+    const char *p = text;
+    size_t n = 0;
+    while (is_digit((unsigned char)*p))
+        p++, n++;
+    if (*p == '.')
+        for (p++; is_digit((unsigned char)*p); p++)
+            n++;
+    if (n == 0)
+        return 0;
+    if (*p == 'e' || *p == 'E') {
+        p++;
+        if (*p == '+' || *p == '-')
+            p++;
+        if (!is_digit((unsigned char)*p))
+            return 0;
+        while (is_digit((unsigned char)*p))
+            p++;
+    }
+    if (*p != '\0' && strchr("fpnumkMGT", *p) != NULL)
+        p++;
+    else if (strncmp(p, "\xc2\xb5", 2) == 0 || strncmp(p, "\xce\xbc", 2) == 0)
+        p += 2;
+    return *p == '\0';
 }
 
 static const char *scan_ident(const char *p, const char *end, int *dotted)
@@ -344,6 +375,10 @@ void gs_lex_run(gs_lexer *lx)
         const char *end = i + 1 < lx->nlines
                           ? lx->text + lx->line_start[i + 1] - 1
                           : lx->text + lx->len;
+        /* a UTF-8 byte-order mark that opens the file is no character */
+        if (i == 0 && lx->len >= 3 && (unsigned char)p[0] == 0xEF
+            && (unsigned char)p[1] == 0xBB && (unsigned char)p[2] == 0xBF)
+            p += 3;
         if (!cont)
             st = open_stmt(lx);
         cont = lex_line(lx, st, p, end);
