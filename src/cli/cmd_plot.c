@@ -278,10 +278,16 @@ static void print_step_summary(FILE *out, const char *name,
     if (m->has_rise)
         fprintf(out, "  rise time 10-90%%  %s\n",
                 gs_si_format(b, sizeof b, m->rise_time, 4, "s"));
-    if (m->has_overshoot)
-        fprintf(out, "  overshoot         %.4Lg %% (peak %.6Lg at %s)\n",
-                m->overshoot_pct, m->peak_value,
+    /* the peak is of the magnitude |y|, which for an inverting stage is
+       the response's most negative value; without overshoot |y| never
+       passes |final value| and there is no peak to show */
+    if (m->has_overshoot && m->overshoot_pct > 0)
+        fprintf(out, "  overshoot         %.4Lg %% (peak |y| %.6Lg at %s)\n",
+                m->overshoot_pct, fabsl(m->peak_value),
                 gs_si_format(b, sizeof b, m->peak_time, 4, "s"));
+    else if (m->has_overshoot)
+        fputs("  overshoot         0 % (|y| never exceeds its final "
+              "value)\n", out);
     if (m->has_settling)
         fprintf(out, "  settling (1 %%)    %s\n",
                 gs_si_format(b, sizeof b, m->settling_time, 4, "s"));
