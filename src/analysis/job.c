@@ -417,3 +417,21 @@ int gs_job_exit_status(int rc)
         return 2;
     }
 }
+
+void gs_job_unit(gs_unit_info *u, const gs_job *j, size_t i)
+{
+    const gs_output *o = &j->c->outputs[j->out_index[i]];
+    int out_v, in_v;
+    if (o->kind == GS_OUT_IMPEDANCE) {
+        *u = (gs_unit_info){"\xce\xa9", "dB\xce\xa9", "impedance", 0};
+        return;
+    }
+    out_v = o->out.kind == GS_PROBE_V;
+    in_v = j->c->elems[o->in].kind == GS_VSOURCE;
+    if (out_v == in_v)
+        *u = (gs_unit_info){out_v ? "V/V" : "A/A", "dB", "gain", 1};
+    else if (out_v)
+        *u = (gs_unit_info){"V/A", "dB\xce\xa9", "transimpedance", 0};
+    else
+        *u = (gs_unit_info){"A/V", "dBS", "transadmittance", 0};
+}

@@ -39,8 +39,10 @@ static void print_root_rows(FILE *out, const char *what,
         return;
     }
     fprintf(out, "  %s:\n", what);
+    /* the root r = re + j im in rad/s, its natural frequency |r|/2pi in
+       Hz: each column says its unit */
     fprintf(out, "    %-14s %-14s %-12s %-10s %-10s %4s %9s\n",
-            "re (rad/s)", "im (rad/s)", "|.| (Hz)", "Q", "zeta", "mult",
+            "re (rad/s)", "im (rad/s)", "|r|/2pi (Hz)", "Q", "zeta", "mult",
             "residual");
     for (i = 0; i < n; i++) {
         gs_pz_info pz;
@@ -57,7 +59,7 @@ static void print_root_rows(FILE *out, const char *what,
 }
 
 static void print_text(FILE *out, const char *name, const gs_tfn *h,
-                       long double tol)
+                       long double tol, const gs_unit_info *u)
 {
     gs_pz_pair pairs[16];
     int order, i, n;
@@ -65,13 +67,25 @@ static void print_text(FILE *out, const char *name, const gs_tfn *h,
     fprintf(out, "%s: %d pole%s, %d zero%s, %s\n", name, h->npoles,
             h->npoles == 1 ? "" : "s", h->nzeros, h->nzeros == 1 ? "" : "s",
             stability_word[gs_tfn_stability(h)]);
-    fprintf(out, "  DC gain      %.10Lg", dc);
-    if (isfinite(dc) && dc != 0)
-        fprintf(out, " (%.4Lf dB)", 20 * log10l(fabsl(dc)));
-    fprintf(out, "\n  HF gain      %.10Lg", hf);
-    if (order != 0)
-        fprintf(out, " * s^%d", order);
-    fputc('\n', out);
+    if (u->is_gain) {
+        fprintf(out, "  DC gain      %.10Lg", dc);
+        if (isfinite(dc) && dc != 0)
+            fprintf(out, " (%.4Lf dB)", 20 * log10l(fabsl(dc)));
+        fprintf(out, "\n  HF gain      %.10Lg", hf);
+        if (order != 0)
+            fprintf(out, " * s^%d", order);
+        fputc('\n', out);
+    } else {
+        /* an impedance (or a trans-ratio) has a value in its unit, no
+           gain: |Z| in dB is relative to 1 ohm */
+        fprintf(out, "  DC value     %.10Lg %s", dc, u->unit);
+        if (isfinite(dc) && dc != 0)
+            fprintf(out, " (%.4Lf %s)", 20 * log10l(fabsl(dc)), u->db);
+        fprintf(out, "\n  HF value     %.10Lg %s", hf, u->unit);
+        if (order != 0)
+            fprintf(out, " * s^%d", order);
+        fputc('\n', out);
+    }
     print_root_rows(out, "poles", h->poles, h->npoles, h->pole_mult,
                     h->pole_res);
     print_root_rows(out, "zeros", h->zeros, h->nzeros, h->zero_mult,
@@ -144,10 +158,12 @@ static int poles_one(const gs_job *j, size_t i, int json, long double tol,
             fprintf(err, "gainsmith poles: warning: %s: the root search did "
                     "not converge; the roots shown are the best found\n",
                     j->tf[i].name);
+        gs_unit_info u;
+        gs_job_unit(&u, j, i);
         if (json)
             print_json(out, j->tf[i].name, &h);
         else
-            print_text(out, j->tf[i].name, &h, tol);
+            print_text(out, j->tf[i].name, &h, tol, &u);
     }
     gs_tfn_clear(&h);
     free(cn);
