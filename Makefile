@@ -29,7 +29,7 @@ LIB      := $(BUILD)/libgainsmith.a
 CLI_LIB  := $(BUILD)/libgainsmith_cli.a
 BIN      := $(BUILD)/gainsmith
 
-.PHONY: all check check-sanitize bench demo install clean tests
+.PHONY: all check check-sanitize bench demo install clean tests fuzz fuzz-run
 
 all: $(LIB) $(BIN)
 
@@ -71,6 +71,26 @@ check-sanitize:
 
 bench: $(BENCH_BIN) $(BIN)
 	@sh tests/bench/run_bench.sh $(BUILD)
+
+# make fuzz       the libFuzzer target (clang) in build/fuzz/fuzz_circuit,
+#                 over the library built with the fuzzer's instrumentation
+# make fuzz-run   run it for FUZZ_SECONDS (60) on a corpus seeded from
+#                 examples/ and tests/ (tests/fuzz/run.sh)
+FUZZ_CC    ?= clang
+FUZZ_FLAGS  = -fsanitize=fuzzer-no-link,address,undefined \
+              -fno-sanitize-recover=all -fno-omit-frame-pointer
+FUZZ_SECONDS ?= 60
+
+fuzz:
+	$(MAKE) CC=$(FUZZ_CC) BUILD=build/fuzz OPT="-O1 -g" \
+	    SANFLAGS="$(FUZZ_FLAGS)" build/fuzz/libgainsmith.a
+	$(FUZZ_CC) $(CPPFLAGS_ALL) -std=c11 -O1 -g $(WARN) \
+	    -fsanitize=fuzzer,address,undefined -fno-sanitize-recover=all \
+	    -o build/fuzz/fuzz_circuit tests/fuzz/fuzz_circuit.c \
+	    build/fuzz/libgainsmith.a -lm
+
+fuzz-run: fuzz
+	@sh tests/fuzz/run.sh build/fuzz/fuzz_circuit $(FUZZ_SECONDS)
 
 demo: $(BIN)
 	@sh examples/demo.sh $(BIN)

@@ -51,6 +51,7 @@ if [ -z "$only" ]; then
     run_suite latex_check sh tests/latex_check.sh "$build"
     run_suite render_check sh tests/render_check.sh "$build"
     run_suite report_check sh tests/report_check.sh "$build"
+    run_suite diag_catalogue sh tests/diag_catalogue.sh
     for py in tests/sympy/*.py; do
         [ -f "$py" ] || continue
         run_suite "${py##*/}" sh tests/sympy/run.sh "$build" "$py"

@@ -652,6 +652,31 @@ static void test_suggest(void)
     CHECK(gs_suggest("inductor", words, 5) == NULL);
     CHECK(strcmp(gs_suggest("vccs", words, 5), "vcvs") == 0); /* not itself */
     CHECK(gs_suggest("vccs", words + 2, 1) == NULL);
+    /* a swap of neighbours is one edit (Damerau 1964), so a three-letter
+       word still gets its hint */
+    {
+        static const char *const nodes[] = {"out", "vin", "in"};
+        CHECK(gs_suggest("otu", nodes, 3) != NULL
+              && strcmp(gs_suggest("otu", nodes, 3), "out") == 0);
+        CHECK(gs_suggest("vni", nodes, 3) != NULL
+              && strcmp(gs_suggest("vni", nodes, 3), "vin") == 0);
+    }
+    /* optimal string alignment distances, worked by hand: "ca" -> "ac"
+       is one swap; "abc" -> "ca" is 3 in OSA (no substring edited twice)
+       where the unrestricted Damerau distance would be 2 */
+    CHECK(gs_osa_distance("ca", "ac", 5, 0) == 1);
+    CHECK(gs_osa_distance("abc", "ca", 5, 0) == 3);
+    CHECK(gs_osa_distance("kitten", "sitting", 5, 0) == 3);
+    CHECK(gs_osa_distance("OTU", "out", 5, 1) == 1);
+    CHECK(gs_osa_distance("OTU", "out", 5, 0) == 3);
+    CHECK(gs_edit_distance("resitsor", "resistor", 2) == 1);
+    CHECK(gs_number_is_well_formed("1e999999"));
+    CHECK(gs_number_is_well_formed("2.5E-3k"));
+    CHECK(gs_number_is_well_formed(".5"));
+    CHECK(!gs_number_is_well_formed("1e"));
+    CHECK(!gs_number_is_well_formed("1.2.3"));
+    CHECK(!gs_number_is_well_formed("1e3x"));
+    CHECK(!gs_number_is_well_formed("1kk"));
 }
 
 static void test_file(void)
@@ -671,6 +696,20 @@ static void test_file(void)
                              "unexpected character '\\x00'") == 0);
     gs_diag_clear(&d);
     gs_circuit_free(c);
+    /* text[0 .. len) need not be followed by a NUL: nothing past the end
+       is read (the sanitizer build proves it) */
+    {
+        static const char body[] = "vsource vin in gnd\ncapacitor";
+        size_t n = sizeof body - 1;
+        char *exact = gs_malloc(n);
+        memcpy(exact, body, n);
+        c = gs_circuit_new();
+        CHECK(gs_parse_text(c, "end.gsc", exact, n, &d) == GS_ESYNTAX);
+        CHECK(find_msg(&d, "missing capacitor name") != NULL);
+        gs_diag_clear(&d);
+        gs_circuit_free(c);
+        free(exact);
+    }
     gs_circuit_free(NULL);
 }
 

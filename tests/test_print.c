@@ -351,13 +351,12 @@ static const golden goldens[] = {
       "\\begin{equation}\n"
       "B = \\frac{1180591620717411303424\\,g_{m}}{-7\\,{\\frac{1}{R}} + 1}\n"
       "\\end{equation}\n" },
+    /* a denominator of 1 is not printed, in any form */
     { "zero", "Z", "0", "1", 0,
-      "Z = (0)/(1)\n",
-      "     0\n"
-      "Z = ---\n"
-      "     1\n",
+      "Z = 0\n",
+      "Z = 0\n",
       "\\begin{equation}\n"
-      "Z = \\frac{0}{1}\n"
+      "Z = 0\n"
       "\\end{equation}\n" },
 };
 #define NGOLDEN (sizeof goldens / sizeof goldens[0])

@@ -264,7 +264,7 @@ static void test_bode_basic(void)
     int rc;
     rc_trace(&h, &sw, &m);
     gs_plot_trace t = {"RC & <filter>", sw.n, sw.freq, sw.mag_db,
-                       sw.phase_deg, &m, NULL};
+                       sw.phase_deg, &m, NULL, NULL};
     gs_plot p = {"First-order \"RC\" low-pass", NULL, 0, 0, &t, 1};
     char *doc = render(gs_svg_bode, &p, &rc);
     CHECK(doc != NULL && rc == GS_OK);
@@ -310,7 +310,8 @@ static void test_bode_loop_and_traces(void)
         gs_sweep_init(&sw[i]);
         CHECK(gs_sweep_log(&sw[i], &h[i], 1e-3L, 10, 200) == GS_OK);
         t[i] = (gs_plot_trace){names[i], sw[i].n, sw[i].freq, sw[i].mag_db,
-                               sw[i].phase_deg, i == 0 ? &m : NULL, NULL};
+                               sw[i].phase_deg, i == 0 ? &m : NULL, NULL,
+                               NULL};
     }
     gs_plot p = {NULL, NULL, 800, 640, t, 3};
     char *doc = render(gs_svg_bode, &p, &rc);
@@ -334,7 +335,7 @@ static void test_bode_edges(void)
 {
     long double f[4] = {1, 10, 100, 1000}, mag[4] = {0, NAN, -20, -40};
     long double ph[4] = {0, -45, -90, -90}, bad[4] = {NAN, NAN, NAN, NAN};
-    gs_plot_trace t = {NULL, 4, f, mag, ph, NULL, NULL};
+    gs_plot_trace t = {NULL, 4, f, mag, ph, NULL, NULL, NULL};
     gs_plot p = {NULL, NULL, 0, 0, &t, 1};
     int rc;
     char *doc = render(gs_svg_bode, &p, &rc);
@@ -345,11 +346,30 @@ static void test_bode_edges(void)
     doc = render(gs_svg_bode, &none, &rc);
     CHECK(rc == GS_EINVAL);
     free(doc);
-    gs_plot_trace tb = {NULL, 4, f, bad, ph, NULL, NULL};
+    gs_plot_trace tb = {NULL, 4, f, bad, ph, NULL, NULL, NULL};
     gs_plot pb = {NULL, NULL, 0, 0, &tb, 1};
     doc = render(gs_svg_bode, &pb, &rc);
     CHECK(rc == GS_EINVAL);
     free(doc);
+    /* the magnitude axis names the units of its traces: an impedance is
+       in dB relative to 1 ohm, not a gain in dB */
+    {
+        gs_plot_trace two[2] = {
+            {"Av", 4, f, mag, ph, NULL, NULL, "dB"},
+            {"Zo", 4, f, mag, ph, NULL, NULL, "dB\xce\xa9"}};
+        gs_plot pu = {NULL, NULL, 0, 0, two, 2};
+        doc = render(gs_svg_bode, &pu, &rc);
+        CHECK(rc == GS_OK && doc != NULL
+              && strstr(doc, "Magnitude (dB, dB\xce\xa9)") != NULL);
+        free(doc);
+        pu.traces = two + 1;
+        pu.ntraces = 1;
+        doc = render(gs_svg_bode, &pu, &rc);
+        CHECK(rc == GS_OK && doc != NULL
+              && strstr(doc, "Magnitude (dB\xce\xa9)") != NULL
+              && strstr(doc, "Magnitude (dB)") == NULL);
+        free(doc);
+    }
 }
 
 /* Step plot of w^2/(s^2 + 2 z w s + w^2), z = 0.5: overshoot
@@ -368,7 +388,7 @@ static void test_step_plot(void)
     CHECK(gs_step_init(&s, &h) == GS_OK);
     CHECK(gs_step_measure(&m, &s) == GS_OK);
     CHECK(gs_step_table(t, y, NULL, 400, &s, gs_step_span(&s)) == GS_OK);
-    gs_plot_trace tr = {"2nd order, zeta = 0.5", 400, t, y, NULL, NULL, &m};
+    gs_plot_trace tr = {"2nd order, zeta = 0.5", 400, t, y, NULL, NULL, &m, NULL};
     gs_plot p = {"Step response", "v(out) (V)", 0, 0, &tr, 1};
     char *doc = render(gs_svg_step, &p, &rc);
     CHECK(doc != NULL && rc == GS_OK && well_formed(doc));

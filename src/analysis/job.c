@@ -5,6 +5,7 @@
 #include "circuit/device.h"
 #include "base/mem.h"
 #include "analysis/mna.h"
+#include "circuit/lex.h"
 
 #include <stdlib.h>
 #include <string.h>
@@ -59,18 +60,74 @@ int gs_job_load(gs_job *j, const char *path, gs_diag *d)
     return GS_OK;
 }
 
+static int parse_probe_tokens(gs_probe *p, const gs_circuit *c,
+                              const char *text, gs_lexer *lx, gs_diag *d);
+
+/* A node or element name: a word, or a node number such as 0 or 12. */
+static int is_name_token(const gs_token *t)
+{
+    size_t i;
+    if (t->kind == GS_TK_IDENT)
+        return 1;
+    if (t->kind != GS_TK_NUMBER)
+        return 0;
+    for (i = 0; t->text[i]; i++)
+        if (t->text[i] < '0' || t->text[i] > '9')
+            return 0;
+    return 1;
+}
+
+/* The tokens of "v(a)", "v(a, b)" or "i(X)", cut by the circuit
+   language's lexer (names of any length, the same rules as in a file):
+   *kind gets 'v' or 'i', a and b the names (b NULL for one), borrowed
+   from lx.  0 when text is not of that form. */
+static int probe_tokens(char *kind, const char **a, const char **b,
+                        gs_lexer *lx)
+{
+    const gs_token *t;
+    size_t n;
+    gs_lex_run(lx);
+    if (lx->nstmt != 1 || lx->stmt[0].bad)
+        return 0;
+    t = lx->tok + lx->stmt[0].first;
+    n = lx->stmt[0].n;
+    if ((n != 4 && n != 6) || t[0].kind != GS_TK_IDENT
+        || (strcmp(t[0].text, "v") != 0 && strcmp(t[0].text, "i") != 0)
+        || t[1].kind != GS_TK_PUNCT || t[1].text[0] != '('
+        || t[n - 1].kind != GS_TK_PUNCT || t[n - 1].text[0] != ')'
+        || !is_name_token(&t[2]))
+        return 0;
+    *kind = t[0].text[0];
+    *a = t[2].text;
+    *b = NULL;
+    if (n == 6) {
+        if (*kind != 'v' || t[3].kind != GS_TK_PUNCT || t[3].text[0] != ','
+            || !is_name_token(&t[4]))
+            return 0;
+        *b = t[4].text;
+    }
+    return 1;
+}
+
 /* Parse "v(a)", "v(a, b)" or "i(X)" into p. */
 static int parse_probe(gs_probe *p, const gs_circuit *c, const char *text,
                        gs_diag *d)
 {
-    char kind, a[128] = "", b[128] = "", close = 0;
-    int n, na, nb;
-    n = sscanf(text, " %c ( %127[^,) ] %c", &kind, a, &close);
-    if (n == 3 && close == ',')
-        n = sscanf(text, " %c ( %127[^,) ] , %127[^) ] %c", &kind, a, b,
-                   &close) == 4 ? 3 : 0;
-    if (n != 3 || close != ')' || (kind != 'v' && kind != 'i')
-        || (kind == 'i' && b[0])) {
+    gs_lexer lx;
+    int rc;
+    gs_lex_init(&lx, NULL, "--out", text, strlen(text));
+    rc = parse_probe_tokens(p, c, text, &lx, d);
+    gs_lex_clear(&lx);
+    return rc;
+}
+
+static int parse_probe_tokens(gs_probe *p, const gs_circuit *c,
+                              const char *text, gs_lexer *lx, gs_diag *d)
+{
+    char kind = 0;
+    const char *a = NULL, *b = NULL;
+    int na, nb;
+    if (!probe_tokens(&kind, &a, &b, lx)) {
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
                     "write v(NODE), v(NODE, NODE) or i(ELEMENT)",
                     "--out '%s' is not an output quantity", text);
@@ -86,7 +143,7 @@ static int parse_probe(gs_probe *p, const gs_circuit *c, const char *text,
         return GS_EINVAL;
     }
     na = gs_circuit_find_node(c, a);
-    nb = b[0] ? gs_circuit_find_node(c, b) : 0;
+    nb = b ? gs_circuit_find_node(c, b) : 0;
     if (na < 0 || nb < 0) {
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
                     "--out: the circuit has no node '%s'", na < 0 ? a : b);
@@ -448,4 +505,22 @@ int gs_job_exit_status(int rc)
     default:
         return 2;
     }
+}
+
+void gs_job_unit(gs_unit_info *u, const gs_job *j, size_t i)
+{
+    const gs_output *o = &j->c->outputs[j->out_index[i]];
+    int out_v, in_v;
+    if (o->kind == GS_OUT_IMPEDANCE) {
+        *u = (gs_unit_info){"\xce\xa9", "dB\xce\xa9", "impedance", 0};
+        return;
+    }
+    out_v = o->out.kind == GS_PROBE_V;
+    in_v = j->c->elems[o->in].kind == GS_VSOURCE;
+    if (out_v == in_v)
+        *u = (gs_unit_info){out_v ? "V/V" : "A/A", "dB", "gain", 1};
+    else if (out_v)
+        *u = (gs_unit_info){"V/A", "dB\xce\xa9", "transimpedance", 0};
+    else
+        *u = (gs_unit_info){"A/V", "dBS", "transadmittance", 0};
 }

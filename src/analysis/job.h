@@ -67,6 +67,24 @@ unsigned char *gs_job_used_symbols(const gs_job *j);
    ratio, before any common factor is cancelled). */
 long double *gs_job_coeffs(const gs_job *j, const gs_poly *p, int *deg);
 
+/* What an output is measured in, from what it is: a transfer of v() over
+   a vsource is V/V and of i() over an isource A/A (gains, in dB); v()
+   over an isource is a transimpedance, V/A, and i() over a vsource a
+   transadmittance, A/V; an impedance is in ohms.  Magnitudes of the last
+   three are in dB relative to 1 of their unit (dBΩ, dBS), and figures
+   that belong to gains (unity-gain frequency, -3 dB bandwidth, margins)
+   mean nothing for them. */
+typedef struct gs_unit_info {
+    const char *unit;       /* "V/V", "A/A", "V/A", "A/V", "Ω" (UTF-8) */
+    const char *db;         /* "dB", "dBΩ", "dBS" */
+    const char *word;       /* "gain", "transimpedance", "transadmittance",
+                               "impedance" */
+    int is_gain;            /* 1 for V/V and A/A */
+} gs_unit_info;
+
+/* The unit of the derived output tf[i]. */
+void gs_job_unit(gs_unit_info *u, const gs_job *j, size_t i);
+
 /* Exit status for a library status code: 2 for bad input, 1 otherwise. */
 int gs_job_exit_status(int rc);
 

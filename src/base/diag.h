@@ -52,15 +52,11 @@ void gs_diag_append(gs_diag *dst, gs_diag *src);
    that starts at `line_start`. */
 int gs_diag_column(const char *line_start, size_t off);
 
-/* Levenshtein distance between a and b, capped: returns at most cap + 1.
-   For did-you-mean hints. */
-int gs_edit_distance(const char *a, const char *b, int cap);
-/* The candidate closest to word (distance <= 2 and less than its
-   length), or NULL: candidates is a NULL-terminated list. */
-const char *gs_closest_word(const char *word, const char *const *candidates);
-
-/* Levenshtein distance between a and b, capped: returns at most cap + 1.
-   For did-you-mean hints. */
+/* Optimal string alignment distance between a and b (Levenshtein with a
+   swap of neighbouring letters as one edit), capped: returns at most
+   cap + 1; letter case ignored when fold_case.  For did-you-mean hints. */
+int gs_osa_distance(const char *a, const char *b, int cap, int fold_case);
+/* gs_osa_distance with letter case significant. */
 int gs_edit_distance(const char *a, const char *b, int cap);
 /* The candidate closest to word (distance <= 2 and less than its
    length), or NULL: candidates is a NULL-terminated list. */

@@ -46,10 +46,10 @@ void *gs_reallocarray(void *ptr, size_t count, size_t size)
 
 char *gs_strndup(const char *s, size_t n)
 {
-    size_t len = strlen(s);
+    /* at most n bytes are read: s need not be terminated within them */
+    const char *nul = memchr(s, '\0', n);
+    size_t len = nul ? (size_t)(nul - s) : n;
     char *p;
-    if (len > n)
-        len = n;
     p = gs_malloc(len + 1);
     memcpy(p, s, len);
     p[len] = '\0';

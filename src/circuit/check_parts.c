@@ -232,12 +232,16 @@ static void warn_senses_nothing(const gs_checker *k, const gs_element *e)
    through a resistor (the resistor and the gate's sensing terminal) is
    two connections and no warning.  A device part whose control is shorted
    (a mosfet with its gate on its source) is a common way to use a device,
-   and not warned about either. */
+   and not warned about either.  Nor is the output of a vcvs or ccvs: its
+   voltage is set by what the source senses, so a node driven by one and
+   nothing else is a point made to observe (a buffer to a probe), not a
+   slip. */
 void gs_check_single(const gs_checker *k)
 {
     const gs_circuit *c = k->c;
     int *count = gs_calloc((size_t)c->nnodes, sizeof *count);
     int *last = gs_calloc((size_t)c->nnodes, sizeof *last);
+    unsigned char *driven = gs_calloc((size_t)c->nnodes, 1);
     size_t i;
     int v, t;
     for (i = 0; i < c->nelems; i++) {
@@ -246,6 +250,8 @@ void gs_check_single(const gs_checker *k)
             if (e->node[t] >= 0) {
                 count[e->node[t]]++;
                 last[e->node[t]] = (int)i;
+                if (t < 2 && (e->kind == GS_VCVS || e->kind == GS_CCVS))
+                    driven[e->node[t]] = 1;
             }
         }
         if (gs_senses_nothing(e) && e->device < 0)
@@ -254,7 +260,7 @@ void gs_check_single(const gs_checker *k)
     for (v = 1; v < c->nnodes; v++) {
         const gs_element *e = &c->elems[last[v]];
         char *msg;
-        if (count[v] != 1 || k->flagged[v])
+        if (count[v] != 1 || k->flagged[v] || driven[v])
             continue;
         /* a node the file did not name (a sense line's vo.dm) cannot be
            misspelt */
@@ -268,6 +274,7 @@ void gs_check_single(const gs_checker *k)
                         "current; is the node name misspelt?", msg);
         free(msg);
     }
+    free(driven);
     free(last);
     free(count);
 }

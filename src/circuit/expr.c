@@ -56,6 +56,14 @@ int gs_parse_number(gs_rat *r, gs_cursor *cur, const gs_token *t)
 {
     if (gs_rat_parse(r, t->text, NULL) == GS_OK)
         return GS_OK;
+    if (strpbrk(t->text, "eE") != NULL
+        && gs_number_is_well_formed(t->text)) {
+        gs_cur_error(cur, t, "exponents, with the SI prefix and the digits "
+                     "after the point folded in, lie between -10000 and "
+                     "10000", "the exponent of '%s' is out of range",
+                     t->text);
+        return GS_ESYNTAX;
+    }
     gs_cur_error(cur, t, "a number is a decimal with an optional exponent "
                  "and SI prefix, such as 4.7k, 2.2n or 1e-3 (prefixes: "
                  "f p n u m k M G T)", "'%s' is not a number", t->text);

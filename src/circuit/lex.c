@@ -110,7 +110,11 @@ static void find_lines(gs_lexer *lx)
     lx->line_start = gs_malloc(alloc * sizeof *lx->line_start);
     lx->line_start[lx->nlines++] = 0;
     for (i = 0; i < lx->len; i++) {
-        if (lx->text[i] != '\n')
+        /* a line ends at LF, CR LF, or a CR alone (the old Macintosh
+           convention); the CR of CR LF is blank space in the line */
+        if (lx->text[i] != '\n'
+            && (lx->text[i] != '\r'
+                || (i + 1 < lx->len && lx->text[i + 1] == '\n')))
             continue;
         if (lx->nlines == alloc) {
             alloc *= 2;
@@ -167,6 +171,33 @@ static const char *scan_number(const char *p, const char *end)
             break;
     }
     return q;
+}
+
+int gs_number_is_well_formed(const char *text)
+{
+    const char *p = text;
+    size_t n = 0;
+    while (is_digit((unsigned char)*p))
+        p++, n++;
+    if (*p == '.')
+        for (p++; is_digit((unsigned char)*p); p++)
+            n++;
+    if (n == 0)
+        return 0;
+    if (*p == 'e' || *p == 'E') {
+        p++;
+        if (*p == '+' || *p == '-')
+            p++;
+        if (!is_digit((unsigned char)*p))
+            return 0;
+        while (is_digit((unsigned char)*p))
+            p++;
+    }
+    if (*p != '\0' && strchr("fpnumkMGT", *p) != NULL)
+        p++;
+    else if (strncmp(p, "\xc2\xb5", 2) == 0 || strncmp(p, "\xce\xbc", 2) == 0)
+        p += 2;
+    return *p == '\0';
 }
 
 static const char *scan_ident(const char *p, const char *end, int *dotted)
@@ -344,6 +375,10 @@ void gs_lex_run(gs_lexer *lx)
         const char *end = i + 1 < lx->nlines
                           ? lx->text + lx->line_start[i + 1] - 1
                           : lx->text + lx->len;
+        /* a UTF-8 byte-order mark that opens the file is no character */
+        if (i == 0 && lx->len >= 3 && (unsigned char)p[0] == 0xEF
+            && (unsigned char)p[1] == 0xBB && (unsigned char)p[2] == 0xBF)
+            p += 3;
         if (!cont)
             st = open_stmt(lx);
         cont = lex_line(lx, st, p, end);
@@ -411,42 +446,6 @@ void gs_cur_expected(const gs_cursor *cur, const gs_token *t,
 
 /* ---- did you mean ---- */
 
-static int fold(int ch)
-{
-    return ch >= 'A' && ch <= 'Z' ? ch - 'A' + 'a' : ch;
-}
-
-/* Levenshtein distance of a and b, letter case ignored, computed with one
-   row of the Wagner-Fischer table; gives up (returns limit + 1) when the
-   lengths alone differ by more than limit. */
-static size_t edit_distance(const char *a, const char *b, size_t limit)
-{
-    size_t la = strlen(a), lb = strlen(b), i, j, *row, result;
-    if ((la > lb ? la - lb : lb - la) > limit)
-        return limit + 1;
-    row = gs_malloc((lb + 1) * sizeof *row);
-    for (j = 0; j <= lb; j++)
-        row[j] = j;
-    for (i = 1; i <= la; i++) {
-        size_t diag = row[0];
-        row[0] = i;
-        for (j = 1; j <= lb; j++) {
-            size_t up = row[j];
-            size_t best = diag + (fold((unsigned char)a[i - 1])
-                                  != fold((unsigned char)b[j - 1]));
-            if (up + 1 < best)
-                best = up + 1;
-            if (row[j - 1] + 1 < best)
-                best = row[j - 1] + 1;
-            row[j] = best;
-            diag = up;
-        }
-    }
-    result = row[lb];
-    free(row);
-    return result;
-}
-
 const char *gs_suggest(const char *word, const char *const *cand, size_t n)
 {
     size_t limit = strlen(word) <= 3 ? 1 : 2, best = limit + 1, i;
@@ -455,7 +454,8 @@ const char *gs_suggest(const char *word, const char *const *cand, size_t n)
         size_t dist;
         if (cand[i] == NULL || strcmp(cand[i], word) == 0)
             continue;
-        dist = edit_distance(word, cand[i], limit);
+        /* a swap of neighbours ("otu" for "out") is one edit */
+        dist = (size_t)gs_osa_distance(word, cand[i], (int)limit, 1);
         if (dist < best) {
             best = dist;
             pick = cand[i];

@@ -68,6 +68,10 @@ void gs_lex_init(gs_lexer *lx, const char *file, const char *what,
 void gs_lex_run(gs_lexer *lx);
 void gs_lex_report_bad(const gs_lexer *lx, gs_diag *d, const gs_stmt *st);
 void gs_lex_clear(gs_lexer *lx);
+/* Is text written as a number: digits with an optional fraction, an
+   optional exponent and an optional SI prefix?  A well-formed number the
+   parser still refuses is out of range. */
+int gs_number_is_well_formed(const char *text);
 
 /* 1-based line and column (in characters) of byte offset off; both 0
    for a lexer with `what` set. */

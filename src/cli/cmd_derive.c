@@ -303,16 +303,21 @@ static void print_coeffs(FILE *out, const char *label, const long double *c,
     fputc('\n', out);
 }
 
-static void print_point(FILE *out, const char *label, long double complex h)
+static void print_point(FILE *out, const char *label, long double complex h,
+                        const gs_unit_info *u)
 {
     long double mag = cabsl(h);
     fprintf(out, "  %-12s  %.10Lg", label, creall(h));
     if (cimagl(h) != 0)
         fprintf(out, " %c %.10Lgj", cimagl(h) < 0 ? '-' : '+',
                 fabsl(cimagl(h)));
-    if (mag > 0)
+    if (mag > 0 && u->is_gain)
         fprintf(out, "   |H| %.10Lg = %.4Lf dB   phase %.3Lf deg", mag,
                 20 * log10l(mag), cargl(h) * 180 / acosl(-1));
+    else if (mag > 0)   /* in the output's own unit, dB relative to 1 of it */
+        fprintf(out, "   |H| %.10Lg %s = %.4Lf %s   phase %.3Lf deg", mag,
+                u->unit, 20 * log10l(mag), u->db,
+                cargl(h) * 180 / acosl(-1));
     fputc('\n', out);
 }
 
@@ -325,10 +330,12 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
     long double *cd = gs_job_coeffs(j, &tf->den, &dd);
     size_t k;
     int status = 0;
+    gs_unit_info u;
 
+    gs_job_unit(&u, j, i);
     fprintf(out, "%s\n", tf->name);
     if (dd >= 0 && cd[0] != 0)
-        print_point(out, "DC", (dn >= 0 ? cn[0] : 0) / cd[0]);
+        print_point(out, "DC", (dn >= 0 ? cn[0] : 0) / cd[0], &u);
     else
         fprintf(out, "  %-12s  infinite (pole at s = 0)\n", "DC");
     for (k = 0; k < gs_cli_count(cl, "at") && status == 0; k++) {
@@ -340,7 +347,7 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
             long double complex s = 2 * acosl(-1) * f * I;
             snprintf(label, sizeof label, "at %.6Lg Hz", f);
             print_point(out, label, gs_roots_horner(cn, dn, s)
-                                    / gs_roots_horner(cd, dd, s));
+                                    / gs_roots_horner(cd, dd, s), &u);
         }
     }
     print_coeffs(out, "numerator", cn, dn);

@@ -135,9 +135,14 @@ static void write_bode_csv(FILE *f, const gs_job *j, const gs_sweep *sw)
 {
     size_t i, k;
     fputs("freq_Hz", f);
-    for (i = 0; i < j->ntf; i++)
-        fprintf(f, ",%s_mag_dB,%s_phase_deg,%s_group_delay_s",
-                j->tf[i].name, j->tf[i].name, j->tf[i].name);
+    for (i = 0; i < j->ntf; i++) {
+        /* the magnitude's unit in ASCII: dB, dBohm or dBS */
+        gs_unit_info u;
+        gs_job_unit(&u, j, i);
+        fprintf(f, ",%s_mag_%s,%s_phase_deg,%s_group_delay_s",
+                j->tf[i].name, u.is_gain ? "dB" : strcmp(u.db, "dBS") == 0
+                ? "dBS" : "dBohm", j->tf[i].name, j->tf[i].name);
+    }
     fputc('\n', f);
     for (k = 0; k < sw[0].n; k++) {
         fprintf(f, "%.10Lg", sw[0].freq[k]);
@@ -149,10 +154,19 @@ static void write_bode_csv(FILE *f, const gs_job *j, const gs_sweep *sw)
 }
 
 static void print_bode_summary(FILE *out, const char *name,
-                               const gs_plot_marks *m, int loop)
+                               const gs_plot_marks *m, int loop,
+                               const gs_unit_info *u)
 {
     char b1[48];
     fprintf(out, "%s\n", name);
+    if (!u->is_gain) {
+        /* |Z| = 1 ohm or a fall of 3 dB from DC is no property of an
+           impedance: only gains get those figures */
+        fprintf(out, "  magnitude in %s (re 1 %s); no bandwidth or unity-gain "
+                "figure for %s %s\n", u->db, u->unit,
+                u->word[0] == 'i' ? "an" : "a", u->word);
+        return;
+    }
     fprintf(out, "  -3 dB bandwidth   %s\n", m->has_bw
             ? gs_si_format(b1, sizeof b1, m->bw_hz, 4, "Hz") : "none");
     fprintf(out, "  unity gain        %s\n", m->has_unity
@@ -179,11 +193,20 @@ static int bode_outputs(const gs_job *j, const gs_tfn *h, const gs_cli *cl,
     gs_sweep *sw = gs_calloc(n, sizeof *sw);
     gs_plot_marks *marks = gs_calloc(n, sizeof *marks);
     gs_plot_trace *tr = gs_calloc(n, sizeof *tr);
-    int loop = gs_cli_has(cl, "loop"), status = 0;
+    char **labels = gs_calloc(n, sizeof *labels);
+    int loop = gs_cli_has(cl, "loop"), status = 0, mixed = 0;
     const char *csv = gs_cli_get(cl, "csv", 0);
     const char *svg = gs_cli_get(cl, "svg", 0);
     FILE *fcsv = NULL, *fsvg = NULL;
 
+    /* traces of different units on one axis: each legend entry says its
+       own */
+    for (i = 1; i < n; i++) {
+        gs_unit_info u0, ui;
+        gs_job_unit(&u0, j, 0);
+        gs_job_unit(&ui, j, i);
+        mixed |= strcmp(u0.db, ui.db) != 0;
+    }
     /* open the files first: a refusal costs no work and prints nothing */
     if (csv && (fcsv = open_output(csv, j->c->file, "bode", err)) == NULL)
         status = 2;
@@ -193,14 +216,22 @@ static int bode_outputs(const gs_job *j, const gs_tfn *h, const gs_cli *cl,
     for (i = 0; i < n && status == 0; i++) {
         gs_sweep_init(&sw[i]);
         gs_sweep_log(&sw[i], &h[i], so->from, so->to, so->points);
+        gs_unit_info u;
+        gs_job_unit(&u, j, i);
         gs_plot_marks_fill(&marks[i], &h[i], loop);
-        tr[i].label = j->tf[i].name;
+        if (!u.is_gain)
+            marks[i].has_bw = marks[i].has_unity = marks[i].has_pm
+                = marks[i].has_gm = 0;
+        tr[i].db_unit = u.db;
+        labels[i] = mixed ? gs_asprintf("%s (%s)", j->tf[i].name, u.db)
+                          : gs_strdup(j->tf[i].name);
+        tr[i].label = labels[i];
         tr[i].n = sw[i].n;
         tr[i].x = sw[i].freq;
         tr[i].y = sw[i].mag_db;
         tr[i].y2 = sw[i].phase_deg;
         tr[i].marks = &marks[i];
-        print_bode_summary(out, j->tf[i].name, &marks[i], loop);
+        print_bode_summary(out, j->tf[i].name, &marks[i], loop, &u);
     }
     if (fcsv && status == 0)
         write_bode_csv(fcsv, j, sw);
@@ -218,8 +249,11 @@ static int bode_outputs(const gs_job *j, const gs_tfn *h, const gs_cli *cl,
         status = 2;
     if (!csv && !svg && status == 0)
         write_bode_csv(out, j, sw);
-    for (i = 0; i < n; i++)
+    for (i = 0; i < n; i++) {
         gs_sweep_clear(&sw[i]);
+        free(labels[i]);
+    }
+    free(labels);
     free(sw);
     free(marks);
     free(tr);
@@ -278,10 +312,16 @@ static void print_step_summary(FILE *out, const char *name,
     if (m->has_rise)
         fprintf(out, "  rise time 10-90%%  %s\n",
                 gs_si_format(b, sizeof b, m->rise_time, 4, "s"));
-    if (m->has_overshoot)
-        fprintf(out, "  overshoot         %.4Lg %% (peak %.6Lg at %s)\n",
-                m->overshoot_pct, m->peak_value,
+    /* the peak is of the magnitude |y|, which for an inverting stage is
+       the response's most negative value; without overshoot |y| never
+       passes |final value| and there is no peak to show */
+    if (m->has_overshoot && m->overshoot_pct > 0)
+        fprintf(out, "  overshoot         %.4Lg %% (peak |y| %.6Lg at %s)\n",
+                m->overshoot_pct, fabsl(m->peak_value),
                 gs_si_format(b, sizeof b, m->peak_time, 4, "s"));
+    else if (m->has_overshoot)
+        fputs("  overshoot         0 % (|y| never exceeds its final "
+              "value)\n", out);
     if (m->has_settling)
         fprintf(out, "  settling (1 %%)    %s\n",
                 gs_si_format(b, sizeof b, m->settling_time, 4, "s"));

@@ -338,7 +338,10 @@ char *gs_tf_get_str(const gs_tf *tf, int collect_var)
 {
     char *n = poly_str(tf, &tf->num, collect_var, 0);
     char *d = poly_str(tf, &tf->den, collect_var, 0);
-    char *line = gs_asprintf("%s = (%s)/(%s)", gs_tf_name(tf), n, d);
+    /* a polynomial result (D = 1) reads as N alone: "Rout = ro1 + ro2" */
+    char *line = gs_poly_is_one(&tf->den, tf->ctx)
+                 ? gs_asprintf("%s = %s", gs_tf_name(tf), n)
+                 : gs_asprintf("%s = (%s)/(%s)", gs_tf_name(tf), n, d);
     free(n);
     free(d);
     return line;
@@ -356,8 +359,12 @@ void gs_print_latex(FILE *out, const gs_tf *tf, int collect_var)
     char *name = latex_plain(gs_tf_name(tf));
     char *n = poly_str(tf, &tf->num, collect_var, 1);
     char *d = poly_str(tf, &tf->den, collect_var, 1);
-    fprintf(out, "\\begin{equation}\n%s = \\frac{%s}{%s}\n\\end{equation}\n",
-            name, n, d);
+    if (gs_poly_is_one(&tf->den, tf->ctx))
+        fprintf(out, "\\begin{equation}\n%s = %s\n\\end{equation}\n",
+                name, n);
+    else
+        fprintf(out, "\\begin{equation}\n%s = \\frac{%s}{%s}\n"
+                "\\end{equation}\n", name, n, d);
     free(name);
     free(n);
     free(d);
@@ -446,6 +453,22 @@ void gs_print_pretty(FILE *out, const gs_tf *tf, int collect_var)
     style_clear(&st);
     block_wrap(&bn, &n, width);
     block_wrap(&bd, &d, width);
+    if (gs_poly_is_one(&tf->den, tf->ctx)) {
+        /* no fraction bar over 1: the numerator's lines after the name */
+        for (i = 0; i < bn.nlines; i++) {
+            if (i == 0)
+                fprintf(out, "%s = ", name);
+            else
+                put_spaces(out, indent);
+            fwrite(bn.text + bn.start[i], 1, bn.len[i], out);
+            fputc('\n', out);
+        }
+        block_free(&bn);
+        block_free(&bd);
+        sb_free(&n);
+        sb_free(&d);
+        return;
+    }
     rule = (bn.width > bd.width ? bn.width : bd.width) + 2;
     block_print(out, &bn, indent, rule);
     fprintf(out, "%s = ", name);

@@ -802,7 +802,31 @@ static void bode_body(FILE *out, const panel *mag, const panel *ph,
             bode_marks(out, mag, ph, &p->traces[i], (int)i);
     legend(out, mag, p, ((need & NEED_POLES) ? 1 : 0)
                         | ((need & NEED_ZEROS) ? 2 : 0));
-    y_title(out, mag, "Magnitude (dB)");
+    {
+        /* the units of the traces, each once, in trace order: an
+           impedance drawn with a gain makes "Magnitude (dB, dBΩ)" */
+        char title[128] = "Magnitude (";
+        size_t k, used = strlen(title);
+        for (size_t i = 0; i < p->ntraces; i++) {
+            const char *u = p->traces[i].db_unit ? p->traces[i].db_unit
+                                                 : "dB";
+            for (k = 0; k < i; k++) {
+                const char *v = p->traces[k].db_unit
+                                ? p->traces[k].db_unit : "dB";
+                if (strcmp(u, v) == 0)
+                    break;
+            }
+            if (k < i || used + strlen(u) + 4 >= sizeof title)
+                continue;
+            if (i > 0)
+                used += (size_t)snprintf(title + used, sizeof title - used,
+                                         ", ");
+            used += (size_t)snprintf(title + used, sizeof title - used,
+                                     "%s", u);
+        }
+        snprintf(title + used, sizeof title - used, ")");
+        y_title(out, mag, title);
+    }
     y_title(out, ph, "Phase (\xc2\xb0)");
     text(out, ph->x + ph->w / 2, ph->y + ph->h + 36, "middle", "",
          "Frequency (Hz)");

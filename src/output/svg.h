@@ -51,6 +51,10 @@ typedef struct gs_plot_trace {
     const long double *y2;      /* phase in degrees (Bode only) */
     const gs_plot_marks *marks;         /* Bode; may be NULL */
     const gs_step_metrics *metrics;     /* step; may be NULL */
+    const char *db_unit;        /* Bode: the magnitude's unit, "dB" for a
+                                   gain, "dB\u03a9" for an impedance (UTF-8);
+                                   NULL is "dB".  The magnitude axis is
+                                   titled with the units of its traces */
 } gs_plot_trace;
 
 typedef struct gs_plot {

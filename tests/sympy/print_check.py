@@ -33,8 +33,11 @@ def check(ok, what):
 
 
 def split_text(line):
-    """'NAME = (N)/(D)' -> (NAME, N, D), by matching parentheses."""
+    """'NAME = (N)/(D)' -> (NAME, N, D), by matching parentheses; a
+    polynomial result 'NAME = N' gives D = '1'."""
     name, rhs = line.split(" = ", 1)
+    if not rhs.startswith("("):
+        return name, rhs, "1"
     depth = 0
     for i, ch in enumerate(rhs):
         depth += ch == "("
@@ -43,7 +46,9 @@ def split_text(line):
             break
     num = rhs[1:i]
     rest = rhs[i + 1:]
-    if not (rest.startswith("/(") and rest.endswith(")")):
+    if not rest.startswith("/("):
+        return name, rhs, "1"
+    if not rest.endswith(")"):
         raise ValueError("not (N)/(D): " + line)
     return name, num, rest[2:-1]
 

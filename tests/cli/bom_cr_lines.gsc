@@ -1,0 +1,1 @@
+﻿title "t"vsource vin in gndresistor R1 in outresistor R2 out gndtransfer Av = v(out) / vin
