@@ -21,6 +21,14 @@
 extern "C" {
 #endif
 
+/* Marks the calls of this interface: the shared library is built with
+   every other symbol hidden, so that only these are its ABI. */
+#if defined(__GNUC__) || defined(__clang__)
+#define GS_API __attribute__((visibility("default")))
+#else
+#define GS_API
+#endif
+
 /* The version of this header; gs_version() is the library's, which
    differs from it only when a program runs against another build of the
    shared library than the one it was compiled with. */
@@ -33,7 +41,7 @@ extern "C" {
     (GS_VERSION_MAJOR * 10000 + GS_VERSION_MINOR * 100 + GS_VERSION_PATCH)
 
 /* "0.1.0": the version of the library linked in; static storage. */
-const char *gs_version(void);
+GS_API const char *gs_version(void);
 
 /* Status codes.  Every function that reads user input or can fail for a
    reason other than memory exhaustion returns one of these. */
@@ -51,7 +59,7 @@ enum {
 };
 
 /* A short English phrase for a status code ("syntax error"); never NULL. */
-const char *gs_strerror(int code);
+GS_API const char *gs_strerror(int code);
 
 /* --- Deriving transfer functions ------------------------------------
  *
@@ -113,7 +121,7 @@ typedef struct gs_options {
 
 /* o = the defaults: only NULL, max_terms 0, GS_METHOD_AUTO, no limits.
    NULL is ignored. */
-void gs_options_init(gs_options *o);
+GS_API void gs_options_init(gs_options *o);
 
 /* Parse the circuit file at path ("-" is standard input) and derive every
  * transfer and impedance it asks for, or only the one named `only` (NULL
@@ -123,32 +131,33 @@ void gs_options_init(gs_options *o);
  * there were none.  Returns GS_OK, GS_ESYNTAX or GS_EINVAL (bad input),
  * GS_EIO, GS_ESINGULAR or GS_EBUDGET; *out is NULL on failure.  The same
  * as gs_derive_file_opts with the default options and `only`. */
-int gs_derive_file(gs_result **out, const char *path, const char *only,
-                   char **messages);
+GS_API int gs_derive_file(gs_result **out, const char *path,
+                          const char *only, char **messages);
 
 /* The same with options (NULL: the defaults).  A limit on a symbol the
    circuit does not have is GS_EINVAL; a limit that is infinite is
    GS_ERANGE; a budget exceeded is GS_EBUDGET.  out NULL or path NULL is
    GS_EINVAL. */
-int gs_derive_file_opts(gs_result **out, const char *path,
-                        const gs_options *opts, char **messages);
+GS_API int gs_derive_file_opts(gs_result **out, const char *path,
+                               const gs_options *opts, char **messages);
 
 /* The same for a circuit held in a string; name (NULL: "<string>") is
    the file name the messages give. */
-int gs_derive_string(gs_result **out, const char *text, const char *name,
-                     const gs_options *opts, char **messages);
+GS_API int gs_derive_string(gs_result **out, const char *text,
+                            const char *name, const gs_options *opts,
+                            char **messages);
 
 /* Number of outputs derived; 0 for NULL. */
-size_t gs_result_count(const gs_result *r);
+GS_API size_t gs_result_count(const gs_result *r);
 /* The output's name ("Av"); owned by r; NULL when r is NULL or i is out
    of range. */
-const char *gs_result_name(const gs_result *r, size_t i);
+GS_API const char *gs_result_name(const gs_result *r, size_t i);
 /* "Av = (N)/(D)" grouped by powers of s, as `gainsmith derive` prints
    it (docs/output.md); a new string; NULL on a bad argument. */
-char *gs_result_text(const gs_result *r, size_t i);
+GS_API char *gs_result_text(const gs_result *r, size_t i);
 /* One JSON object (docs/json.md); a new string; NULL on a bad argument. */
-char *gs_result_json(const gs_result *r, size_t i);
-void gs_result_free(gs_result *r);
+GS_API char *gs_result_json(const gs_result *r, size_t i);
+GS_API void gs_result_free(gs_result *r);
 
 /* --- The result as data ---------------------------------------------
  *
@@ -187,7 +196,8 @@ enum { GS_NUMERATOR = 0, GS_DENOMINATOR = 1 };
 
 /* N (part GS_NUMERATOR) or D (GS_DENOMINATOR) of output i; owned by r.
    NULL when r is NULL, i out of range or part neither. */
-const gs_polynomial *gs_result_poly(const gs_result *r, size_t i, int part);
+GS_API const gs_polynomial *gs_result_poly(const gs_result *r, size_t i,
+                                          int part);
 
 /* --- Numbers ---------------------------------------------------------
  *
@@ -201,9 +211,10 @@ const gs_polynomial *gs_result_poly(const gs_result *r, size_t i, int part);
  * not have; GS_EUNBOUND (with the missing symbols named) when a symbol
  * of H has no number; GS_EDIVZERO when D is zero there.  Computed in
  * long double from the exact N and D; r is not changed. */
-int gs_result_eval(double *re, double *im, const gs_result *r, size_t i,
-                   double s_re, double s_im, const char *const *names,
-                   const double *values, size_t nbind, char **messages);
+GS_API int gs_result_eval(double *re, double *im, const gs_result *r,
+                          size_t i, double s_re, double s_im,
+                          const char *const *names, const double *values,
+                          size_t nbind, char **messages);
 
 #ifdef __cplusplus
 }
