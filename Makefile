@@ -75,6 +75,13 @@ $(BUILD)/bench/%: tests/bench/%.c $(LIB)
 	@mkdir -p $(dir $@)
 	$(CC) $(CPPFLAGS_ALL) -Itests $(CFLAGS_ALL) -MMD -MP -o $@ $< $(LIB) $(LDLIBS_ALL)
 
+# several threads deriving at once (tests/thread), for check-thread
+THREAD_BIN := $(BUILD)/tests/thread_derive
+$(THREAD_BIN): tests/thread/thread_derive.c tests/check.h $(LIB)
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS_ALL) -Itests $(CFLAGS_ALL) -pthread -MMD -MP -o $@ $< \
+	    $(LIB) $(LDLIBS_ALL)
+
 tests: $(TEST_BIN) $(TOOL_BIN) $(BIN) $(SHLIB)
 
 # make check            every unit test, the command-line goldens, and the
@@ -87,6 +94,15 @@ check-sanitize:
 	$(MAKE) BUILD=build/san OPT="-O1 -g" \
 	    SANFLAGS="-fsanitize=address,undefined -fno-omit-frame-pointer -fno-sanitize-recover=all" \
 	    check
+
+# make check-thread     the library under ThreadSanitizer: several threads
+#                       derive at once, several read one result at once
+check-thread:
+	$(MAKE) BUILD=build/tsan OPT="-O1 -g" \
+	    SANFLAGS="-fsanitize=thread -fno-omit-frame-pointer" \
+	    build/tsan/tests/thread_derive
+	TSAN_OPTIONS="halt_on_error=1 second_deadlock_stack=1" \
+	    build/tsan/tests/thread_derive
 
 bench: $(BENCH_BIN) $(BIN)
 	@sh tests/bench/run_bench.sh $(BUILD)
@@ -124,4 +140,4 @@ install: all
 clean:
 	rm -rf build
 
--include $(LIB_OBJ:.o=.d) $(PIC_OBJ:.o=.d) $(CLI_OBJ:.o=.d) $(TEST_BIN:=.d) $(TOOL_BIN:=.d) $(BENCH_BIN:=.d)
+-include $(LIB_OBJ:.o=.d) $(PIC_OBJ:.o=.d) $(CLI_OBJ:.o=.d) $(TEST_BIN:=.d) $(THREAD_BIN:=.d) $(TOOL_BIN:=.d) $(BENCH_BIN:=.d)
