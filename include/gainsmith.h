@@ -8,8 +8,9 @@
  *
  * Thread safety: the library is reentrant and keeps no global state;
  * any number of threads may derive at the same time, each with its own
- * results, and a gs_result, once made, is only read, so several threads
- * may query and evaluate the same one at once (`make check-thread` runs
+ * results, and several threads may call the functions that take a
+ * const gs_result * on the same result at once; only gs_result_free
+ * must wait until no other thread uses it (`make check-thread` runs
  * both under ThreadSanitizer).
  */
 #ifndef GAINSMITH_H

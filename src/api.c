@@ -1,15 +1,19 @@
 /* api.c - the public interface of include/gainsmith.h. See LICENSE.
  *
- * A gs_result is a gs_job after derivation plus, made once at the end
- * of the derivation, everything the accessors hand out: the structural
- * views of N and D and the numbers of the circuit's value lines.  After
- * that nothing in it changes, which is what lets several threads read
- * one result at once.
+ * A gs_result is a gs_job after derivation plus what the accessors hand
+ * out: the numbers of the circuit's value lines, bound once at the end of
+ * the derivation, and the structural views of N and D, each made on its
+ * first request (for a large result about 60 % of the derivation's time:
+ * tests/bench/bench_api.c).  A view is published with one atomic
+ * compare-and-swap: a thread that loses the race frees its own copy and
+ * takes the winner's, so several threads may read one result at once
+ * without a lock, and what a caller was given never changes.
  */
 #include "gainsmith.h"
 #include "analysis/job.h"
 #include "base/mem.h"
 
+#include <stdatomic.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -28,7 +32,7 @@ typedef struct view {
 
 struct gs_result {
     gs_job job;
-    view *views;            /* 2 per output: N, D */
+    _Atomic(view *) *views; /* 2 per output: N, D; NULL until asked for */
     int bind_rc;            /* how binding the file's numbers went */
     char *bind_messages;    /* its messages when bind_rc is not GS_OK */
 };
@@ -201,10 +205,8 @@ static void finish_result(gs_result *r)
     size_t i;
     gs_diag d;
     r->views = gs_calloc(2 * r->job.ntf, sizeof *r->views);
-    for (i = 0; i < r->job.ntf; i++) {
-        view_make(&r->views[2 * i], &r->job.tf[i].num, &r->job);
-        view_make(&r->views[2 * i + 1], &r->job.tf[i].den, &r->job);
-    }
+    for (i = 0; i < 2 * r->job.ntf; i++)
+        atomic_init(&r->views[i], NULL);
     /* The file's numbers; a symbol without one is reported by
        gs_result_eval only if the output evaluated uses it. */
     gs_diag_init(&d);
@@ -329,9 +331,23 @@ char *gs_result_json(const gs_result *r, size_t i)
 
 const gs_polynomial *gs_result_poly(const gs_result *r, size_t i, int part)
 {
+    _Atomic(view *) *slot;
+    view *v, *expected = NULL;
     if (!in_range(r, i) || (part != GS_NUMERATOR && part != GS_DENOMINATOR))
         return NULL;
-    return &r->views[2 * i + (size_t)part].poly;
+    slot = &r->views[2 * i + (size_t)part];
+    v = atomic_load(slot);
+    if (v != NULL)
+        return &v->poly;
+    v = gs_malloc(sizeof *v);
+    view_make(v, part == GS_NUMERATOR ? &r->job.tf[i].num
+                                      : &r->job.tf[i].den, &r->job);
+    if (!atomic_compare_exchange_strong(slot, &expected, v)) {
+        view_clear(v);          /* another thread was first */
+        free(v);
+        v = expected;
+    }
+    return &v->poly;
 }
 
 /* Symbols of output i other than s without a number in set[]: one error
@@ -467,9 +483,14 @@ void gs_result_free(gs_result *r)
     if (r == NULL)
         return;
     if (r->views)
-        for (i = 0; i < 2 * r->job.ntf; i++)
-            view_clear(&r->views[i]);
-    free(r->views);
+        for (i = 0; i < 2 * r->job.ntf; i++) {
+            view *v = atomic_load(&r->views[i]);
+            if (v) {
+                view_clear(v);
+                free(v);
+            }
+        }
+    free((void *)r->views);
     free(r->bind_messages);
     gs_job_clear(&r->job);
     free(r);
