@@ -200,6 +200,13 @@ enum { GS_NUMERATOR = 0, GS_DENOMINATOR = 1 };
 GS_API const gs_polynomial *gs_result_poly(const gs_result *r, size_t i,
                                           int part);
 
+/* The symbols of output i other than s, in the canonical order of
+   docs/output.md: how many (0 on a bad argument), and the k-th name,
+   owned by r (NULL when r is NULL or i or k is out of range). */
+GS_API size_t gs_result_nsymbols(const gs_result *r, size_t i);
+GS_API const char *gs_result_symbol(const gs_result *r, size_t i,
+                                    size_t k);
+
 /* --- Numbers ---------------------------------------------------------
  *
  * H(s) of output i at the complex s = s_re + j s_im, with the circuit's
@@ -212,6 +219,12 @@ GS_API const gs_polynomial *gs_result_poly(const gs_result *r, size_t i,
  * not have; GS_EUNBOUND (with the missing symbols named) when a symbol
  * of H has no number; GS_EDIVZERO when D is zero there.  Computed in
  * long double from the exact N and D; r is not changed. */
+/* The number the circuit's value or bias lines give symbol: GS_OK;
+   GS_EUNBOUND when they give it none; GS_EINVAL for a NULL pointer or a
+   symbol the circuit does not have. */
+GS_API int gs_result_value(double *value, const gs_result *r,
+                           const char *symbol);
+
 GS_API int gs_result_eval(double *re, double *im, const gs_result *r,
                           size_t i, double s_re, double s_im,
                           const char *const *names, const double *values,

@@ -33,6 +33,8 @@ typedef struct view {
 struct gs_result {
     gs_job job;
     _Atomic(view *) *views; /* 2 per output: N, D; NULL until asked for */
+    int **syms;             /* per output: its symbols other than s */
+    size_t *nsyms;
     int bind_rc;            /* how binding the file's numbers went */
     char *bind_messages;    /* its messages when bind_rc is not GS_OK */
 };
@@ -199,11 +201,32 @@ static int engine_opts(gs_derive_opts *o, gs_limit **limits,
     return GS_OK;
 }
 
-/* Everything the accessors read, made once so that they only read. */
+/* The symbols of output i other than s, in symbol order. */
+static void find_symbols(gs_result *r, size_t i)
+{
+    const gs_job *j = &r->job;
+    int nv = j->ctx->nvars, v;
+    unsigned char *used = gs_calloc((size_t)nv, 1);
+    unsigned char *tmp = gs_calloc((size_t)nv, 1);
+    gs_poly_used_vars(used, &j->tf[i].num, j->ctx);
+    gs_poly_used_vars(tmp, &j->tf[i].den, j->ctx);
+    r->syms[i] = gs_calloc((size_t)nv, sizeof **r->syms);
+    for (v = 0; v < nv; v++)
+        if ((used[v] | tmp[v]) && v != j->c->s_sym)
+            r->syms[i][r->nsyms[i]++] = v;
+    free(tmp);
+    free(used);
+}
+
+/* What the accessors read, made once at the end of the derivation. */
 static void finish_result(gs_result *r)
 {
     size_t i;
     gs_diag d;
+    r->syms = gs_calloc(r->job.ntf, sizeof *r->syms);
+    r->nsyms = gs_calloc(r->job.ntf, sizeof *r->nsyms);
+    for (i = 0; i < r->job.ntf; i++)
+        find_symbols(r, i);
     r->views = gs_calloc(2 * r->job.ntf, sizeof *r->views);
     for (i = 0; i < 2 * r->job.ntf; i++)
         atomic_init(&r->views[i], NULL);
@@ -350,21 +373,44 @@ const gs_polynomial *gs_result_poly(const gs_result *r, size_t i, int part)
     return &v->poly;
 }
 
+size_t gs_result_nsymbols(const gs_result *r, size_t i)
+{
+    return in_range(r, i) ? r->nsyms[i] : 0;
+}
+
+const char *gs_result_symbol(const gs_result *r, size_t i, size_t k)
+{
+    if (!in_range(r, i) || k >= r->nsyms[i])
+        return NULL;
+    return gs_symtab_name(r->job.c->syms, r->syms[i][k]);
+}
+
+int gs_result_value(double *value, const gs_result *r, const char *symbol)
+{
+    int sym;
+    if (value == NULL || r == NULL || symbol == NULL)
+        return GS_EINVAL;
+    sym = gs_symtab_find(r->job.c->syms, symbol);
+    if (sym < 0 || sym == r->job.c->s_sym
+        || gs_symtab_is_recip(r->job.c->syms, sym))
+        return GS_EINVAL;
+    if (r->job.set == NULL || !r->job.set[sym])
+        return GS_EUNBOUND;
+    *value = (double)r->job.vals[sym];
+    return GS_OK;
+}
+
 /* Symbols of output i other than s without a number in set[]: one error
    naming them all.  GS_OK or GS_EUNBOUND. */
 static int check_unbound(const gs_result *r, size_t i,
                          const unsigned char *set, gs_diag *d)
 {
     const gs_job *j = &r->job;
-    int nv = j->ctx->nvars, v;
-    unsigned char *used = gs_calloc((size_t)nv, 1);
-    unsigned char *tmp = gs_calloc((size_t)nv, 1);
-    size_t nmissing = 0;
+    size_t nmissing = 0, k;
     char *list = gs_strdup(""), *next;
-    gs_poly_used_vars(used, &j->tf[i].num, j->ctx);
-    gs_poly_used_vars(tmp, &j->tf[i].den, j->ctx);
-    for (v = 0; v < nv; v++) {
-        if (!(used[v] | tmp[v]) || v == j->c->s_sym || set[v])
+    for (k = 0; k < r->nsyms[i]; k++) {
+        int v = r->syms[i][k];
+        if (set[v])
             continue;
         next = gs_asprintf("%s%s%s", list, nmissing ? ", " : "",
                            gs_symtab_name(j->c->syms, v));
@@ -379,8 +425,6 @@ static int check_unbound(const gs_result *r, size_t i,
                     "no value for %s %s", nmissing > 1 ? "symbols" : "symbol",
                     list);
     free(list);
-    free(tmp);
-    free(used);
     return nmissing ? GS_EUNBOUND : GS_OK;
 }
 
@@ -491,6 +535,11 @@ void gs_result_free(gs_result *r)
             }
         }
     free((void *)r->views);
+    if (r->syms)
+        for (i = 0; i < r->job.ntf; i++)
+            free(r->syms[i]);
+    free(r->syms);
+    free(r->nsyms);
     free(r->bind_messages);
     gs_job_clear(&r->job);
     free(r);

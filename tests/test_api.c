@@ -196,6 +196,38 @@ static void test_eval(void)
     gs_result_free(r);
 }
 
+static void test_symbols(void)
+{
+    gs_result *r = NULL;
+    double v = 0;
+    int rc = gs_derive_file(&r, "examples/sallen_key.gsc", NULL, NULL);
+    CHECK(rc == GS_OK);
+    /* H = 1/(R1 R2 C1 C2 s^2 + ...): four symbols besides s, in the
+       order the text printer uses */
+    CHECK(gs_result_nsymbols(r, 0) == 4);
+    CHECK(gs_result_symbol(r, 0, 0) && strcmp(gs_result_symbol(r, 0, 0),
+                                              "R1") == 0);
+    CHECK(gs_result_symbol(r, 0, 3) && strcmp(gs_result_symbol(r, 0, 3),
+                                              "C2") == 0);
+    CHECK(gs_result_symbol(r, 0, 4) == NULL);
+    CHECK(gs_result_symbol(r, 1, 0) == NULL && gs_result_nsymbols(r, 1) == 0);
+    CHECK(gs_result_nsymbols(NULL, 0) == 0);
+    /* the file's value line: C1 = 2.2n */
+    CHECK(gs_result_value(&v, r, "C1") == GS_OK && v == 2.2e-9);
+    CHECK(gs_result_value(&v, r, "Q9") == GS_EINVAL);
+    CHECK(gs_result_value(&v, r, "s") == GS_EINVAL);
+    CHECK(gs_result_value(NULL, r, "C1") == GS_EINVAL);
+    CHECK(gs_result_value(&v, NULL, "C1") == GS_EINVAL);
+    CHECK(gs_result_value(&v, r, NULL) == GS_EINVAL);
+    gs_result_free(r);
+    rc = gs_derive_string(&r, "vsource v a gnd\nresistor R a b\n"
+                              "resistor R2 b gnd\ntransfer H = v(b) / v\n",
+                          NULL, NULL, NULL);
+    CHECK(rc == GS_OK);
+    CHECK(gs_result_value(&v, r, "R") == GS_EUNBOUND);
+    gs_result_free(r);
+}
+
 static void test_eval_unbound(void)
 {
     static const char text[] =
@@ -316,6 +348,7 @@ int main(void)
     test_structure_sallen_key();
     test_eval();
     test_eval_unbound();
+    test_symbols();
     test_options();
     test_null_arguments();
     test_string_errors();
