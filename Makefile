@@ -24,18 +24,37 @@ TOOL_BIN := $(TOOL_SRC:tests/%.c=$(BUILD)/tests/%)
 BENCH_SRC := $(sort $(wildcard tests/bench/bench_*.c))
 BENCH_BIN := $(BENCH_SRC:tests/bench/%.c=$(BUILD)/bench/%)
 LIB      := $(BUILD)/libgainsmith.a
+# The shared library: position-independent objects of their own, every
+# symbol but the GS_API calls of include/gainsmith.h hidden.  The soname
+# carries the major version; the file name the whole version.
+VERSION  := $(shell sed -n 's/^\#define GS_VERSION "\(.*\)"/\1/p' include/gainsmith.h)
+SOMAJOR  := $(firstword $(subst ., ,$(VERSION)))
+SONAME   := libgainsmith.so.$(SOMAJOR)
+SHLIB    := $(BUILD)/libgainsmith.so.$(VERSION)
+PIC_OBJ  := $(LIB_SRC:src/%.c=$(BUILD)/pic/%.o)
 # the command's own modules, for the tests of its option parser and
 # extract; never installed
 CLI_LIB  := $(BUILD)/libgainsmith_cli.a
 BIN      := $(BUILD)/gainsmith
 
-.PHONY: all check check-sanitize bench demo install clean tests fuzz fuzz-run
+.PHONY: all check check-sanitize check-thread bench demo install clean \
+        tests fuzz fuzz-run
 
-all: $(LIB) $(BIN)
+all: $(LIB) $(SHLIB) $(BIN)
 
 $(BUILD)/obj/%.o: src/%.c
 	@mkdir -p $(dir $@)
 	$(CC) $(CPPFLAGS_ALL) $(CFLAGS_ALL) -MMD -MP -c -o $@ $<
+
+$(BUILD)/pic/%.o: src/%.c
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS_ALL) $(CFLAGS_ALL) -fPIC -fvisibility=hidden -MMD -MP \
+	    -c -o $@ $<
+
+$(SHLIB): $(PIC_OBJ)
+	$(CC) $(CFLAGS_ALL) -shared -Wl,-soname,$(SONAME) -o $@ $^ $(LDLIBS_ALL)
+	ln -sf $(notdir $(SHLIB)) $(BUILD)/$(SONAME)
+	ln -sf $(SONAME) $(BUILD)/libgainsmith.so
 
 $(LIB): $(LIB_OBJ)
 	@rm -f $@
@@ -56,7 +75,14 @@ $(BUILD)/bench/%: tests/bench/%.c $(LIB)
 	@mkdir -p $(dir $@)
 	$(CC) $(CPPFLAGS_ALL) -Itests $(CFLAGS_ALL) -MMD -MP -o $@ $< $(LIB) $(LDLIBS_ALL)
 
-tests: $(TEST_BIN) $(TOOL_BIN) $(BIN)
+# several threads deriving at once (tests/thread), for check-thread
+THREAD_BIN := $(BUILD)/tests/thread_derive
+$(THREAD_BIN): tests/thread/thread_derive.c tests/check.h $(LIB)
+	@mkdir -p $(dir $@)
+	$(CC) $(CPPFLAGS_ALL) -Itests $(CFLAGS_ALL) -pthread -MMD -MP -o $@ $< \
+	    $(LIB) $(LDLIBS_ALL)
+
+tests: $(TEST_BIN) $(TOOL_BIN) $(BIN) $(SHLIB)
 
 # make check            every unit test, the command-line goldens, and the
 #                       sympy cross-checks (skipped, loudly, without sympy)
@@ -68,6 +94,15 @@ check-sanitize:
 	$(MAKE) BUILD=build/san OPT="-O1 -g" \
 	    SANFLAGS="-fsanitize=address,undefined -fno-omit-frame-pointer -fno-sanitize-recover=all" \
 	    check
+
+# make check-thread     the library under ThreadSanitizer: several threads
+#                       derive at once, several read one result at once
+check-thread:
+	$(MAKE) BUILD=build/tsan OPT="-O1 -g" \
+	    SANFLAGS="-fsanitize=thread -fno-omit-frame-pointer" \
+	    build/tsan/tests/thread_derive
+	TSAN_OPTIONS="halt_on_error=1 second_deadlock_stack=1" \
+	    build/tsan/tests/thread_derive
 
 bench: $(BENCH_BIN) $(BIN)
 	@sh tests/bench/run_bench.sh $(BUILD)
@@ -95,16 +130,34 @@ fuzz-run: fuzz
 demo: $(BIN)
 	@sh examples/demo.sh $(BIN)
 
+# make install [PREFIX=/usr/local] [DESTDIR=...]: the command, both
+# libraries, the header, the pkg-config file, the man pages and the bash
+# completion.
+LIBDIR  ?= $(PREFIX)/lib
+MANDIR  ?= $(PREFIX)/share/man
+BASHCOMPDIR ?= $(PREFIX)/share/bash-completion/completions
+MAN1    := $(wildcard man/*.1)
+MAN5    := $(wildcard man/*.5)
+
 install: all
-	mkdir -p $(DESTDIR)$(PREFIX)/bin $(DESTDIR)$(PREFIX)/lib/pkgconfig \
-	    $(DESTDIR)$(PREFIX)/include
+	mkdir -p $(DESTDIR)$(PREFIX)/bin $(DESTDIR)$(LIBDIR)/pkgconfig \
+	    $(DESTDIR)$(PREFIX)/include $(DESTDIR)$(MANDIR)/man1 \
+	    $(DESTDIR)$(MANDIR)/man5 $(DESTDIR)$(BASHCOMPDIR)
 	cp $(BIN) $(DESTDIR)$(PREFIX)/bin/gainsmith
-	cp $(LIB) $(DESTDIR)$(PREFIX)/lib/libgainsmith.a
+	cp $(LIB) $(DESTDIR)$(LIBDIR)/libgainsmith.a
+	cp $(SHLIB) $(DESTDIR)$(LIBDIR)/
+	ln -sf $(notdir $(SHLIB)) $(DESTDIR)$(LIBDIR)/$(SONAME)
+	ln -sf $(SONAME) $(DESTDIR)$(LIBDIR)/libgainsmith.so
 	cp include/gainsmith.h $(DESTDIR)$(PREFIX)/include/gainsmith.h
-	sed -e 's|@PREFIX@|$(PREFIX)|g' -e 's|@VERSION@|'"$$(sed -n 's/^#define GS_VERSION "\(.*\)"/\1/p' include/gainsmith.h)"'|' \
-	    gainsmith.pc.in > $(DESTDIR)$(PREFIX)/lib/pkgconfig/gainsmith.pc
+	sed -e 's|@PREFIX@|$(PREFIX)|g' -e 's|@LIBDIR@|$(LIBDIR)|g' \
+	    -e 's|@VERSION@|$(VERSION)|g' \
+	    gainsmith.pc.in > $(DESTDIR)$(LIBDIR)/pkgconfig/gainsmith.pc
+	$(if $(MAN1),cp $(MAN1) $(DESTDIR)$(MANDIR)/man1/)
+	$(if $(MAN5),cp $(MAN5) $(DESTDIR)$(MANDIR)/man5/)
+	$(if $(wildcard completion/gainsmith.bash),cp completion/gainsmith.bash \
+	    $(DESTDIR)$(BASHCOMPDIR)/gainsmith)
 
 clean:
 	rm -rf build
 
--include $(LIB_OBJ:.o=.d) $(CLI_OBJ:.o=.d) $(TEST_BIN:=.d) $(TOOL_BIN:=.d) $(BENCH_BIN:=.d)
+-include $(LIB_OBJ:.o=.d) $(PIC_OBJ:.o=.d) $(CLI_OBJ:.o=.d) $(TEST_BIN:=.d) $(THREAD_BIN:=.d) $(TOOL_BIN:=.d) $(BENCH_BIN:=.d)

@@ -1,14 +1,60 @@
-/* api.c - the public interface of include/gainsmith.h. See LICENSE. */
+/* api.c - the public interface of include/gainsmith.h. See LICENSE.
+ *
+ * A gs_result is a gs_job after derivation plus what the accessors hand
+ * out: the numbers of the circuit's value lines, bound once at the end of
+ * the derivation, and the structural views of N and D, each made on its
+ * first request (for a large result about 60 % of the derivation's time:
+ * tests/bench/bench_api.c).  A view is published with one atomic
+ * compare-and-swap: a thread that loses the race frees its own copy and
+ * takes the winner's, so several threads may read one result at once
+ * without a lock, and what a caller was given never changes.
+ */
 #include "gainsmith.h"
 #include "analysis/job.h"
 #include "base/mem.h"
 
+#include <stdatomic.h>
 #include <stdio.h>
 #include <stdlib.h>
+#include <string.h>
+
+/* N or D of one output, grouped by powers of s, with the storage its
+   const pointers point into. */
+typedef struct view {
+    gs_polynomial poly;
+    gs_coeff *coeffs;
+    gs_term *terms;
+    const char **syms;      /* all terms' symbol names, one block */
+    unsigned *exps;         /* all terms' exponents, one block */
+    char **nums;            /* per term, the coefficient's digits */
+    size_t nterms;
+} view;
 
 struct gs_result {
     gs_job job;
+    _Atomic(view *) *views; /* 2 per output: N, D; NULL until asked for */
+    int **syms;             /* per output: its symbols other than s */
+    size_t *nsyms;
+    int bind_rc;            /* how binding the file's numbers went */
+    char *bind_messages;    /* its messages when bind_rc is not GS_OK */
 };
+
+static const char one[] = "1";
+
+const char *gs_version(void)
+{
+    return GS_VERSION;
+}
+
+void gs_options_init(gs_options *o)
+{
+    if (o == NULL)
+        return;
+    memset(o, 0, sizeof *o);
+    o->only = NULL;
+    o->limits = NULL;
+    o->method = GS_METHOD_AUTO;
+}
 
 /* Diagnostics as one string, or NULL when there are none. */
 static char *diag_text(const gs_diag *d)
@@ -26,29 +72,252 @@ static char *diag_text(const gs_diag *d)
     return buf;
 }
 
-int gs_derive_file(gs_result **out, const char *path, const char *only,
-                   char **messages)
+static void view_clear(view *v)
 {
-    gs_result *r = gs_calloc(1, sizeof *r);
+    size_t k;
+    for (k = 0; k < v->nterms; k++)
+        free(v->nums[k]);
+    free(v->nums);
+    free(v->syms);
+    free(v->exps);
+    free(v->terms);
+    free(v->coeffs);
+}
+
+/* v = p grouped by powers of s: the terms of each power keep the
+   canonical order, and each term's symbols are those of nonzero
+   exponent other than s, in symbol order. */
+static void view_make(view *v, const gs_poly *p, const gs_job *j)
+{
+    const gs_polyctx *ctx = j->ctx;
+    int s = j->c->s_sym, nv = ctx->nvars, x;
+    long deg = gs_poly_degree(p, s, ctx), pw;
+    size_t n = p->length, k, nf = 0, *count, *start, nc = 0;
+    unsigned *e = gs_calloc((size_t)nv, sizeof *e);
+    memset(v, 0, sizeof *v);
+    v->nterms = n;
+    v->poly.degree = deg;
+    count = gs_calloc((size_t)(deg + 1 > 0 ? deg + 1 : 1), sizeof *count);
+    start = gs_calloc((size_t)(deg + 2 > 0 ? deg + 2 : 1), sizeof *start);
+    for (k = 0; k < n; k++) {
+        gs_poly_get_term_exps(e, p, k, ctx);
+        count[e[s]]++;
+        for (x = 0; x < nv; x++)
+            nf += x != s && e[x] != 0;
+    }
+    for (pw = 0; pw <= deg; pw++) {
+        start[pw + 1] = start[pw] + count[pw];
+        nc += count[pw] != 0;
+    }
+    v->coeffs = gs_calloc(nc, sizeof *v->coeffs);
+    v->terms = gs_calloc(n, sizeof *v->terms);
+    v->syms = gs_calloc(nf, sizeof *v->syms);
+    v->exps = gs_calloc(nf, sizeof *v->exps);
+    v->nums = gs_calloc(n, sizeof *v->nums);
+    nc = 0;
+    for (pw = 0; pw <= deg; pw++) {
+        if (count[pw] == 0)
+            continue;
+        v->coeffs[nc].power = (unsigned)pw;
+        v->coeffs[nc].nterms = count[pw];
+        v->coeffs[nc].terms = v->terms + start[pw];
+        nc++;
+    }
+    nf = 0;
+    for (k = 0; k < n; k++) {
+        gs_term *t;
+        gs_poly_get_term_exps(e, p, k, ctx);
+        t = &v->terms[start[e[s]]++];
+        v->nums[k] = gs_int_get_str(&p->coeffs[k]);
+        t->num = v->nums[k];
+        t->den = one;
+        t->symbols = v->syms + nf;
+        t->exps = v->exps + nf;
+        for (x = 0; x < nv; x++) {
+            if (x == s || e[x] == 0)
+                continue;
+            v->syms[nf] = gs_symtab_name(j->c->syms, x);
+            v->exps[nf++] = e[x];
+            t->nfactors++;
+        }
+    }
+    v->poly.ncoeffs = nc;
+    v->poly.coeffs = v->coeffs;
+    free(start);
+    free(count);
+    free(e);
+}
+
+/* The options in the engine's terms; the limits' symbols looked up. */
+static int engine_opts(gs_derive_opts *o, gs_limit **limits,
+                       const gs_options *opts, const gs_job *j, gs_diag *d)
+{
+    size_t i;
+    gs_derive_opts_default(o);
+    *limits = NULL;
+    if (opts == NULL)
+        return GS_OK;
+    o->elim.max_terms = opts->max_terms;
+    switch (opts->method) {
+    case GS_METHOD_AUTO:
+        o->method = GS_DET_AUTO;
+        break;
+    case GS_METHOD_MINORS:
+        o->method = GS_DET_MINORS;
+        break;
+    case GS_METHOD_BAREISS:
+        o->method = GS_DET_BAREISS;
+        break;
+    default:
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                    "use GS_METHOD_AUTO, GS_METHOD_MINORS or "
+                    "GS_METHOD_BAREISS", "options: no method %d",
+                    (int)opts->method);
+        return GS_EINVAL;
+    }
+    if (opts->nlimits == 0)
+        return GS_OK;
+    if (opts->limits == NULL) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                    "options: nlimits is %zu but limits is NULL",
+                    opts->nlimits);
+        return GS_EINVAL;
+    }
+    *limits = gs_calloc(opts->nlimits, sizeof **limits);
+    for (i = 0; i < opts->nlimits; i++) {
+        const char *name = opts->limits[i].symbol;
+        int sym = name ? gs_symtab_find(j->c->syms, name) : -1;
+        if (sym < 0 || gs_symtab_is_recip(j->c->syms, sym)) {
+            gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                        "limit: the circuit has no symbol '%s'",
+                        name ? name : "(null)");
+            return GS_EINVAL;
+        }
+        (*limits)[i].sym = sym;
+        (*limits)[i].to_inf = opts->limits[i].to_infinity != 0;
+    }
+    o->limits = *limits;
+    o->nlimits = opts->nlimits;
+    return GS_OK;
+}
+
+/* The symbols of output i other than s, in symbol order. */
+static void find_symbols(gs_result *r, size_t i)
+{
+    const gs_job *j = &r->job;
+    int nv = j->ctx->nvars, v;
+    unsigned char *used = gs_calloc((size_t)nv, 1);
+    unsigned char *tmp = gs_calloc((size_t)nv, 1);
+    gs_poly_used_vars(used, &j->tf[i].num, j->ctx);
+    gs_poly_used_vars(tmp, &j->tf[i].den, j->ctx);
+    r->syms[i] = gs_calloc((size_t)nv, sizeof **r->syms);
+    for (v = 0; v < nv; v++)
+        if ((used[v] | tmp[v]) && v != j->c->s_sym)
+            r->syms[i][r->nsyms[i]++] = v;
+    free(tmp);
+    free(used);
+}
+
+/* What the accessors read, made once at the end of the derivation. */
+static void finish_result(gs_result *r)
+{
+    size_t i;
+    gs_diag d;
+    r->syms = gs_calloc(r->job.ntf, sizeof *r->syms);
+    r->nsyms = gs_calloc(r->job.ntf, sizeof *r->nsyms);
+    for (i = 0; i < r->job.ntf; i++)
+        find_symbols(r, i);
+    r->views = gs_calloc(2 * r->job.ntf, sizeof *r->views);
+    for (i = 0; i < 2 * r->job.ntf; i++)
+        atomic_init(&r->views[i], NULL);
+    /* The file's numbers; a symbol without one is reported by
+       gs_result_eval only if the output evaluated uses it. */
+    gs_diag_init(&d);
+    r->bind_rc = gs_job_bind(&r->job, NULL, 0, &d);
+    if (r->bind_rc != GS_OK && r->bind_rc != GS_EUNBOUND)
+        r->bind_messages = diag_text(&d);
+    gs_diag_clear(&d);
+}
+
+/* Load (from path or from text), derive, finish. */
+static int derive(gs_result **out, const char *path, const char *text,
+                  const char *name, const gs_options *opts,
+                  char **messages)
+{
+    gs_result *r;
     gs_derive_opts o;
+    gs_limit *limits = NULL;
     gs_diag d;
     int rc;
-
+    if (messages)
+        *messages = NULL;
+    if (out == NULL)
+        return GS_EINVAL;
+    *out = NULL;
+    if (path == NULL && text == NULL)
+        return GS_EINVAL;
+    r = gs_calloc(1, sizeof *r);
     gs_diag_init(&d);
     gs_job_init(&r->job);
-    gs_derive_opts_default(&o);
-    rc = gs_job_load(&r->job, path, &d);
+    if (path)
+        rc = gs_job_load(&r->job, path, &d);
+    else
+        rc = gs_job_load_string(&r->job, name ? name : "<string>", text, &d);
     if (rc == GS_OK)
-        rc = gs_job_derive(&r->job, only, &o, &d);
+        rc = engine_opts(&o, &limits, opts, &r->job, &d);
+    if (rc == GS_OK)
+        rc = gs_job_derive(&r->job, opts ? opts->only : NULL, &o, &d);
+    free(limits);
     if (messages)
         *messages = diag_text(&d);
     gs_diag_clear(&d);
     if (rc != GS_OK) {
         gs_result_free(r);
-        r = NULL;
+        return rc;
     }
+    finish_result(r);
     *out = r;
-    return rc;
+    return GS_OK;
+}
+
+int gs_derive_file(gs_result **out, const char *path, const char *only,
+                   char **messages)
+{
+    gs_options o;
+    gs_options_init(&o);
+    o.only = only;
+    return derive(out, path, NULL, NULL, &o, messages);
+}
+
+int gs_derive_file_opts(gs_result **out, const char *path,
+                        const gs_options *opts, char **messages)
+{
+    if (path == NULL) {
+        if (messages)
+            *messages = NULL;
+        if (out)
+            *out = NULL;
+        return GS_EINVAL;
+    }
+    return derive(out, path, NULL, NULL, opts, messages);
+}
+
+int gs_derive_string(gs_result **out, const char *text, const char *name,
+                     const gs_options *opts, char **messages)
+{
+    if (text == NULL) {
+        if (messages)
+            *messages = NULL;
+        if (out)
+            *out = NULL;
+        return GS_EINVAL;
+    }
+    return derive(out, NULL, text, name, opts, messages);
+}
+
+static int in_range(const gs_result *r, size_t i)
+{
+    return r != NULL && i < r->job.ntf;
 }
 
 size_t gs_result_count(const gs_result *r)
@@ -58,11 +327,13 @@ size_t gs_result_count(const gs_result *r)
 
 const char *gs_result_name(const gs_result *r, size_t i)
 {
-    return r->job.tf[i].name;
+    return in_range(r, i) ? gs_tf_name(&r->job.tf[i]) : NULL;
 }
 
 char *gs_result_text(const gs_result *r, size_t i)
 {
+    if (!in_range(r, i))
+        return NULL;
     return gs_tf_get_str(&r->job.tf[i], r->job.c->s_sym);
 }
 
@@ -70,7 +341,10 @@ char *gs_result_json(const gs_result *r, size_t i)
 {
     char *buf = NULL;
     size_t len = 0;
-    FILE *f = open_memstream(&buf, &len);
+    FILE *f;
+    if (!in_range(r, i))
+        return NULL;
+    f = open_memstream(&buf, &len);
     if (f == NULL)
         return gs_strdup("");
     gs_print_json(f, &r->job.tf[i], r->job.c->s_sym);
@@ -78,10 +352,195 @@ char *gs_result_json(const gs_result *r, size_t i)
     return buf;
 }
 
+const gs_polynomial *gs_result_poly(const gs_result *r, size_t i, int part)
+{
+    _Atomic(view *) *slot;
+    view *v, *expected = NULL;
+    if (!in_range(r, i) || (part != GS_NUMERATOR && part != GS_DENOMINATOR))
+        return NULL;
+    slot = &r->views[2 * i + (size_t)part];
+    v = atomic_load(slot);
+    if (v != NULL)
+        return &v->poly;
+    v = gs_malloc(sizeof *v);
+    view_make(v, part == GS_NUMERATOR ? &r->job.tf[i].num
+                                      : &r->job.tf[i].den, &r->job);
+    if (!atomic_compare_exchange_strong(slot, &expected, v)) {
+        view_clear(v);          /* another thread was first */
+        free(v);
+        v = expected;
+    }
+    return &v->poly;
+}
+
+size_t gs_result_nsymbols(const gs_result *r, size_t i)
+{
+    return in_range(r, i) ? r->nsyms[i] : 0;
+}
+
+const char *gs_result_symbol(const gs_result *r, size_t i, size_t k)
+{
+    if (!in_range(r, i) || k >= r->nsyms[i])
+        return NULL;
+    return gs_symtab_name(r->job.c->syms, r->syms[i][k]);
+}
+
+int gs_result_value(double *value, const gs_result *r, const char *symbol)
+{
+    int sym;
+    if (value == NULL || r == NULL || symbol == NULL)
+        return GS_EINVAL;
+    sym = gs_symtab_find(r->job.c->syms, symbol);
+    if (sym < 0 || sym == r->job.c->s_sym
+        || gs_symtab_is_recip(r->job.c->syms, sym))
+        return GS_EINVAL;
+    if (r->job.set == NULL || !r->job.set[sym])
+        return GS_EUNBOUND;
+    *value = (double)r->job.vals[sym];
+    return GS_OK;
+}
+
+/* Symbols of output i other than s without a number in set[]: one error
+   naming them all.  GS_OK or GS_EUNBOUND. */
+static int check_unbound(const gs_result *r, size_t i,
+                         const unsigned char *set, gs_diag *d)
+{
+    const gs_job *j = &r->job;
+    size_t nmissing = 0, k;
+    char *list = gs_strdup(""), *next;
+    for (k = 0; k < r->nsyms[i]; k++) {
+        int v = r->syms[i][k];
+        if (set[v])
+            continue;
+        next = gs_asprintf("%s%s%s", list, nmissing ? ", " : "",
+                           gs_symtab_name(j->c->syms, v));
+        free(list);
+        list = next;
+        nmissing++;
+    }
+    if (nmissing)
+        gs_diag_add(d, GS_SEV_ERROR, j->c->file, 0, 0,
+                    "add 'value NAME = ...' lines to the circuit, or pass "
+                    "NAME and its value to gs_result_eval",
+                    "no value for %s %s", nmissing > 1 ? "symbols" : "symbol",
+                    list);
+    free(list);
+    return nmissing ? GS_EUNBOUND : GS_OK;
+}
+
+/* vals/set: the file's numbers with the overrides on top. */
+static int apply_overrides(long double *vals, unsigned char *set,
+                           const gs_result *r, const char *const *names,
+                           const double *values, size_t nbind, gs_diag *d)
+{
+    const gs_job *j = &r->job;
+    size_t k;
+    if (nbind && (names == NULL || values == NULL)) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                    "gs_result_eval: nbind is %zu but names or values is "
+                    "NULL", nbind);
+        return GS_EINVAL;
+    }
+    for (k = 0; k < nbind; k++) {
+        int sym = names[k] ? gs_symtab_find(j->c->syms, names[k]) : -1;
+        if (sym < 0 || sym == j->c->s_sym
+            || gs_symtab_is_recip(j->c->syms, sym)) {
+            gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                        "gs_result_eval: the circuit has no symbol '%s'",
+                        names[k] ? names[k] : "(null)");
+            return GS_EINVAL;
+        }
+        vals[sym] = values[k];
+        set[sym] = 1;
+    }
+    return GS_OK;
+}
+
+/* H(s) once every symbol has a number. */
+static int eval_at(double *re, double *im, const gs_result *r, size_t i,
+                   const long double *vals, long double complex s,
+                   gs_diag *d)
+{
+    const gs_job *j = &r->job;
+    int nv = j->ctx->nvars, v;
+    long double complex *cv = gs_calloc((size_t)nv, sizeof *cv);
+    long double complex n, den, h;
+    for (v = 0; v < nv; v++)
+        cv[v] = vals[v];
+    cv[j->c->s_sym] = s;
+    n = gs_poly_eval_lc(&j->tf[i].num, cv, j->ctx);
+    den = gs_poly_eval_lc(&j->tf[i].den, cv, j->ctx);
+    free(cv);
+    if (den == 0) {
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
+                    "%s: the denominator is zero at s = %Lg%+Lgj",
+                    gs_tf_name(&j->tf[i]), creall(s), cimagl(s));
+        return GS_EDIVZERO;
+    }
+    h = n / den;
+    *re = (double)creall(h);
+    *im = (double)cimagl(h);
+    return GS_OK;
+}
+
+int gs_result_eval(double *re, double *im, const gs_result *r, size_t i,
+                   double s_re, double s_im, const char *const *names,
+                   const double *values, size_t nbind, char **messages)
+{
+    long double *vals;
+    unsigned char *set;
+    size_t nv;
+    gs_diag d;
+    int rc;
+    if (messages)
+        *messages = NULL;
+    if (re == NULL || im == NULL || !in_range(r, i))
+        return GS_EINVAL;
+    if (r->bind_rc != GS_OK && r->bind_rc != GS_EUNBOUND) {
+        if (messages && r->bind_messages)
+            *messages = gs_strdup(r->bind_messages);
+        return r->bind_rc;
+    }
+    nv = (size_t)r->job.ctx->nvars;
+    vals = gs_calloc(nv, sizeof *vals);
+    set = gs_calloc(nv, 1);
+    memcpy(vals, r->job.vals, nv * sizeof *vals);
+    memcpy(set, r->job.set, nv);
+    gs_diag_init(&d);
+    rc = apply_overrides(vals, set, r, names, values, nbind, &d);
+    if (rc == GS_OK)
+        rc = check_unbound(r, i, set, &d);
+    if (rc == GS_OK)
+        rc = eval_at(re, im, r, i, vals,
+                     (long double)s_re + (long double)s_im * I, &d);
+    if (messages)
+        *messages = diag_text(&d);
+    gs_diag_clear(&d);
+    free(set);
+    free(vals);
+    return rc;
+}
+
 void gs_result_free(gs_result *r)
 {
+    size_t i;
     if (r == NULL)
         return;
+    if (r->views)
+        for (i = 0; i < 2 * r->job.ntf; i++) {
+            view *v = atomic_load(&r->views[i]);
+            if (v) {
+                view_clear(v);
+                free(v);
+            }
+        }
+    free((void *)r->views);
+    if (r->syms)
+        for (i = 0; i < r->job.ntf; i++)
+            free(r->syms[i]);
+    free(r->syms);
+    free(r->nsyms);
+    free(r->bind_messages);
     gs_job_clear(&r->job);
     free(r);
 }

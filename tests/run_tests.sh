@@ -52,6 +52,9 @@ if [ -z "$only" ]; then
     run_suite render_check sh tests/render_check.sh "$build"
     run_suite report_check sh tests/report_check.sh "$build"
     run_suite diag_catalogue sh tests/diag_catalogue.sh
+    run_suite install_check sh tests/install_check.sh "$build"
+    run_suite man_check sh tests/man_check.sh "$build"
+    run_suite doc_example sh tests/doc_example.sh "$build"
     for py in tests/sympy/*.py; do
         [ -f "$py" ] || continue
         run_suite "${py##*/}" sh tests/sympy/run.sh "$build" "$py"

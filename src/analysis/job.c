@@ -48,11 +48,9 @@ void gs_job_clear(gs_job *j)
     gs_job_init(j);
 }
 
-int gs_job_load(gs_job *j, const char *path, gs_diag *d)
+/* After a parse: the MNA's symbols and the polynomial context. */
+static int finish_load(gs_job *j, int rc)
 {
-    int rc;
-    j->c = gs_circuit_new();
-    rc = gs_parse_file(j->c, path, d);
     if (rc != GS_OK)
         return rc;
     gs_mna_intern_symbols(j->c);
@@ -107,6 +105,19 @@ static int probe_tokens(char *kind, const char **a, const char **b,
         *b = t[4].text;
     }
     return 1;
+}
+
+int gs_job_load(gs_job *j, const char *path, gs_diag *d)
+{
+    j->c = gs_circuit_new();
+    return finish_load(j, gs_parse_file(j->c, path, d));
+}
+
+int gs_job_load_string(gs_job *j, const char *name, const char *text,
+                       gs_diag *d)
+{
+    j->c = gs_circuit_new();
+    return finish_load(j, gs_parse_string(j->c, name, text, d));
 }
 
 /* Parse "v(a)", "v(a, b)" or "i(X)" into p. */

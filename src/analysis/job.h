@@ -37,6 +37,10 @@ void gs_job_clear(gs_job *j);
 /* Parse the file ("-" is standard input) and make the polynomial context.
    GS_OK, or the parser's code with messages in d. */
 int gs_job_load(gs_job *j, const char *path, gs_diag *d);
+/* The same for a circuit held in text; name is the file name messages
+   give. */
+int gs_job_load_string(gs_job *j, const char *name, const char *text,
+                       gs_diag *d);
 
 /* Add an output "NAME = OUT / SRC" given on the command line, as if the
    file had a transfer line: OUT is v(a), v(a, b) or i(ELEMENT), SRC an
