@@ -133,6 +133,13 @@ void gs_poly_mul_si(gs_poly *r, const gs_poly *a, int64_t c,
 void gs_poly_sum_of_products(gs_poly *r, const gs_poly *const *a,
                              const gs_poly *const *b, const int *neg,
                              size_t n, const gs_polyctx *ctx);
+/* 1 when every exponent of a*b fits in GS_POLY_MAX_EXP; otherwise 0, with
+   the first variable that would overflow in *var.  Callers that multiply
+   polynomials built from user input check this before gs_poly_mul, whose
+   packed exponent fields have no room for a carry. */
+int gs_poly_mul_fits(int *var, const gs_poly *a, const gs_poly *b,
+                     const gs_polyctx *ctx);
+
 /* gs_poly_mul with the method forced, for tests and benchmarks.
    GS_POLY_MUL_AUTO is what gs_poly_mul does: it picks by shape.
    GS_POLY_MUL_HEAP merges term products with a heap; GS_POLY_MUL_DENSE

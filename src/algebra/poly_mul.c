@@ -467,6 +467,28 @@ void gs_poly_sum_of_products(gs_poly *r, const gs_poly *const *a,
     free(st);
 }
 
+int gs_poly_mul_fits(int *var, const gs_poly *a, const gs_poly *b,
+                     const gs_polyctx *ctx)
+{
+    unsigned *da, *db;
+    int v, ok = 1;
+    if (a->length == 0 || b->length == 0)
+        return 1;
+    da = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *da);
+    db = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *db);
+    gs_poly_degrees(da, a, ctx);
+    gs_poly_degrees(db, b, ctx);
+    for (v = 0; v < ctx->nvars && ok; v++)
+        if (da[v] + db[v] > GS_POLY_MAX_EXP) {
+            ok = 0;
+            if (var)
+                *var = v;
+        }
+    free(da);
+    free(db);
+    return ok;
+}
+
 void gs_poly_mul(gs_poly *r, const gs_poly *a, const gs_poly *b,
                  const gs_polyctx *ctx)
 {

@@ -2,6 +2,7 @@
  * See LICENSE.
  */
 #include "analysis/elim.h"
+#include "algebra/sym.h"
 #include "base/mem.h"
 
 #include <stdlib.h>
@@ -17,6 +18,7 @@ typedef struct elim {
     gs_poly *dets;          /* dets[k] = pivot of step k, dets[0] = 1 */
     int *rowcount, *colcount;
     gs_poly t1, t2;
+    int overflow_var;       /* the symbol of a GS_ERANGE, for the message */
 } elim;
 
 void gs_elim_opts_default(gs_elim_opts *o)
@@ -145,6 +147,8 @@ static int refresh_row(elim *e, int r, int k)
         gs_poly *x = at(e, r, j);
         if (!e->col_on[j] || gs_poly_is_zero(x))
             continue;
+        if (!gs_poly_mul_fits(&e->overflow_var, x, &e->dets[k - 1], e->ctx))
+            return GS_ERANGE;
         gs_poly_mul(x, x, &e->dets[k - 1], e->ctx);
         if (l > 0 && gs_poly_divexact(x, x, &e->dets[l], e->ctx) != GS_OK)
             return GS_EINEXACT;
@@ -166,6 +170,9 @@ static int update_row(elim *e, int i, int r, int c, int k, size_t max_terms,
             continue;
         if (gs_poly_is_zero(trj) && gs_poly_is_zero(sij))
             continue;
+        if (!gs_poly_mul_fits(&e->overflow_var, p, sij, e->ctx)
+            || !gs_poly_mul_fits(&e->overflow_var, sic, trj, e->ctx))
+            return GS_ERANGE;   /* before the product: no room for a carry */
         gs_poly_mul(&e->t1, p, sij, e->ctx);
         if (!gs_poly_is_zero(trj)) {
             gs_poly_mul(&e->t2, sic, trj, e->ctx);
@@ -194,6 +201,7 @@ static void elim_init(elim *e, gs_mna *m, const gs_polyctx *ctx)
     e->m = m;
     e->ctx = ctx;
     e->n = n;
+    e->overflow_var = 0;
     e->row_on = gs_malloc((size_t)n + 1);
     e->col_on = gs_malloc((size_t)n + 1);
     memset(e->row_on, 1, (size_t)n + 1);
@@ -243,6 +251,17 @@ static void report_singular(const elim *e, gs_diag *d)
                 buf, strchr(buf, ',') ? "are" : "is");
 }
 
+static void report_overflow(const elim *e, int k, gs_diag *d)
+{
+    gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                "lower the powers in the element values, or bind the "
+                "symbol to a number",
+                "exponent overflow at elimination step %d of %d: the power "
+                "of '%s' would exceed %d", k, e->n,
+                gs_symtab_name(e->ctx->syms, e->overflow_var),
+                GS_POLY_MAX_EXP);
+}
+
 static int step(elim *e, int k, const gs_elim_opts *o, gs_elim_stats *st,
                 gs_diag *d)
 {
@@ -251,14 +270,19 @@ static int step(elim *e, int k, const gs_elim_opts *o, gs_elim_stats *st,
         report_singular(e, d);
         return GS_ESINGULAR;
     }
-    if ((rc = refresh_row(e, r, k)) != GS_OK)
+    if ((rc = refresh_row(e, r, k)) != GS_OK) {
+        if (rc == GS_ERANGE)
+            report_overflow(e, k, d);
         return rc;
+    }
     gs_poly_set(&e->dets[k], at(e, r, c), e->ctx);
     e->row_on[r] = 0;
     for (i = 0; i <= e->n && rc == GS_OK; i++)
         if (e->row_on[i] && !gs_poly_is_zero(at(e, i, c)))
             rc = update_row(e, i, r, c, k, o->max_terms, st);
     e->col_on[c] = 0;
+    if (rc == GS_ERANGE)
+        report_overflow(e, k, d);
     if (rc == GS_EBUDGET)
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
                     "raise the budget with --max-terms, or bind some "
