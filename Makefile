@@ -6,7 +6,7 @@ BUILD   ?= build
 PREFIX  ?= /usr/local
 OPT     ?= -O2 -g
 WARN     = -Wall -Wextra -Wpedantic -Wshadow -Wstrict-prototypes \
-           -Wmissing-prototypes -Werror
+           -Wmissing-prototypes -Wconversion -Werror
 CPPFLAGS_ALL = -Iinclude -Isrc -D_POSIX_C_SOURCE=200809L $(CPPFLAGS)
 CFLAGS_ALL   = -std=c11 $(OPT) $(WARN) $(SANFLAGS) $(CFLAGS)
 LDLIBS_ALL   = $(SANFLAGS) $(LDFLAGS) -lm
