@@ -134,14 +134,15 @@ void gs_nmod_poly_clear(gs_nmod_poly *a)
     gs_nmod_poly_init(a);
 }
 
-void gs_nmod_poly_swap(gs_nmod_poly *a, gs_nmod_poly *b)
+static void gs_nmod_poly_swap(gs_nmod_poly *a, gs_nmod_poly *b)
 {
     gs_nmod_poly t = *a;
     *a = *b;
     *b = t;
 }
 
-void gs_nmod_poly_fit(gs_nmod_poly *a, long n)
+/* room for n coefficients; the value is unchanged */
+static void gs_nmod_poly_fit(gs_nmod_poly *a, long n)
 {
     if (n > a->alloc) {
         long m = a->alloc * 2 > n ? a->alloc * 2 : n;
@@ -150,7 +151,7 @@ void gs_nmod_poly_fit(gs_nmod_poly *a, long n)
     }
 }
 
-void gs_nmod_poly_set(gs_nmod_poly *r, const gs_nmod_poly *a)
+static void gs_nmod_poly_set(gs_nmod_poly *r, const gs_nmod_poly *a)
 {
     if (r == a)
         return;
@@ -277,8 +278,9 @@ void gs_nmod_poly_divrem(gs_nmod_poly *q, gs_nmod_poly *r,
         gs_nmod_poly_normalise(q);
 }
 
-void gs_nmod_poly_make_monic(gs_nmod_poly *r, const gs_nmod_poly *a,
-                             uint64_t p)
+/* r = a scaled to leading coefficient 1 (zero stays zero) */
+static void gs_nmod_poly_make_monic(gs_nmod_poly *r, const gs_nmod_poly *a,
+                                    uint64_t p)
 {
     if (a->len == 0) {
         r->len = 0;

@@ -92,11 +92,7 @@ typedef struct gs_nmod_poly {
 
 void gs_nmod_poly_init(gs_nmod_poly *a);
 void gs_nmod_poly_clear(gs_nmod_poly *a);
-void gs_nmod_poly_set(gs_nmod_poly *r, const gs_nmod_poly *a);
 void gs_nmod_poly_zero(gs_nmod_poly *a);
-void gs_nmod_poly_swap(gs_nmod_poly *a, gs_nmod_poly *b);   /* O(1) */
-/* room for n coefficients; the value is unchanged */
-void gs_nmod_poly_fit(gs_nmod_poly *a, long n);
 /* set len = n with all n coefficients zero (for filling in place; call
    gs_nmod_poly_normalise afterwards) */
 void gs_nmod_poly_zero_len(gs_nmod_poly *a, long n);
@@ -122,9 +118,6 @@ void gs_nmod_poly_mul(gs_nmod_poly *r, const gs_nmod_poly *a,
 void gs_nmod_poly_divrem(gs_nmod_poly *q, gs_nmod_poly *r,
                          const gs_nmod_poly *a, const gs_nmod_poly *b,
                          uint64_t p);
-/* r = a scaled to leading coefficient 1 (zero stays zero) */
-void gs_nmod_poly_make_monic(gs_nmod_poly *r, const gs_nmod_poly *a,
-                             uint64_t p);
 /* monic gcd by Euclid's algorithm; gcd(0, 0) = 0 */
 void gs_nmod_poly_gcd(gs_nmod_poly *g, const gs_nmod_poly *a,
                       const gs_nmod_poly *b, uint64_t p);

@@ -200,13 +200,3 @@ char *gs_sym_latex_name(const char *name)
     return out;
 }
 
-char *gs_symtab_latex(const gs_symtab *st, int id)
-{
-    char *inner, *out;
-    if (st->v[id].base < 0)
-        return gs_sym_latex_name(st->v[id].name);
-    inner = gs_sym_latex_name(st->v[st->v[id].base].name);
-    out = gs_asprintf("\\frac{1}{%s}", inner);
-    free(inner);
-    return out;
-}

@@ -77,8 +77,13 @@ static void remove_monomial_content(gs_poly *a, gs_poly *b,
     free(eb);
 }
 
-void gs_reduce_ratio(gs_poly *num, gs_poly *den, const gs_symtab *st,
-                     const gs_polyctx *ctx, int use_gcd, size_t *gcd_terms)
+/* Put num/den in lowest terms in place: reciprocal symbols cleared,
+   common monomial, integer and polynomial factors removed, sign made
+   positive on den's leading term.  gcd_terms (may be NULL) gets the size
+   of the polynomial factor removed. */
+static void gs_reduce_ratio(gs_poly *num, gs_poly *den,
+                            const gs_symtab *st, const gs_polyctx *ctx,
+                            int use_gcd, size_t *gcd_terms)
 {
     gs_poly g;
     gs_int cn, cd;

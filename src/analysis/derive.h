@@ -51,11 +51,5 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
               const gs_polyctx *ctx, const gs_derive_opts *o,
               gs_derive_stats *stats, gs_diag *d);
 
-/* Put num/den in lowest terms in place: reciprocal symbols cleared,
-   common monomial, integer and polynomial factors removed, sign made
-   positive on den's leading term.  gcd_terms (may be NULL) gets the size
-   of the polynomial factor removed. */
-void gs_reduce_ratio(gs_poly *num, gs_poly *den, const gs_symtab *st,
-                     const gs_polyctx *ctx, int use_gcd, size_t *gcd_terms);
 
 #endif

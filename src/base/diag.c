@@ -104,17 +104,6 @@ void gs_diag_print(FILE *out, const gs_diag *d)
                 d->nerrors - d->max_errors);
 }
 
-void gs_diag_append(gs_diag *dst, gs_diag *src)
-{
-    size_t i;
-    for (i = 0; i < src->n; i++)
-        push(dst, src->v[i]);
-    dst->nerrors += src->nerrors;
-    dst->nwarnings += src->nwarnings;
-    free(src->v);
-    gs_diag_init(src);
-}
-
 int gs_diag_column(const char *line_start, size_t off)
 {
     int col = 1;
@@ -127,7 +116,8 @@ int gs_diag_column(const char *line_start, size_t off)
     return col;
 }
 
-int gs_edit_distance(const char *a, const char *b, int cap)
+/* Levenshtein distance between a and b, capped: returns at most cap + 1. */
+static int gs_edit_distance(const char *a, const char *b, int cap)
 {
     size_t la = strlen(a), lb = strlen(b), i, j;
     int *prev, *cur, *tmp, result;

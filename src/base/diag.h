@@ -45,23 +45,10 @@ void gs_diag_add(gs_diag *d, int severity, const char *file, int line,
    "N more errors not shown" if max_errors cut the list. */
 void gs_diag_print(FILE *out, const gs_diag *d);
 
-/* Move all of src's entries to the end of dst; src is left empty. */
-void gs_diag_append(gs_diag *dst, gs_diag *src);
-
 /* Column (1-based, in UTF-8 characters) of byte offset `off` in the line
    that starts at `line_start`. */
 int gs_diag_column(const char *line_start, size_t off);
 
-/* Levenshtein distance between a and b, capped: returns at most cap + 1.
-   For did-you-mean hints. */
-int gs_edit_distance(const char *a, const char *b, int cap);
-/* The candidate closest to word (distance <= 2 and less than its
-   length), or NULL: candidates is a NULL-terminated list. */
-const char *gs_closest_word(const char *word, const char *const *candidates);
-
-/* Levenshtein distance between a and b, capped: returns at most cap + 1.
-   For did-you-mean hints. */
-int gs_edit_distance(const char *a, const char *b, int cap);
 /* The candidate closest to word (distance <= 2 and less than its
    length), or NULL: candidates is a NULL-terminated list. */
 const char *gs_closest_word(const char *word, const char *const *candidates);

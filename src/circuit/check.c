@@ -64,11 +64,6 @@ void gs_uf_reset(int *parent, int n)
         parent[i] = i;
 }
 
-int gs_is_current_source(gs_elem_kind k)
-{
-    return k == GS_ISOURCE || k == GS_VCCS || k == GS_CCCS;
-}
-
 int gs_senses_nothing(const gs_element *e)
 {
     return (e->kind == GS_VCCS || e->kind == GS_VCVS)

@@ -932,9 +932,9 @@ static int bjt_bias(const gs_circuit *c, const gs_bias *b, const figure *f,
     return GS_OK;
 }
 
-int gs_device_apply_bias(const gs_circuit *c, size_t bias_index,
-                         long double *vals, unsigned char *set,
-                         char **origin, gs_diag *d)
+static int gs_device_apply_bias(const gs_circuit *c, size_t bias_index,
+                                long double *vals, unsigned char *set,
+                                char **origin, gs_diag *d)
 {
     const gs_bias *b;
     const gs_device *dv;

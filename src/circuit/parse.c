@@ -114,7 +114,8 @@ void gs_parser_set_name(gs_parser *p, int id, int kind, int index,
     p->name_off[id] = off;
 }
 
-int gs_parser_is_node_token(const gs_token *t)
+/* Is t a syntactically valid node name (an identifier or an integer)? */
+static int gs_parser_is_node_token(const gs_token *t)
 {
     size_t i;
     if (t->kind == GS_TK_IDENT)
