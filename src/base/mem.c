@@ -77,3 +77,11 @@ char *gs_asprintf(const char *fmt, ...)
     va_end(ap);
     return p;
 }
+
+void *gs_grow(void *v, size_t n, size_t *alloc, size_t size)
+{
+    if (n < *alloc && v != NULL)
+        return v;
+    *alloc = *alloc > n ? *alloc : (n < 8 ? 16 : 2 * n);
+    return gs_reallocarray(v, *alloc, size);
+}

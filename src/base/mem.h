@@ -21,5 +21,8 @@ char *gs_asprintf(const char *fmt, ...)
     __attribute__((format(printf, 1, 2)))
 #endif
     ;
+/* An array v of *alloc items of size `size`, grown (doubling) if need be
+   to hold n + 1 items; returns the array, *alloc updated. */
+void *gs_grow(void *v, size_t n, size_t *alloc, size_t size);
 
 #endif

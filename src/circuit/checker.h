@@ -1,5 +1,6 @@
-/* checker.h - internals shared by the structural checks (check*.c).
- * See LICENSE.
+/* checker.h - internals shared by the structural checks (check*.c):
+ * the helpers of check_util.c and the checks of check_parts.c and
+ * check_rank.c, which check.c's gs_circuit_check runs.  See LICENSE.
  */
 #ifndef GS_CHECKER_H
 #define GS_CHECKER_H

@@ -57,9 +57,6 @@ typedef struct gs_parser {
            biases_alloc;
 } gs_parser;
 
-/* Grow *v (of *alloc items of size `size`) to hold n + 1 items. */
-void *gs_grow(void *v, size_t n, size_t *alloc, size_t size);
-
 /* Register t's text as a new element or device name: reports a duplicate
    ("first defined at"), a reserved or dotted name, and returns the name
    id or -1.  The caller sets name_kind/name_index. */
@@ -104,9 +101,5 @@ int gs_parse_monomial(gs_monomial *m, gs_cursor *cur, gs_circuit *c);
 /* A value expression, stopping likewise.  GS_OK or GS_ESYNTAX (*out =
    NULL). */
 int gs_parse_expr(gs_expr **out, gs_cursor *cur, gs_circuit *c);
-
-/* eval.c: report every cycle among the value definitions; GS_OK or
-   GS_EINVAL. */
-int gs_values_check_cycles(const gs_circuit *c, gs_diag *d);
 
 #endif
