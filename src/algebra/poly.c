@@ -1,9 +1,10 @@
 /* poly.c - sparse polynomials over Z: storage, order, sums, scalars,
- * monomials, content, degrees, calculus, substitution, limits, evaluation.
+ * monomials, content, degrees, calculus, limits, evaluation.
  * See LICENSE.
  *
  * Multiplication and powers are in poly_mul.c, exact division in
- * poly_div.c, text in poly_print.c, the gcd in poly_gcd.c.
+ * poly_div.c, text in poly_print.c, the gcd in poly_gcd.c, substitution
+ * (which multiplies) in poly_subst.c.
  */
 #include "algebra/poly.h"
 
@@ -797,86 +798,6 @@ void gs_poly_derivative(gs_poly *r, const gs_poly *a, int var,
 
 /* c[k] = coefficient of x_var^k in a for k = 0 .. n (n = degree in var);
    a new array of n + 1 initialised polynomials. */
-static gs_poly *split_var(long *n, const gs_poly *a, int var,
-                          const gs_polyctx *ctx)
-{
-    long d = gs_poly_degree(a, var, ctx), k;
-    gs_poly *c = gs_malloc((size_t)(d + 1 > 0 ? d + 1 : 1) * sizeof *c);
-    size_t i;
-    int w = var / GS_POLY_VARS_PER_WORD;
-    uint64_t clear = ~((uint64_t)0xFFFFu << field_shift(var));
-    for (k = 0; k <= d; k++)
-        gs_poly_init(&c[k]);
-    for (i = 0; i < a->length; i++) {
-        const uint64_t *e = term_exps(a, i, ctx);
-        gs_poly *ck = &c[get_exp(e, var)];
-        gs_int_set(append_term(ck, e, ctx), &a->coeffs[i]);
-        ck->exps[(ck->length - 1) * (size_t)ctx->nwords + (size_t)w] &= clear;
-    }
-    *n = d;
-    return c;
-}
-
-static void free_split(gs_poly *c, long n)
-{
-    long k;
-    for (k = 0; k <= n; k++)
-        gs_poly_clear(&c[k]);
-    free(c);
-}
-
-/* Horner's rule in x_var: r = (..(c_n b + c_{n-1}) b + ..) b + c_0. */
-void gs_poly_subst(gs_poly *r, const gs_poly *a, int var, const gs_poly *b,
-                   const gs_polyctx *ctx)
-{
-    long n, k;
-    gs_poly *c, t;
-    assert(r != b);
-    if (gs_poly_degree(a, var, ctx) <= 0) {
-        gs_poly_set(r, a, ctx);
-        return;
-    }
-    c = split_var(&n, a, var, ctx);
-    gs_poly_init(&t);
-    gs_poly_swap(&t, &c[n]);
-    for (k = n - 1; k >= 0; k--) {
-        gs_poly_mul(&t, &t, b, ctx);
-        gs_poly_add(&t, &t, &c[k], ctx);
-    }
-    gs_poly_swap(r, &t);
-    gs_poly_clear(&t);
-    free_split(c, n);
-}
-
-/* r = sum c_k p^k q^(n-k) by Horner's rule: r_n = c_n,
-   r_k = r_{k+1} p + c_k q^(n-k); scale = q^n. */
-void gs_poly_subst_rat(gs_poly *r, gs_int *scale, const gs_poly *a, int var,
-                       const gs_rat *v, const gs_polyctx *ctx)
-{
-    long n, k;
-    gs_poly *c, t, u;
-    gs_int qk;
-    c = split_var(&n, a, var, ctx);
-    gs_poly_init(&t);
-    gs_poly_init(&u);
-    gs_int_init(&qk);
-    gs_int_set_si(&qk, 1);
-    if (n >= 0)
-        gs_poly_swap(&t, &c[n]);
-    for (k = n - 1; k >= 0; k--) {
-        gs_int_mul(&qk, &qk, &v->den);
-        gs_poly_mul_int(&t, &t, &v->num, ctx);
-        gs_poly_mul_int(&u, &c[k], &qk, ctx);
-        gs_poly_add(&t, &t, &u, ctx);
-    }
-    gs_poly_swap(r, &t);
-    gs_int_swap(scale, &qk);
-    gs_int_clear(&qk);
-    gs_poly_clear(&u);
-    gs_poly_clear(&t);
-    free_split(c, n);
-}
-
 /* Only the extreme coefficients in x_var decide the limit of n/d: the
    leading ones as x -> infinity, the trailing ones as x -> 0. */
 int gs_poly_limit_ratio(gs_poly *rn, gs_poly *rd, const gs_poly *n,

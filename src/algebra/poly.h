@@ -200,7 +200,8 @@ void gs_poly_coeffs_var(gs_poly *out, size_t n, const gs_poly *a, int var,
 /* r = d a / d x_var */
 void gs_poly_derivative(gs_poly *r, const gs_poly *a, int var,
                         const gs_polyctx *ctx);
-/* r = a with x_var replaced by the polynomial b.  r must not alias b. */
+/* poly_subst.c: r = a with x_var replaced by the polynomial b.  r must
+   not alias b. */
 void gs_poly_subst(gs_poly *r, const gs_poly *a, int var, const gs_poly *b,
                    const gs_polyctx *ctx);
 /* x_var replaced by the rational v = p/q: r = scale * a(v) where
