@@ -2,6 +2,7 @@
 #ifndef GS_MEM_H
 #define GS_MEM_H
 
+#include <stdarg.h>
 #include <stddef.h>
 
 /* These behave like malloc, calloc, realloc and strdup, except that on
@@ -19,6 +20,13 @@ char *gs_strndup(const char *s, size_t n);
 char *gs_asprintf(const char *fmt, ...)
 #if defined(__GNUC__)
     __attribute__((format(printf, 1, 2)))
+#endif
+    ;
+/* The same from a va_list, which it consumes (va_end is the caller's);
+   the one place that sizes a formatted string. */
+char *gs_vasprintf(const char *fmt, va_list ap)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 1, 0)))
 #endif
     ;
 /* An array v of *alloc items of size `size`, grown (doubling) if need be

@@ -363,12 +363,13 @@ static void print_diag(FILE *err, const gs_diag *d)
 static int usage(gs_diag *d, const char *hint, const char *f, ...)
 {
     va_list ap;
-    char msg[400];
+    char *msg;
 
     va_start(ap, f);
-    vsnprintf(msg, sizeof msg, f, ap);
+    msg = gs_vasprintf(f, ap);
     va_end(ap);
     gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint, "%s", msg);
+    free(msg);
     return GS_ESYNTAX;
 }
 
