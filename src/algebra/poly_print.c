@@ -15,19 +15,12 @@
 #include <stdlib.h>
 #include <string.h>
 
-static unsigned get_exp(const uint64_t *e, int var)
-{
-    return (unsigned)(e[var / GS_POLY_VARS_PER_WORD]
-                      >> (48 - 16 * (var % GS_POLY_VARS_PER_WORD)))
-        & 0xFFFFu;
-}
-
 static void put_monomial(gs_strbuf *b, const uint64_t *e, const gs_polyctx *ctx)
 {
     int v, first = 1;
     char num[16];
     for (v = 0; v < ctx->nvars; v++) {
-        unsigned k = get_exp(e, v);
+        unsigned k = gs_poly_exp_get(e, v);
         const char *name;
         if (k == 0)
             continue;

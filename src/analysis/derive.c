@@ -55,17 +55,11 @@ static void remove_monomial_content(gs_poly *a, gs_poly *b,
 {
     uint64_t *ea = gs_calloc((size_t)ctx->nwords, sizeof *ea);
     uint64_t *eb = gs_calloc((size_t)ctx->nwords, sizeof *eb);
-    int w, f, any = 0;
+    int w, any = 0;
     gs_poly_monomial_content(ea, a, ctx);
     gs_poly_monomial_content(eb, b, ctx);
-    /* componentwise minimum of the packed 16-bit fields */
     for (w = 0; w < ctx->nwords; w++) {
-        uint64_t m = 0;
-        for (f = 0; f < 4; f++) {
-            uint64_t x = (ea[w] >> (16 * f)) & 0xFFFF;
-            uint64_t y = (eb[w] >> (16 * f)) & 0xFFFF;
-            m |= (x < y ? x : y) << (16 * f);
-        }
+        uint64_t m = gs_poly_fields_min(ea[w], eb[w]);
         ea[w] = m;
         any |= m != 0;
     }
