@@ -48,7 +48,7 @@ $(CLI_LIB): $(filter-out $(BUILD)/obj/cli/main.o,$(CLI_OBJ))
 $(BIN): $(CLI_OBJ) $(LIB)
 	$(CC) $(CFLAGS_ALL) -o $@ $^ $(LDLIBS_ALL)
 
-$(BUILD)/tests/%: tests/%.c tests/check.h $(LIB) $(CLI_LIB)
+$(BUILD)/tests/%: tests/%.c tests/check.h tests/testlib.h $(LIB) $(CLI_LIB)
 	@mkdir -p $(dir $@)
 	$(CC) $(CPPFLAGS_ALL) -Itests $(CFLAGS_ALL) -MMD -MP -o $@ $< $(CLI_LIB) $(LIB) $(LDLIBS_ALL)
 

@@ -9,6 +9,7 @@
 #include <string.h>
 
 #include "check.h"
+#include "testlib.h"
 #include "numeric/freq.h"
 #include "gainsmith.h"
 #include "numeric/roots.h"
@@ -259,18 +260,6 @@ static void test_wide_range(void)
     gs_tfn_clear(&h);
 }
 
-static uint64_t next_rand(uint64_t *s)     /* splitmix64 */
-{
-    uint64_t z = (*s += 0x9E3779B97F4A7C15ULL);
-    z = (z ^ (z >> 30)) * 0xBF58476D1CE4E5B9ULL;
-    z = (z ^ (z >> 27)) * 0x94D049BB133111EBULL;
-    return z ^ (z >> 31);
-}
-
-static long double uniform(uint64_t *s)
-{
-    return (long double)(next_rand(s) >> 11) / 9007199254740992.0L;
-}
 
 /* Random H: the magnitude agrees with |N/D| by plain complex evaluation,
    the phase with its argument modulo 360, and the group delay with a
@@ -279,16 +268,17 @@ static void test_random(void)
 {
     uint64_t seed = 424242;
     for (int trial = 0; trial < 100; trial++) {
-        uint64_t s = seed + (uint64_t)trial;
+        gs_rng s;
+        gs_rng_seed(&s, seed + (uint64_t)trial);
         long double n[7], d[7];
-        int nd = (int)(next_rand(&s) % 5), dd = 1 + (int)(next_rand(&s) % 6);
+        int nd = (int)(gs_rng_next(&s) % 5), dd = 1 + (int)(gs_rng_next(&s) % 6);
         for (int k = 0; k <= nd; k++)
-            n[k] = (uniform(&s) - 0.3L) * powl(10, 2 - k);
+            n[k] = (test_unit(&s) - 0.3L) * powl(10, 2 - k);
         for (int k = 0; k <= dd; k++)
-            d[k] = (0.1L + uniform(&s)) * powl(10, 1 - k);
+            d[k] = (0.1L + test_unit(&s)) * powl(10, 1 - k);
         gs_tfn h;
         tf(&h, n, nd, d, dd);
-        long double f = powl(10, -3 + 5 * uniform(&s)), w = 2 * PI_L * f;
+        long double f = powl(10, -3 + 5 * test_unit(&s)), w = 2 * PI_L * f;
         long double mag, ph, gd, p1, p2;
         long double complex H = gs_tfn_eval(&h, w * I);
         gs_freq_eval(&mag, &ph, &gd, &h, f);

@@ -9,6 +9,7 @@
  * tests/latex_check.sh to build with pdflatex.
  */
 #include "check.h"
+#include "testlib.h"
 #include "gainsmith.h"
 #include "base/mem.h"
 #include "analysis/tf.h"
@@ -673,19 +674,14 @@ static void test_c_compiles(fix *f)
 
 /* ---- random properties ---- */
 
-static uint64_t next(uint64_t *x)
+static uint64_t next(gs_rng *x)
 {
-    /* xorshift64* (Vigna 2016, "An experimental exploration of
-       Marsaglia's xorshift generators, scrambled") */
-    *x ^= *x >> 12;
-    *x ^= *x << 25;
-    *x ^= *x >> 27;
-    return *x * 2685821657736338717u;
+    return gs_rng_next(x);
 }
 
 /* A random polynomial: nterms terms over the test's ordinary symbols,
    exponents 0..3, coefficients -9..9 with a few past 2^64. */
-static void random_poly(gs_poly *p, uint64_t *x, size_t nterms,
+static void random_poly(gs_poly *p, gs_rng *x, size_t nterms,
                         const fix *f)
 {
     unsigned *exps = calloc((size_t)f->ctx->nvars, sizeof *exps);
@@ -769,7 +765,8 @@ static void test_random(fix *f, uint64_t seed)
 {
     enum { N = 200, NC = 20 };
     gs_tf tfs[NC];
-    uint64_t x = seed;
+    gs_rng x;
+    gs_rng_seed(&x, seed);
     int i;
     for (i = 0; i < N; i++) {
         gs_tf tf;
@@ -817,7 +814,8 @@ static void test_random(fix *f, uint64_t seed)
 static void test_pretty_wrap(fix *f)
 {
     gs_tf tf;
-    uint64_t x = 12345;
+    gs_rng x;
+    gs_rng_seed(&x, 12345);
     char *t, *p, *num;
     tf_from(&tf, f, "W", "1", "1 C R s | 1");
     random_poly(&tf.num, &x, 60, f);
