@@ -6,7 +6,7 @@ BUILD   ?= build
 PREFIX  ?= /usr/local
 OPT     ?= -O2 -g
 WARN     = -Wall -Wextra -Wpedantic -Wshadow -Wstrict-prototypes \
-           -Wmissing-prototypes -Werror
+           -Wmissing-prototypes -Wconversion -Werror
 CPPFLAGS_ALL = -Iinclude -Isrc -D_POSIX_C_SOURCE=200809L $(CPPFLAGS)
 CFLAGS_ALL   = -std=c11 $(OPT) $(WARN) $(SANFLAGS) $(CFLAGS)
 LDLIBS_ALL   = $(SANFLAGS) $(LDFLAGS) -lm
@@ -67,7 +67,7 @@ $(CLI_LIB): $(filter-out $(BUILD)/obj/cli/main.o,$(CLI_OBJ))
 $(BIN): $(CLI_OBJ) $(LIB)
 	$(CC) $(CFLAGS_ALL) -o $@ $^ $(LDLIBS_ALL)
 
-$(BUILD)/tests/%: tests/%.c tests/check.h $(LIB) $(CLI_LIB)
+$(BUILD)/tests/%: tests/%.c tests/check.h tests/testlib.h $(LIB) $(CLI_LIB)
 	@mkdir -p $(dir $@)
 	$(CC) $(CPPFLAGS_ALL) -Itests $(CFLAGS_ALL) -MMD -MP -o $@ $< $(CLI_LIB) $(LIB) $(LDLIBS_ALL)
 

@@ -33,7 +33,10 @@ static int agrees_numerically(const gs_tf *tf, const gs_circuit *c,
     gs_diag d;
     gs_diag_init(&d);
     for (v = 0; v < nv; v++)
-        vals[v] = cv[v] = 1.0L + 0.37L * (long double)v;
+    {
+        vals[v] = 1.0L + 0.37L * (long double)v;
+        cv[v] = vals[v];
+    }
     for (k = 0; k < 3 && ok; k++) {
         long double complex s = w[k] * I, h_num, h_exact;
         cv[c->s_sym] = s;

@@ -23,6 +23,7 @@
  * extraction, must give back the chosen parameters.
  */
 #include "check.h"
+#include "testlib.h"
 #include "circuit/circuit.h"
 #include "cli/cmd.h"
 #include "circuit/device.h"
@@ -196,13 +197,15 @@ static void test_round_trip_point(void)
     unsigned seed = 777u;
     int i;
 
-    srand(seed);
+    gs_rng r;
+
+    gs_rng_seed(&r, seed);
     for (i = 0; i < 500; i++) {
-        long double k = 1e-5L * powl(1000, (long double)rand() / RAND_MAX);
-        long double vth = 0.2L + 0.8L * rand() / RAND_MAX;
-        long double lam = 0.001L + 0.2L * rand() / RAND_MAX;
-        long double vov = 0.05L + (long double)rand() / RAND_MAX;
-        long double vds = vov + 5.0L * rand() / RAND_MAX;
+        long double k = 1e-5L * powl(1000, test_unit(&r));
+        long double vth = 0.2L + 0.8L * test_unit(&r);
+        long double lam = 0.001L + 0.2L * test_unit(&r);
+        long double vov = 0.05L + test_unit(&r);
+        long double vds = vov + 5.0L * test_unit(&r);
         gs_mos_op fw, back;
         gs_diag d;
         int rc;
@@ -239,13 +242,15 @@ static void test_round_trip_two(void)
     unsigned seed = 4242u;
     int i;
 
-    srand(seed);
+    gs_rng r;
+
+    gs_rng_seed(&r, seed);
     for (i = 0; i < 500; i++) {
-        long double k = 1e-5L * powl(1000, (long double)rand() / RAND_MAX);
-        long double vth = -0.5L + 1.5L * rand() / RAND_MAX;
-        long double lam = (i % 2) ? 0.1L * rand() / RAND_MAX : 0;
-        long double v1 = 0.05L + (long double)rand() / RAND_MAX;
-        long double v2 = v1 + 0.01L + (long double)rand() / RAND_MAX;
+        long double k = 1e-5L * powl(1000, test_unit(&r));
+        long double vth = -0.5L + 1.5L * test_unit(&r);
+        long double lam = (i % 2) ? 0.1L * test_unit(&r) : 0;
+        long double v1 = 0.05L + test_unit(&r);
+        long double v2 = v1 + 0.01L + test_unit(&r);
         long double vds = v2 + 1;
         gs_mos_op a, b, fit;
         gs_diag d;

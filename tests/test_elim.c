@@ -11,6 +11,7 @@
  * and for complete graphs by Cayley's formula n^(n-2).
  */
 #include "check.h"
+#include "testlib.h"
 #include "circuit/circuit.h"
 #include "analysis/elim.h"
 #include "analysis/minors.h"
@@ -24,12 +25,11 @@
 
 #define MAXN 9
 
-static unsigned long long rng_state;
+static gs_rng rng_state;
 
 static unsigned rnd(unsigned n)
 {
-    rng_state = rng_state * 6364136223846793005ULL + 1442695040888963407ULL;
-    return (unsigned)((rng_state >> 33) % n);
+    return test_below(&rng_state, n);
 }
 
 /* Spanning trees of the graph with adjacency counts adj (node 0 is the
@@ -179,7 +179,7 @@ static void test_random_networks(void)
         unsigned long long seed = 1000 + (unsigned long long)round;
         int n = 2 + (int)((seed * 7) % (MAXN - 1));
         char *text;
-        rng_state = seed;
+        gs_rng_seed(&rng_state, seed);
         text = random_network(n, adj);
         for (rule = 0; rule <= BY_MINORS; rule++)
             if (rule != GS_PIVOT_NATURAL || n <= 7)  /* natural is slow */

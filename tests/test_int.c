@@ -12,22 +12,18 @@
 #include <string.h>
 
 #include "check.h"
+#include "testlib.h"
 #include "gainsmith.h"
 #include "algebra/int.h"
 
 /* ---- test utilities ----------------------------------------------------- */
 
 static uint64_t seed = 20240601u;
-static uint64_t rng_state;
+static gs_rng rng_state;
 
-/* xorshift64* (Vigna, "An experimental exploration of Marsaglia's
-   xorshift generators, scrambled", ACM TOMS 42, 2016) */
 static uint64_t rnd(void)
 {
-    rng_state ^= rng_state >> 12;
-    rng_state ^= rng_state << 25;
-    rng_state ^= rng_state >> 27;
-    return rng_state * 0x2545f4914f6cdd1du;
+    return gs_rng_next(&rng_state);
 }
 
 static void from_str(gs_int *r, const char *s)
@@ -881,7 +877,7 @@ int main(int argc, char **argv)
 {
     if (argc > 1)
         seed = strtoull(argv[1], NULL, 10);
-    rng_state = seed ? seed : 1;
+    gs_rng_seed(&rng_state, seed);
     test_small_big_transitions();
     test_limb_carries();
     test_known_values();

@@ -10,6 +10,7 @@
  * this module is in test_elim.c.
  */
 #include "check.h"
+#include "testlib.h"
 #include "analysis/elim.h"
 #include "analysis/minors.h"
 
@@ -18,12 +19,11 @@
 #include <stdlib.h>
 #include <string.h>
 
-static unsigned long long rng_state;
+static gs_rng rng_state;
 
 static unsigned rnd(unsigned n)
 {
-    rng_state = rng_state * 6364136223846793005ull + 1442695040888963407ull;
-    return (unsigned)(rng_state >> 33) % n;
+    return test_below(&rng_state, n);
 }
 
 /* A bordered matrix of size n with every entry zero; c0 = 0, scale 1. */
@@ -256,7 +256,7 @@ static void test_against_elimination(void)
         gs_diag d;
         size_t k, cells = (size_t)(n + 1) * (size_t)(n + 1);
 
-        rng_state = 5000 + (unsigned long long)round;
+        gs_rng_seed(&rng_state, 5000 + (unsigned long long)round);
         random_matrix(&m, n, density, ctx);
         mna_new(&copy, n);
         for (k = 0; k < cells; k++)

@@ -2,6 +2,7 @@
  * See LICENSE.
  */
 #include "check.h"
+#include "testlib.h"
 #include "circuit/circuit.h"
 #include "gainsmith.h"
 #include "circuit/lex.h"
@@ -225,8 +226,10 @@ static void test_monomials(void)
    computed with gs_monomial_mul_sym, and a / a == 1. */
 static void test_monomial_random(void)
 {
-    unsigned seed = 20261201u, state = seed;
+    unsigned seed = 20261201u;
+    gs_rng r;
     int round;
+    gs_rng_seed(&r, seed);
     for (round = 0; round < 200; round++) {
         gs_monomial want, inv, one;
         char text[512] = "2";
@@ -236,15 +239,12 @@ static void test_monomial_random(void)
         char *full, *got;
         gs_monomial_init(&want);
         gs_rat_set_si(&want.coeff, 2, 1);
-        state = state * 1103515245u + 12345u;
-        nf = (int)(state >> 16) % 6 + 1;
+        nf = (int)test_below(&r, 6) + 1;
         for (f = 0; f < nf; f++) {
             char name[8];
             int e, sym;
-            state = state * 1103515245u + 12345u;
-            snprintf(name, sizeof name, "x%u", (state >> 16) % 4);
-            state = state * 1103515245u + 12345u;
-            e = (int)((state >> 16) % 7) - 3;
+            snprintf(name, sizeof name, "x%u", test_below(&r, 4));
+            e = (int)test_below(&r, 7) - 3;
             sym = gs_symtab_intern(c->syms, name);
             snprintf(text + strlen(text), sizeof text - strlen(text),
                      "*%s^%d", name, e);

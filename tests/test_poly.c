@@ -1,5 +1,6 @@
 /* test_poly.c - unit tests of the sparse polynomial module. See LICENSE. */
 #include "check.h"
+#include "testlib.h"
 #include "gainsmith.h"
 #include "algebra/poly.h"
 #include "algebra/sym.h"
@@ -37,17 +38,12 @@ static void env_clear(env *e)
     gs_symtab_free(e->st);
 }
 
-/* a seeded generator: splitmix64 (Steele, Lea and Flood, OOPSLA 2014) */
-typedef struct rng {
-    uint64_t s;
-} rng;
+/* the shared seeded generator (testlib.h) */
+typedef gs_rng rng;
 
 static uint64_t rnext(rng *r)
 {
-    uint64_t z = (r->s += UINT64_C(0x9e3779b97f4a7c15));
-    z = (z ^ (z >> 30)) * UINT64_C(0xbf58476d1ce4e5b9);
-    z = (z ^ (z >> 27)) * UINT64_C(0x94d049bb133111eb);
-    return z ^ (z >> 31);
+    return gs_rng_next(r);
 }
 
 static unsigned rbelow(rng *r, unsigned n)

@@ -11,20 +11,17 @@
 #include <string.h>
 
 #include "check.h"
+#include "testlib.h"
 #include "gainsmith.h"
 #include "base/mem.h"
 #include "algebra/rat.h"
 
 static uint64_t seed = 20240602u;
-static uint64_t rng_state;
+static gs_rng rng_state;
 
-/* xorshift64* (Vigna, ACM TOMS 42, 2016) */
 static uint64_t rnd(void)
 {
-    rng_state ^= rng_state >> 12;
-    rng_state ^= rng_state << 25;
-    rng_state ^= rng_state >> 27;
-    return rng_state * 0x2545f4914f6cdd1du;
+    return gs_rng_next(&rng_state);
 }
 
 static int is(const gs_rat *a, const char *s)
@@ -530,7 +527,7 @@ int main(int argc, char **argv)
 {
     if (argc > 1)
         seed = strtoull(argv[1], NULL, 10);
-    rng_state = seed ? seed : 1;
+    gs_rng_seed(&rng_state, seed);
     test_parse_values();
     test_parse_end();
     test_parse_errors();

@@ -8,6 +8,7 @@
  * of the same decimal with the prefix folded into the exponent.
  */
 #include "check.h"
+#include "testlib.h"
 #include "gainsmith.h"
 #include "circuit/units.h"
 
@@ -253,11 +254,13 @@ static void test_random(void)
     unsigned seed = 20240611u;
     char text[64], dec[64];
     int i;
+    gs_rng r;
 
-    srand(seed);
+    gs_rng_seed(&r, seed);
     for (i = 0; i < 2000; i++) {
-        long m = rand() % 1000000, f = rand() % 1000;
-        int p = rand() % 10;
+        long m = (long)test_below(&r, 1000000);
+        long f = (long)test_below(&r, 1000);
+        int p = (int)test_below(&r, 10);
         long double v, w, back;
         gs_quantity q;
         char *s;

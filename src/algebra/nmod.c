@@ -8,30 +8,6 @@
 
 #include "base/mem.h"
 
-void gs_rng_seed(gs_rng *r, uint64_t seed)
-{
-    r->s = seed;
-}
-
-uint64_t gs_rng_next(gs_rng *r)
-{
-    uint64_t z = (r->s += 0x9E3779B97F4A7C15u);
-    z = (z ^ (z >> 30)) * 0xBF58476D1CE4E5B9u;
-    z = (z ^ (z >> 27)) * 0x94D049BB133111EBu;
-    return z ^ (z >> 31);
-}
-
-uint64_t gs_rng_below(gs_rng *r, uint64_t n)
-{
-    /* reject the top partial copy of [0, n) so every value is as likely */
-    uint64_t limit = UINT64_MAX - UINT64_MAX % n;
-    uint64_t v;
-    do {
-        v = gs_rng_next(r);
-    } while (v >= limit);
-    return v % n;
-}
-
 uint64_t gs_nmod_pow(uint64_t a, uint64_t e, uint64_t p)
 {
     uint64_t r = 1 % p;
@@ -134,14 +110,15 @@ void gs_nmod_poly_clear(gs_nmod_poly *a)
     gs_nmod_poly_init(a);
 }
 
-void gs_nmod_poly_swap(gs_nmod_poly *a, gs_nmod_poly *b)
+static void gs_nmod_poly_swap(gs_nmod_poly *a, gs_nmod_poly *b)
 {
     gs_nmod_poly t = *a;
     *a = *b;
     *b = t;
 }
 
-void gs_nmod_poly_fit(gs_nmod_poly *a, long n)
+/* room for n coefficients; the value is unchanged */
+static void gs_nmod_poly_fit(gs_nmod_poly *a, long n)
 {
     if (n > a->alloc) {
         long m = a->alloc * 2 > n ? a->alloc * 2 : n;
@@ -150,7 +127,7 @@ void gs_nmod_poly_fit(gs_nmod_poly *a, long n)
     }
 }
 
-void gs_nmod_poly_set(gs_nmod_poly *r, const gs_nmod_poly *a)
+static void gs_nmod_poly_set(gs_nmod_poly *r, const gs_nmod_poly *a)
 {
     if (r == a)
         return;
@@ -277,8 +254,9 @@ void gs_nmod_poly_divrem(gs_nmod_poly *q, gs_nmod_poly *r,
         gs_nmod_poly_normalise(q);
 }
 
-void gs_nmod_poly_make_monic(gs_nmod_poly *r, const gs_nmod_poly *a,
-                             uint64_t p)
+/* r = a scaled to leading coefficient 1 (zero stays zero) */
+static void gs_nmod_poly_make_monic(gs_nmod_poly *r, const gs_nmod_poly *a,
+                                    uint64_t p)
 {
     if (a->len == 0) {
         r->len = 0;

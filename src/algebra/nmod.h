@@ -3,9 +3,10 @@
  *
  * The modular machinery behind the multivariate gcd (poly_gcd.c): residues
  * modulo a prime p < 2^32, so that a product of two residues fits in a
- * uint64_t and plain C11 suffices; a small seeded random generator that
- * travels in arguments; dense univariate polynomials over Z/pZ with
- * Euclid's gcd, Newton interpolation and a transposed Vandermonde solver.
+ * uint64_t and plain C11 suffices (the seeded random generator that
+ * travels in arguments is base/rng.h); dense univariate polynomials over
+ * Z/pZ with Euclid's gcd, Newton interpolation and a transposed
+ * Vandermonde solver.
  *
  * Residues are uint64_t values in [0, p).  A gs_nmod_poly is a value:
  * init once, clear once; its coefficients are owned by it.  Unless a
@@ -17,20 +18,10 @@
 #include <stddef.h>
 #include <stdint.h>
 
+#include "base/rng.h"
+
 /* Moduli are below 2^32 so that (p-1)^2 < 2^64. */
 #define GS_NMOD_MAX_BITS 32
-
-/* splitmix64 (Steele, Lea and Flood, "Fast splittable pseudorandom number
-   generators", OOPSLA 2014): tiny, and good enough to pick primes and
-   evaluation points. */
-typedef struct gs_rng {
-    uint64_t s;
-} gs_rng;
-
-void gs_rng_seed(gs_rng *r, uint64_t seed);
-uint64_t gs_rng_next(gs_rng *r);
-/* uniform in [0, n) for n >= 1 (rejection, no modulo bias) */
-uint64_t gs_rng_below(gs_rng *r, uint64_t n);
 
 static inline uint64_t gs_nmod_add(uint64_t a, uint64_t b, uint64_t p)
 {
@@ -92,11 +83,7 @@ typedef struct gs_nmod_poly {
 
 void gs_nmod_poly_init(gs_nmod_poly *a);
 void gs_nmod_poly_clear(gs_nmod_poly *a);
-void gs_nmod_poly_set(gs_nmod_poly *r, const gs_nmod_poly *a);
 void gs_nmod_poly_zero(gs_nmod_poly *a);
-void gs_nmod_poly_swap(gs_nmod_poly *a, gs_nmod_poly *b);   /* O(1) */
-/* room for n coefficients; the value is unchanged */
-void gs_nmod_poly_fit(gs_nmod_poly *a, long n);
 /* set len = n with all n coefficients zero (for filling in place; call
    gs_nmod_poly_normalise afterwards) */
 void gs_nmod_poly_zero_len(gs_nmod_poly *a, long n);
@@ -122,9 +109,6 @@ void gs_nmod_poly_mul(gs_nmod_poly *r, const gs_nmod_poly *a,
 void gs_nmod_poly_divrem(gs_nmod_poly *q, gs_nmod_poly *r,
                          const gs_nmod_poly *a, const gs_nmod_poly *b,
                          uint64_t p);
-/* r = a scaled to leading coefficient 1 (zero stays zero) */
-void gs_nmod_poly_make_monic(gs_nmod_poly *r, const gs_nmod_poly *a,
-                             uint64_t p);
 /* monic gcd by Euclid's algorithm; gcd(0, 0) = 0 */
 void gs_nmod_poly_gcd(gs_nmod_poly *g, const gs_nmod_poly *a,
                       const gs_nmod_poly *b, uint64_t p);

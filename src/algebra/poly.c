@@ -1,9 +1,10 @@
 /* poly.c - sparse polynomials over Z: storage, order, sums, scalars,
- * monomials, content, degrees, calculus, substitution, limits, evaluation.
+ * monomials, content, degrees, calculus, limits, evaluation.
  * See LICENSE.
  *
  * Multiplication and powers are in poly_mul.c, exact division in
- * poly_div.c, text in poly_print.c, the gcd in poly_gcd.c.
+ * poly_div.c, text in poly_print.c, the gcd in poly_gcd.c, substitution
+ * (which multiplies) in poly_subst.c.
  */
 #include "algebra/poly.h"
 
@@ -14,22 +15,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-/* The top bit of every 16-bit field.  Exponents are at most 0x7FFF, so a
-   sum of two exponents never carries into the next field, and
-   ((x | GUARD) - y) & GUARD has a field's guard bit set exactly where
-   x >= y in that field: the usual SIMD-within-a-register trick. */
-#define GUARD UINT64_C(0x8000800080008000)
-
-static int field_shift(int var)
-{
-    return 48 - 16 * (var % GS_POLY_VARS_PER_WORD);
-}
-
-static unsigned get_exp(const uint64_t *e, int var)
-{
-    return (unsigned)(e[var / GS_POLY_VARS_PER_WORD] >> field_shift(var))
-        & 0xFFFFu;
-}
 
 static const uint64_t *term_exps(const gs_poly *a, size_t i,
                                  const gs_polyctx *ctx)
@@ -52,25 +37,11 @@ static int exps_divides(const uint64_t *y, const uint64_t *x, int nw)
 {
     int w;
     for (w = 0; w < nw; w++)
-        if ((((x[w] | GUARD) - y[w]) & GUARD) != GUARD)
+        if (!gs_poly_fields_le(y[w], x[w]))
             return 0;
     return 1;
 }
 
-/* per-field minimum / maximum of two words */
-static uint64_t field_min(uint64_t x, uint64_t y)
-{
-    uint64_t ge = (((x | GUARD) - y) & GUARD) >> 15;   /* 1 where x >= y */
-    uint64_t m = ge * 0xFFFFu;
-    return (y & m) | (x & ~m);
-}
-
-static uint64_t field_max(uint64_t x, uint64_t y)
-{
-    uint64_t ge = (((x | GUARD) - y) & GUARD) >> 15;
-    uint64_t m = ge * 0xFFFFu;
-    return (x & m) | (y & ~m);
-}
 
 gs_polyctx *gs_polyctx_new(const gs_symtab *st, int nvars)
 {
@@ -203,7 +174,8 @@ static void pack_exps(uint64_t *e, const unsigned *exps,
     memset(e, 0, (size_t)ctx->nwords * 8);
     for (v = 0; v < ctx->nvars; v++) {
         assert(exps[v] <= GS_POLY_MAX_EXP);
-        e[v / GS_POLY_VARS_PER_WORD] |= (uint64_t)exps[v] << field_shift(v);
+        e[v / GS_POLY_VARS_PER_WORD] |=
+            (uint64_t)exps[v] << gs_poly_field_shift(v);
     }
 }
 
@@ -214,7 +186,8 @@ void gs_poly_set_var(gs_poly *r, int var, unsigned e, const gs_polyctx *ctx)
     truncate_to(r, 0);
     c = append_term(r, NULL, ctx);
     gs_int_set_si(c, 1);
-    r->exps[var / GS_POLY_VARS_PER_WORD] |= (uint64_t)e << field_shift(var);
+    r->exps[var / GS_POLY_VARS_PER_WORD] |=
+        (uint64_t)e << gs_poly_field_shift(var);
 }
 
 void gs_poly_set_term(gs_poly *r, const gs_int *c, const unsigned *exps,
@@ -311,8 +284,8 @@ void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
 
 static void put_exp(uint64_t *e, int var, unsigned x)
 {
-    int w = var / GS_POLY_VARS_PER_WORD, sh = field_shift(var);
-    e[w] = (e[w] & ~((uint64_t)0xFFFFu << sh)) | (uint64_t)x << sh;
+    int w = var / GS_POLY_VARS_PER_WORD, sh = gs_poly_field_shift(var);
+    e[w] = (e[w] & ~((uint64_t)GS_POLY_FIELD_MASK << sh)) | (uint64_t)x << sh;
 }
 
 void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
@@ -328,10 +301,10 @@ void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
             unsigned k;
             if (top[v] == 0)
                 continue;
-            k = get_exp(e, v);
+            k = gs_poly_exp_get(e, v);
             assert(k <= top[v]);
             put_exp(e, v, 0);
-            put_exp(e, to[v], get_exp(e, to[v]) + top[v] - k);
+            put_exp(e, to[v], gs_poly_exp_get(e, to[v]) + top[v] - k);
         }
     }
     gs_poly_canonicalise(r, ctx);
@@ -352,7 +325,7 @@ void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
         const uint64_t *e = a->exps + i * nf;
         uint64_t *f = r->exps + i * nt;
         for (v = 0; v < from->nvars; v++) {
-            unsigned x = get_exp(e, v);
+            unsigned x = gs_poly_exp_get(e, v);
             if (x)
                 put_exp(f, map[v], x);
         }
@@ -367,13 +340,13 @@ void gs_poly_get_term_exps(unsigned *exps, const gs_poly *a, size_t i,
 {
     int v;
     for (v = 0; v < ctx->nvars; v++)
-        exps[v] = get_exp(term_exps(a, i, ctx), v);
+        exps[v] = gs_poly_exp_get(term_exps(a, i, ctx), v);
 }
 
 unsigned gs_poly_term_exp(const gs_poly *a, size_t i, int var,
                           const gs_polyctx *ctx)
 {
-    return get_exp(term_exps(a, i, ctx), var);
+    return gs_poly_exp_get(term_exps(a, i, ctx), var);
 }
 
 static int exps_are_zero(const uint64_t *e, int nw)
@@ -555,7 +528,7 @@ void gs_poly_mul_monomial(gs_poly *r, const gs_poly *a, const uint64_t *exps,
     for (i = 0; i < r->length; i++)
         for (w = 0; w < nw; w++) {
             uint64_t s = r->exps[i * nw + w] + m[w];
-            assert((s & GUARD) == 0);   /* precondition: no overflow */
+            assert((s & GS_POLY_GUARD) == 0);   /* precondition: no overflow */
             r->exps[i * nw + w] = s;
         }
     free(m);
@@ -643,7 +616,7 @@ void gs_poly_monomial_content(uint64_t *exps, const gs_poly *a,
     memcpy(exps, a->exps, nw * 8);
     for (i = 1; i < a->length; i++)
         for (w = 0; w < nw; w++)
-            exps[w] = field_min(exps[w], a->exps[i * nw + w]);
+            exps[w] = gs_poly_fields_min(exps[w], a->exps[i * nw + w]);
 }
 
 void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx)
@@ -653,9 +626,9 @@ void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx)
     int v;
     for (i = 0; i < a->length; i++)
         for (w = 0; w < nw; w++)
-            m[w] = field_max(m[w], a->exps[i * nw + w]);
+            m[w] = gs_poly_fields_max(m[w], a->exps[i * nw + w]);
     for (v = 0; v < ctx->nvars; v++)
-        degs[v] = get_exp(m, v);
+        degs[v] = gs_poly_exp_get(m, v);
     free(m);
 }
 
@@ -666,9 +639,9 @@ long gs_poly_degree(const gs_poly *a, int var, const gs_polyctx *ctx)
     if (a->length == 0)
         return -1;
     if (var == 0)      /* lex order: the first term has the top degree */
-        return (long)get_exp(a->exps, 0);
+        return (long)gs_poly_exp_get(a->exps, 0);
     for (i = 0; i < a->length; i++) {
-        unsigned e = get_exp(term_exps(a, i, ctx), var);
+        unsigned e = gs_poly_exp_get(term_exps(a, i, ctx), var);
         if (e > d)
             d = e;
     }
@@ -683,7 +656,7 @@ long gs_poly_lowdegree(const gs_poly *a, int var, const gs_polyctx *ctx)
         return -1;
     d = GS_POLY_MAX_EXP;
     for (i = 0; i < a->length && d > 0; i++) {
-        unsigned e = get_exp(term_exps(a, i, ctx), var);
+        unsigned e = gs_poly_exp_get(term_exps(a, i, ctx), var);
         if (e < d)
             d = e;
     }
@@ -696,7 +669,8 @@ static long exps_total(const uint64_t *e, int nw)
     int w, f;
     for (w = 0; w < nw; w++)
         for (f = 0; f < 4; f++)
-            t += (long)((e[w] >> (16 * f)) & 0xFFFFu);
+            t += (long)((e[w] >> (GS_POLY_FIELD_BITS * f))
+                        & GS_POLY_FIELD_MASK);
     return t;
 }
 
@@ -722,7 +696,7 @@ void gs_poly_used_vars(unsigned char *used, const gs_poly *a,
         for (w = 0; w < nw; w++)
             m[w] |= a->exps[i * nw + w];
     for (v = 0; v < ctx->nvars; v++)
-        used[v] = get_exp(m, v) != 0;
+        used[v] = gs_poly_exp_get(m, v) != 0;
     free(m);
 }
 
@@ -735,11 +709,12 @@ void gs_poly_coeff_var(gs_poly *r, const gs_poly *a, int var, unsigned k,
     gs_poly t;
     size_t i;
     int w = var / GS_POLY_VARS_PER_WORD;
-    uint64_t clear = ~((uint64_t)0xFFFFu << field_shift(var));
+    uint64_t clear =
+        ~((uint64_t)GS_POLY_FIELD_MASK << gs_poly_field_shift(var));
     gs_poly_init(&t);
     for (i = 0; i < a->length; i++) {
         const uint64_t *e = term_exps(a, i, ctx);
-        if (get_exp(e, var) == k) {
+        if (gs_poly_exp_get(e, var) == k) {
             gs_int_set(append_term(&t, e, ctx), &a->coeffs[i]);
             t.exps[(t.length - 1) * (size_t)ctx->nwords + (size_t)w] &= clear;
         }
@@ -754,9 +729,10 @@ void gs_poly_coeffs_var(gs_poly *out, size_t n, const gs_poly *a, int var,
     size_t i, k, nw = (size_t)ctx->nwords;
     size_t *count = gs_calloc(n + 1, sizeof *count);
     int w = var / GS_POLY_VARS_PER_WORD;
-    uint64_t clear = ~((uint64_t)0xFFFFu << field_shift(var));
+    uint64_t clear =
+        ~((uint64_t)GS_POLY_FIELD_MASK << gs_poly_field_shift(var));
     for (i = 0; i < a->length; i++) {
-        k = get_exp(term_exps(a, i, ctx), var);
+        k = gs_poly_exp_get(term_exps(a, i, ctx), var);
         assert(k < n);
         count[k]++;
     }
@@ -766,7 +742,7 @@ void gs_poly_coeffs_var(gs_poly *out, size_t n, const gs_poly *a, int var,
     }
     for (i = 0; i < a->length; i++) {
         const uint64_t *e = term_exps(a, i, ctx);
-        gs_poly *c = &out[get_exp(e, var)];
+        gs_poly *c = &out[gs_poly_exp_get(e, var)];
         gs_int_set(append_term(c, e, ctx), &a->coeffs[i]);
         c->exps[(c->length - 1) * nw + (size_t)w] &= clear;
     }
@@ -780,11 +756,11 @@ void gs_poly_derivative(gs_poly *r, const gs_poly *a, int var,
 {
     gs_poly t;
     size_t i, nw = (size_t)ctx->nwords;
-    uint64_t one = (uint64_t)1 << field_shift(var);
+    uint64_t one = (uint64_t)1 << gs_poly_field_shift(var);
     gs_poly_init(&t);
     for (i = 0; i < a->length; i++) {
         const uint64_t *e = term_exps(a, i, ctx);
-        unsigned k = get_exp(e, var);
+        unsigned k = gs_poly_exp_get(e, var);
         if (k > 0) {
             gs_int *c = append_term(&t, e, ctx);
             gs_int_mul_si(c, &a->coeffs[i], (int64_t)k);
@@ -797,86 +773,6 @@ void gs_poly_derivative(gs_poly *r, const gs_poly *a, int var,
 
 /* c[k] = coefficient of x_var^k in a for k = 0 .. n (n = degree in var);
    a new array of n + 1 initialised polynomials. */
-static gs_poly *split_var(long *n, const gs_poly *a, int var,
-                          const gs_polyctx *ctx)
-{
-    long d = gs_poly_degree(a, var, ctx), k;
-    gs_poly *c = gs_malloc((size_t)(d + 1 > 0 ? d + 1 : 1) * sizeof *c);
-    size_t i;
-    int w = var / GS_POLY_VARS_PER_WORD;
-    uint64_t clear = ~((uint64_t)0xFFFFu << field_shift(var));
-    for (k = 0; k <= d; k++)
-        gs_poly_init(&c[k]);
-    for (i = 0; i < a->length; i++) {
-        const uint64_t *e = term_exps(a, i, ctx);
-        gs_poly *ck = &c[get_exp(e, var)];
-        gs_int_set(append_term(ck, e, ctx), &a->coeffs[i]);
-        ck->exps[(ck->length - 1) * (size_t)ctx->nwords + (size_t)w] &= clear;
-    }
-    *n = d;
-    return c;
-}
-
-static void free_split(gs_poly *c, long n)
-{
-    long k;
-    for (k = 0; k <= n; k++)
-        gs_poly_clear(&c[k]);
-    free(c);
-}
-
-/* Horner's rule in x_var: r = (..(c_n b + c_{n-1}) b + ..) b + c_0. */
-void gs_poly_subst(gs_poly *r, const gs_poly *a, int var, const gs_poly *b,
-                   const gs_polyctx *ctx)
-{
-    long n, k;
-    gs_poly *c, t;
-    assert(r != b);
-    if (gs_poly_degree(a, var, ctx) <= 0) {
-        gs_poly_set(r, a, ctx);
-        return;
-    }
-    c = split_var(&n, a, var, ctx);
-    gs_poly_init(&t);
-    gs_poly_swap(&t, &c[n]);
-    for (k = n - 1; k >= 0; k--) {
-        gs_poly_mul(&t, &t, b, ctx);
-        gs_poly_add(&t, &t, &c[k], ctx);
-    }
-    gs_poly_swap(r, &t);
-    gs_poly_clear(&t);
-    free_split(c, n);
-}
-
-/* r = sum c_k p^k q^(n-k) by Horner's rule: r_n = c_n,
-   r_k = r_{k+1} p + c_k q^(n-k); scale = q^n. */
-void gs_poly_subst_rat(gs_poly *r, gs_int *scale, const gs_poly *a, int var,
-                       const gs_rat *v, const gs_polyctx *ctx)
-{
-    long n, k;
-    gs_poly *c, t, u;
-    gs_int qk;
-    c = split_var(&n, a, var, ctx);
-    gs_poly_init(&t);
-    gs_poly_init(&u);
-    gs_int_init(&qk);
-    gs_int_set_si(&qk, 1);
-    if (n >= 0)
-        gs_poly_swap(&t, &c[n]);
-    for (k = n - 1; k >= 0; k--) {
-        gs_int_mul(&qk, &qk, &v->den);
-        gs_poly_mul_int(&t, &t, &v->num, ctx);
-        gs_poly_mul_int(&u, &c[k], &qk, ctx);
-        gs_poly_add(&t, &t, &u, ctx);
-    }
-    gs_poly_swap(r, &t);
-    gs_int_swap(scale, &qk);
-    gs_int_clear(&qk);
-    gs_poly_clear(&u);
-    gs_poly_clear(&t);
-    free_split(c, n);
-}
-
 /* Only the extreme coefficients in x_var decide the limit of n/d: the
    leading ones as x -> infinity, the trailing ones as x -> 0. */
 int gs_poly_limit_ratio(gs_poly *rn, gs_poly *rd, const gs_poly *n,
@@ -937,7 +833,7 @@ int gs_poly_limit_ratio(gs_poly *rn, gs_poly *rd, const gs_poly *n,
         const uint64_t *e = term_exps(a, i, ctx);                         \
         T m = GETC(&a->coeffs[i]);                                        \
         for (v = 0; v < ctx->nvars; v++) {                                \
-            unsigned k = get_exp(e, v);                                   \
+            unsigned k = gs_poly_exp_get(e, v);                           \
             if (k != 0)                                                   \
                 m *= pw[off[v] + k];                                      \
         }                                                                 \

@@ -42,6 +42,58 @@
 #define GS_POLY_VARS_PER_WORD 4
 #define GS_POLY_MAX_EXP 0x7FFF   /* top bit of each field is a guard bit */
 
+/* The packed-exponent fields, in one place.  Variable v is the field
+   v % GS_POLY_VARS_PER_WORD of word v / GS_POLY_VARS_PER_WORD, the first
+   variable in the top bits so that comparing words compares exponents
+   lexicographically. */
+#define GS_POLY_FIELD_MASK ((UINT64_C(1) << GS_POLY_FIELD_BITS) - 1)
+/* The top bit of every field.  Exponents are at most GS_POLY_MAX_EXP, so
+   a sum of two never carries into the next field, and
+   ((x | GUARD) - y) & GUARD has a field's guard bit set exactly where
+   x >= y in that field: the usual SIMD-within-a-register trick. */
+#define GS_POLY_GUARD                                                   \
+    (UINT64_C(0x0001000100010001) << (GS_POLY_FIELD_BITS - 1))
+
+/* The bit position of variable var's field in its word. */
+static inline int gs_poly_field_shift(int var)
+{
+    return GS_POLY_FIELD_BITS
+           * (GS_POLY_VARS_PER_WORD - 1 - var % GS_POLY_VARS_PER_WORD);
+}
+
+/* The exponent of var in the packed vector e. */
+static inline unsigned gs_poly_exp_get(const uint64_t *e, int var)
+{
+    return (unsigned)((e[var / GS_POLY_VARS_PER_WORD]
+                       >> gs_poly_field_shift(var)) & GS_POLY_FIELD_MASK);
+}
+
+/* All ones in each field where x >= y in that field, zero elsewhere. */
+static inline uint64_t gs_poly_fields_ge(uint64_t x, uint64_t y)
+{
+    return ((((x | GS_POLY_GUARD) - y) & GS_POLY_GUARD)
+            >> (GS_POLY_FIELD_BITS - 1)) * GS_POLY_FIELD_MASK;
+}
+
+/* Nonzero when x <= y in every field of the word. */
+static inline int gs_poly_fields_le(uint64_t x, uint64_t y)
+{
+    return (((y | GS_POLY_GUARD) - x) & GS_POLY_GUARD) == GS_POLY_GUARD;
+}
+
+/* Per-field minimum and maximum of two words. */
+static inline uint64_t gs_poly_fields_min(uint64_t x, uint64_t y)
+{
+    uint64_t m = gs_poly_fields_ge(x, y);
+    return (y & m) | (x & ~m);
+}
+
+static inline uint64_t gs_poly_fields_max(uint64_t x, uint64_t y)
+{
+    uint64_t m = gs_poly_fields_ge(x, y);
+    return (x & m) | (y & ~m);
+}
+
 typedef struct gs_polyctx {
     const gs_symtab *syms;  /* borrowed: names for printing */
     int nvars;
@@ -207,7 +259,8 @@ void gs_poly_coeffs_var(gs_poly *out, size_t n, const gs_poly *a, int var,
 /* r = d a / d x_var */
 void gs_poly_derivative(gs_poly *r, const gs_poly *a, int var,
                         const gs_polyctx *ctx);
-/* r = a with x_var replaced by the polynomial b.  r must not alias b. */
+/* poly_subst.c: r = a with x_var replaced by the polynomial b.  r must
+   not alias b. */
 void gs_poly_subst(gs_poly *r, const gs_poly *a, int var, const gs_poly *b,
                    const gs_polyctx *ctx);
 /* x_var replaced by the rational v = p/q: r = scale * a(v) where

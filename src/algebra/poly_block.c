@@ -6,17 +6,6 @@
 #include <assert.h>
 #include <string.h>
 
-static int field_shift(int var)
-{
-    return 48 - 16 * (var % GS_POLY_VARS_PER_WORD);
-}
-
-static unsigned get_exp(const uint64_t *e, int var)
-{
-    return (unsigned)(e[var / GS_POLY_VARS_PER_WORD] >> field_shift(var))
-        & 0xFFFFu;
-}
-
 void gs_playout_init(gs_playout *lay, const gs_polyctx *ctx, int m,
                      const unsigned *radix)
 {
@@ -37,7 +26,7 @@ void gs_playout_init(gs_playout *lay, const gs_polyctx *ctx, int m,
             d *= radix[v];
         else
             lay->premask[v / GS_POLY_VARS_PER_WORD] |=
-                (uint64_t)0xFFFFu << field_shift(v);
+                (uint64_t)GS_POLY_FIELD_MASK << gs_poly_field_shift(v);
     }
     lay->dsize = d;
     assert(d <= ((size_t)1 << 16));     /* for gs_playout_digit */
@@ -68,7 +57,7 @@ void gs_playout_decode(const gs_playout *lay, uint64_t *e, size_t k)
         return;
     for (v = lay->m; v < lay->ctx->nvars; v++)
         e[v / GS_POLY_VARS_PER_WORD] |=
-            (uint64_t)gs_playout_digit(lay, k, v) << field_shift(v);
+            (uint64_t)gs_playout_digit(lay, k, v) << gs_poly_field_shift(v);
 }
 
 void gs_pside_build(gs_pside *s, const gs_poly *p, const gs_playout *lay,
@@ -97,7 +86,7 @@ void gs_pside_build(gs_pside *s, const gs_poly *p, const gs_playout *lay,
             s->start[nb++] = i;
         }
         for (v = lay->m; v < nvars; v++)
-            x += get_exp(e, v) * lay->stride[v];
+            x += gs_poly_exp_get(e, v) * lay->stride[v];
         s->idx[i] = (uint32_t)x;
         if (small)
             s->small[i] = gs_int_get_si(&p->coeffs[i]);
@@ -132,7 +121,7 @@ void gs_poly_block_counts(size_t *blocks, const gs_poly *a,
             ;
         assert(w < nw);     /* canonical: no repeated monomials */
         d = x[w] ^ y[w];
-        while (((d >> field_shift(f)) & 0xFFFFu) == 0)
+        while (((d >> gs_poly_field_shift(f)) & GS_POLY_FIELD_MASK) == 0)
             f++;
         hist[w * GS_POLY_VARS_PER_WORD + (size_t)f]++;
     }

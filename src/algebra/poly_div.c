@@ -30,8 +30,6 @@
 #include <stdlib.h>
 #include <string.h>
 
-#define GUARD UINT64_C(0x8000800080008000)
-
 typedef struct divstate {
     const gs_polyctx *ctx;
     const gs_poly *a, *b;
@@ -63,20 +61,9 @@ static int le_fields(const uint64_t *x, const uint64_t *y, size_t nw)
 {
     size_t w;
     for (w = 0; w < nw; w++)
-        if ((((y[w] | GUARD) - x[w]) & GUARD) != GUARD)
+        if (!gs_poly_fields_le(x[w], y[w]))
             return 0;
     return 1;
-}
-
-static unsigned get_exp(const uint64_t *e, int var)
-{
-    return (unsigned)(e[var / 4] >> (48 - 16 * (var % 4))) & 0xFFFFu;
-}
-
-/* per-field maximum and minimum of two words (poly.c has the same) */
-static uint64_t field_ge(uint64_t x, uint64_t y)
-{
-    return ((((x | GUARD) - y) & GUARD) >> 15) * 0xFFFFu;
 }
 
 /* mx, mn = per-field maximum and minimum of the exponents of p (p != 0):
@@ -90,7 +77,8 @@ static void exp_range(uint64_t *mx, uint64_t *mn, const gs_poly *p,
     for (i = 1; i < p->length; i++)
         for (w = 0; w < nw; w++) {
             uint64_t e = p->exps[i * nw + w];
-            uint64_t m1 = field_ge(e, mx[w]), m2 = field_ge(e, mn[w]);
+            uint64_t m1 = gs_poly_fields_ge(e, mx[w]);
+            uint64_t m2 = gs_poly_fields_ge(e, mn[w]);
             mx[w] = (e & m1) | (mx[w] & ~m1);
             mn[w] = (mn[w] & m2) | (e & ~m2);
         }
@@ -279,8 +267,8 @@ static int prefix_ok(divstate *s)
     for (w = 0; w < s->nw; w++) {
         uint64_t hi = s->qmax[w] & s->lay.premask[w];
         uint64_t lo = s->qmin[w] & s->lay.premask[w];
-        if ((((hi | GUARD) - s->qpre[w]) & GUARD) != GUARD
-            || (((s->qpre[w] | GUARD) - lo) & GUARD) != GUARD)
+        if (!gs_poly_fields_le(s->qpre[w], hi)
+            || !gs_poly_fields_le(lo, s->qpre[w]))
             return 0;
     }
     return 1;
@@ -497,9 +485,9 @@ static void unpack_bounds(divstate *s)
     s->dqmax = s->dlmb + n + 1;
     s->dqmin = s->dqmax + n + 1;
     for (v = 0; v < n; v++) {
-        s->dlmb[v] = get_exp(s->b->exps, v);
-        s->dqmax[v] = get_exp(s->qmax, v);
-        s->dqmin[v] = get_exp(s->qmin, v);
+        s->dlmb[v] = gs_poly_exp_get(s->b->exps, v);
+        s->dqmax[v] = gs_poly_exp_get(s->qmax, v);
+        s->dqmin[v] = gs_poly_exp_get(s->qmin, v);
     }
 }
 
@@ -606,7 +594,8 @@ int gs_poly_divexact_method(gs_poly *q, const gs_poly *a, const gs_poly *b,
     radix = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *radix);
     if (set_bounds(&s, s.qmin + s.nw)) {
         for (v = 0; v < (size_t)ctx->nvars; v++)    /* every key is at */
-            radix[v] = get_exp(s.qmin + s.nw, (int)v) + 1;  /* most deg a */
+            /* most deg a */
+            radix[v] = gs_poly_exp_get(s.qmin + s.nw, (int)v) + 1;
         m = div_plan(a, radix, method & 7, ctx);
         small = GS_HAVE_I128 && !(method & GS_POLY_MUL_BIGACC)
             && all_small(b, &s.bb) && bits_at_most(a, 125);

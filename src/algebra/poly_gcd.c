@@ -80,25 +80,19 @@ static void gcd_nonzero(gs_poly *g, const gs_poly *a, const gs_poly *b,
 
 /* ---- packed exponents ------------------------------------------------ */
 
+/* field f (0 = the top) of word w */
 static unsigned field_get(uint64_t w, int f)
 {
-    return (unsigned)((w >> (GS_POLY_FIELD_BITS * (3 - f))) & 0xFFFFu);
+    return (unsigned)((w >> gs_poly_field_shift(f)) & GS_POLY_FIELD_MASK);
 }
 
 /* componentwise minimum of two packed exponent vectors */
 static void mono_min(uint64_t *r, const uint64_t *a, const uint64_t *b,
                      int nwords)
 {
-    int w, f;
-    for (w = 0; w < nwords; w++) {
-        uint64_t v = 0;
-        for (f = 0; f < GS_POLY_VARS_PER_WORD; f++) {
-            unsigned ea = field_get(a[w], f), eb = field_get(b[w], f);
-            v |= (uint64_t)(ea < eb ? ea : eb)
-                 << (GS_POLY_FIELD_BITS * (3 - f));
-        }
-        r[w] = v;
-    }
+    int w;
+    for (w = 0; w < nwords; w++)
+        r[w] = gs_poly_fields_min(a[w], b[w]);
 }
 
 static int mono_is_one(const uint64_t *e, int nwords)
@@ -1527,8 +1521,7 @@ static int gcd_by_support(gs_poly *g, const gs_poly *a, const gs_poly *b,
     for (v = 0; v < ctx->nvars; v++)
         if (bd[v] <= 0 && (ta->deg[v] > 0 || tb->deg[v] > 0)) {
             ymask[v / GS_POLY_VARS_PER_WORD] |=
-                (uint64_t)0xFFFFu << (GS_POLY_FIELD_BITS
-                                      * (3 - v % GS_POLY_VARS_PER_WORD));
+                (uint64_t)GS_POLY_FIELD_MASK << gs_poly_field_shift(v);
             any = 1;
         }
     if (!any) {

@@ -213,7 +213,8 @@ static inline void gs_ppack_init(gs_ppack *p, const unsigned *maxv,
             pos = 64;
         }
         pos -= bits;
-        p->from[p->nact] = (v / 4) * 64 + 48 - 16 * (v % 4);
+        p->from[p->nact] = (v / GS_POLY_VARS_PER_WORD) * 64
+                           + gs_poly_field_shift(v);
         p->to[p->nact++] = w * 64 + pos;
     }
     p->nw = w + 1;
@@ -233,7 +234,8 @@ static inline void gs_ppack_pack(const gs_ppack *p, uint64_t *out,
         uint64_t x = 0;
         for (k = 0; k < p->nact; k++) {
             int f = p->from[k];
-            x |= ((e[f >> 6] >> (f & 63)) & 0xFFFFu) << (p->to[k] & 63);
+            x |= ((e[f >> 6] >> (f & 63)) & GS_POLY_FIELD_MASK)
+                 << (p->to[k] & 63);
         }
         out[0] = x;
         return;
@@ -242,7 +244,8 @@ static inline void gs_ppack_pack(const gs_ppack *p, uint64_t *out,
         out[k] = 0;
     for (k = 0; k < p->nact; k++) {
         int f = p->from[k], t = p->to[k];
-        out[t >> 6] |= ((e[f >> 6] >> (f & 63)) & 0xFFFFu) << (t & 63);
+        out[t >> 6] |= ((e[f >> 6] >> (f & 63)) & GS_POLY_FIELD_MASK)
+                       << (t & 63);
     }
 }
 

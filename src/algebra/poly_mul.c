@@ -388,7 +388,7 @@ static void sop_key(uint64_t *key, const sop_stream *s, int nw)
     int w;
     for (w = 0; w < nw; w++) {
         key[w] = e[w] + s->mono[w];
-        assert((key[w] & UINT64_C(0x8000800080008000)) == 0);
+        assert((key[w] & GS_POLY_GUARD) == 0);
     }
 }
 

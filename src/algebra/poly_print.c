@@ -8,63 +8,36 @@
 
 #include "gainsmith.h"
 #include "base/mem.h"
+#include "base/strbuf.h"
 
 #include <assert.h>
 #include <ctype.h>
 #include <stdlib.h>
 #include <string.h>
 
-typedef struct strbuf {
-    char *s;
-    size_t n, alloc;
-} strbuf;
-
-static void sb_add(strbuf *b, const char *t, size_t n)
-{
-    if (b->n + n + 1 > b->alloc) {
-        b->alloc = 2 * (b->n + n + 1);
-        b->s = gs_realloc(b->s, b->alloc);
-    }
-    memcpy(b->s + b->n, t, n);
-    b->n += n;
-    b->s[b->n] = '\0';
-}
-
-static void sb_puts(strbuf *b, const char *t)
-{
-    sb_add(b, t, strlen(t));
-}
-
-static unsigned get_exp(const uint64_t *e, int var)
-{
-    return (unsigned)(e[var / GS_POLY_VARS_PER_WORD]
-                      >> (48 - 16 * (var % GS_POLY_VARS_PER_WORD)))
-        & 0xFFFFu;
-}
-
-static void put_monomial(strbuf *b, const uint64_t *e, const gs_polyctx *ctx)
+static void put_monomial(gs_strbuf *b, const uint64_t *e, const gs_polyctx *ctx)
 {
     int v, first = 1;
     char num[16];
     for (v = 0; v < ctx->nvars; v++) {
-        unsigned k = get_exp(e, v);
+        unsigned k = gs_poly_exp_get(e, v);
         const char *name;
         if (k == 0)
             continue;
         if (!first)
-            sb_puts(b, "*");
+            gs_strbuf_add(b, "*");
         first = 0;
         name = gs_symtab_name(ctx->syms, v);
         if (gs_symtab_is_recip(ctx->syms, v)) {
-            sb_puts(b, "(");
-            sb_puts(b, name);
-            sb_puts(b, ")");
+            gs_strbuf_add(b, "(");
+            gs_strbuf_add(b, name);
+            gs_strbuf_add(b, ")");
         } else {
-            sb_puts(b, name);
+            gs_strbuf_add(b, name);
         }
         if (k > 1) {
             snprintf(num, sizeof num, "^%u", k);
-            sb_puts(b, num);
+            gs_strbuf_add(b, num);
         }
     }
 }
@@ -80,28 +53,29 @@ static int exps_zero(const uint64_t *e, int nw)
 
 char *gs_poly_get_str(const gs_poly *a, const gs_polyctx *ctx)
 {
-    strbuf b = { NULL, 0, 0 };
+    gs_strbuf b;
     size_t i;
-    sb_puts(&b, a->length == 0 ? "0" : "");
+    gs_strbuf_init(&b);
+    gs_strbuf_add(&b, a->length == 0 ? "0" : "");
     for (i = 0; i < a->length; i++) {
         const uint64_t *e = a->exps + i * (size_t)ctx->nwords;
         const gs_int *c = &a->coeffs[i];
         int neg = gs_int_sgn(c) < 0, mono = !exps_zero(e, ctx->nwords);
         if (i == 0)
-            sb_puts(&b, neg ? "-" : "");
+            gs_strbuf_add(&b, neg ? "-" : "");
         else
-            sb_puts(&b, neg ? " - " : " + ");
+            gs_strbuf_add(&b, neg ? " - " : " + ");
         if (!mono || !(gs_int_is_one(c) || gs_int_cmp_si(c, -1) == 0)) {
             char *digits = gs_int_get_str(c);
-            sb_puts(&b, digits + (digits[0] == '-'));
+            gs_strbuf_add(&b, digits + (digits[0] == '-'));
             free(digits);
             if (mono)
-                sb_puts(&b, "*");
+                gs_strbuf_add(&b, "*");
         }
         if (mono)
             put_monomial(&b, e, ctx);
     }
-    return b.s;
+    return b.p;
 }
 
 void gs_poly_print(FILE *out, const gs_poly *a, const gs_polyctx *ctx)

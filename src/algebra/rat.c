@@ -16,6 +16,7 @@
 
 #include "gainsmith.h"
 #include "base/mem.h"
+#include "base/si.h"
 
 /* Largest decimal exponent gs_rat_parse accepts, after the prefix and the
    fraction digits are folded in: far past any physical quantity, small
@@ -101,30 +102,6 @@ int gs_rat_set_si(gs_rat *r, int64_t n, int64_t d)
 
 /* ---- parsing and printing ----------------------------------------------- */
 
-/* The SI prefix at p, if any: its power of ten, and its length in bytes.
-   Micro is u, U+00B5 MICRO SIGN or U+03BC GREEK SMALL LETTER MU (BIPM, SI
-   Brochure, 9th ed., table 7). */
-static size_t si_prefix(const char *p, long *pow10)
-{
-    static const struct {
-        const char *text;
-        long pow10;
-    } tab[] = {
-        {"f", -15}, {"p", -12}, {"n", -9}, {"u", -6}, {"\xc2\xb5", -6},
-        {"\xce\xbc", -6}, {"m", -3}, {"k", 3}, {"M", 6}, {"G", 9},
-        {"T", 12},
-    };
-    size_t i;
-    for (i = 0; i < sizeof tab / sizeof tab[0]; i++) {
-        size_t len = strlen(tab[i].text);
-        if (strncmp(p, tab[i].text, len) == 0) {
-            *pow10 = tab[i].pow10;
-            return len;
-        }
-    }
-    return 0;
-}
-
 static size_t digits(const char *p)
 {
     return strspn(p, "0123456789");
@@ -188,7 +165,8 @@ int gs_rat_parse(gs_rat *r, const char *s, const char **end)
 {
     const char *p = s, *ip, *fp = "";
     size_t il, fl = 0, n;
-    long e, pe = 0;
+    long e;
+    int pe = 0;
     int neg = 0, big = 0;
     char *dig;
     if (*p == '+' || *p == '-')
@@ -204,7 +182,7 @@ int gs_rat_parse(gs_rat *r, const char *s, const char **end)
     if (il + fl == 0)
         return GS_ESYNTAX;
     p += exponent(p, &e, &big);
-    p += si_prefix(p, &pe);
+    p += gs_si_prefix_scan(p, &pe);
     if ((end == NULL && *p != '\0') || big)
         return GS_ESYNTAX;
     e += pe - (long)fl;

@@ -200,6 +200,7 @@ char *gs_sym_latex_name(const char *name)
     return out;
 }
 
+
 char *gs_symtab_latex(const gs_symtab *st, int id)
 {
     char *inner, *out;

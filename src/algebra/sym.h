@@ -38,7 +38,8 @@ int gs_symtab_base(const gs_symtab *st, int id);
    body, the rest becomes a subscript, an underscore separates subscript
    parts with a comma:  gm -> g_{m}, rds -> r_{ds}, Cgs_M1 -> C_{gs,M1},
    R1 -> R_{1}, beta -> \beta, s -> s. */
-char *gs_symtab_latex(const gs_symtab *st, int id);
 char *gs_sym_latex_name(const char *name);
+/* The LaTeX name of symbol id of st: a reciprocal symbol as \frac{1}{R}. */
+char *gs_symtab_latex(const gs_symtab *st, int id);
 
 #endif

@@ -247,7 +247,7 @@ static void make_cum(work *wk)
                         wk->pts + (size_t)p * (size_t)nv, wk->ctx);
                     size_t at = wk->off[w][k] + i * (size_t)wk->np
                                 + (size_t)p;
-                    wk->cum[w][at] = v + (i ? wk->cum[w][at - wk->np] : 0);
+                    wk->cum[w][at] = v + (i ? wk->cum[w][at - (size_t)wk->np] : 0);
                 }
         }
     }

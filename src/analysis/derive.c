@@ -56,17 +56,11 @@ static void remove_monomial_content(gs_poly *a, gs_poly *b,
 {
     uint64_t *ea = gs_calloc((size_t)ctx->nwords, sizeof *ea);
     uint64_t *eb = gs_calloc((size_t)ctx->nwords, sizeof *eb);
-    int w, f, any = 0;
+    int w, any = 0;
     gs_poly_monomial_content(ea, a, ctx);
     gs_poly_monomial_content(eb, b, ctx);
-    /* componentwise minimum of the packed 16-bit fields */
     for (w = 0; w < ctx->nwords; w++) {
-        uint64_t m = 0;
-        for (f = 0; f < 4; f++) {
-            uint64_t x = (ea[w] >> (16 * f)) & 0xFFFF;
-            uint64_t y = (eb[w] >> (16 * f)) & 0xFFFF;
-            m |= (x < y ? x : y) << (16 * f);
-        }
+        uint64_t m = gs_poly_fields_min(ea[w], eb[w]);
         ea[w] = m;
         any |= m != 0;
     }
@@ -78,8 +72,13 @@ static void remove_monomial_content(gs_poly *a, gs_poly *b,
     free(eb);
 }
 
-void gs_reduce_ratio(gs_poly *num, gs_poly *den, const gs_symtab *st,
-                     const gs_polyctx *ctx, int use_gcd, size_t *gcd_terms)
+/* Put num/den in lowest terms in place: reciprocal symbols cleared,
+   common monomial, integer and polynomial factors removed, sign made
+   positive on den's leading term.  gcd_terms (may be NULL) gets the size
+   of the polynomial factor removed. */
+void gs_reduce_ratio(gs_poly *num, gs_poly *den,
+                            const gs_symtab *st, const gs_polyctx *ctx,
+                            int use_gcd, size_t *gcd_terms)
 {
     gs_poly g;
     gs_int cn, cd;

@@ -195,7 +195,7 @@ static int row_weight(const view *v, int r, const uint64_t *live)
 {
     int k, c = 0;
     for (k = 0; k < v->w; k++)
-        c += __builtin_popcountll(v->nz[(size_t)r * (size_t)v->w + k]
+        c += __builtin_popcountll(v->nz[(size_t)r * (size_t)v->w + (size_t)k]
                                   & live[k]);
     return c;
 }

@@ -51,7 +51,7 @@ char *gs_tf_get_str(const gs_tf *tf, int collect_var);
    are wrapped between terms to stay within 79 columns. */
 void gs_print_pretty(FILE *out, const gs_tf *tf, int collect_var);
 /* A LaTeX equation environment with \frac, subscripted symbols
-   (gs_symtab_latex), powers of collect_var collected. */
+   (gs_sym_latex_name), powers of collect_var collected. */
 void gs_print_latex(FILE *out, const gs_tf *tf, int collect_var);
 /* A self-contained C99 function
    `double complex NAME(double complex s, const struct NAME_params *p)`

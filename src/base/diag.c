@@ -120,7 +120,6 @@ void gs_diag_add(gs_diag *d, int severity, const char *file, int line,
 {
     gs_diag_entry e;
     va_list ap;
-    int len;
 
     if (severity == GS_SEV_ERROR) {
         d->nerrors++;
@@ -129,20 +128,13 @@ void gs_diag_add(gs_diag *d, int severity, const char *file, int line,
     } else if (severity == GS_SEV_WARNING) {
         d->nwarnings++;
     }
-    va_start(ap, fmt);
-    len = vsnprintf(NULL, 0, fmt, ap);
-    va_end(ap);
     e.severity = severity;
     e.file = file ? gs_strdup(file) : NULL;
     e.line = line;
     e.col = col;
-    e.message = gs_malloc(len > 0 ? (size_t)len + 1 : 1);
-    e.message[0] = '\0';
-    if (len > 0) {
-        va_start(ap, fmt);
-        vsnprintf(e.message, (size_t)len + 1, fmt, ap);
-        va_end(ap);
-    }
+    va_start(ap, fmt);
+    e.message = gs_vasprintf(fmt, ap);
+    va_end(ap);
     {
         char *shown = escape_message(e.message);
         free(e.message);

@@ -45,7 +45,8 @@ void gs_diag_add(gs_diag *d, int severity, const char *file, int line,
    "N more errors not shown" if max_errors cut the list. */
 void gs_diag_print(FILE *out, const gs_diag *d);
 
-/* Move all of src's entries to the end of dst; src is left empty. */
+/* Move every entry of src to the end of dst and count them there; src is
+   left empty (initialised). */
 void gs_diag_append(gs_diag *dst, gs_diag *src);
 
 /* Column (1-based, in UTF-8 characters) of byte offset `off` in the line

@@ -61,19 +61,35 @@ char *gs_strdup(const char *s)
     return gs_strndup(s, strlen(s));
 }
 
+char *gs_vasprintf(const char *fmt, va_list ap)
+{
+    va_list aq;
+    int n;
+    char *p;
+    va_copy(aq, ap);
+    n = vsnprintf(NULL, 0, fmt, aq);
+    va_end(aq);
+    p = gs_malloc(n > 0 ? (size_t)n + 1 : 1);
+    p[0] = '\0';
+    if (n > 0)
+        vsnprintf(p, (size_t)n + 1, fmt, ap);
+    return p;
+}
+
 char *gs_asprintf(const char *fmt, ...)
 {
     va_list ap;
-    int n;
     char *p;
     va_start(ap, fmt);
-    n = vsnprintf(NULL, 0, fmt, ap);
-    va_end(ap);
-    if (n < 0)
-        return gs_strdup("");
-    p = gs_malloc((size_t)n + 1);
-    va_start(ap, fmt);
-    vsnprintf(p, (size_t)n + 1, fmt, ap);
+    p = gs_vasprintf(fmt, ap);
     va_end(ap);
     return p;
+}
+
+void *gs_grow(void *v, size_t n, size_t *alloc, size_t size)
+{
+    if (n < *alloc && v != NULL)
+        return v;
+    *alloc = *alloc > n ? *alloc : (n < 8 ? 16 : 2 * n);
+    return gs_reallocarray(v, *alloc, size);
 }

@@ -2,6 +2,7 @@
 #ifndef GS_MEM_H
 #define GS_MEM_H
 
+#include <stdarg.h>
 #include <stddef.h>
 
 /* These behave like malloc, calloc, realloc and strdup, except that on
@@ -21,5 +22,15 @@ char *gs_asprintf(const char *fmt, ...)
     __attribute__((format(printf, 1, 2)))
 #endif
     ;
+/* The same from a va_list, which it consumes (va_end is the caller's);
+   the one place that sizes a formatted string. */
+char *gs_vasprintf(const char *fmt, va_list ap)
+#if defined(__GNUC__)
+    __attribute__((format(printf, 1, 0)))
+#endif
+    ;
+/* An array v of *alloc items of size `size`, grown (doubling) if need be
+   to hold n + 1 items; returns the array, *alloc updated. */
+void *gs_grow(void *v, size_t n, size_t *alloc, size_t size);
 
 #endif

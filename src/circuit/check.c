@@ -30,75 +30,15 @@
  * counts in loops of elements with a free current, and its inputs in
  * loops of elements with a fixed voltage.  check_parts.c has the rules for
  * parts cut off from gnd, check_rank.c a last test on the pattern of the
- * equations.
+ * equations; gs_circuit_check at the end of this file runs them all.  The
+ * helpers they share are in check_util.c, which calls none of them.
  */
 #include "circuit/checker.h"
 #include "gainsmith.h"
 #include "base/mem.h"
-#include "circuit/parse.h"
 
 #include <stdlib.h>
 #include <string.h>
-
-/* Names listed in one message before "...". */
-#define MAX_LISTED 8
-
-int gs_uf_find(int *parent, int x)
-{
-    while (parent[x] != x) {
-        parent[x] = parent[parent[x]];  /* path halving */
-        x = parent[x];
-    }
-    return x;
-}
-
-void gs_uf_union(int *parent, int a, int b)
-{
-    parent[gs_uf_find(parent, a)] = gs_uf_find(parent, b);
-}
-
-void gs_uf_reset(int *parent, int n)
-{
-    int i;
-    for (i = 0; i < n; i++)
-        parent[i] = i;
-}
-
-int gs_is_current_source(gs_elem_kind k)
-{
-    return k == GS_ISOURCE || k == GS_VCCS || k == GS_CCCS;
-}
-
-int gs_senses_nothing(const gs_element *e)
-{
-    return (e->kind == GS_VCCS || e->kind == GS_VCVS)
-           && e->node[2] == e->node[3];
-}
-
-void gs_check_report(const gs_checker *k, int severity, int line, int col,
-                     const char *hint, const char *msg)
-{
-    gs_diag_add(k->d, severity, line > 0 ? k->c->file : NULL, line, col,
-                hint, "%s", msg);
-}
-
-char *gs_check_list(const char *const *names, size_t n, int quote)
-{
-    char *out = gs_strdup(""), *next;
-    size_t i;
-    for (i = 0; i < n && i < MAX_LISTED; i++) {
-        next = gs_asprintf(quote ? "%s%s'%s'" : "%s%s%s", out,
-                           i ? ", " : "", names[i]);
-        free(out);
-        out = next;
-    }
-    if (n > MAX_LISTED) {
-        next = gs_asprintf("%s, ...", out);
-        free(out);
-        out = next;
-    }
-    return out;
-}
 
 /* ---- outputs ---- */
 

@@ -1,5 +1,6 @@
-/* checker.h - internals shared by the structural checks (check*.c).
- * See LICENSE.
+/* checker.h - internals shared by the structural checks (check*.c):
+ * the helpers of check_util.c and the checks of check_parts.c and
+ * check_rank.c, which check.c's gs_circuit_check runs.  See LICENSE.
  */
 #ifndef GS_CHECKER_H
 #define GS_CHECKER_H
@@ -29,9 +30,6 @@ void gs_check_report(const gs_checker *k, int severity, int line, int col,
    a new string. */
 char *gs_check_list(const char *const *names, size_t n, int quote);
 
-/* An element whose output current is set by a source or a gain rather
-   than by the voltage across it: isource, vccs, cccs. */
-int gs_is_current_source(gs_elem_kind k);
 /* A vccs or vcvs whose two control terminals are one node senses 0. */
 int gs_senses_nothing(const gs_element *e);
 

@@ -252,6 +252,9 @@ size_t gs_circuit_add_value(gs_circuit *c, int sym, gs_expr *expr,
    Expressions are evaluated in long double (C11 7.12). */
 int gs_circuit_eval_values(const gs_circuit *c, long double *vals,
                            unsigned char *set, gs_diag *d);
+/* Report every cycle among the value definitions (part of
+   gs_circuit_check); GS_OK or GS_EINVAL. */
+int gs_values_check_cycles(const gs_circuit *c, gs_diag *d);
 /* Evaluate one expression given values (set[] marks the bound ones).
    GS_OK, GS_EUNBOUND (a symbol without a value) or GS_EINVAL (a domain
    error or an overflow), with the message in d. */

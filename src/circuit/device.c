@@ -26,17 +26,7 @@ static gs_numtext fmt(long double v, gs_quantity q)
 static void vadd(gs_diag *d, int sev, const gs_srcpos *at, const char *hint,
                  const char *f, va_list ap)
 {
-    va_list ap2;
-    int n;
-    char *msg;
-
-    va_copy(ap2, ap);
-    n = vsnprintf(NULL, 0, f, ap2);
-    va_end(ap2);
-    msg = gs_malloc(n > 0 ? (size_t)n + 1 : 1);
-    msg[0] = '\0';
-    if (n > 0)
-        vsnprintf(msg, (size_t)n + 1, f, ap);
+    char *msg = gs_vasprintf(f, ap);
     gs_diag_add(d, sev, at ? at->file : NULL, at ? at->line : 0,
                 at ? at->col : 0, hint, "%s", msg);
     free(msg);
@@ -932,9 +922,9 @@ static int bjt_bias(const gs_circuit *c, const gs_bias *b, const figure *f,
     return GS_OK;
 }
 
-int gs_device_apply_bias(const gs_circuit *c, size_t bias_index,
-                         long double *vals, unsigned char *set,
-                         char **origin, gs_diag *d)
+static int gs_device_apply_bias(const gs_circuit *c, size_t bias_index,
+                                long double *vals, unsigned char *set,
+                                char **origin, gs_diag *d)
 {
     const gs_bias *b;
     const gs_device *dv;

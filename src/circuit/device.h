@@ -131,7 +131,7 @@ int gs_bjt_cpi(long double *cpi, long double gm, long double ft,
 /* Nonzero when vce < GS_VCE_SAT (VCE = 0.2 V is forward active). */
 int gs_bjt_saturated(long double vce);
 
-/* Interpret bias line c->biases[bias_index] (DESIGN.md: `bias M1 id=1m
+/* Interpret every bias line in turn (DESIGN.md: `bias M1 id=1m
    vds=2 k=2m vth=0.5 lambda=0.04`) and set the numeric values of its
    device's small-signal symbols: the names its device line gives (gm=,
    rds=, gmb=; rpi=, ro=, re=, cpi=, cmu= for a BJT) when they are plain
@@ -146,12 +146,9 @@ int gs_bjt_saturated(long double vce);
    over-determined set of figures, a device cut off) go to d at the bias
    line or the offending value: GS_ESYNTAX, GS_EINVAL or GS_ERANGE, and
    nothing is set.  Warnings (triode, saturated BJT, figures left
-   unused) go to d as well; they do not stop the values. */
-int gs_device_apply_bias(const gs_circuit *c, size_t bias_index,
-                         long double *vals, unsigned char *set,
-                         char **origin, gs_diag *d);
-/* Every bias line in turn, reporting all errors; returns the first
-   error code or GS_OK. */
+   unused) go to d as well; they do not stop the values.  Every line is
+   tried, so all errors are reported; returns the first error code or
+   GS_OK. */
 int gs_device_apply_biases(const gs_circuit *c, long double *vals,
                            unsigned char *set, char **origin, gs_diag *d);
 

@@ -52,7 +52,9 @@ int gs_parse_symbol(gs_cursor *cur, const gs_token *t, gs_circuit *c)
     return gs_symtab_intern(c->syms, t->text);
 }
 
-int gs_parse_number(gs_rat *r, gs_cursor *cur, const gs_token *t)
+/* The exact number written at t, or GS_ESYNTAX after "'4.7q' is not a
+   number". */
+static int gs_parse_number(gs_rat *r, gs_cursor *cur, const gs_token *t)
 {
     if (gs_rat_parse(r, t->text, NULL) == GS_OK)
         return GS_OK;

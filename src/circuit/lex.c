@@ -54,17 +54,8 @@ void gs_lex_position(const gs_lexer *lx, size_t off, int *line, int *col)
 static void vreport(const gs_lexer *lx, gs_diag *d, int severity, size_t off,
                     const char *hint, const char *fmt, va_list ap)
 {
-    va_list aq;
-    int len, line, col;
-    char *msg;
-
-    va_copy(aq, ap);
-    len = vsnprintf(NULL, 0, fmt, aq);
-    va_end(aq);
-    msg = gs_malloc(len > 0 ? (size_t)len + 1 : 1);
-    msg[0] = '\0';
-    if (len > 0)
-        vsnprintf(msg, (size_t)len + 1, fmt, ap);
+    int line, col;
+    char *msg = gs_vasprintf(fmt, ap);
     gs_lex_position(lx, off, &line, &col);
     if (lx->what != NULL)
         gs_diag_add(d, severity, NULL, 0, 0, hint, "%s: %s", lx->what, msg);

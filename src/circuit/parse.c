@@ -30,14 +30,6 @@ typedef struct stmt_kind {
     const char *form;       /* the usage line, for hints */
 } stmt_kind;
 
-void *gs_grow(void *v, size_t n, size_t *alloc, size_t size)
-{
-    if (n < *alloc && v != NULL)
-        return v;
-    *alloc = *alloc > n ? *alloc : (n < 8 ? 16 : 2 * n);
-    return gs_reallocarray(v, *alloc, size);
-}
-
 void gs_parser_expected(gs_parser *p, const gs_token *t, const char *what,
                         const char *form)
 {
@@ -114,7 +106,8 @@ void gs_parser_set_name(gs_parser *p, int id, int kind, int index,
     p->name_off[id] = off;
 }
 
-int gs_parser_is_node_token(const gs_token *t)
+/* Is t a syntactically valid node name (an identifier or an integer)? */
+static int gs_parser_is_node_token(const gs_token *t)
 {
     size_t i;
     if (t->kind == GS_TK_IDENT)

@@ -57,9 +57,6 @@ typedef struct gs_parser {
            biases_alloc;
 } gs_parser;
 
-/* Grow *v (of *alloc items of size `size`) to hold n + 1 items. */
-void *gs_grow(void *v, size_t n, size_t *alloc, size_t size);
-
 /* Register t's text as a new element or device name: reports a duplicate
    ("first defined at"), a reserved or dotted name, and returns the name
    id or -1.  The caller sets name_kind/name_index. */
@@ -72,8 +69,6 @@ void gs_parser_set_name(gs_parser *p, int id, int kind, int index,
    (GS_OK or GS_ESYNTAX, reported). */
 int gs_parser_node(gs_parser *p, const gs_token *t, const char *what);
 int gs_parser_check_node(gs_parser *p, const gs_token *t, const char *what);
-/* Is t a syntactically valid node name (an identifier or an integer)? */
-int gs_parser_is_node_token(const gs_token *t);
 /* A new element named `name`, value 1, nodes -1, ctrl -1, device -1;
    the pointer is good until the next element is added. */
 gs_element *gs_parser_add_element(gs_parser *p, gs_elem_kind kind,
@@ -106,12 +101,5 @@ int gs_parse_monomial(gs_monomial *m, gs_cursor *cur, gs_circuit *c);
 /* A value expression, stopping likewise.  GS_OK or GS_ESYNTAX (*out =
    NULL). */
 int gs_parse_expr(gs_expr **out, gs_cursor *cur, gs_circuit *c);
-/* The exact number written at t, or GS_ESYNTAX after "'4.7q' is not a
-   number". */
-int gs_parse_number(gs_rat *r, gs_cursor *cur, const gs_token *t);
-
-/* eval.c: report every cycle among the value definitions; GS_OK or
-   GS_EINVAL. */
-int gs_values_check_cycles(const gs_circuit *c, gs_diag *d);
 
 #endif

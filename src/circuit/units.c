@@ -2,6 +2,7 @@
 #include "circuit/units.h"
 #include "gainsmith.h"
 #include "base/mem.h"
+#include "base/si.h"
 
 #include <ctype.h>
 #include <errno.h>
@@ -52,18 +53,6 @@ static const unit_entry units[] = {
     {"C", GS_Q_TEMPERATURE, 1},
     {"degC", GS_Q_TEMPERATURE, 1},
     {"\xC2\xB0" "C", GS_Q_TEMPERATURE, 1},  /* °C */
-};
-
-typedef struct prefix_entry {
-    const char *text;
-    int exp;
-} prefix_entry;
-
-static const prefix_entry prefixes[] = {
-    {"f", -15}, {"p", -12}, {"n", -9}, {"u", -6},
-    {"\xC2\xB5", -6},   /* U+00B5 MICRO SIGN */
-    {"\xCE\xBC", -6},   /* U+03BC GREEK SMALL LETTER MU */
-    {"m", -3}, {"k", 3}, {"M", 6}, {"G", 9}, {"T", 12},
 };
 
 /* A decimal as written: the mantissa text and the exponent after 'e'. */
@@ -143,21 +132,12 @@ static const unit_entry *match_unit(const char *s)
     return NULL;
 }
 
-static const prefix_entry *match_prefix(const char *s)
-{
-    size_t i;
-    for (i = 0; i < sizeof prefixes / sizeof prefixes[0]; i++)
-        if (strncmp(s, prefixes[i].text, strlen(prefixes[i].text)) == 0)
-            return &prefixes[i];
-    return NULL;
-}
-
 /* What follows the number: nothing, a unit, a prefix, or a prefix and a
    unit.  A whole-word unit wins over a prefix ("10F" is ten farads,
    "10f" ten femto), and a lone prefix letter is a prefix ("1m"). */
 static int scan_suffix(const char *s, int *exp, const unit_entry **unit)
 {
-    const prefix_entry *p;
+    size_t plen;
     const unit_entry *u;
 
     while (*s == ' ')
@@ -170,10 +150,9 @@ static int scan_suffix(const char *s, int *exp, const unit_entry **unit)
         *unit = u;
         return SCAN_OK;
     }
-    if ((p = match_prefix(s)) == NULL)
+    if ((plen = gs_si_prefix_scan(s, exp)) == 0)
         return SCAN_UNKNOWN_UNIT;
-    s += strlen(p->text);
-    *exp = p->exp;
+    s += plen;
     if (*s == '\0')
         return SCAN_OK;
     if ((u = match_unit(s)) == NULL)
@@ -360,7 +339,6 @@ int gs_units_parse(long double *out, const char *text, gs_quantity q,
 /* Engineering notation: mantissa in [1, 1000) and a prefix f..T. */
 static char *format_prefixed(long double v, const char *unit)
 {
-    static const char letters[] = "fpnum kMGT";
     long double a = fabsl(v), m;
     char buf[64];
     int e3;
@@ -381,7 +359,9 @@ static char *format_prefixed(long double v, const char *unit)
     }
     if (e3 == 0)
         return gs_asprintf("%s %s", buf, unit);
-    return gs_asprintf("%s %c%s", buf, letters[e3 + 5], unit);
+    /* micro as u here: these figures are meant to be typed back */
+    return gs_asprintf("%s %s%s", buf, e3 == -2 ? "u" : gs_si_prefix_text(e3),
+                       unit);
 }
 
 char *gs_units_format(long double v, gs_quantity q)

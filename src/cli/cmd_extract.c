@@ -12,6 +12,7 @@
 #include "gainsmith.h"
 #include "base/mem.h"
 #include "circuit/units.h"
+#include "output/json.h"
 
 #include <math.h>
 #include <stdarg.h>
@@ -276,26 +277,11 @@ static void print_text(FILE *out, const report *r)
         fprintf(out, "note: %s\n", r->note[i]);
 }
 
-static void json_string(FILE *out, const char *s)
-{
-    fputc('"', out);
-    for (; *s; s++) {
-        unsigned char ch = (unsigned char)*s;
-        if (ch == '"' || ch == '\\')
-            fprintf(out, "\\%c", ch);
-        else if (ch < 0x20)
-            fprintf(out, "\\u%04x", ch);
-        else
-            fputc(ch, out);
-    }
-    fputc('"', out);
-}
-
 static void json_item(FILE *out, const item *it, int last)
 {
     fprintf(out, "    \"%s\": ", it->key);
     if (it->word)
-        json_string(out, it->word);
+        gs_json_string(out, it->word);
     else if (isfinite(it->v))
         fprintf(out, "%.17Lg", it->v);
     else
@@ -310,7 +296,7 @@ static void json_strings(FILE *out, const char *key, const char *const *v,
     fprintf(out, "  \"%s\": [", key);
     for (i = 0; i < n; i++) {
         fputs(i ? ", " : "", out);
-        json_string(out, v[i]);
+        gs_json_string(out, v[i]);
     }
     fputs(last ? "]\n" : "],\n", out);
 }
@@ -326,7 +312,7 @@ static void print_json(FILE *out, const report *r, const gs_diag *d)
             warns[nw++] = d->v[i].message;
     fprintf(out, "{\n  \"device\": \"%s\",\n  \"type\": \"%s\",\n"
             "  \"fit\": \"%s\",\n  \"model\": ", r->device, r->type, r->fit);
-    json_string(out, r->model);
+    gs_json_string(out, r->model);
     fputs(",\n", out);
     json_strings(out, "equations", r->eq, (size_t)r->neq, 0);
     for (s = 0; s < r->nsec; s++) {
@@ -363,12 +349,13 @@ static void print_diag(FILE *err, const gs_diag *d)
 static int usage(gs_diag *d, const char *hint, const char *f, ...)
 {
     va_list ap;
-    char msg[400];
+    char *msg;
 
     va_start(ap, f);
-    vsnprintf(msg, sizeof msg, f, ap);
+    msg = gs_vasprintf(f, ap);
     va_end(ap);
     gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint, "%s", msg);
+    free(msg);
     return GS_ESYNTAX;
 }
 

@@ -246,15 +246,6 @@ int gs_sweep_at(gs_sweep *sw, const gs_tfn *h, const long double *freq,
     return GS_OK;
 }
 
-int gs_sweep_write_csv(FILE *out, const gs_sweep *sw)
-{
-    fputs("freq_Hz,mag_dB,phase_deg,group_delay_s\n", out);
-    for (size_t i = 0; i < sw->n; i++)
-        fprintf(out, "%.10Lg,%.10Lg,%.10Lg,%.10Lg\n", sw->freq[i],
-                sw->mag_db[i], sw->phase_deg[i], sw->delay_s[i]);
-    return ferror(out) ? GS_EIO : GS_OK;
-}
-
 /* --- Crossings -----------------------------------------------------------
 
    |p(jw)|^2 = p(jw) p(-jw) = sum_m c_m w^(2m) with

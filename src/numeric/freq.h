@@ -57,11 +57,6 @@ size_t gs_sweep_points(long double f_from, long double f_to,
 int gs_sweep_at(gs_sweep *sw, const gs_tfn *h, const long double *freq,
                 size_t n);
 
-/* Write sw as CSV: a header line "freq_Hz,mag_dB,phase_deg,group_delay_s"
-   and one line per point, numbers with 10 significant digits (printf %Lg,
-   so it follows the C locale's decimal point).  Returns GS_OK or GS_EIO. */
-int gs_sweep_write_csv(FILE *out, const gs_sweep *sw);
-
 /* The -3 dB bandwidth: the lowest frequency at which |H| falls to
    |H(0)| / sqrt 2 (half power, -3.0103 dB).  Returns GS_OK; GS_ERANGE if
    H(0) is zero or infinite, or |H| never falls that far. */

@@ -1,78 +1,19 @@
 /* print_json.c - a transfer function as one JSON object. See LICENSE.
  *
- * The layout is documented in docs/json.md.  Strings follow RFC 8259:
- * '"', '\' and control characters are escaped; bytes that are not valid
- * UTF-8 are replaced by U+FFFD so the output is always valid JSON.
+ * The layout is documented in docs/json.md; strings are written by
+ * gs_json_string (json.h).
  */
 #include "analysis/tf.h"
 #include "base/mem.h"
+#include "output/json.h"
 
 #include <stdlib.h>
 #include <string.h>
 
-/* Length of the valid UTF-8 sequence at s (RFC 3629, section 4), or 0. */
-static size_t utf8_len(const unsigned char *s)
-{
-    size_t n, i;
-    unsigned char lo = 0x80, hi = 0xBF;
-    if (s[0] >= 0xC2 && s[0] <= 0xDF)
-        n = 2;
-    else if (s[0] >= 0xE0 && s[0] <= 0xEF)
-        n = 3;
-    else if (s[0] >= 0xF0 && s[0] <= 0xF4)
-        n = 4;
-    else
-        return 0;
-    if (s[0] == 0xE0)
-        lo = 0xA0;
-    else if (s[0] == 0xED)
-        hi = 0x9F;
-    else if (s[0] == 0xF0)
-        lo = 0x90;
-    else if (s[0] == 0xF4)
-        hi = 0x8F;
-    if (s[1] < lo || s[1] > hi)
-        return 0;
-    for (i = 2; i < n; i++)
-        if (s[i] < 0x80 || s[i] > 0xBF)
-            return 0;
-    return n;
-}
-
-static void json_str(FILE *out, const char *str)
-{
-    const unsigned char *s = (const unsigned char *)str;
-    fputc('"', out);
-    while (*s) {
-        size_t n;
-        if (*s == '"' || *s == '\\') {
-            fputc('\\', out);
-            fputc(*s++, out);
-        } else if (*s == '\n') {
-            fputs("\\n", out);
-            s++;
-        } else if (*s == '\t') {
-            fputs("\\t", out);
-            s++;
-        } else if (*s < 0x20) {
-            fprintf(out, "\\u%04x", (unsigned)*s++);
-        } else if (*s < 0x80) {
-            fputc(*s++, out);
-        } else if ((n = utf8_len(s)) > 0) {
-            fwrite(s, 1, n, out);
-            s += n;
-        } else {
-            fputs("\\ufffd", out);
-            s++;
-        }
-    }
-    fputc('"', out);
-}
-
 static void json_name_or_null(FILE *out, const gs_polyctx *ctx, int var)
 {
     if (var >= 0 && var < ctx->nvars)
-        json_str(out, gs_symtab_name(ctx->syms, var));
+        gs_json_string(out, gs_symtab_name(ctx->syms, var));
     else
         fputs("null", out);
 }
@@ -91,7 +32,7 @@ static void put_symbols(FILE *out, const gs_tf *tf)
         if (i == tf->s_var || !(used[i] || used_d[i]))
             continue;
         fputs(first ? "" : ", ", out);
-        json_str(out, gs_symtab_name(ctx->syms, i));
+        gs_json_string(out, gs_symtab_name(ctx->syms, i));
         first = 0;
     }
     fputc(']', out);
@@ -115,7 +56,7 @@ static void put_group(FILE *out, const gs_poly *c, long power,
             if (exps[v] == 0)
                 continue;
             fputs(first ? "" : ", ", out);
-            json_str(out, gs_symtab_name(ctx->syms, v));
+            gs_json_string(out, gs_symtab_name(ctx->syms, v));
             fprintf(out, ": %u", exps[v]);
             first = 0;
         }
@@ -159,11 +100,11 @@ void gs_print_json(FILE *out, const gs_tf *tf, int collect_var)
 {
     char *text = gs_tf_get_str(tf, collect_var);
     fputs("{\"name\": ", out);
-    json_str(out, gs_tf_name(tf));
+    gs_json_string(out, gs_tf_name(tf));
     fprintf(out, ", \"kind\": \"%s\", \"description\": ",
             tf->kind == GS_TF_IMPEDANCE ? "impedance" : "transfer");
     if (tf->description != NULL)
-        json_str(out, tf->description);
+        gs_json_string(out, tf->description);
     else
         fputs("null", out);
     fputs(", \"s\": ", out);
@@ -177,7 +118,7 @@ void gs_print_json(FILE *out, const gs_tf *tf, int collect_var)
     fputs(", \"den\": ", out);
     put_poly(out, &tf->den, collect_var, tf->ctx);
     fputs(", \"text\": ", out);
-    json_str(out, text);
+    gs_json_string(out, text);
     fputc('}', out);
     free(text);
 }

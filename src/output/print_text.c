@@ -10,6 +10,7 @@
  */
 #include "analysis/tf.h"
 #include "base/mem.h"
+#include "base/strbuf.h"
 
 #include <ctype.h>
 #include <stdlib.h>
@@ -21,8 +22,7 @@
 /* A growing string that also records where a line may be broken: at the
    space that starts each " + " or " - " between terms. */
 typedef struct sbuf {
-    char *p;
-    size_t n, cap;
+    gs_strbuf s;
     size_t *brk;
     size_t nbrk, capbrk;
 } sbuf;
@@ -37,35 +37,25 @@ typedef struct style {
 
 static void sb_init(sbuf *b)
 {
-    b->cap = 64;
-    b->p = gs_malloc(b->cap);
-    b->p[0] = '\0';
-    b->n = 0;
+    gs_strbuf_init(&b->s);
     b->brk = NULL;
     b->nbrk = b->capbrk = 0;
 }
 
 static void sb_free(sbuf *b)
 {
-    free(b->p);
+    gs_strbuf_clear(&b->s);
     free(b->brk);
 }
 
 static void sb_putn(sbuf *b, const char *s, size_t n)
 {
-    if (b->n + n + 1 > b->cap) {
-        while (b->n + n + 1 > b->cap)
-            b->cap *= 2;
-        b->p = gs_realloc(b->p, b->cap);
-    }
-    memcpy(b->p + b->n, s, n);
-    b->n += n;
-    b->p[b->n] = '\0';
+    gs_strbuf_addn(&b->s, s, n);
 }
 
 static void sb_puts(sbuf *b, const char *s)
 {
-    sb_putn(b, s, strlen(s));
+    gs_strbuf_add(&b->s, s);
 }
 
 static void sb_mark_break(sbuf *b)
@@ -74,7 +64,7 @@ static void sb_mark_break(sbuf *b)
         b->capbrk = b->capbrk ? 2 * b->capbrk : 16;
         b->brk = gs_reallocarray(b->brk, b->capbrk, sizeof *b->brk);
     }
-    b->brk[b->nbrk++] = b->n;
+    b->brk[b->nbrk++] = b->s.n;
 }
 
 static int is_identifier(const char *s)
@@ -112,7 +102,7 @@ static char *latex_escape(const char *name)
     }
     sb_puts(&b, "}");
     free(b.brk);
-    return b.p;
+    return b.s.p;
 }
 
 /* LaTeX for a plain name.  The "{}" that gs_sym_latex_name puts after a
@@ -331,7 +321,7 @@ static char *poly_str(const gs_tf *tf, const gs_poly *a, int collect_var,
     put_poly(&b, &st, a, collect_var);
     style_clear(&st);
     free(b.brk);
-    return b.p;
+    return b.s.p;
 }
 
 char *gs_tf_get_str(const gs_tf *tf, int collect_var)
@@ -397,11 +387,11 @@ static void block_wrap(block *bl, const sbuf *b, size_t width)
 {
     size_t j, start = 0, cut = 0, bp;
     int have_cut = 0;
-    bl->text = b->p;
+    bl->text = b->s.p;
     bl->start = bl->len = NULL;
     bl->nlines = bl->width = 0;
     for (j = 0; j <= b->nbrk; j++) {
-        bp = j < b->nbrk ? b->brk[j] : b->n;
+        bp = j < b->nbrk ? b->brk[j] : b->s.n;
         if (bp - start > width && have_cut && cut > start) {
             block_add(bl, start, cut);
             start = cut + 1;        /* the line goes on with "+ term" */
@@ -409,7 +399,7 @@ static void block_wrap(block *bl, const sbuf *b, size_t width)
         cut = bp;
         have_cut = 1;
     }
-    block_add(bl, start, b->n);
+    block_add(bl, start, b->s.n);
 }
 
 static void block_free(block *bl)

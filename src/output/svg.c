@@ -30,144 +30,11 @@ static const char *const dashes[NSTYLES] = {
 
 /* --- Numbers ------------------------------------------------------------ */
 
-/* A bounded string being built: appends past the end are dropped. */
-typedef struct sbuf {
-    char *p;
-    size_t n, len;
-} sbuf;
-
-static sbuf sb_make(char *p, size_t n)
-{
-    if (n > 0)
-        p[0] = '\0';
-    return (sbuf){p, n, 0};
-}
-
-static void sb_add(sbuf *b, const char *s)
-{
-    for (; *s && b->len + 1 < b->n; s++)
-        b->p[b->len++] = *s;
-    if (b->n > 0)
-        b->p[b->len] = '\0';
-}
-
-static void sb_addn(sbuf *b, const char *s, size_t k)
-{
-    for (size_t i = 0; i < k && s[i]; i++) {
-        char c[2] = {s[i], '\0'};
-        sb_add(b, c);
-    }
-}
-
-static void sb_zeros(sbuf *b, int k)
-{
-    while (k-- > 0)
-        sb_add(b, "0");
-}
-
-/* m * 10^sh as a decimal, m >= 0, trailing fraction zeros dropped */
-static void scaled_int(sbuf *b, long long m, int sh)
-{
-    char d[32];
-    int len = snprintf(d, sizeof d, "%lld", m), point = len + sh;
-
-    if (m == 0) {
-        sb_add(b, "0");
-        return;
-    }
-    if (sh >= 0) {
-        sb_add(b, d);
-        sb_zeros(b, sh);
-        return;
-    }
-    while (len > 0 && -sh > 0 && d[len - 1] == '0') {
-        d[--len] = '\0';        /* drop trailing fraction zeros */
-        sh++;
-    }
-    if (sh >= 0) {
-        sb_add(b, d);
-        return;
-    }
-    if (point <= 0) {
-        sb_add(b, "0.");
-        sb_zeros(b, -point);
-        sb_add(b, d);
-    } else {
-        sb_addn(b, d, (size_t)point);
-        sb_add(b, ".");
-        sb_add(b, d + point);
-    }
-}
-
-static long long pow10ll(int k)
-{
-    long long r = 1;
-    while (k-- > 0)
-        r *= 10;
-    return r;
-}
-
-/* Significant digits of a > 0: a ~ m 10^(e - digits + 1), with
-   10^(digits-1) <= m < 10^digits */
-static long long mantissa(int *e, long double a, int digits)
-{
-    *e = (int)floorl(log10l(a));
-    long long m = llroundl(a * powl(10, digits - 1 - *e));
-    if (m >= pow10ll(digits)) {
-        ++*e;
-        m = llroundl(a * powl(10, digits - 1 - *e));
-    } else if (m < pow10ll(digits - 1)) {
-        --*e;
-        m = llroundl(a * powl(10, digits - 1 - *e));
-    }
-    return m;
-}
-
-char *gs_si_format(char *buf, size_t n, long double v, int digits,
-                   const char *unit)
-{
-    static const char *const pre[17] = {
-        "y", "z", "a", "f", "p", "n", "\xc2\xb5", "m", "",
-        "k", "M", "G", "T", "P", "E", "Z", "Y"
-    };
-    const char *u = unit != NULL ? unit : "";
-    sbuf b = sb_make(buf, n);
-    int e, p = 0;
-
-    digits = digits < 1 ? 1 : digits > 6 ? 6 : digits;
-    if (!isfinite(v) || v == 0) {
-        sb_add(&b, isnan(v) ? "nan" : v == 0 ? "0" : v < 0 ? "-inf" : "inf");
-    } else {
-        long long m = mantissa(&e, fabsl(v), digits);
-        p = e >= 0 ? e / 3 : -((-e + 2) / 3);
-        p = p < -8 ? -8 : p > 8 ? 8 : p;
-        if (v < 0)
-            sb_add(&b, "-");
-        scaled_int(&b, m, e - (digits - 1) - 3 * p);
-    }
-    if (*pre[p + 8] || *u)
-        sb_add(&b, " ");
-    sb_add(&b, pre[p + 8]);
-    sb_add(&b, u);
-    return buf;
-}
-
-/* v with dec decimals (0..6), locale-free; "-0" is written "0" */
-static char *fixed(char *buf, size_t n, long double v, int dec)
-{
-    long long m = llroundl(fabsl(v) * (long double)pow10ll(dec));
-    sbuf b = sb_make(buf, n);
-    if (v < 0 && m != 0)
-        sb_add(&b, "-");
-    scaled_int(&b, m, -dec);
-    return buf;
-}
-
 /* A pixel coordinate with two decimals */
 static void put(FILE *f, double v)
 {
     char b[48];
-    fputs(fixed(b, sizeof b, v, 2), f);
+    fputs(gs_fixed_format(b, sizeof b, v, 2), f);
 }
 
 static void put_esc(FILE *f, const char *s)
@@ -363,7 +230,7 @@ static void tick_text(char *b, size_t n, long double v, long double step,
         return;
     }
     int dec = (int)ceill(-log10l(step) - 1e-9L);
-    fixed(b, n, v, dec < 0 ? 0 : dec > 6 ? 6 : dec);
+    gs_fixed_format(b, n, v, dec < 0 ? 0 : dec > 6 ? 6 : dec);
 }
 
 /* Horizontal grid of a linear y axis with labels on the left */
@@ -754,12 +621,13 @@ static void bode_marks(FILE *f, const panel *mag, const panel *ph,
     if (m->has_unity)
         freq_point(f, mag, m->unity_hz, 0, "0 dB", c, i);
     if (m->has_gm) {
-        snprintf(b, sizeof b, "GM %s dB", fixed(num, sizeof num, m->gm_db, 1));
+        snprintf(b, sizeof b, "GM %s dB",
+                 gs_fixed_format(num, sizeof num, m->gm_db, 1));
         freq_bar(f, mag, m->gm_hz, -m->gm_db, 0, b, c, i);
     }
     if (m->has_pm) {
         snprintf(b, sizeof b, "PM %s\xc2\xb0",
-                 fixed(num, sizeof num, m->pm_deg, 1));
+                 gs_fixed_format(num, sizeof num, m->pm_deg, 1));
         freq_bar(f, ph, m->pm_hz, m->pm_deg - 180, -180, b, c, i);
     }
 }
@@ -918,7 +786,7 @@ static void step_marks(FILE *f, const panel *pn, const gs_step_metrics *m,
     }
     if (m->has_overshoot && m->overshoot_pct > 0) {
         snprintf(b, sizeof b, "overshoot %s %%",
-                 fixed(num, sizeof num, m->overshoot_pct, 1));
+                 gs_fixed_format(num, sizeof num, m->overshoot_pct, 1));
         time_point(f, pn, m->peak_time, m->peak_value, b, c, i);
     }
     if (m->has_settling && m->settling_time > 0

@@ -16,15 +16,9 @@
 #include <stddef.h>
 #include <stdio.h>
 
+#include "base/si.h"
 #include "numeric/roots.h"
 #include "numeric/step.h"
-
-/* Format v with `digits` significant digits (1..6) and an SI prefix
- * (y .. Y, "u" written as the micro sign), then unit: "1.59 kHz", "100 m",
- * "47 nF", "0 s", "-2.2 MV".  Trailing zeros are dropped.  unit may be
- * NULL or "".  Writes at most n bytes including the NUL and returns buf. */
-char *gs_si_format(char *buf, size_t n, long double v, int digits,
-                   const char *unit);
 
 /* What a Bode trace can have marked.  Arrays are borrowed. */
 typedef struct gs_plot_marks {

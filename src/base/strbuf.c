@@ -1,0 +1,29 @@
+/* strbuf.c - a growable string; see strbuf.h.  See LICENSE. */
+#include "base/strbuf.h"
+#include "base/mem.h"
+
+#include <stdlib.h>
+
+void gs_strbuf_init(gs_strbuf *b)
+{
+    b->cap = 64;
+    b->p = gs_malloc(b->cap);
+    b->p[0] = '\0';
+    b->n = 0;
+}
+
+void gs_strbuf_clear(gs_strbuf *b)
+{
+    free(b->p);
+    b->p = NULL;
+    b->n = b->cap = 0;
+}
+
+void gs_strbuf_reserve(gs_strbuf *b, size_t more)
+{
+    if (b->n + more + 1 <= b->cap)
+        return;
+    while (b->n + more + 1 > b->cap)
+        b->cap = b->cap ? 2 * b->cap : 64;
+    b->p = gs_realloc(b->p, b->cap);
+}

@@ -1,0 +1,39 @@
+/* strbuf.h - a growable NUL-terminated string, the one the printers
+ * build their text in.  See LICENSE.
+ */
+#ifndef GS_STRBUF_H
+#define GS_STRBUF_H
+
+#include <stddef.h>
+#include <string.h>
+
+/* p[0 .. n) is the text, p[n] is NUL, cap bytes are allocated.  The
+   caller owns the struct; gs_strbuf_clear frees p, or the caller takes p
+   (free it with free()) and drops the struct. */
+typedef struct gs_strbuf {
+    char *p;
+    size_t n, cap;
+} gs_strbuf;
+
+void gs_strbuf_init(gs_strbuf *b);          /* the empty string */
+void gs_strbuf_clear(gs_strbuf *b);
+/* room for `more` bytes after the text and its NUL (doubling) */
+void gs_strbuf_reserve(gs_strbuf *b, size_t more);
+
+/* Append s[0 .. n); inline, as the printers append a few bytes at a
+   time. */
+static inline void gs_strbuf_addn(gs_strbuf *b, const char *s, size_t n)
+{
+    if (b->n + n + 1 > b->cap)
+        gs_strbuf_reserve(b, n);
+    memcpy(b->p + b->n, s, n);
+    b->n += n;
+    b->p[b->n] = '\0';
+}
+
+static inline void gs_strbuf_add(gs_strbuf *b, const char *s)
+{
+    gs_strbuf_addn(b, s, strlen(s));
+}
+
+#endif
