@@ -14,3 +14,8 @@ transfer Acm   = v(vo.cm) / vi.cm
 transfer Acmdm = v(vo.dm) / vi.cm
 transfer Admcm = v(vo.cm) / vi.dm
 figure   CMRR  = Adm / Acm
+# an invented design point: 1 mS pair, 20 k tail, loads 5 % apart
+value    gm  = 1m
+value    RT  = 20k
+value    RD1 = 10k
+value    RD2 = 10.5k
