@@ -23,7 +23,7 @@ missing() {
 }
 tmp=$(mktemp -d)
 trap 'rm -rf "$tmp"' EXIT
-sections="Circuit Values Exact Poles Sensitivities Check Caution"
+sections="Circuit Values Exact Approximation Poles Sensitivities Check Caution"
 
 for gsc in examples/*.gsc; do
     ex=$(basename "$gsc" .gsc)
