@@ -4,7 +4,8 @@
 #
 # usage: tests/report_check.sh [BUILD]
 # Writes the .html, .md and .tex document of every example and checks:
-# every section in the Markdown and in the HTML, MathML in the HTML, the
+# every section in the Markdown and in the HTML (the approx section too,
+# and its plain sentence when approx cannot run), MathML in the HTML, the
 # HTML's text content against tests/report/sallen_key.txt; with Debian's
 # chromium, the DOM as the browser parsed it (--dump-dom) and a
 # screenshot whose pixels are not all one colour; with pdflatex, the .tex
@@ -23,7 +24,7 @@ missing() {
 }
 tmp=$(mktemp -d)
 trap 'rm -rf "$tmp"' EXIT
-sections="Circuit Values Exact Poles Sensitivities Check Caution"
+sections="Circuit Values Exact Approximation Poles Sensitivities Check Caution"
 
 for gsc in examples/*.gsc; do
     ex=$(basename "$gsc" .gsc)
@@ -39,6 +40,19 @@ for gsc in examples/*.gsc; do
         || fail "$ex.html: no MathML"
     grep -q "<script" "$tmp/$ex.html" && fail "$ex.html: a script" || pass
     grep -q '^\$\$.*\$\$$' "$tmp/$ex.md" && pass || fail "$ex.md: no \$\$"
+done
+
+# values that leave approx nothing to measure (D is zero at the nominal
+# point: R1 + R2 - A*R1 with A = 2, R1 = R2): the report is still written
+# and its approx section says so
+for f in html md tex; do
+    if "$bin" report tests/report/edge_feedback.gsc -o "$tmp/edge.$f" \
+        >/dev/null; then pass
+    else fail "edge_feedback.$f not written"; fi
+    grep -q "No short form: the denominator is zero" "$tmp/edge.$f" && pass \
+        || fail "edge_feedback.$f: the approx section does not say why"
+    grep -q "Caution" "$tmp/edge.$f" && pass \
+        || fail "edge_feedback.$f: the document stops early"
 done
 
 # the text of one document, tags stripped; the check's error (last bits
@@ -92,7 +106,7 @@ else
 fi
 
 if command -v pdflatex >/dev/null 2>&1; then
-    for ex in sallen_key miller_opamp cascode; do
+    for ex in sallen_key miller_opamp cascode edge; do
         (cd "$tmp" && pdflatex -interaction=nonstopmode -halt-on-error \
             "$ex.tex" >/dev/null 2>&1)
         [ -f "$tmp/$ex.pdf" ] && pass || fail "$ex.tex does not compile"

@@ -11,6 +11,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "analysis/approx.h"
 #include "analysis/sens.h"
 #include "base/mem.h"
 #include "gainsmith.h"
@@ -24,6 +25,9 @@
 #define FOLD_MAX 12
 #define FOLD_HEAD 4
 #define FOLD_TAIL 2
+/* A root estimate longer than this many characters is named, not
+   written out, in the approx section. */
+#define EST_MAX 240
 
 typedef struct rctx {
     gs_report_out *o;
@@ -393,6 +397,186 @@ static void sec_sens(rctx *r)
     gs_sens_clear(&s);
 }
 
+/* A relative error in per cent; one below 1e-12 is rounding of long
+   double, whose last bits differ between compilers, so it is not
+   printed as a number.  A new string. */
+static char *pct(long double rel)
+{
+    if (rel < 1e-12L)
+        return gs_strdup("below 1e-10 %");
+    return gs_asprintf("%.3Lg %%", 100 * rel);
+}
+
+/* A pole or zero of the exact H in the text of the report. */
+static char *root_num(long double complex z)
+{
+    if (cimagl(z) == 0)
+        return gs_asprintf("%.6Lg", creall(z));
+    return gs_asprintf("%.6Lg%+.6Lgj", creall(z), cimagl(z));
+}
+
+/* One paragraph per pole or zero: its estimate from the coefficients of
+   D or N (approx.h), the estimate's value, the exact root and the error. */
+static void approx_root(rctx *r, const gs_approx_result *a, size_t i)
+{
+    const gs_approx_root *x = &a->roots[i];
+    const gs_polyctx *ctx = a->ctx;
+    size_t nth = i + 1, k;
+    char *what, *est = NULL, *v, *e, *t, *pc;
+    for (k = 0; k < i; k++)
+        if (a->roots[k].is_zero != x->is_zero)
+            nth--;
+    what = gs_asprintf("%s %zu", x->is_zero ? "Zero" : "Pole", nth);
+    e = root_num(x->exact);
+    if (x->at_origin) {
+        t = gs_asprintf("%s: 0 (exact).", what);
+    } else if (x->pair_of >= 0) {
+        t = gs_asprintf("%s: the conjugate of the pair above, %s rad/s.",
+                        what, e);
+    } else if (x->est == GS_APPROX_EST_NONE) {
+        t = gs_asprintf("%s: no estimate (separation %.3Lg from its "
+                        "neighbours, too close); exact %s rad/s.", what,
+                        x->separation, e);
+    } else {
+        if (x->est == GS_APPROX_EST_REAL) {
+            gs_poly n;
+            char *f;
+            gs_poly_init(&n);
+            gs_poly_neg(&n, &x->wn, ctx);
+            f = gs_approx_form(&n, &x->wd, GS_FORM_TEXT, ctx);
+            est = gs_asprintf("~ %s", f);
+            free(f);
+            gs_poly_clear(&n);
+        } else {
+            gs_poly p, q;
+            char *w, *qf;
+            gs_poly_init(&p);
+            gs_poly_init(&q);
+            w = gs_approx_form(&x->a0, &x->a2, GS_FORM_TEXT, ctx);
+            gs_poly_mul(&p, &x->a0, &x->a2, ctx);
+            gs_poly_mul(&q, &x->a1, &x->a1, ctx);
+            qf = gs_approx_form(&p, &q, GS_FORM_TEXT, ctx);
+            est = gs_asprintf("a complex pair, w0^2 ~ %s, Q ~ sqrt(%s)", w,
+                              qf);
+            free(w);
+            free(qf);
+            gs_poly_clear(&p);
+            gs_poly_clear(&q);
+        }
+        v = root_num(x->value);
+        pc = pct(x->rel_error);
+        if (strlen(est) > EST_MAX) {
+            free(est);
+            est = gs_asprintf("estimated from the coefficients of %s (a "
+                              "long form: gainsmith approx prints it)",
+                              x->is_zero ? "N" : "D");
+        }
+        t = gs_asprintf("%s: %s = %s rad/s; exact %s rad/s, error %s.",
+                        what, est, v, e, pc);
+        free(pc);
+        free(v);
+        free(est);
+    }
+    r->w->para(r->o, t);
+    free(t);
+    free(e);
+    free(what);
+}
+
+/* The short forms of `gainsmith approx` with its defaults: the simplified
+   H with its measured errors, the low-frequency gain, the root estimates
+   and the conditions they assume.  A form that does not meet the
+   tolerance, or values approx cannot use, are stated, not fatal. */
+static void sec_approx(rctx *r)
+{
+    gs_approx_opts o;
+    gs_approx_result a;
+    gs_diag d;
+    int rc;
+    size_t k, nn, nd;
+    char *t, *n, *dn;
+    gs_approx_opts_default(&o);
+    gs_approx_result_init(&a);
+    gs_diag_init(&d);
+    rc = gs_approx_run(&a, r->j, r->i, &o, &d);
+    r->w->heading(r->o, 3, "Approximation");
+    if (rc != GS_OK) {
+        t = gs_asprintf("No short form: %s.", d.n ? d.v[0].message
+                                                  : gs_strerror(rc));
+        r->w->para(r->o, t);
+        free(t);
+        goto done;
+    }
+    if (!a.met) {
+        t = gs_asprintf("No short form meets the tolerance (%.3Lg dB, "
+                        "%.3Lg deg from %.4Lg Hz to %.4Lg Hz, every "
+                        "symbol within +-%.3Lg %%): the best one reached "
+                        "is off by %.3Lg dB, %.3Lg deg at the nominal "
+                        "values and %.3Lg dB, %.3Lg deg over the "
+                        "spread.  The exact result above stands alone.",
+                        o.tol_db, o.tol_deg, a.f_lo, a.f_hi,
+                        100 * o.spread, a.err_db, a.err_deg, a.spread_db,
+                        a.spread_deg);
+        r->w->para(r->o, t);
+        free(t);
+        goto done;
+    }
+    n = folded(&a.h.num, a.h.ctx, &nn);
+    dn = folded(&a.h.den, a.h.ctx, &nd);
+    r->w->formula(r->o, gs_tf_name(&a.h), n, dn);
+    free(n);
+    free(dn);
+    t = gs_asprintf("%zu of the %zu terms kept.  Measured from %.4Lg Hz "
+                    "to %.4Lg Hz (%d points): error %.3Lg dB, %.3Lg "
+                    "deg at the nominal values; %.3Lg dB, %.3Lg "
+                    "deg over the spread of every symbol by +-%.3Lg "
+                    "%% (%d %s).  Tolerance %.3Lg dB, %.3Lg deg; see "
+                    "gainsmith approx.", a.terms_kept, a.terms_exact,
+                    a.f_lo, a.f_hi, a.npoints, a.err_db, a.err_deg,
+                    a.spread_db, a.spread_deg, 100 * o.spread, a.nspread,
+                    a.spread_corners ? "corners" : "seeded points",
+                    o.tol_db, o.tol_deg);
+    r->w->para(r->o, t);
+    free(t);
+    n = gs_approx_form(&a.dcn, &a.dcd, GS_FORM_TEXT, a.ctx);
+    dn = pct(a.dc_rel_error);
+    if (a.dc_order)
+        t = gs_asprintf("Low-frequency gain ~ %s * s^%d = %.6Lg (exact "
+                        "%.6Lg, error %s).", n, a.dc_order, a.dc_value,
+                        a.dc_exact, dn);
+    else
+        t = gs_asprintf("DC gain ~ %s = %.6Lg (exact %.6Lg, error %s).", n,
+                        a.dc_value, a.dc_exact, dn);
+    r->w->para(r->o, t);
+    free(t);
+    free(n);
+    free(dn);
+    for (k = 0; k < a.nroots; k++)
+        approx_root(r, &a, k);
+    if (a.ncond) {
+        char *c = gs_strdup("Assumes");
+        for (k = 0; k < a.ncond; k++) {
+            t = gs_asprintf("%s%s %s >> %s (here %.3Lg)", c, k ? "," : "",
+                            a.cond[k].lhs, a.cond[k].rhs, a.cond[k].value);
+            free(c);
+            c = t;
+        }
+        if (a.ncond_total > a.ncond)
+            t = gs_asprintf("%s, and %zu more, each larger.", c,
+                            a.ncond_total - a.ncond);
+        else
+            t = gs_asprintf("%s.", c);
+        free(c);
+        r->w->para(r->o, t);
+        free(t);
+    } else {
+        r->w->para(r->o, "Assumes nothing beyond the values above.");
+    }
+done:
+    gs_diag_clear(&d);
+    gs_approx_result_clear(&a);
+}
+
 /* The verdict of `gainsmith check` with its defaults: the exact result
    against an independent numeric solve at 61 log-spaced frequencies from
    10 mHz to 10 GHz, relative error at most 1e-9. */
@@ -434,8 +618,7 @@ static void sec_check(rctx *r)
 /* Per output, in this order. */
 static const section_fn out_sections[] = {
     sec_exact,
-    /* >>> the approx section (short forms, their errors and conditions)
-       goes here, before the numbers */
+    sec_approx,
     sec_dc,
     sec_pz,
     sec_bode,

@@ -3,9 +3,10 @@
  * gs_report_write writes, for a derived and bound job, the title, the
  * circuit listing with line numbers, the bound values and where each came
  * from, and per output the exact result (folded to its first and last
- * terms when long), the DC gain, the poles and zeros, the Bode plot and
- * step response (svg.h), the sensitivity table (sens.h), then the
- * caution.  The document is a list of section writers (report.c); the
+ * terms when long), the short forms of approx.h with their measured
+ * errors (or a sentence saying there is none), the DC gain, the poles
+ * and zeros, the Bode plot and step response (svg.h), the sensitivity
+ * table (sens.h), then the caution.  The document is a list of section writers (report.c); the
  * format is a gs_report_writer (report_html.c, report_md.c, report_tex.c).
  */
 #ifndef GS_REPORT_H

@@ -25,9 +25,16 @@ static void m_heading(gs_report_out *o, int level, const char *text)
     fprintf(o->f, "%.*s %s\n\n", level, "######", text);
 }
 
+/* A paragraph may hold a formula in text syntax (the approx section's
+   forms), whose * and _ would otherwise read as emphasis. */
 static void m_para(gs_report_out *o, const char *text)
 {
-    fprintf(o->f, "%s\n\n", text);
+    for (; *text; text++) {
+        if (strchr("\\*_`", *text))
+            fputc('\\', o->f);
+        fputc(*text, o->f);
+    }
+    fputs("\n\n", o->f);
 }
 
 static void m_listing(gs_report_out *o, char *const *lines, size_t n)

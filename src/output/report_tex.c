@@ -52,9 +52,18 @@ static void t_heading(gs_report_out *o, int level, const char *text)
     fputs("}\n", o->f);
 }
 
+/* A paragraph may hold a formula in text syntax (the approx section's
+   forms): a line may break after its * and /, so a long product does
+   not run into the margin. */
 static void t_para(gs_report_out *o, const char *text)
 {
-    esc(o->f, text);
+    char one[2] = {0, 0};
+    for (; *text; text++) {
+        one[0] = *text;
+        esc(o->f, one);
+        if (*text == '*' || *text == '/')
+            fputs("\\allowbreak{}", o->f);
+    }
     fputs("\n\n", o->f);
 }
 
