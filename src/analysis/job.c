@@ -220,8 +220,40 @@ static int keep_graph(gs_job *j, size_t k, gs_diag *d)
     return rc;
 }
 
+static int derive_one_raw(gs_job *j, size_t k, const gs_derive_opts *o,
+                          gs_diag *d);
+
+/* Errors of the analysis carry no place in the file: name the file and
+   the output instead ("amp.gsc: Acm: error: ..."), so that a file with
+   several outputs says which one failed. */
+static void name_output(gs_diag *d, const char *file, const char *name)
+{
+    size_t i;
+    for (i = 0; i < d->n; i++) {
+        gs_diag_entry *e = &d->v[i];
+        if (e->line != 0 || e->subject)
+            continue;
+        if (e->file == NULL && file)
+            e->file = gs_strdup(file);
+        e->subject = gs_strdup(name);
+    }
+}
+
 static int derive_one(gs_job *j, size_t k, const gs_derive_opts *o,
                       gs_diag *d)
+{
+    int rc;
+    gs_diag here;
+    gs_diag_init(&here);
+    rc = derive_one_raw(j, k, o, &here);
+    name_output(&here, j->c->file, j->c->outputs[k].name);
+    gs_diag_append(d, &here);
+    gs_diag_clear(&here);
+    return rc;
+}
+
+static int derive_one_raw(gs_job *j, size_t k, const gs_derive_opts *o,
+                          gs_diag *d)
 {
     gs_tf *tf;
     gs_diag here;
@@ -400,6 +432,10 @@ static int apply_biases(gs_job *j, gs_diag *d)
     unsigned char *bs = gs_calloc((size_t)n, 1);
     char **bo = gs_calloc((size_t)n, sizeof *bo);
     rc = gs_device_apply_biases(j->c, bv, bs, bo, d);
+    /* a bias quantity out of its range is an error in the file: the
+       status of bad input (2), as for extract */
+    if (rc == GS_ERANGE)
+        rc = GS_EINVAL;
     for (v = 0; v < n && rc == GS_OK; v++) {
         const gs_valuedef *vl = value_line(j->c, v);
         if (!bs[v])

@@ -22,6 +22,7 @@ void gs_diag_clear(gs_diag *d)
         free(d->v[i].file);
         free(d->v[i].message);
         free(d->v[i].hint);
+        free(d->v[i].subject);
     }
     free(d->v);
     gs_diag_init(d);
@@ -141,6 +142,7 @@ void gs_diag_add(gs_diag *d, int severity, const char *file, int line,
         e.message = shown;
     }
     e.hint = hint ? escape_message(hint) : NULL;
+    e.subject = NULL;
     push(d, e);
 }
 
@@ -162,6 +164,8 @@ static void print_location(FILE *out, const gs_diag_entry *e)
         fprintf(out, "%s: ", e->file);
     else
         fputs("gainsmith: ", out);
+    if (e->subject)
+        fprintf(out, "%s: ", e->subject);
 }
 
 void gs_diag_print(FILE *out, const gs_diag *d)

@@ -17,6 +17,9 @@ typedef struct gs_diag_entry {
     int line, col;
     char *message;  /* owned */
     char *hint;     /* owned, may be NULL: printed as a "hint:" line */
+    char *subject;  /* owned, may be NULL: what the message is about when
+                       it has no place in the file (an output's name),
+                       printed after the file: "amp.gsc: Acm: error: ..." */
 } gs_diag_entry;
 
 /* A list of messages, in the order they were added.  The caller owns the

@@ -142,6 +142,10 @@ static int eval_rec(long double *out, const evaluator *ev, const gs_expr *e)
         if (!isfinite(*out))
             return fail(ev, e, GS_EINVAL, NULL, "number too large for a "
                         "long double");
+        if (*out == 0 && !gs_rat_is_zero(&e->num))
+            return fail(ev, e, GS_EINVAL, "write 0 if zero is meant",
+                        "number too small for a long double (it would "
+                        "read as 0)");
         return GS_OK;
     case GS_EX_SYM:
         if (ev->set[e->sym]) {

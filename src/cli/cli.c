@@ -5,6 +5,7 @@
 #include "algebra/rat.h"
 
 #include <errno.h>
+#include <math.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -183,6 +184,15 @@ int gs_cli_real(long double *out, const char *text, const char *unit,
         return 2;
     }
     *out = gs_rat_get_ld(&r);
+    /* The same range the file parser enforces: no inf, no silent 0. */
+    if (!isfinite(*out) || (*out == 0 && !gs_rat_is_zero(&r))) {
+        fprintf(err, "gainsmith %s: error: --%s: '%s' is out of range "
+                "for a long double\n", cmd, name, text);
+        fprintf(err, "gainsmith %s: hint: magnitudes from about 1e-4950 "
+                "to 1e4932 are representable\n", cmd);
+        gs_rat_clear(&r);
+        return 2;
+    }
     gs_rat_clear(&r);
     return 0;
 }

@@ -70,6 +70,21 @@ static int parse_band(gs_approx_opts *o, const char *t, FILE *err)
     return 2;
 }
 
+/* approx's own errors carry no place in the file: one line each, with
+   the output's name, and the hint where there is one. */
+static void print_failure(FILE *err, const char *file, const char *name,
+                          const gs_diag *d)
+{
+    size_t k;
+    for (k = 0; k < d->n; k++) {
+        fprintf(err, "%s: %s: %s: %s\n", file, name,
+                d->v[k].severity == GS_SEV_ERROR ? "error" : "note",
+                d->v[k].message);
+        if (d->v[k].hint)
+            fprintf(err, "%s: %s: hint: %s\n", file, name, d->v[k].hint);
+    }
+}
+
 int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
 {
     gs_cli cl;
@@ -128,8 +143,8 @@ int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
         gs_approx_result_init(&r);
         rc = gs_approx_run(&r, &j, i, &o, &d);
         if (rc != GS_OK) {
-            fprintf(err, "gainsmith approx: error: %s: ", j.tf[i].name);
-            gs_diag_print(err, &d);
+            print_failure(err, j.c->file ? j.c->file : "<stdin>",
+                          j.tf[i].name, &d);
             status = 1;
         } else {
             if (json)

@@ -321,6 +321,33 @@ static void print_point(FILE *out, const char *label, long double complex h,
     fputc('\n', out);
 }
 
+/* The degree of c[0..deg] once zero leading coefficients are dropped;
+   -1 for the zero polynomial. */
+static int trim_zeros(const long double *c, int deg)
+{
+    while (deg >= 0 && c[deg] == 0)
+        deg--;
+    return deg;
+}
+
+/* H at s -> 0: the ratio of the lowest nonzero coefficients, 0 when N
+   vanishes to a higher order than D, infinite when D does. */
+static void print_dc(FILE *out, const long double *cn, int dn,
+                     const long double *cd, int dd, const gs_unit_info *u)
+{
+    int ln = 0, ld = 0;
+    while (ld <= dd && cd[ld] == 0)
+        ld++;
+    while (ln <= dn && cn[ln] == 0)
+        ln++;
+    if (dn < 0 || ln > ld)
+        print_point(out, "DC", 0, u);
+    else if (ln == ld)
+        print_point(out, "DC", cn[ln] / cd[ld], u);
+    else
+        fprintf(out, "  %-12s  infinite (pole at s = 0)\n", "DC");
+}
+
 static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
                     FILE *err)
 {
@@ -333,11 +360,23 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
     gs_unit_info u;
 
     gs_job_unit(&u, j, i);
+    dd = trim_zeros(cd, dd);
+    dn = trim_zeros(cn, dn);
+    if (dd < 0) {
+        /* One behaviour for every numeric command: an error, never a
+           number.  0/0 is not "infinite": say which it is. */
+        fprintf(err, "gainsmith eval: error: %s: the denominator is zero "
+                "with these values%s\n", tf->name,
+                dn < 0 ? " and so is the numerator (0/0: the values leave "
+                         "the result undetermined)" : "");
+        fprintf(err, "gainsmith eval: hint: check the value lines and "
+                "--set for values that cancel (R2 = -R1, a zero R)\n");
+        free(cn);
+        free(cd);
+        return 1;
+    }
     fprintf(out, "%s\n", tf->name);
-    if (dd >= 0 && cd[0] != 0)
-        print_point(out, "DC", (dn >= 0 ? cn[0] : 0) / cd[0], &u);
-    else
-        fprintf(out, "  %-12s  infinite (pole at s = 0)\n", "DC");
+    print_dc(out, cn, dn, cd, dd, &u);
     for (k = 0; k < gs_cli_count(cl, "at") && status == 0; k++) {
         long double f;
         char label[64];
@@ -345,9 +384,14 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
                              "at", err);
         if (status == 0) {
             long double complex s = 2 * acosl(-1) * f * I;
+            long double complex ds = gs_roots_horner(cd, dd, s);
+            long double complex h = gs_roots_horner(cn, dn, s) / ds;
             snprintf(label, sizeof label, "at %.6Lg Hz", f);
-            print_point(out, label, gs_roots_horner(cn, dn, s)
-                                    / gs_roots_horner(cd, dd, s), &u);
+            if (ds == 0 || !isfinite(creall(h)) || !isfinite(cimagl(h)))
+                fprintf(out, "  %-12s  infinite (a pole on the jw axis "
+                        "at this frequency)\n", label);
+            else
+                print_point(out, label, h, &u);
         }
     }
     print_coeffs(out, "numerator", cn, dn);

@@ -1,0 +1,8 @@
+# Values that cancel in the denominator: R1 + R2 = 0.  Every numeric
+# command refuses such values with the same message (exit 1).
+vsource  Vin in 0
+resistor R1 in out
+resistor R2 out 0
+value R1 = 1k
+value R2 = -1k
+transfer H = v(out)/Vin
