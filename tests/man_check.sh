@@ -77,10 +77,10 @@ if command -v bash >/dev/null 2>&1; then
         fail "the completion's commands differ from 'gainsmith help'"; fi
     # shellcheck disable=SC2016
     bash -c '. completion/gainsmith.bash
-        COMP_WORDS=("$1" derive --max); COMP_CWORD=2; _gainsmith
+        COMP_WORDS=("$1" derive --max-t); COMP_CWORD=2; _gainsmith
         printf "%s\n" "${COMPREPLY[@]}"' sh "$bin" >"$tmp/opt"
     if [ "$(cat "$tmp/opt")" = "--max-terms" ]; then pass; else
-        fail "completing 'derive --max' gave: $(cat "$tmp/opt")"; fi
+        fail "completing 'derive --max-t' gave: $(cat "$tmp/opt")"; fi
     # shellcheck disable=SC2016
     bash -c '. completion/gainsmith.bash
         COMP_WORDS=("$1" derive examples/sallen); COMP_CWORD=2; _gainsmith

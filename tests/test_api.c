@@ -80,8 +80,9 @@ static void test_options_defaults(void)
     gs_options o;
     memset(&o, 0xA5, sizeof o);
     gs_options_init(&o);
-    CHECK(o.only == NULL && o.max_terms == 0 && o.method == GS_METHOD_AUTO
-          && o.limits == NULL && o.nlimits == 0);
+    CHECK(o.only == NULL && o.max_terms == GS_DEFAULT_MAX_TERMS && o.method == GS_METHOD_AUTO
+          && o.limits == NULL && o.nlimits == 0
+          && o.max_bytes == GS_DEFAULT_MAX_BYTES);
     gs_options_init(NULL);
 }
 

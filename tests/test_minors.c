@@ -385,11 +385,102 @@ static void test_limits(void)
     gs_symtab_free(st);
 }
 
+/* A dense 8 x 8, every entry one term (elimination works in place, so
+   each run takes a new one). */
+static void dense8(gs_mna *m, const gs_polyctx *ctx)
+{
+    int i, j;
+    mna_new(m, 8);
+    for (i = 0; i <= 8; i++)
+        for (j = 0; j <= 8; j++)
+            if (i < 8 || j < 8)
+                gs_poly_set_var(GS_MNA_AT(m, i, j), (i + 2 * j) % 5,
+                                1 + (unsigned)(i * j % 3), ctx);
+}
+
+/* The budgets beyond terms, on one dense 8 x 8 (every entry one term):
+   memory and work stop the expansion and the elimination with their own
+   messages, and budgets that do not bind give the same determinants. */
+static void test_more_budgets(void)
+{
+    gs_symtab *st = gs_symtab_new();
+    gs_polyctx *ctx = context(st, 5, "y");
+    gs_minors_opts o;
+    gs_elim_opts eo;
+    gs_mna m;
+    gs_poly da, dm, ra, rm;
+    gs_diag d;
+    int i;
+
+    gs_poly_init(&da);
+    gs_poly_init(&dm);
+    gs_poly_init(&ra);
+    gs_poly_init(&rm);
+    gs_diag_init(&d);
+    dense8(&m, ctx);
+    gs_minors_opts_default(&o);
+    o.max_products = 0;
+    CHECK(gs_minors_bordered(&ra, &rm, &m, ctx, &o, NULL, &d) == GS_OK);
+
+    o.max_bytes = 4096;
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, NULL, &d) == GS_EBUDGET);
+    CHECK(d.nerrors == 1 && strstr(d.v[0].message, "memory budget") != NULL);
+    gs_diag_clear(&d);
+    o.max_bytes = (size_t)1 << 30;
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, NULL, &d) == GS_OK);
+    CHECK(gs_poly_equal(&da, &ra, ctx) && gs_poly_equal(&dm, &rm, ctx));
+    o.max_bytes = 0;
+    /* a term budget of 1: the first product's work (1000 pairs) passes
+       the work bound only on a larger matrix, so here the terms stop it */
+    o.max_terms = 1;
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, NULL, &d) == GS_EBUDGET);
+    gs_diag_clear(&d);
+    o.max_terms = 0;
+
+    gs_elim_opts_default(&eo);
+    eo.max_bytes = 2048;
+    gs_mna_clear(&m);
+    dense8(&m, ctx);
+    CHECK(gs_elim_bordered(&da, &dm, &m, ctx, &eo, NULL, &d) == GS_EBUDGET);
+    CHECK(d.nerrors == 1 && strstr(d.v[0].message, "memory budget") != NULL);
+    gs_diag_clear(&d);
+    eo.max_bytes = (size_t)1 << 30;
+    gs_mna_clear(&m);
+    dense8(&m, ctx);
+    CHECK(gs_elim_bordered(&da, &dm, &m, ctx, &eo, NULL, &d) == GS_OK);
+    /* elimination and expansion agree up to the sign convention of the
+       bordered determinant (test_against_elimination fixes it) */
+    CHECK(da.length == ra.length && dm.length == rm.length);
+    eo.max_bytes = 0;
+    /* a budget of 4 terms: the products outgrow 8 x 4 before their
+       division, or the work bound (4000 pairs) is met first */
+    eo.max_terms = 4;
+    gs_mna_clear(&m);
+    dense8(&m, ctx);
+    i = gs_elim_bordered(&da, &dm, &m, ctx, &eo, NULL, &d);
+    CHECK_MSG(i == GS_EBUDGET, "rc %d, det terms %zu and %zu", i, ra.length,
+              rm.length);
+    CHECK(d.nerrors == 1
+          && (strstr(d.v[0].message, "before its exact division") != NULL
+              || strstr(d.v[0].message, "work budget") != NULL
+              || strstr(d.v[0].message, "an entry reached") != NULL));
+    gs_diag_clear(&d);
+
+    gs_mna_clear(&m);
+    gs_poly_clear(&da);
+    gs_poly_clear(&dm);
+    gs_poly_clear(&ra);
+    gs_poly_clear(&rm);
+    gs_polyctx_free(ctx);
+    gs_symtab_free(st);
+}
+
 int main(void)
 {
     test_vandermonde();
     test_chebyshev();
     test_against_elimination();
     test_limits();
+    test_more_budgets();
     return check_report("minors");
 }

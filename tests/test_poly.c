@@ -1205,12 +1205,40 @@ static void loop_shapes(const env *e, uint64_t seed0, int n)
     gs_poly_clear(&q);
 }
 
+/* The capped product: (1+x+y+z)^3 * (1+x+y+z)^3 has C(6+3, 3) = 84
+   terms (the monomials of degree <= 6 in three variables, a counting
+   fact).  Under a cap of 84 or more it is the full product; under 83 it
+   is refused, and r is left zero. */
+static void test_mul_cap(const env *e)
+{
+    gs_poly a, r, full;
+    gs_poly_init(&a);
+    gs_poly_init(&r);
+    gs_poly_init(&full);
+    CHECK(gs_poly_set_str(&a, "1 + x + y + z", e->c4) == GS_OK);
+    gs_poly_pow_ui(&a, &a, 3, e->c4);
+    gs_poly_mul(&full, &a, &a, e->c4);
+    CHECK(full.length == 84);
+    CHECK(gs_poly_mul_cap(&r, &a, &a, 84, e->c4) == GS_OK);
+    CHECK(gs_poly_equal(&r, &full, e->c4));
+    CHECK(gs_poly_mul_cap(&r, &a, &a, 0, e->c4) == GS_OK);
+    CHECK(gs_poly_equal(&r, &full, e->c4));
+    CHECK(gs_poly_mul_cap(&r, &a, &a, 83, e->c4) == GS_EBUDGET);
+    CHECK(gs_poly_is_zero(&r));
+    CHECK(gs_poly_storage(&full, e->c4)
+          >= full.length * (sizeof(gs_int) + 8));
+    gs_poly_clear(&a);
+    gs_poly_clear(&r);
+    gs_poly_clear(&full);
+}
+
 int main(int argc, char **argv)
 {
     env e;
     uint64_t seed = argc > 1 ? strtoull(argv[1], NULL, 10) : 20261201;
     env_init(&e);
     test_text(&e);
+    test_mul_cap(&e);
     test_binomial(&e);
     test_small_identities(&e);
     test_content(&e);

@@ -337,8 +337,8 @@ static void report_overflow(const elim *e, int k, gs_diag *d)
 static void report_budget(const elim *e, int k, const gs_elim_opts *o,
                           gs_diag *d)
 {
-    const char *hint = "raise the budget with --max-terms (0: none), bind "
-                       "some symbols to numbers, or try approx";
+    const char *hint = "raise the budget with --max-terms (0: none), or bind "
+                       "some symbols to numbers";
     if (e->over_what == OVER_MEMORY)
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
                     "raise it with --max-memory, or try approx, eval or "

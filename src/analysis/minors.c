@@ -333,8 +333,8 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
 
 static void report_budget(gs_diag *d, const watch *w, int level, int n)
 {
-    const char *hint = "raise the budget with --max-terms (0: none), bind "
-                       "some symbols to numbers, or try approx";
+    const char *hint = "raise the budget with --max-terms (0: none), or bind "
+                       "some symbols to numbers";
     if (w->max_work > 0 && w->work > w->max_work)
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint,
                     "work budget exceeded at expansion level %d of %d: the "

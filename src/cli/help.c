@@ -54,17 +54,26 @@ static const char derive_text[] =
 "                       pretty (2-D fraction), latex (equation\n"
 "                       environments), c (C99 functions), json\n"
 "  --collect SYM        group terms by powers of SYM instead of s\n"
-"  --max-terms N        stop with exit status 1 when an intermediate\n"
-"                       polynomial grows past N terms, or the minors kept\n"
-"                       at once past 8N in all (default: no limit)\n"
+"  --max-terms N        the term budget: stop with exit status 1 when an\n"
+"                       intermediate polynomial grows past N terms, a\n"
+"                       product past 8N before its exact division, the\n"
+"                       minors kept at once past 8N in all, or the\n"
+"                       products past 1000N term pairs of work (default\n"
+"                       2000000, and auto then also refuses an expansion\n"
+"                       of more than 2000000 paths; 0: no limit)\n"
+"  --max-memory SIZE    the memory budget: stop with exit status 1 when\n"
+"                       the polynomials kept at once would take more than\n"
+"                       SIZE bytes (512M, 4G, 2GiB; default 4GiB on 64-bit\n"
+"                       machines; 0: no limit)\n"
 "  --method METHOD      how the determinants are computed: auto (default:\n"
 "                       minors unless the expansion would be too large),\n"
 "                       minors (expansion in minors, no division) or\n"
 "                       bareiss (fraction-free elimination); the result\n"
 "                       is the same, only the work differs\n"
 "  --pivot RULE         elimination pivot rule: minwork (default),\n"
-"                       markowitz, minterms or natural; alone, it implies\n"
-"                       --method bareiss\n"
+"                       markowitz, minterms or natural (often hundreds of\n"
+"                       times slower; the work budget stops it); alone,\n"
+"                       it implies --method bareiss\n"
 "  --stats              after the results, one line per output on stderr:\n"
 "                       stats NAME terms_N=.. terms_D=.. unknowns=..\n"
 "                       method=.. minors=.. products=..\n"
@@ -94,6 +103,7 @@ static const char eval_text[] =
 "  --only NAME          only the output NAME\n"
 "  --limit SYM=inf|0    as for derive\n"
 "  --max-terms N        as for derive\n"
+"  --max-memory SIZE    as for derive\n"
 "  --help               this text\n";
 
 static const char check_text[] =
@@ -113,6 +123,7 @@ static const char check_text[] =
 "  --set SYM=VALUE      as for eval; repeatable\n"
 "  --only NAME          only the output NAME\n"
 "  --max-terms N        as for derive\n"
+"  --max-memory SIZE    as for derive\n"
 "  --help               this text\n";
 
 static const char poles_text[] =
@@ -136,6 +147,7 @@ static const char poles_text[] =
 "  --only NAME          only the output NAME\n"
 "  --limit SYM=inf|0    as for derive\n"
 "  --max-terms N        as for derive\n"
+"  --max-memory SIZE    as for derive\n"
 "  --help               this text\n";
 
 static const char bode_text[] =
@@ -165,6 +177,7 @@ static const char bode_text[] =
 "  --only NAME          only the output NAME\n"
 "  --limit SYM=inf|0    as for derive\n"
 "  --max-terms N        as for derive\n"
+"  --max-memory SIZE    as for derive\n"
 "  --help               this text\n";
 
 static const char step_text[] =
@@ -186,6 +199,7 @@ static const char step_text[] =
 "  --only NAME          only the output NAME\n"
 "  --limit SYM=inf|0    as for derive\n"
 "  --max-terms N        as for derive\n"
+"  --max-memory SIZE    as for derive\n"
 "  --help               this text\n";
 
 static const char sens_text[] =
@@ -206,6 +220,7 @@ static const char sens_text[] =
 "  --format text|json   the tables (default) or one JSON array\n"
 "  --limit SYM=inf|0    as for derive\n"
 "  --max-terms N        as for derive\n"
+"  --max-memory SIZE    as for derive\n"
 "  --help               this text\n";
 
 static const char report_text[] =
@@ -227,6 +242,7 @@ static const char report_text[] =
 "  --only NAME          only the output NAME\n"
 "  --limit SYM=inf|0    as for derive\n"
 "  --max-terms N        as for derive\n"
+"  --max-memory SIZE    as for derive\n"
 "  --help               this text\n";
 static const char noise_text[] =
 "usage: gainsmith noise FILE [options]\n"
@@ -253,6 +269,7 @@ static const char noise_text[] =
 "                          (the band, or 1 Hz..1 GHz), --points N (201)\n"
 "  --set SYM=EXPR          as for eval (repeatable)\n"
 "  --max-terms N           as for derive\n"
+"  --max-memory SIZE       as for derive\n"
 "\n"
 "example:\n"
 "  gainsmith noise examples/noise_cs.gsc --at 1k --band 10:1M\n";
