@@ -64,13 +64,15 @@ static void reference_failed(const gs_job *j, size_t i, int rc,
     size_t k, len = 0;
     if (rc == GS_EDIVZERO && why->zero_elem >= 0) {
         gs_diag_add(d, GS_SEV_ERROR, c->file, o->line, o->col,
-                    "give it a nonzero value, or check the expression "
-                    "with eval --limit",
-                    "%s: the value 0 of %s makes %s a short circuit "
-                    "(infinite conductance), which the numeric solve "
-                    "cannot hold", o->name,
+                    "to check near the short, give it a small nonzero "
+                    "value with --set",
+                    "%s: %s = 0 makes the %s of %s %s infinite, which the "
+                    "numeric solve cannot stamp", o->name,
                     why->zero_sym >= 0
-                        ? gs_symtab_name(c->syms, why->zero_sym) : "it",
+                        ? gs_symtab_name(c->syms, why->zero_sym) : "its value",
+                    c->elems[why->zero_elem].kind == GS_RESISTOR
+                        ? "conductance" : "value",
+                    gs_elem_kind_name(c->elems[why->zero_elem].kind),
                     c->elems[why->zero_elem].name);
         return;
     }
