@@ -110,6 +110,7 @@ static int check_one(const gs_job *j, size_t i, const check_opts *o,
     long double worst = 0, worst_f = o->from;
     long double *incf = gs_malloc((o->points + 1) * sizeof *incf);
     long double *incb = gs_malloc((o->points + 1) * sizeof *incb);
+    long double *ince = gs_malloc((o->points + 1) * sizeof *ince);
     size_t k, nagree = 0, ninc = 0, nmis = 0;
     int rc = GS_OK;
     gs_refcheck_init(&r, j, i);
@@ -124,6 +125,7 @@ static int check_one(const gs_job *j, size_t i, const check_opts *o,
         }
         if (p.verdict == GS_RC_INCONCLUSIVE) {
             incf[ninc] = f;
+            ince[ninc] = p.err;
             incb[ninc++] = p.bound;
             continue;
         }
@@ -151,14 +153,15 @@ static int check_one(const gs_job *j, size_t i, const check_opts *o,
     }
     for (k = 0; rc == GS_OK && k < ninc && k < SHOW_INCONCLUSIVE
                 && nagree + nmis; k++)
-        fprintf(out, "%s: inconclusive at %.6Lg Hz: rounding in long "
-                "double can account for a relative difference of %.3Lg "
-                "there\n", tf->name, incf[k], incb[k]);
+        fprintf(out, "%s: inconclusive at %.6Lg Hz: relative error %.3Lg, "
+                "within the %.3Lg that rounding in long double can account "
+                "for there\n", tf->name, incf[k], ince[k], incb[k]);
     if (rc == GS_OK && ninc > SHOW_INCONCLUSIVE && nagree + nmis)
         fprintf(out, "%s: inconclusive at %zu more points\n", tf->name,
                 ninc - SHOW_INCONCLUSIVE);
     free(incf);
     free(incb);
+    free(ince);
     if (rc != GS_OK)
         return rc;
     return nmis || nagree == 0 ? GS_ERANGE : GS_OK;

@@ -1,0 +1,204 @@
+/* test_refcheck.c - the verdicts of `check` (analysis/refcheck.c) and its
+ * exact reference (numeric/numexact.c).  See LICENSE.
+ *
+ * The reference is outside the symbolic path: the circuit's MNA equations
+ * (C. W. Ho, A. E. Ruehli and P. A. Brennan, "The modified nodal approach
+ * to network analysis", IEEE Trans. Circuits Syst. 22 (1975)) solved
+ * exactly by Cramer's rule through fraction-free elimination.  A correct
+ * result must never be a mismatch, at any values; a wrong one must be.
+ */
+#include "analysis/refcheck.h"
+#include "numeric/numexact.h"
+#include "base/rng.h"
+#include "check.h"
+#include "testlib.h"
+
+#include <math.h>
+#include <stdlib.h>
+#include <string.h>
+
+static const char *const textbook[] = {
+    "examples/sallen_key.gsc", "examples/inverting_amp.gsc",
+    "examples/cs_degen.gsc", "examples/source_follower.gsc",
+    "examples/cascode.gsc", "examples/bjt_ce_degen.gsc",
+    "examples/miller_opamp.gsc", "examples/diff_pair.gsc",
+    "examples/cs_biased.gsc",
+};
+
+static int load(gs_job *j, const char *path)
+{
+    gs_derive_opts o;
+    gs_diag d;
+    int rc;
+    gs_derive_opts_default(&o);
+    gs_diag_init(&d);
+    rc = gs_job_load(j, path, &d);
+    if (rc == GS_OK)
+        rc = gs_job_derive(j, NULL, &o, &d);
+    if (rc == GS_OK)
+        rc = gs_job_bind(j, NULL, 0, &d);
+    if (rc != GS_OK)
+        gs_diag_print(stderr, &d);
+    gs_diag_clear(&d);
+    return rc;
+}
+
+/* Verdicts of output i over 13 log-spaced points, 10 mHz to 10 GHz. */
+static void sweep(size_t *count, const gs_job *j, size_t i)
+{
+    gs_refcheck r;
+    gs_refcheck_point p;
+    int k;
+    memset(count, 0, 4 * sizeof *count);
+    gs_refcheck_init(&r, j, i);
+    for (k = 0; k <= 12; k++) {
+        long double f = 1e-2L * powl(10, (long double)k);
+        if (gs_refcheck_at(&p, &r, f, 1e-9L, NULL) != GS_OK)
+            count[3]++;
+        else
+            count[p.verdict]++;
+    }
+    gs_refcheck_clear(&r);
+}
+
+/* Each bound value scaled by 10^u, u uniform in [-3, 3): six decades,
+   log-uniform, around the file's nominal values. */
+static void scatter(gs_job *j, const long double *nominal, gs_rng *rng)
+{
+    int n = gs_symtab_count(j->c->syms), v;
+    for (v = 0; v < n; v++)
+        if (j->set[v] && v != j->c->s_sym)
+            j->vals[v] = nominal[v] * powl(10, 6 * test_unit(rng) - 3);
+}
+
+static void test_random_values(void)
+{
+    size_t f, i, draws = 0, agree = 0, inconclusive = 0;
+    for (f = 0; f < sizeof textbook / sizeof *textbook; f++) {
+        gs_job j;
+        gs_rng rng;
+        long double *nominal;
+        int n, draw;
+        uint64_t seed = 0x5eed0000u + f;
+        gs_job_init(&j);
+        if (load(&j, textbook[f]) != GS_OK) {
+            CHECK_MSG(0, "%s does not load", textbook[f]);
+            gs_job_clear(&j);
+            continue;
+        }
+        n = gs_symtab_count(j.c->syms);
+        nominal = malloc((size_t)n * sizeof *nominal);
+        memcpy(nominal, j.vals, (size_t)n * sizeof *nominal);
+        gs_rng_seed(&rng, seed);
+        for (draw = 0; draw < 25; draw++) {
+            scatter(&j, nominal, &rng);
+            for (i = 0; i < j.ntf; i++) {
+                size_t c[4];
+                sweep(c, &j, i);
+                CHECK_MSG(c[GS_RC_MISMATCH] == 0 && c[3] == 0,
+                          "%s output %s, seed %#llx draw %d: %zu mismatches,"
+                          " %zu failed solves", textbook[f], j.tf[i].name,
+                          (unsigned long long)seed, draw,
+                          c[GS_RC_MISMATCH], c[3]);
+                agree += c[GS_RC_AGREE];
+                inconclusive += c[GS_RC_INCONCLUSIVE];
+                draws++;
+            }
+        }
+        free(nominal);
+        gs_job_clear(&j);
+    }
+    /* most points must be conclusive, or the test would prove nothing */
+    CHECK_MSG(agree > 10 * inconclusive, "%zu agree, %zu inconclusive",
+              agree, inconclusive);
+    printf("refcheck: %zu random draws, %zu points agree, %zu "
+           "inconclusive\n", draws, agree, inconclusive);
+}
+
+/* The negative control: the dominant term of the numerator (largest
+   magnitude at the file's values among the lowest power of s) doubled.
+   check must call it a mismatch, or the checks above could not fail. */
+static void test_wrong_result(void)
+{
+    size_t f;
+    for (f = 0; f < sizeof textbook / sizeof *textbook; f++) {
+        gs_job j;
+        gs_poly *num;
+        size_t t, best = 0, c[4];
+        long double best_mag = -1;
+        unsigned low = ~0u;
+        int nv, v;
+        unsigned *ex;
+        gs_job_init(&j);
+        if (load(&j, textbook[f]) != GS_OK || (j.graph && j.graph[0])) {
+            gs_job_clear(&j);
+            continue;
+        }
+        num = &j.tf[0].num;
+        nv = j.ctx->nvars;
+        ex = malloc(((size_t)nv + 1) * sizeof *ex);
+        for (t = 0; t < num->length; t++) {
+            gs_poly_get_term_exps(ex, num, t, j.ctx);
+            if (ex[j.c->s_sym] < low) {
+                low = ex[j.c->s_sym];
+                best_mag = -1;
+            }
+            if (ex[j.c->s_sym] == low) {
+                long double m = fabsl(gs_int_get_ld(&num->coeffs[t]));
+                for (v = 0; v < nv; v++)
+                    if (v != j.c->s_sym)
+                        m *= powl(fabsl(j.vals[v]), (long double)ex[v]);
+                if (m > best_mag) {
+                    best_mag = m;
+                    best = t;
+                }
+            }
+        }
+        gs_int_add(&num->coeffs[best], &num->coeffs[best],
+                   &num->coeffs[best]);
+        sweep(c, &j, 0);
+        CHECK_MSG(c[GS_RC_MISMATCH] > 0, "%s: a doubled term of %s's "
+                  "numerator passed check", textbook[f], j.tf[0].name);
+        free(ex);
+        gs_job_clear(&j);
+    }
+}
+
+/* The exact reference on a divider with a known closed form, H =
+   R2 / (R1 + R2) (Ohm's law), at values a long double holds exactly, and
+   the same at a pole: R2 = -R1 makes the equations singular. */
+static void test_exact_divider(void)
+{
+    static const char text[] =
+        "vsource vin in gnd\nresistor R1 in out\nresistor R2 out gnd\n"
+        "value R1 = 1k\nvalue R2 = 3k\ntransfer H = v(out)/vin\n";
+    gs_job j;
+    gs_diag d;
+    gs_derive_opts o;
+    long double complex h;
+    int r1, r2;
+    gs_job_init(&j);
+    gs_diag_init(&d);
+    gs_derive_opts_default(&o);
+    CHECK(gs_job_load_string(&j, "divider.gsc", text, &d) == GS_OK);
+    CHECK(gs_job_derive(&j, NULL, &o, &d) == GS_OK);
+    CHECK(gs_job_bind(&j, NULL, 0, &d) == GS_OK);
+    r1 = gs_symtab_find(j.c->syms, "R1");
+    r2 = gs_symtab_find(j.c->syms, "R2");
+    CHECK(gs_numsolve_exact(&h, j.c, 0, j.vals, 1e3L * I, NULL) == GS_OK);
+    CHECK_MSG(creall(h) == 0.75L && cimagl(h) == 0, "%Lg%+Lgj",
+              creall(h), cimagl(h));
+    j.vals[r2] = -j.vals[r1];
+    CHECK(gs_numsolve_exact(&h, j.c, 0, j.vals, 1e3L * I, NULL)
+          == GS_ESINGULAR);
+    gs_diag_clear(&d);
+    gs_job_clear(&j);
+}
+
+int main(void)
+{
+    test_exact_divider();
+    test_random_values();
+    test_wrong_result();
+    return check_report("refcheck");
+}
