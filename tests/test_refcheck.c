@@ -9,6 +9,7 @@
  */
 #include "analysis/refcheck.h"
 #include "numeric/numexact.h"
+#include "numeric/numsolve.h"
 #include "base/rng.h"
 #include "check.h"
 #include "testlib.h"
@@ -90,7 +91,7 @@ static void test_random_values(void)
         nominal = malloc((size_t)n * sizeof *nominal);
         memcpy(nominal, j.vals, (size_t)n * sizeof *nominal);
         gs_rng_seed(&rng, seed);
-        for (draw = 0; draw < 25; draw++) {
+        for (draw = 0; draw < 15; draw++) {
             scatter(&j, nominal, &rng);
             for (i = 0; i < j.ntf; i++) {
                 size_t c[4];
@@ -195,8 +196,76 @@ static void test_exact_divider(void)
     gs_job_clear(&j);
 }
 
+/* The long double solve's bound against the exact solution: wherever it
+   gives a finite bound, the exact value (numexact.c, a different method
+   in exact arithmetic) must lie within it.  Over the textbook circuits at
+   random values, and the widely scaled Sallen-Key filters. */
+static void test_bound_holds(void)
+{
+    static const char *const more[] = {
+        "tests/cli/chk_sk_scaled.gsc", "tests/cli/chk_sk_scaled_gain.gsc",
+        "tests/cli/chk_bridge_near.gsc",
+    };
+    size_t f, i, nf = sizeof textbook / sizeof *textbook, finite = 0;
+    size_t total = 0;
+    long double worst = 0;
+    for (f = 0; f < nf + 3; f++) {
+        const char *path = f < nf ? textbook[f] : more[f - nf];
+        gs_job j;
+        gs_rng rng;
+        long double *nominal;
+        int n, draw, k;
+        uint64_t seed = 0xb0d0000u + f;
+        gs_job_init(&j);
+        if (load(&j, path) != GS_OK) {
+            CHECK_MSG(0, "%s does not load", path);
+            gs_job_clear(&j);
+            continue;
+        }
+        n = gs_symtab_count(j.c->syms);
+        nominal = malloc((size_t)n * sizeof *nominal);
+        memcpy(nominal, j.vals, (size_t)n * sizeof *nominal);
+        gs_rng_seed(&rng, seed);
+        for (draw = 0; draw < 10; draw++) {
+            if (draw > 0)       /* the file's own values first */
+                scatter(&j, nominal, &rng);
+            for (i = 0; i < j.ntf; i++)
+                for (k = 0; k <= 12; k++) {
+                    size_t o = j.out_index[i];
+                    long double w = 2 * acosl(-1) * 1e-2L
+                                    * powl(10, (long double)k), b;
+                    long double complex s = w * I, hf, hx;
+                    if (gs_numsolve_bounded(&hf, &b, j.c, o, j.vals, s)
+                            != GS_OK
+                        || gs_numsolve_exact(&hx, j.c, o, j.vals, s, NULL)
+                            != GS_OK)
+                        continue;
+                    total++;
+                    if (!isfinite(b))
+                        continue;
+                    finite++;
+                    if (cabsl(hf - hx) > 0 && b > 0
+                        && cabsl(hf - hx) / b > worst)
+                        worst = cabsl(hf - hx) / b;
+                    CHECK_MSG(cabsl(hf - hx) <= b, "%s %s seed %#llx draw "
+                              "%d at %Lg rad/s: error %Lg beyond the bound "
+                              "%Lg", path, j.tf[i].name,
+                              (unsigned long long)seed, draw, w,
+                              cabsl(hf - hx), b);
+                }
+        }
+        free(nominal);
+        gs_job_clear(&j);
+    }
+    CHECK_MSG(finite * 10 > total * 9, "%zu of %zu bounds finite", finite,
+              total);
+    printf("refcheck: %zu of %zu long double solves bounded; the largest "
+           "error is %.3Lg of its bound\n", finite, total, worst);
+}
+
 int main(void)
 {
+    test_bound_holds();
     test_exact_divider();
     test_random_values();
     test_wrong_result();
