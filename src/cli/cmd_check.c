@@ -66,8 +66,8 @@ static void reference_failed(const gs_job *j, size_t i, int rc,
         gs_diag_add(d, GS_SEV_ERROR, c->file, o->line, o->col,
                     "to check near the short, give it a small nonzero "
                     "value with --set",
-                    "%s: %s = 0 makes the %s of %s %s infinite, which the "
-                    "numeric solve cannot stamp", o->name,
+                    "%s: the value %s = 0 makes the %s of %s %s infinite, "
+                    "which the numeric solve cannot stamp", o->name,
                     why->zero_sym >= 0
                         ? gs_symtab_name(c->syms, why->zero_sym) : "its value",
                     c->elems[why->zero_elem].kind == GS_RESISTOR
