@@ -76,6 +76,12 @@ static void reference_failed(const gs_job *j, size_t i, int rc,
                     c->elems[why->zero_elem].name);
         return;
     }
+    if (rc != GS_ESINGULAR && rc != GS_EDIVZERO && rc != GS_ERANGE) {
+        gs_diag_add(d, GS_SEV_ERROR, c->file, o->line, o->col, NULL,
+                    "%s: the numeric solve cannot compute this output (%s)",
+                    o->name, gs_strerror(rc));
+        return;
+    }
     if (rc == GS_ERANGE) {
         gs_diag_add(d, GS_SEV_ERROR, c->file, o->line, o->col, NULL,
                     "%s: a value is not a finite number, so the numeric "
