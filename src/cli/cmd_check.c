@@ -187,8 +187,9 @@ static void note_generic(const gs_job *j, const int *syms, size_t n,
                     at = &j->c->elems[e];
         gs_diag_add(d, GS_SEV_NOTE, j->c->file, at ? at->line : 0,
                     at ? at->col : 0, NULL,
-                    "no value for %s, which cancels out of every output: "
-                    "the numeric solve gives it the generic value %.3Lg",
+                    "no value for %s, which cancels out of the outputs "
+                    "checked: the numeric solve gives it the generic value "
+                    "%.3Lg",
                     gs_symtab_name(j->c->syms, syms[k]), j->vals[syms[k]]);
     }
 }
