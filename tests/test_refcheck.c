@@ -263,8 +263,50 @@ static void test_bound_holds(void)
            "error is %.3Lg of its bound\n", finite, total, worst);
 }
 
+/* The exact reference at the point that made the long double solve cry
+   wolf: the widely scaled Sallen-Key low-pass at 10 GHz against the
+   textbook form H = K / (s^2 R1 R2 C1 C2 + s (R1 C2 + R2 C2
+   + (1 - K) R1 C1) + 1) (Sallen and Key, IRE Trans. Circuit Theory 2
+   (1955); K = 1 for the follower, 1 + R4/R3 with the divider), which has
+   no cancellation there and so is good to a few units of rounding. */
+static void test_exact_sallen_key(void)
+{
+    static const char *const files[] = {
+        "tests/cli/chk_sk_scaled.gsc", "tests/cli/chk_sk_scaled_gain.gsc",
+    };
+    size_t f;
+    for (f = 0; f < 2; f++) {
+        gs_job j;
+        long double complex h, book, s;
+        long double r1, r2, c1, c2, k = 1, w = 2 * acosl(-1) * 1e10L;
+        int r3;
+        gs_job_init(&j);
+        if (load(&j, files[f]) != GS_OK) {
+            CHECK_MSG(0, "%s does not load", files[f]);
+            gs_job_clear(&j);
+            continue;
+        }
+        r1 = j.vals[gs_symtab_find(j.c->syms, "R1")];
+        r2 = j.vals[gs_symtab_find(j.c->syms, "R2")];
+        c1 = j.vals[gs_symtab_find(j.c->syms, "C1")];
+        c2 = j.vals[gs_symtab_find(j.c->syms, "C2")];
+        r3 = gs_symtab_find(j.c->syms, "R3");
+        if (r3 >= 0)
+            k = 1 + j.vals[gs_symtab_find(j.c->syms, "R4")] / j.vals[r3];
+        s = w * I;
+        book = k / (s * s * r1 * r2 * c1 * c2
+                    + s * (r1 * c2 + r2 * c2 + (1 - k) * r1 * c1) + 1);
+        CHECK(gs_numsolve_exact(&h, j.c, 0, j.vals, s, NULL) == GS_OK);
+        CHECK_MSG(cabsl(h - book) <= 1e-16L * cabsl(book), "%s: %Lg%+Lgj "
+                  "against the book's %Lg%+Lgj", files[f], creall(h),
+                  cimagl(h), creall(book), cimagl(book));
+        gs_job_clear(&j);
+    }
+}
+
 int main(void)
 {
+    test_exact_sallen_key();
     test_bound_holds();
     test_exact_divider();
     test_random_values();
