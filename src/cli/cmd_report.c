@@ -3,6 +3,7 @@
 #include "cli/cli.h"
 #include "cli/cmd.h"
 #include "analysis/job.h"
+#include "analysis/refcheck.h"
 #include "base/mem.h"
 #include "output/report.h"
 
@@ -82,6 +83,8 @@ int gs_cmd_report(int argc, char **argv, FILE *out, FILE *err)
         status = gs_cmd_load_and_derive(&j, &cl, "report", err);
     if (status == 0)
         status = gs_cmd_bind(&j, &cl, err);
+    if (status == 0)        /* for the check section, as check does */
+        gs_refcheck_generic_values(&j, NULL);
     if (status == 0)
         status = write_report(&j, path, out, err);
 done:

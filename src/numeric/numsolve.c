@@ -8,7 +8,9 @@
  */
 #include "numeric/numsolve.h"
 #include "base/mem.h"
+#include "numeric/roots.h"
 
+#include <float.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -24,7 +26,15 @@ typedef struct numsys {
     const long double *vals;
     cplx s;
     int input;          /* the input source, or -1 */
+    int absmode;        /* stamp |v| for every v: the magnitudes the
+                           entries are sums of, for the error bound */
 } numsys;
+
+/* dst += v, or |v| in absmode. */
+static void acc(const numsys *sy, cplx *dst, cplx v)
+{
+    *dst += sy->absmode ? (cplx)cabsl(v) : v;
+}
 
 static long double value_of(const numsys *sy, const gs_monomial *m)
 {
@@ -38,7 +48,7 @@ static long double value_of(const numsys *sy, const gs_monomial *m)
 static void add(numsys *sy, int node_row, int col, cplx v)
 {
     if (node_row >= 0 && col >= 0)
-        sy->a[(size_t)node_row * (size_t)sy->n + (size_t)col] += v;
+        acc(sy, &sy->a[(size_t)node_row * (size_t)sy->n + (size_t)col], v);
 }
 
 static int vidx(int node)
@@ -56,7 +66,7 @@ static void current_coeffs(cplx *row, cplx *known, const numsys *sy, int k,
     if (depth > (int)sy->c->nelems)
         return;             /* a control loop: mna.c reports it */
     if (sy->branch[k] >= 0) {
-        row[sy->branch[k]] += scale;
+        acc(sy, &row[sy->branch[k]], scale);
         return;
     }
     switch (e->kind) {
@@ -69,16 +79,16 @@ static void current_coeffs(cplx *row, cplx *known, const numsys *sy, int k,
         if (e->kind == GS_CAPACITOR)
             y *= sy->s;
         if (vidx(e->node[0]) >= 0)
-            row[vidx(e->node[0])] += scale * y;
+            acc(sy, &row[vidx(e->node[0])], scale * y);
         if (vidx(e->node[1]) >= 0)
-            row[vidx(e->node[1])] -= scale * y;
+            acc(sy, &row[vidx(e->node[1])], -scale * y);
         break;
     case GS_VCCS:
         y = value_of(sy, &e->value);
         if (vidx(e->node[2]) >= 0)
-            row[vidx(e->node[2])] += scale * y;
+            acc(sy, &row[vidx(e->node[2])], scale * y);
         if (vidx(e->node[3]) >= 0)
-            row[vidx(e->node[3])] -= scale * y;
+            acc(sy, &row[vidx(e->node[3])], -scale * y);
         break;
     case GS_CCCS:
         current_coeffs(row, known, sy, e->ctrl,
@@ -86,7 +96,7 @@ static void current_coeffs(cplx *row, cplx *known, const numsys *sy, int k,
         break;
     case GS_ISOURCE:
         if (k == sy->input)
-            *known += scale;
+            acc(sy, known, scale);
         break;
     default:
         break;
@@ -105,9 +115,9 @@ static void stamp_flow(numsys *sy, int a, int b, const cplx *row, cplx known)
         add(sy, vidx(b), j, -row[j]);
     }
     if (vidx(a) >= 0)
-        sy->rhs[vidx(a)] -= known;
+        acc(sy, &sy->rhs[vidx(a)], -known);
     if (vidx(b) >= 0)
-        sy->rhs[vidx(b)] += known;
+        acc(sy, &sy->rhs[vidx(b)], known);
 }
 
 static void stamp_voltage_row(numsys *sy, int k, const gs_element *e)
@@ -129,7 +139,7 @@ static void stamp(numsys *sy, int k, cplx *row)
     case GS_VSOURCE:
         stamp_voltage_row(sy, k, e);
         if (k == sy->input)
-            sy->rhs[br] += 1;
+            acc(sy, &sy->rhs[br], 1);
         break;
     case GS_INDUCTOR:
         stamp_voltage_row(sy, k, e);
@@ -147,7 +157,7 @@ static void stamp(numsys *sy, int k, cplx *row)
                        1);
         for (j = 0; j < sy->n; j++)
             add(sy, br, j, -row[j]);
-        sy->rhs[br] += known;
+        acc(sy, &sy->rhs[br], known);
         break;
     case GS_OPAMP:
         add(sy, vidx(e->node[0]), br, 1);
@@ -346,6 +356,7 @@ int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
     sy.c = c;
     sy.vals = vals;
     sy.s = s;
+    sy.absmode = 0;
     sy.input = o->kind == GS_OUT_TRANSFER ? o->in : -1;
     sy.a = gs_calloc((size_t)n * (size_t)n + 1, sizeof *sy.a);
     sy.rhs = gs_calloc((size_t)n + 1, sizeof *sy.rhs);
@@ -363,7 +374,8 @@ int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
         *h = probe_value(&sy, o, sy.rhs, row);
     else
         gs_diag_add(d, GS_SEV_ERROR, c->file, o->line, o->col, NULL,
-                    "%s: the numeric numsys is singular at s = %Lg%+Lgj",
+                    "%s: the circuit's equations have no unique solution "
+                    "at s = %Lg%+Lgj",
                     o->name, creall(s), cimagl(s));
     free(row);
     free(sy.a);
@@ -392,6 +404,7 @@ int gs_numsolve_adjoint(long double complex *h, const gs_circuit *c,
     sy.c = c;
     sy.vals = vals;
     sy.s = s;
+    sy.absmode = 0;
     sy.input = -1;              /* every source nulled */
     sy.a = gs_calloc((size_t)nu * (size_t)nu + 1, sizeof *sy.a);
     sy.rhs = gs_calloc((size_t)nu + 1, sizeof *sy.rhs);
@@ -427,6 +440,287 @@ int gs_numsolve_adjoint(long double complex *h, const gs_circuit *c,
     free(y);
     free(sy.a);
     free(sy.rhs);
+    free(sy.branch);
+    return rc;
+}
+
+/* ---- the solve that bounds its own error ----------------------------- */
+
+/* LU with partial pivoting in place, P A = L U, the swaps in piv (LAPACK's
+   convention: row k was swapped with row piv[k] at step k).  GS_ESINGULAR
+   on a zero or non-finite pivot. */
+static int lu_factor(cplx *a, int *piv, int n)
+{
+    int i, j, k, p;
+    for (k = 0; k < n; k++) {
+        p = k;
+        for (i = k + 1; i < n; i++)
+            if (cabsl(a[i * n + k]) > cabsl(a[p * n + k]))
+                p = i;
+        piv[k] = p;
+        if (!(cabsl(a[p * n + k]) > 0) || !isfinite(cabsl(a[p * n + k])))
+            return GS_ESINGULAR;
+        if (p != k)
+            for (j = 0; j < n; j++) {
+                cplx t = a[k * n + j];
+                a[k * n + j] = a[p * n + j];
+                a[p * n + j] = t;
+            }
+        for (i = k + 1; i < n; i++) {
+            cplx f = a[i * n + k] / a[k * n + k];
+            a[i * n + k] = f;
+            if (f == 0)
+                continue;
+            for (j = k + 1; j < n; j++)
+                a[i * n + j] -= f * a[k * n + j];
+        }
+    }
+    return GS_OK;
+}
+
+/* x := A^-1 x from the factors. */
+static void lu_apply(const cplx *lu, const int *piv, int n, cplx *x)
+{
+    int i, j;
+    for (i = 0; i < n; i++)
+        if (piv[i] != i) {
+            cplx t = x[i];
+            x[i] = x[piv[i]];
+            x[piv[i]] = t;
+        }
+    for (i = 0; i < n; i++)
+        for (j = 0; j < i; j++)
+            x[i] -= lu[i * n + j] * x[j];
+    for (i = n - 1; i >= 0; i--) {
+        for (j = i + 1; j < n; j++)
+            x[i] -= lu[i * n + j] * x[j];
+        x[i] /= lu[i * n + i];
+    }
+}
+
+/* y := A^-T y: A^T = U^T L^T P. */
+static void lu_apply_t(const cplx *lu, const int *piv, int n, cplx *y)
+{
+    int i, j;
+    for (i = 0; i < n; i++) {
+        for (j = 0; j < i; j++)
+            y[i] -= lu[j * n + i] * y[j];
+        y[i] /= lu[i * n + i];
+    }
+    for (i = n - 1; i >= 0; i--)
+        for (j = i + 1; j < n; j++)
+            y[i] -= lu[j * n + i] * y[j];
+    for (i = n - 1; i >= 0; i--)
+        if (piv[i] != i) {
+            cplx t = y[i];
+            y[i] = y[piv[i]];
+            y[piv[i]] = t;
+        }
+}
+
+/* A sum kept as a long double and its error, by error-free
+   transformations: Knuth's TwoSum and the fma TwoProduct, the Dot2 of T.
+   Ogita, S. M. Rump and S. Oishi, "Accurate sum and dot product", SIAM J.
+   Sci. Comput. 26 (2005): about twice the working precision. */
+typedef struct sum2 {
+    long double s, c;
+} sum2;
+
+static void sum2_add(sum2 *a, long double x)
+{
+    long double t = a->s + x, z = t - a->s;
+    a->c += (a->s - (t - z)) + (x - z);
+    a->s = t;
+}
+
+static void sum2_addmul(sum2 *a, long double x, long double y)
+{
+    long double p = x * y;
+    sum2_add(a, p);
+    a->c += fmal(x, y, -p);
+}
+
+/* r = b - op(A) x, each entry in twice the working precision; op is A or
+   A^T (trans). */
+static void residual(cplx *r, const cplx *a, const cplx *b, const cplx *x,
+                     int n, int trans)
+{
+    int i, j;
+    for (i = 0; i < n; i++) {
+        sum2 re = {creall(b[i]), 0}, im = {cimagl(b[i]), 0};
+        for (j = 0; j < n; j++) {
+            cplx e = trans ? a[j * n + i] : a[i * n + j];
+            long double ar = creall(e), ai = cimagl(e);
+            long double xr = creall(x[j]), xi = cimagl(x[j]);
+            sum2_addmul(&re, -ar, xr);
+            sum2_addmul(&re, ai, xi);
+            sum2_addmul(&im, -ar, xi);
+            sum2_addmul(&im, -ai, xr);
+        }
+        r[i] = gs_cmplxl(re.s + re.c, im.s + im.c);
+    }
+}
+
+static long double max_abs(const cplx *v, int n)
+{
+    long double m = 0;
+    int i;
+    for (i = 0; i < n; i++)
+        if (cabsl(v[i]) > m)
+            m = cabsl(v[i]);
+    return m;
+}
+
+/* Solve op(A) x = b from the factors, refined: each step's residual in
+   twice the working precision (J. H. Wilkinson, "Rounding Errors in
+   Algebraic Processes", 1963; N. J. Higham, "Accuracy and Stability of
+   Numerical Algorithms", 2nd ed., ch. 12).  r gets the last residual.
+   Returns 1 when the last correction was small beside x (the solve
+   converged), else 0. */
+static int refined(cplx *x, cplx *r, const cplx *a, const cplx *lu,
+                   const int *piv, const cplx *b, int n, int trans)
+{
+    int it, i, ok = 0;
+    memcpy(x, b, (size_t)n * sizeof *x);
+    (trans ? lu_apply_t : lu_apply)(lu, piv, n, x);
+    for (it = 0; it < 4; it++) {
+        residual(r, a, b, x, n, trans);
+        (trans ? lu_apply_t : lu_apply)(lu, piv, n, r);
+        ok = max_abs(r, n) <= 1e-3L * max_abs(x, n);
+        for (i = 0; i < n; i++)
+            x[i] += r[i];
+        if (max_abs(r, n) <= LDBL_EPSILON * max_abs(x, n))
+            break;
+    }
+    residual(r, a, b, x, n, trans);
+    return ok;
+}
+
+static long double gamma_k(long double k)
+{
+    long double ku = k * (LDBL_EPSILON / 2);
+    return ku < 0.5L ? ku / (1 - ku) : INFINITY;
+}
+
+/* The longest monomial of the circuit's values, for the stamping bound. */
+static int max_factors(const gs_circuit *c)
+{
+    size_t k;
+    int m = 0, i, f;
+    for (k = 0; k < c->nelems; k++) {
+        for (f = 0, i = 0; i < c->elems[k].value.n; i++)
+            f += abs(c->elems[k].value.exp[i]);
+        if (f > m)
+            m = f;
+    }
+    return m;
+}
+
+int gs_numsolve_bounded(long double complex *h, long double *bound,
+                        const gs_circuit *c, size_t out,
+                        const long double *vals, long double complex s)
+{
+    const gs_output *o = &c->outputs[out];
+    numsys sy, ab;
+    size_t k;
+    int n = c->nnodes - 1, rc = GS_OK, i, j, conv;
+    cplx *lu, *x, *r, *y, *ry, *cv, *cabs, *row, kn = 0, kabs = 0;
+    int *piv;
+    long double g, sum = 0, dot = 0;
+
+    *bound = INFINITY;
+    if (o->kind != GS_OUT_TRANSFER && o->kind != GS_OUT_IMPEDANCE)
+        return GS_EINVAL;
+    sy.branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy.branch);
+    for (k = 0; k < c->nelems; k++)
+        sy.branch[k] = is_voltage_defined(c->elems[k].kind) ? n++ : -1;
+    sy.n = n;
+    sy.c = c;
+    sy.vals = vals;
+    sy.s = s;
+    sy.absmode = 0;
+    sy.input = o->kind == GS_OUT_TRANSFER ? o->in : -1;
+    ab = sy;
+    ab.absmode = 1;
+    sy.a = gs_calloc((size_t)n * (size_t)n + 1, sizeof *sy.a);
+    sy.rhs = gs_calloc((size_t)n + 1, sizeof *sy.rhs);
+    ab.a = gs_calloc((size_t)n * (size_t)n + 1, sizeof *ab.a);
+    ab.rhs = gs_calloc((size_t)n + 1, sizeof *ab.rhs);
+    lu = gs_calloc((size_t)n * (size_t)n + 1, sizeof *lu);
+    piv = gs_calloc((size_t)n + 1, sizeof *piv);
+    x = gs_calloc((size_t)n + 1, sizeof *x);
+    r = gs_calloc((size_t)n + 1, sizeof *r);
+    y = gs_calloc((size_t)n + 1, sizeof *y);
+    ry = gs_calloc((size_t)n + 1, sizeof *ry);
+    cv = gs_calloc((size_t)n + 1, sizeof *cv);
+    cabs = gs_calloc((size_t)n + 1, sizeof *cabs);
+    row = gs_calloc((size_t)n + 1, sizeof *row);
+    for (k = 0; k < c->nelems; k++) {
+        stamp(&sy, (int)k, row);
+        stamp(&ab, (int)k, row);
+    }
+    if (o->kind == GS_OUT_IMPEDANCE) {   /* unit test current into a */
+        if (vidx(o->a) >= 0)
+            sy.rhs[vidx(o->a)] += 1;
+        if (vidx(o->b) >= 0)
+            sy.rhs[vidx(o->b)] -= 1;
+    }
+    /* the output c^T x + kn, and its magnitudes */
+    if (o->kind == GS_OUT_IMPEDANCE || o->out.kind == GS_PROBE_V) {
+        int a = o->kind == GS_OUT_IMPEDANCE ? o->a : o->out.a;
+        int b = o->kind == GS_OUT_IMPEDANCE ? o->b : o->out.b;
+        if (vidx(a) >= 0)
+            cv[vidx(a)] += 1;
+        if (vidx(b) >= 0)
+            cv[vidx(b)] -= 1;
+    } else {
+        current_coeffs(cv, &kn, &sy, o->out.elem, 1, 0);
+        current_coeffs(cabs, &kabs, &ab, o->out.elem, 1, 0);
+    }
+    memcpy(lu, sy.a, (size_t)n * (size_t)n * sizeof *lu);
+    rc = lu_factor(lu, piv, n);
+    for (i = 0; i < n * n && rc == GS_OK; i++)
+        if (!isfinite(cabsl(sy.a[i])))
+            rc = GS_ERANGE;
+    if (rc == GS_OK) {
+        conv = refined(x, r, sy.a, lu, piv, sy.rhs, n, 0);
+        conv &= refined(y, ry, sy.a, lu, piv, cv, n, 1);
+        /* each entry is a sum of products of values, each rounded: */
+        g = gamma_k(3 * (long double)max_factors(c) + 16
+                    + (long double)c->nelems);
+        for (i = 0; i < n; i++) {
+            long double ax = 0;
+            for (j = 0; j < n; j++)
+                ax += creall(ab.a[i * n + j]) * cabsl(x[j]);
+            sum += cabsl(y[i]) * (cabsl(r[i])
+                                  + g * (ax + creall(ab.rhs[i])));
+        }
+        for (i = 0; i < n; i++) {
+            dot += cabsl(cv[i]) * cabsl(x[i]);
+            sum += g * creall(cabs[i]) * cabsl(x[i]);
+        }
+        sum += g * creall(kabs) + gamma_k(2 * (long double)n + 4) * dot;
+        *h = kn;
+        for (i = 0; i < n; i++)
+            *h += cv[i] * x[i];
+        /* first order in the errors: doubled, and only when both solves
+           converged, so that y is good to a digit */
+        if (conv && isfinite(sum) && isfinite(cabsl(*h)))
+            *bound = 2 * sum + 4 * (LDBL_EPSILON / 2) * cabsl(*h);
+    }
+    free(sy.a);
+    free(sy.rhs);
+    free(ab.a);
+    free(ab.rhs);
+    free(lu);
+    free(piv);
+    free(x);
+    free(r);
+    free(y);
+    free(ry);
+    free(cv);
+    free(cabs);
+    free(row);
     free(sy.branch);
     return rc;
 }

@@ -20,6 +20,20 @@
 int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
                 const long double *vals, long double complex s, gs_diag *d);
 
+/* The same for a transfer or an impedance, with a bound on its own error:
+   LU with partial pivoting, refined with residuals in twice the working
+   precision, for the solution and for the adjoint y (A^T y = c), whose
+   entries weigh each equation's error into the output's (first order:
+   delta h = y^T (r + delta b - delta A x) + delta c^T x, with the
+   stamping's rounding bounded entry by entry).  *bound gets a bound on
+   |*h - H| where H is the exact value at vals and s, or INFINITY when the
+   solve cannot bound itself (it did not converge).  GS_OK, GS_EINVAL (a
+   loop or a figure), GS_ESINGULAR (a zero pivot) or GS_ERANGE (an entry
+   is not finite); no message, the caller decides. */
+int gs_numsolve_bounded(long double complex *h, long double *bound,
+                        const gs_circuit *c, size_t out,
+                        const long double *vals, long double complex s);
+
 /* The transfers h[k] from unit currents injected into the circuit to the
    output quantity of transfer `out` (every independent source of the
    circuit set to zero), all from one solve of the transposed system:
