@@ -136,9 +136,11 @@ sol = sp.solve([gm1 * vin + v1 / R1 + s * C1 * v1 + s * Cc * (v1 - v2),
                 gm2 * v1 + v2 / R2 + s * C2 * v2 + s * Cc * (v2 - v1)],
                [v1, v2], dict=True)[0]
 num, den = sp.fraction(sp.cancel(sol[v2] / vin))
-den = sp.Poly(sp.expand(den * sp.Poly(sp.expand(den), s).coeff_monomial(1)
-                        ** -1), s)
-a1, a2 = den.coeff_monomial(s), den.coeff_monomial(s ** 2)
+den = sp.Poly(sp.expand(den), s)
+# D normalised to D(0) = 1, the book's 1 + a1*s + a2*s^2
+a0 = den.coeff_monomial(1)
+a1 = sp.expand(sp.cancel(den.coeff_monomial(s) / a0))
+a2 = sp.expand(sp.cancel(den.coeff_monomial(s ** 2) / a0))
 same('miller model a2', a2, R1 * R2 * (C1 * C2 + C1 * Cc + C2 * Cc))
 same('miller model a1 gm2 term', a1.coeff(gm2), R1 * R2 * Cc)
 same('miller model zero', sp.solve(num, s)[0], gm2 / Cc)
