@@ -28,6 +28,7 @@
 #define MAX_CORNER_SYMS 6       /* up to 2^6 corners; else seeded points */
 #define SEEDED_POINTS 32
 #define MAX_COND 12
+#define FACTOR_MAX_TERMS 8      /* terms of a factor's form in s, at most */
 
 static const long double PI_L = 3.141592653589793238462643383279502884L;
 
@@ -557,6 +558,128 @@ static void dc_gain(gs_approx_result *r, const work *wk,
 
 /* ---- roots and their estimates -------------------------------------- */
 
+/* A factor of the exact N or D of degree 1 or 2 in s: its coefficients
+   and its root at the nominal point (for degree 2 the one with positive
+   imaginary part; only complex pairs are kept). */
+typedef struct sfactor {
+    gs_poly c[3];
+    int deg;
+    long double complex root;
+    int used;
+} sfactor;
+
+/* The factors of w's exact polynomial of degree 1 or 2 in s, found by the
+   multilinear split of the design-oriented forms (approx_form.c).  Their
+   roots are roots of the exact polynomial, so an estimate read from them
+   is exact, however close the other roots are.  Only for a complete
+   table: a factor of the listed terms alone is not one of the exact
+   polynomial. */
+static size_t s_factors(sfactor **out, const work *wk, int w, int s_var,
+                        const long double *vals)
+{
+    const gs_approx_terms *t = wk->t;
+    const gs_polyctx *ctx = wk->ctx;
+    size_t *all = gs_calloc((size_t)t->ncoef[w] + 1, sizeof *all);
+    size_t nf, i, n = 0;
+    gs_poly p, *f = NULL;
+    int k;
+    *out = NULL;
+    if (!t->complete || t->ref) {
+        free(all);
+        return 0;
+    }
+    for (k = 0; k < t->ncoef[w]; k++)
+        all[k] = t->c[w][k].nterms;
+    gs_poly_init(&p);
+    build_poly(&p, t->c[w], t->ncoef[w], all, s_var, ctx);
+    nf = gs_approx_factors(&f, &p, ctx);
+    *out = gs_calloc(nf ? nf : 1, sizeof **out);
+    for (i = 0; i < nf; i++) {
+        long deg = gs_poly_degree(&f[i], s_var, ctx);
+        sfactor *x = &(*out)[n];
+        long double v[3], disc;
+        if (deg == 1 || deg == 2) {
+            for (k = 0; k < 3; k++)
+                gs_poly_init(&x->c[k]);
+            gs_poly_coeffs_var(x->c, (size_t)deg + 1, &f[i], s_var, ctx);
+            for (k = 0; k <= deg; k++)
+                v[k] = gs_poly_eval_ld(&x->c[k], vals, ctx);
+            x->deg = (int)deg;
+            x->used = 0;
+            disc = deg == 2 ? v[1] * v[1] - 4 * v[0] * v[2] : 0;
+            if (deg == 1 && v[1] != 0) {
+                x->root = -v[0] / v[1];
+                n++;
+            } else if (deg == 2 && v[2] != 0 && disc < 0) {
+                x->root = gs_cmplxl(-v[1] / (2 * v[2]),
+                                    sqrtl(-disc) / (2 * fabsl(v[2])));
+                n++;
+            } else {
+                for (k = 0; k < 3; k++)
+                    gs_poly_clear(&x->c[k]);
+            }
+        }
+        gs_poly_clear(&f[i]);
+    }
+    free(f);
+    free(all);
+    gs_poly_clear(&p);
+    return n;
+}
+
+/* Roots r->roots[from ..] that are roots of a factor in s take the
+   factor's exact form when it is short (FACTOR_MAX_TERMS: a long exact
+   form is no form for a design review) and no longer than their estimate
+   (or they have none); conjugates follow their pair. */
+static void use_factors(gs_approx_result *r, size_t from, sfactor *f,
+                        size_t nf, const gs_polyctx *ctx)
+{
+    size_t i, k;
+    for (i = from; i < r->nroots; i++) {
+        gs_approx_root *x = &r->roots[i];
+        long double m = cabsl(x->exact);
+        size_t len, flen;
+        if (x->at_origin)
+            continue;
+        if (x->pair_of >= 0) {
+            const gs_approx_root *y = &r->roots[x->pair_of];
+            x->value = conjl(y->value);
+            x->rel_error = y->rel_error;
+            x->factor = y->factor;
+            continue;
+        }
+        len = x->est == GS_APPROX_EST_REAL ? x->wn.length + x->wd.length
+              : x->est == GS_APPROX_EST_PAIR
+                ? x->a0.length + x->a1.length + x->a2.length : SIZE_MAX;
+        for (k = 0; k < nf; k++) {
+            int cplx = cimagl(x->exact) != 0;
+            if (f[k].used || (f[k].deg == 2) != cplx
+                || !(cabsl(f[k].root - x->exact) <= 1e-9L * m))
+                continue;
+            flen = f[k].c[0].length + f[k].c[1].length
+                   + (f[k].deg == 2 ? f[k].c[2].length : 0);
+            if (flen > len || flen > FACTOR_MAX_TERMS)
+                continue;
+            f[k].used = 1;
+            x->factor = 1;
+            if (f[k].deg == 1) {
+                x->est = GS_APPROX_EST_REAL;
+                gs_poly_set(&x->wn, &f[k].c[0], ctx);
+                gs_poly_set(&x->wd, &f[k].c[1], ctx);
+                gs_reduce_ratio(&x->wn, &x->wd, ctx->syms, ctx, 1, NULL);
+            } else {
+                x->est = GS_APPROX_EST_PAIR;
+                gs_poly_set(&x->a0, &f[k].c[0], ctx);
+                gs_poly_set(&x->a1, &f[k].c[1], ctx);
+                gs_poly_set(&x->a2, &f[k].c[2], ctx);
+            }
+            x->value = f[k].root;
+            x->rel_error = cabsl(x->value - x->exact) / m;
+            break;
+        }
+    }
+}
+
 /* Roots of w's exact polynomial at the nominal point, appended to r. */
 static void roots_of(gs_approx_result *r, const work *wk, int w,
                      const size_t *shortk, const long double *vals)
@@ -803,8 +926,19 @@ int gs_approx_run_terms(gs_approx_result *r, const gs_approx_terms *t,
     dc_gain(r, &wk, o);
     for (w = 0; w < 2; w++)
         cut(shortk[w], t->c[w], t->ncoef[w], r->eps);
-    roots_of(r, &wk, 1, shortk[1], vals);
-    roots_of(r, &wk, 0, shortk[0], vals);
+    for (w = 1; w >= 0; w--) {     /* poles first, then zeros */
+        size_t from = r->nroots, nf, k;
+        sfactor *sf;
+        roots_of(r, &wk, w, shortk[w], vals);
+        nf = s_factors(&sf, &wk, w, s_var, vals);
+        use_factors(r, from, sf, nf, ctx);
+        for (k = 0; k < nf; k++) {
+            gs_poly_clear(&sf[k].c[0]);
+            gs_poly_clear(&sf[k].c[1]);
+            gs_poly_clear(&sf[k].c[2]);
+        }
+        free(sf);
+    }
 out:
     for (w = 0; w < 2; w++) {
         free(full[w]);

@@ -101,6 +101,9 @@ typedef struct gs_approx_root {
     long double complex exact;  /* the root of the exact polynomial */
     long double rel_error;      /* |value - exact| / |exact| */
     long double separation;     /* to the neighbouring roots, >= 1 */
+    int factor;             /* 1: the estimate is the root of a factor of
+                               the exact N or D of degree 1 (a pair: 2) in
+                               s, so it is exact, whatever the separation */
 } gs_approx_root;
 
 /* "gm6*r6 >> 1": a monomial ratio that must be large. */
@@ -164,5 +167,12 @@ enum { GS_FORM_TEXT, GS_FORM_PRETTY, GS_FORM_LATEX };
    a*b/(a + b)), a||b in pretty, a \parallel b in LaTeX.  A new string. */
 char *gs_approx_form(const gs_poly *num, const gs_poly *den, int style,
                      const gs_polyctx *ctx);
+
+/* The factors of p that the forms above find: p's integer and monomial
+   contents removed, the rest split into multilinear factors as there.
+   *f is a new array of that many initialised polynomials (NULL for none);
+   the caller clears them and frees it. */
+size_t gs_approx_factors(gs_poly **f, const gs_poly *p,
+                         const gs_polyctx *ctx);
 
 #endif

@@ -115,6 +115,18 @@ static void decompose(parts *pt, const gs_poly *p, const gs_polyctx *ctx)
     free(m);
 }
 
+size_t gs_approx_factors(gs_poly **f, const gs_poly *p,
+                         const gs_polyctx *ctx)
+{
+    parts pt;
+    decompose(&pt, p, ctx);
+    *f = pt.f;
+    pt.f = NULL;
+    gs_int_clear(&pt.c);
+    free(pt.mono);
+    return pt.nf;
+}
+
 static void parts_clear(parts *pt)
 {
     size_t i;

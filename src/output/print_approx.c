@@ -197,8 +197,10 @@ void gs_print_approx(FILE *out, const gs_approx_result *r, int style)
         put_root_num(out, x->value);
         fputs(" (exact ", out);
         put_root_num(out, x->exact);
-        fprintf(out, ", error %.3Lg %%, separation ", 100 * x->rel_error);
-        if (isfinite(x->separation))
+        fprintf(out, ", error %.3Lg %%, ", 100 * x->rel_error);
+        if (x->factor)
+            fprintf(out, "a factor of %s)\n", x->is_zero ? "N" : "D");
+        else if (fputs("separation ", out), isfinite(x->separation))
             fprintf(out, "%.3Lg)\n", x->separation);
         else
             fputs("none needed)\n", out);
@@ -317,6 +319,7 @@ void gs_print_approx_json(FILE *out, const gs_approx_result *r)
             fputs("null", out);
         fputs(", \"separation\": ", out);
         json_num(out, x->separation);
+        fprintf(out, ", \"factor\": %s", x->factor ? "true" : "false");
         fputc('}', out);
     }
     fputs("], \"conditions\": [", out);

@@ -471,8 +471,10 @@ static void approx_root(rctx *r, const gs_approx_result *a, size_t i)
                               "long form: gainsmith approx prints it)",
                               x->is_zero ? "N" : "D");
         }
-        t = gs_asprintf("%s: %s = %s rad/s; exact %s rad/s, error %s.",
-                        what, est, v, e, pc);
+        t = gs_asprintf("%s: %s = %s rad/s; exact %s rad/s, error %s%s.",
+                        what, est, v, e, pc, !x->factor ? ""
+                        : x->is_zero ? " (a factor of N)"
+                                     : " (a factor of D)");
         free(pc);
         free(v);
         free(est);
