@@ -363,7 +363,7 @@ int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
         *h = probe_value(&sy, o, sy.rhs, row);
     else
         gs_diag_add(d, GS_SEV_ERROR, c->file, o->line, o->col, NULL,
-                    "%s: the numeric numsys is singular at s = %Lg%+Lgj",
+                    "%s: the numeric system is singular at s = %Lg%+Lgj",
                     o->name, creall(s), cimagl(s));
     free(row);
     free(sy.a);
