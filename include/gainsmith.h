@@ -113,14 +113,26 @@ typedef struct gs_options {
     size_t max_terms;       /* work budget: GS_EBUDGET when an intermediate
                                polynomial grows past this many terms, or
                                the minors kept at once past 8 * max_terms
-                               in all; default 0: no limit */
+                               in all; 0: no limit; default
+                               GS_DEFAULT_MAX_TERMS, which under
+                               GS_METHOD_AUTO also refuses an expansion
+                               whose graph of minors counts more paths */
     gs_method method;       /* default GS_METHOD_AUTO */
     const gs_sym_limit *limits; /* nlimits limits, applied in order;
                                default NULL, 0; borrowed for the call */
     size_t nlimits;
+    size_t max_bytes;       /* memory budget: GS_EBUDGET when the
+                               polynomials the determinant method keeps at
+                               once would take more bytes; 0: no limit;
+                               default GS_DEFAULT_MAX_BYTES */
 } gs_options;
 
-/* o = the defaults: only NULL, max_terms 0, GS_METHOD_AUTO, no limits.
+/* The default budgets, the same as the command line's. */
+#define GS_DEFAULT_MAX_TERMS ((size_t)2000000)
+#define GS_DEFAULT_MAX_BYTES ((size_t)1 << (sizeof(size_t) > 4 ? 32 : 30))
+
+/* o = the defaults: only NULL, the default budgets, GS_METHOD_AUTO, no
+   limits.
    NULL is ignored. */
 GS_API void gs_options_init(gs_options *o);
 

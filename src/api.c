@@ -54,6 +54,8 @@ void gs_options_init(gs_options *o)
     o->only = NULL;
     o->limits = NULL;
     o->method = GS_METHOD_AUTO;
+    o->max_terms = GS_DEFAULT_MAX_TERMS;
+    o->max_bytes = GS_DEFAULT_MAX_BYTES;
 }
 
 /* Diagnostics as one string, or NULL when there are none. */
@@ -158,6 +160,8 @@ static int engine_opts(gs_derive_opts *o, gs_limit **limits,
     if (opts == NULL)
         return GS_OK;
     o->elim.max_terms = opts->max_terms;
+    o->elim.max_bytes = opts->max_bytes;
+    o->terms_given = opts->max_terms != GS_DEFAULT_MAX_TERMS;
     switch (opts->method) {
     case GS_METHOD_AUTO:
         o->method = GS_DET_AUTO;

@@ -358,6 +358,15 @@ static int exps_are_zero(const uint64_t *e, int nw)
     return 1;
 }
 
+size_t gs_poly_storage(const gs_poly *a, const gs_polyctx *ctx)
+{
+    size_t bytes = a->alloc * (sizeof *a->coeffs
+                               + (size_t)ctx->nwords * sizeof *a->exps), i;
+    for (i = 0; i < a->length; i++)
+        bytes += (size_t)a->coeffs[i].alloc * sizeof(uint32_t);
+    return bytes;
+}
+
 int gs_poly_is_zero(const gs_poly *a)
 {
     return a->length == 0;

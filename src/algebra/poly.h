@@ -155,6 +155,10 @@ unsigned gs_poly_term_exp(const gs_poly *a, size_t i, int var,
                           const gs_polyctx *ctx);
 
 int gs_poly_is_zero(const gs_poly *a);
+/* Bytes a's storage holds: the terms allocated (exponent words and
+   coefficient headers) and the limbs of its large coefficients.  O(length);
+   what the memory budgets of the determinant methods count. */
+size_t gs_poly_storage(const gs_poly *a, const gs_polyctx *ctx);
 int gs_poly_is_one(const gs_poly *a, const gs_polyctx *ctx);
 int gs_poly_is_const(const gs_poly *a, const gs_polyctx *ctx);
 int gs_poly_equal(const gs_poly *a, const gs_poly *b, const gs_polyctx *ctx);
@@ -185,6 +189,11 @@ void gs_poly_mul_si(gs_poly *r, const gs_poly *a, int64_t c,
 void gs_poly_sum_of_products(gs_poly *r, const gs_poly *const *a,
                              const gs_poly *const *b, const int *neg,
                              size_t n, const gs_polyctx *ctx);
+/* r = a * b, unless the product holds more than cap terms (cap 0: no
+   limit): then r = 0 and GS_EBUDGET, found as the terms are made, so the
+   work and memory stop near cap.  Same precondition as mul. */
+int gs_poly_mul_cap(gs_poly *r, const gs_poly *a, const gs_poly *b,
+                    size_t cap, const gs_polyctx *ctx);
 /* 1 when every exponent of a*b fits in GS_POLY_MAX_EXP; otherwise 0, with
    the first variable that would overflow in *var.  Callers that multiply
    polynomials built from user input check this before gs_poly_mul, whose

@@ -39,6 +39,7 @@ typedef struct mulstate {
     uint64_t *cur;          /* kw: compact prefix of the current block */
     uint64_t *cur_std;      /* nw: the same prefix, poly.h layout */
     gs_int tmp;
+    size_t cap;             /* stop once out holds more terms; 0: none */
 } mulstate;
 
 static double log2_approx(double x)
@@ -238,7 +239,7 @@ static void mul_loop(mulstate *st, void *acc, int small)
     h.keys = keys;
     pair_key(keys, st, 0, 0);
     gs_pheap_push(&h, 0);
-    while (h.n > 0) {
+    while (h.n > 0 && !(st->cap && st->out.length > st->cap)) {
         size_t lo = SIZE_MAX, hi = 0;
         uint64_t top = h.v[0].pl;
         memcpy(st->cur, gs_pheap_key(&h, top), kw * 8);
@@ -283,12 +284,13 @@ static int small_ok(const gs_poly *a, const gs_poly *b)
 
 /* r = a * b with prefix length m; the blocks of a go in the heap. */
 static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
-                       const unsigned *radix, int small,
+                       const unsigned *radix, int small, size_t cap,
                        const gs_polyctx *ctx)
 {
     mulstate st;
     size_t k, dsize;
     st.ctx = ctx;
+    st.cap = cap;
     gs_playout_init(&st.lay, ctx, m, radix);
     gs_pside_build(&st.a, a, &st.lay, small);
     gs_pside_build(&st.b, b, &st.lay, small);
@@ -339,8 +341,8 @@ static void mul_term(gs_poly *r, const gs_poly *a, const gs_poly *b,
     free(e);
 }
 
-void gs_poly_mul_method(gs_poly *r, const gs_poly *a, const gs_poly *b,
-                        int method, const gs_polyctx *ctx)
+static void mul_capped(gs_poly *r, const gs_poly *a, const gs_poly *b,
+                       int method, size_t cap, const gs_polyctx *ctx)
 {
     unsigned *da, *db, *radix;
     int v, m, alg = method & 7;
@@ -366,10 +368,27 @@ void gs_poly_mul_method(gs_poly *r, const gs_poly *a, const gs_poly *b,
     }
     m = mul_plan(a, b, radix, alg, ctx);
     mul_blocks(r, a, b, m, radix,
-               !(method & GS_POLY_MUL_BIGACC) && small_ok(a, b), ctx);
+               !(method & GS_POLY_MUL_BIGACC) && small_ok(a, b), cap, ctx);
     free(da);
     free(db);
     free(radix);
+}
+
+void gs_poly_mul_method(gs_poly *r, const gs_poly *a, const gs_poly *b,
+                        int method, const gs_polyctx *ctx)
+{
+    mul_capped(r, a, b, method, 0, ctx);
+}
+
+int gs_poly_mul_cap(gs_poly *r, const gs_poly *a, const gs_poly *b,
+                    size_t cap, const gs_polyctx *ctx)
+{
+    mul_capped(r, a, b, GS_POLY_MUL_AUTO, cap, ctx);
+    if (cap && r->length > cap) {
+        gs_poly_zero(r);
+        return GS_EBUDGET;
+    }
+    return GS_OK;
 }
 
 /* One stream of gs_poly_sum_of_products: term t of a[k] times b[k]. */

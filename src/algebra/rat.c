@@ -179,7 +179,7 @@ int gs_rat_parse(gs_rat *r, const char *s, const char **end)
         fl = digits(fp);
         p = fp + fl;
     }
-    if (il + fl == 0)
+    if (il + fl == 0 || il + fl > GS_RAT_PARSE_MAX_CHARS)
         return GS_ESYNTAX;
     p += exponent(p, &e, &big);
     p += gs_si_prefix_scan(p, &pe);

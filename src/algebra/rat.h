@@ -30,6 +30,10 @@ int gs_rat_set_int_int(gs_rat *r, const gs_int *n, const gs_int *d);
    whole string must be a number).  Returns GS_OK or GS_ESYNTAX (r
    unchanged).  No unit letters are consumed past the prefix. */
 int gs_rat_parse(gs_rat *r, const char *s, const char **end);
+/* The longest number text (sign, digits, point, exponent and prefix) the
+   circuit language and the options accept; gs_rat_parse refuses longer
+   ones with GS_ESYNTAX, so that parsing stays fast. */
+#define GS_RAT_PARSE_MAX_CHARS 1000
 /* "3", "-3/4": a new string the caller frees. */
 char *gs_rat_get_str(const gs_rat *a);
 double gs_rat_get_d(const gs_rat *a);

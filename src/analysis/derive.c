@@ -14,6 +14,9 @@ void gs_derive_opts_default(gs_derive_opts *o)
 {
     o->method = GS_DET_AUTO;
     gs_elim_opts_default(&o->elim);
+    o->elim.max_terms = GS_DEFAULT_MAX_TERMS;
+    o->elim.max_bytes = GS_DEFAULT_MAX_BYTES;
+    o->terms_given = 0;
     o->limits = NULL;
     o->nlimits = 0;
     o->no_gcd = 0;
@@ -226,13 +229,14 @@ static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
 {
     gs_minors_opts mo;
     int rc;
-    if (o->method == GS_DET_AUTO && o->elim.max_terms == 0
+    if (o->method == GS_DET_AUTO && !o->terms_given
         && m->n <= GS_MINORS_MAX_UNKNOWNS
         && (rc = size_gate(m, ctx, stats, d)) != GS_OK)
         return rc;
     if (o->method != GS_DET_BAREISS) {
         gs_minors_opts_default(&mo);
         mo.max_terms = o->elim.max_terms;
+        mo.max_bytes = o->elim.max_bytes;
         mo.progress = o->elim.progress;
         if (o->method == GS_DET_MINORS)
             mo.max_products = 0;

@@ -29,6 +29,11 @@ typedef struct gs_derive_opts {
     const gs_limit *limits;  /* applied in order, after reduction */
     size_t nlimits;
     int no_gcd;              /* skip the final gcd (for measurements) */
+    int terms_given;         /* 1: elim.max_terms was asked for, and the
+                                expansion runs however many paths its
+                                graph counts; 0: the default budget, and
+                                AUTO first refuses a graph counting more
+                                than GS_DERIVE_MAX_PATHS paths */
 } gs_derive_opts;
 
 typedef struct gs_derive_stats {
@@ -48,6 +53,8 @@ typedef struct gs_derive_stats {
    from the graph instead, and --max-terms expands anyway. */
 #define GS_DERIVE_MAX_PATHS 2000000.0
 
+/* Defaults: AUTO, the budgets GS_DEFAULT_MAX_TERMS and
+   GS_DEFAULT_MAX_BYTES (gainsmith.h) not given, no limits. */
 void gs_derive_opts_default(gs_derive_opts *o);
 
 /* Derive output `out` of c into tf (initialised by the caller with ctx,

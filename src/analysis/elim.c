@@ -19,11 +19,18 @@ typedef struct elim {
     int *rowcount, *colcount;
     gs_poly t1, t2;
     int overflow_var;       /* the symbol of a GS_ERANGE, for the message */
+    size_t live;            /* storage of the live entries (max_bytes) */
+    double work;            /* term pairs x words multiplied so far */
+    int over_what;          /* what a GS_EBUDGET exceeded: OVER_... */
+    size_t over_size;       /* and the size it reached */
 } elim;
+
+enum { OVER_ENTRY, OVER_PRODUCT, OVER_MEMORY, OVER_WORK };
 
 void gs_elim_opts_default(gs_elim_opts *o)
 {
     o->max_terms = 0;
+    o->max_bytes = 0;
     o->pivot = GS_PIVOT_MINWORK;
     o->progress = NULL;
 }
@@ -158,8 +165,48 @@ static int refresh_row(elim *e, int r, int k)
 }
 
 /* Row i against pivot row r, pivot column c, at step k. */
-static int update_row(elim *e, int i, int r, int c, int k, size_t max_terms,
-                      gs_elim_stats *st)
+/* GS_EBUDGET when the product t1 at hand, before its exact division,
+   holds too many terms or would take the storage past the budget. */
+static int product_over(elim *e, const gs_elim_opts *o)
+{
+    size_t extra;
+    if (o->max_terms && e->t1.length > o->max_terms * GS_ELIM_PRODUCT_FACTOR) {
+        e->over_what = OVER_PRODUCT;
+        e->over_size = e->t1.length + 1;
+        return GS_EBUDGET;
+    }
+    if (!o->max_bytes)
+        return GS_OK;
+    extra = gs_poly_storage(&e->t1, e->ctx) + gs_poly_storage(&e->t2, e->ctx);
+    if (e->live + extra > o->max_bytes) {
+        e->over_what = OVER_MEMORY;
+        e->over_size = e->live + extra;
+        return GS_EBUDGET;
+    }
+    return GS_OK;
+}
+
+/* r = a * b, stopped as soon as it holds more terms than a product may
+   (the budget is found while the terms are made, not after). */
+static int mul_within(elim *e, gs_poly *r, const gs_poly *a, const gs_poly *b,
+                      const gs_elim_opts *o)
+{
+    size_t cap = o->max_terms * GS_ELIM_PRODUCT_FACTOR;
+    double limit = (double)o->max_terms * GS_WORK_PER_TERM;
+    e->work += (double)a->length * (double)b->length * e->ctx->nwords;
+    if (o->max_terms && e->work > limit) {     /* before the work is done */
+        e->over_what = OVER_WORK;
+        return GS_EBUDGET;
+    }
+    if (gs_poly_mul_cap(r, a, b, cap, e->ctx) == GS_OK)
+        return GS_OK;
+    e->over_what = OVER_PRODUCT;
+    e->over_size = cap + 1;
+    return GS_EBUDGET;
+}
+
+static int update_row(elim *e, int i, int r, int c, int k,
+                      const gs_elim_opts *o, gs_elim_stats *st)
 {
     const gs_poly *p = &e->dets[k];
     gs_poly *sic = at(e, i, c);
@@ -173,22 +220,43 @@ static int update_row(elim *e, int i, int r, int c, int k, size_t max_terms,
         if (!gs_poly_mul_fits(&e->overflow_var, p, sij, e->ctx)
             || !gs_poly_mul_fits(&e->overflow_var, sic, trj, e->ctx))
             return GS_ERANGE;   /* before the product: no room for a carry */
-        gs_poly_mul(&e->t1, p, sij, e->ctx);
+        if (mul_within(e, &e->t1, p, sij, o) != GS_OK)
+            return GS_EBUDGET;
         if (!gs_poly_is_zero(trj)) {
-            gs_poly_mul(&e->t2, sic, trj, e->ctx);
+            if (mul_within(e, &e->t2, sic, trj, o) != GS_OK)
+                return GS_EBUDGET;
             gs_poly_sub(&e->t1, &e->t1, &e->t2, e->ctx);
         }
-        if (l > 0 && !gs_poly_is_const(&e->dets[l], e->ctx))
+        if (product_over(e, o) != GS_OK)
+            return GS_EBUDGET;
+        if (o->max_bytes)
+            e->live -= gs_poly_storage(sij, e->ctx);
+        if (l > 0 && !gs_poly_is_const(&e->dets[l], e->ctx)) {
             st->big_divisions++;
+            /* the division's work: about a term pair per quotient term
+               and divisor term, the quotient no longer than t1 */
+            e->work += (double)e->t1.length * (double)e->dets[l].length
+                       * e->ctx->nwords;
+            if (o->max_terms
+                && e->work > (double)o->max_terms * GS_WORK_PER_TERM) {
+                e->over_what = OVER_WORK;
+                return GS_EBUDGET;
+            }
+        }
         if (l > 0 && gs_poly_divexact(sij, &e->t1, &e->dets[l], e->ctx)
                          != GS_OK)
             return GS_EINEXACT;     /* cannot happen: Bareiss is exact */
         if (l == 0)
             gs_poly_swap(sij, &e->t1);
+        if (o->max_bytes)
+            e->live += gs_poly_storage(sij, e->ctx);
         if (sij->length > st->max_entry_terms)
             st->max_entry_terms = sij->length;
-        if (max_terms && sij->length > max_terms)
+        if (o->max_terms && sij->length > o->max_terms) {
+            e->over_what = OVER_ENTRY;
+            e->over_size = sij->length;
             return GS_EBUDGET;
+        }
     }
     gs_poly_zero(sic);
     e->last[i] = k;
@@ -202,6 +270,10 @@ static void elim_init(elim *e, gs_mna *m, const gs_polyctx *ctx)
     e->ctx = ctx;
     e->n = n;
     e->overflow_var = 0;
+    e->live = 0;
+    e->work = 0;
+    e->over_what = OVER_ENTRY;
+    e->over_size = 0;
     e->row_on = gs_malloc((size_t)n + 1);
     e->col_on = gs_malloc((size_t)n + 1);
     memset(e->row_on, 1, (size_t)n + 1);
@@ -262,6 +334,53 @@ static void report_overflow(const elim *e, int k, gs_diag *d)
                 GS_POLY_MAX_EXP);
 }
 
+static void report_budget(const elim *e, int k, const gs_elim_opts *o,
+                          gs_diag *d)
+{
+    const char *hint = "raise the budget with --max-terms (0: none), bind "
+                       "some symbols to numbers, or try approx";
+    if (e->over_what == OVER_MEMORY)
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                    "raise it with --max-memory, or try approx, eval or "
+                    "bode, which need no expansion",
+                    "memory budget exceeded at elimination step %d of %d: "
+                    "the entries would take %zu bytes (budget %zu)", k, e->n,
+                    e->over_size, o->max_bytes);
+    else if (e->over_what == OVER_WORK)
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint,
+                    "work budget exceeded at elimination step %d of %d: "
+                    "the products would multiply %.3g term pairs (budget "
+                    "%d x %zu)", k, e->n, e->work, GS_WORK_PER_TERM,
+                    o->max_terms);
+    else if (e->over_what == OVER_PRODUCT)
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint,
+                    "term budget exceeded at elimination step %d of %d: a "
+                    "product passed %zu terms before its exact division "
+                    "(budget %d x %zu)", k, e->n, e->over_size - 1,
+                    GS_ELIM_PRODUCT_FACTOR, o->max_terms);
+    else
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint,
+                    "term budget exceeded at elimination step %d of %d: an "
+                    "entry reached %zu terms (budget %zu)", k, e->n,
+                    e->over_size, o->max_terms);
+}
+
+/* The storage of every entry still in play and of the pivots kept. */
+static size_t live_storage(const elim *e)
+{
+    size_t bytes = 0;
+    int i, j;
+    for (i = 0; i <= e->n; i++) {
+        bytes += gs_poly_storage(&e->dets[i], e->ctx);
+        if (!e->row_on[i])
+            continue;
+        for (j = 0; j <= e->n; j++)
+            if (e->col_on[j])
+                bytes += gs_poly_storage(at((elim *)e, i, j), e->ctx);
+    }
+    return bytes;
+}
+
 static int step(elim *e, int k, const gs_elim_opts *o, gs_elim_stats *st,
                 gs_diag *d)
 {
@@ -277,19 +396,16 @@ static int step(elim *e, int k, const gs_elim_opts *o, gs_elim_stats *st,
     }
     gs_poly_set(&e->dets[k], at(e, r, c), e->ctx);
     e->row_on[r] = 0;
+    if (o->max_bytes)
+        e->live = live_storage(e);
     for (i = 0; i <= e->n && rc == GS_OK; i++)
         if (e->row_on[i] && !gs_poly_is_zero(at(e, i, c)))
-            rc = update_row(e, i, r, c, k, o->max_terms, st);
+            rc = update_row(e, i, r, c, k, o, st);
     e->col_on[c] = 0;
     if (rc == GS_ERANGE)
         report_overflow(e, k, d);
     if (rc == GS_EBUDGET)
-        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
-                    "raise the budget with --max-terms, or bind some "
-                    "symbols to numbers",
-                    "term budget exceeded at elimination step %d of %d: an "
-                    "entry reached %zu terms (budget %zu)", k, e->n,
-                    st->max_entry_terms, o->max_terms);
+        report_budget(e, k, o, d);
     return rc;
 }
 

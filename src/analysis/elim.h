@@ -34,8 +34,24 @@ typedef enum gs_pivot_rule {
     GS_PIVOT_NATURAL     /* first nonzero in the first remaining column */
 } gs_pivot_rule;
 
+/* A step's product ad - bc is divided exactly by the previous pivot: it
+   may hold more terms than the entry it gives, but not more than this
+   many times the budget per entry. */
+#define GS_ELIM_PRODUCT_FACTOR 8
+
+/* The term budget N bounds the work too: the products of a derivation may
+   multiply at most GS_WORK_PER_TERM * N pairs of terms in all, each pair
+   counted once per 64-bit word of its exponents (so that terms holding
+   many symbols weigh more).  The expansion in minors uses the same rule. */
+#define GS_WORK_PER_TERM 1000
+
 typedef struct gs_elim_opts {
-    size_t max_terms;        /* budget per entry; 0 = unlimited */
+    size_t max_terms;        /* budget per entry, and GS_ELIM_PRODUCT_FACTOR
+                                times it for a product before its exact
+                                division; 0 = unlimited */
+    size_t max_bytes;        /* storage of all live entries and the
+                                product at hand (gs_poly_storage);
+                                0 = unlimited */
     gs_pivot_rule pivot;
     FILE *progress;          /* step counter written here, or NULL */
 } gs_elim_opts;

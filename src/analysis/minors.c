@@ -11,6 +11,7 @@
  * minor, 1) to level 0, two levels alive at a time.
  */
 #include "analysis/minors.h"
+#include "analysis/elim.h"
 #include "base/mem.h"
 
 #include <stdint.h>
@@ -271,14 +272,17 @@ static void free_values(gs_poly *vals, size_t count)
 /* Sizes watched during an evaluation: the largest minor, and the terms
    of all the minors alive at once (this level's and the next's). */
 typedef struct watch {
-    size_t big, alive;
-    size_t max_terms, max_alive;    /* 0: unlimited */
+    size_t big, alive, bytes;
+    size_t max_terms, max_alive, max_bytes;    /* 0: unlimited */
+    double work, max_work;  /* term pairs x words (elim.h's rule) */
 } watch;
 
 static int over(const watch *w)
 {
     return (w->max_terms && w->big > w->max_terms)
-           || (w->max_alive && w->alive > w->max_alive);
+           || (w->max_alive && w->alive > w->max_alive)
+           || (w->max_bytes && w->bytes > w->max_bytes)
+           || (w->max_work > 0 && w->work > w->max_work);
 }
 
 /* Values of level k from those of level k + 1, vals[0 .. count-1] all
@@ -294,12 +298,15 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
     size_t i;
     for (i = 0; i < lv->count; i++)
         gs_poly_init(&vals[i]);
-    for (i = 0; i < below->count; i++)
+    for (i = 0; i < below->count; i++) {
         w->alive += next[i].length;
+        if (w->max_bytes)
+            w->bytes += gs_poly_storage(&next[i], ctx);
+    }
     for (i = 0; i < lv->count && !over(w); i++) {
         uint64_t S = lv->list[i], cand = S & v->nz[r];
         gs_poly *acc = &vals[i];
-        size_t np = 0;
+        size_t np = 0, k2;
         for (; cand; cand &= cand - 1) {
             uint64_t bit = cand & -cand;
             size_t at = maskset_find(below, S & ~bit);
@@ -310,8 +317,15 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
             mb[np] = &next[at];
             neg[np++] = __builtin_popcountll(S & (bit - 1)) & 1;
         }
+        for (k2 = 0; k2 < np; k2++)
+            w->work += (double)ea[k2]->length * (double)mb[k2]->length
+                       * ctx->nwords;
+        if (over(w))
+            break;          /* before the work is done */
         gs_poly_sum_of_products(acc, ea, mb, neg, np, ctx);
         w->alive += acc->length;
+        if (w->max_bytes)
+            w->bytes += gs_poly_storage(acc, ctx);
         if (acc->length > w->big)
             w->big = acc->length;
     }
@@ -319,9 +333,22 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
 
 static void report_budget(gs_diag *d, const watch *w, int level, int n)
 {
-    const char *hint = "raise the budget with --max-terms, or bind some "
-                       "symbols to numbers";
-    if (w->max_terms && w->big > w->max_terms)
+    const char *hint = "raise the budget with --max-terms (0: none), bind "
+                       "some symbols to numbers, or try approx";
+    if (w->max_work > 0 && w->work > w->max_work)
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint,
+                    "work budget exceeded at expansion level %d of %d: the "
+                    "products would multiply %.3g term pairs (budget %d x "
+                    "%zu)", level, n, w->work, GS_WORK_PER_TERM,
+                    w->max_terms);
+    else if (w->max_bytes && w->bytes > w->max_bytes)
+        gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                    "raise it with --max-memory, or try approx, eval or "
+                    "bode, which need no expansion",
+                    "memory budget exceeded at expansion level %d of %d: "
+                    "the minors kept at once reached %zu bytes (budget "
+                    "%zu)", level, n, w->bytes, w->max_bytes);
+    else if (w->max_terms && w->big > w->max_terms)
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint,
                     "term budget exceeded at expansion level %d of %d: a "
                     "minor reached %zu terms (budget %zu)", level, n,
@@ -346,6 +373,9 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
     w.big = 0;
     w.max_terms = o->max_terms;
     w.max_alive = o->max_terms * GS_MINORS_KEPT_FACTOR;
+    w.max_bytes = o->max_bytes;
+    w.work = 0;
+    w.max_work = (double)o->max_terms * GS_WORK_PER_TERM;
     next = gs_malloc((p->lv[n].count ? p->lv[n].count : 1) * sizeof *next);
     if (p->lv[n].count) {
         gs_poly_init(&next[0]);
@@ -357,6 +387,7 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
         vals = gs_malloc((p->lv[k].count ? p->lv[k].count : 1)
                          * sizeof *vals);
         w.alive = 0;
+        w.bytes = 0;
         eval_level(vals, p, v, k, next, &w, ctx);
         free_values(next, p->lv[k + 1].count);
         next = vals;
@@ -408,6 +439,7 @@ void gs_minors_opts_default(gs_minors_opts *o)
 {
     o->max_terms = 0;
     o->max_products = 200000;
+    o->max_bytes = 0;
     o->progress = NULL;
 }
 

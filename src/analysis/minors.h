@@ -46,6 +46,8 @@ typedef struct gs_minors_opts {
                              times it for all minors kept; 0 = unlimited */
     size_t max_products;  /* refuse a plan with more entry x minor
                              products; 0 = unlimited */
+    size_t max_bytes;     /* storage of the minors kept at once
+                             (gs_poly_storage); 0 = unlimited */
     FILE *progress;       /* level counter written here, or NULL */
 } gs_minors_opts;
 

@@ -135,23 +135,24 @@ static qentry *entry(builder *b, int row, int col)
     return &b->q[(size_t)row * (size_t)(b->n + 1) + (size_t)col];
 }
 
-/* e += t */
+/* e += t.  The term is pushed, not added: an entry that gathers n stamps
+   (a node with n resistors) would otherwise be copied n times, O(n^2)
+   terms moved; finish_rows puts each entry in canonical form once. */
 static void qentry_add(qentry *q, const qterm *t, const gs_polyctx *ctx)
 {
     gs_int l, f;
-    gs_poly term;
     gs_int_init(&l);
     gs_int_init(&f);
-    gs_poly_init(&term);
     gs_int_lcm(&l, &q->den, &t->c.den);
-    gs_int_divexact(&f, &l, &q->den);
-    gs_poly_mul_int(&q->p, &q->p, &f, ctx);
+    if (gs_int_cmp(&l, &q->den) != 0) {     /* rare: a new denominator */
+        gs_poly_canonicalise(&q->p, ctx);
+        gs_int_divexact(&f, &l, &q->den);
+        gs_poly_mul_int(&q->p, &q->p, &f, ctx);
+    }
     gs_int_divexact(&f, &l, &t->c.den);
     gs_int_mul(&f, &f, &t->c.num);
-    gs_poly_set_term(&term, &f, t->e, ctx);
-    gs_poly_add(&q->p, &q->p, &term, ctx);
+    gs_poly_push_term(&q->p, &f, t->e, ctx);
     gs_int_swap(&q->den, &l);
-    gs_poly_clear(&term);
     gs_int_clear(&f);
     gs_int_clear(&l);
 }
@@ -426,6 +427,9 @@ static void finish_rows(builder *b, gs_mna *m)
     gs_int_init(&l);
     gs_int_init(&f);
     m->m = gs_malloc((size_t)n1 * (size_t)n1 * sizeof *m->m);
+    for (i = 0; i < n1 * n1; i++)
+        gs_poly_canonicalise(&b->q[i].p, b->ctx);
+    gs_poly_canonicalise(&b->c0.p, b->ctx);
     for (i = 0; i < n1; i++) {
         gs_int_set_si(&l, 1);
         for (j = 0; j < n1; j++)

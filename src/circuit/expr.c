@@ -56,6 +56,15 @@ int gs_parse_symbol(gs_cursor *cur, const gs_token *t, gs_circuit *c)
    number". */
 static int gs_parse_number(gs_rat *r, gs_cursor *cur, const gs_token *t)
 {
+    size_t len = strlen(t->text);
+    if (len > GS_RAT_PARSE_MAX_CHARS) {
+        /* decimal to binary is quadratic in the digits: the limit keeps a
+           file's parse fast, and no value needs more than a few dozen */
+        gs_cur_error(cur, t, "write the value with fewer digits, or with an "
+                     "exponent (1.5e300)", "a number of %zu characters: "
+                     "numbers take at most %d", len, GS_RAT_PARSE_MAX_CHARS);
+        return GS_ESYNTAX;
+    }
     if (gs_rat_parse(r, t->text, NULL) == GS_OK)
         return GS_OK;
     if (strpbrk(t->text, "eE") != NULL

@@ -5,6 +5,7 @@
 #include "algebra/rat.h"
 
 #include <errno.h>
+#include <stdint.h>
 #include <math.h>
 #include <stdlib.h>
 #include <string.h>
@@ -162,6 +163,41 @@ int gs_cli_size(size_t *out, const char *text, const char *cmd,
     }
     *out = (size_t)v;
     return 0;
+}
+
+int gs_cli_bytes(size_t *out, const char *text, const char *cmd,
+                 const char *name, FILE *err)
+{
+    /* decimal prefixes as everywhere else, and the binary ones that
+       memory is usually counted in */
+    static const struct { const char *suffix; unsigned long long mul; }
+    units[] = {
+        {"", 1}, {"B", 1}, {"k", 1000ULL}, {"kB", 1000ULL},
+        {"M", 1000000ULL}, {"MB", 1000000ULL}, {"G", 1000000000ULL},
+        {"GB", 1000000000ULL}, {"T", 1000000000000ULL},
+        {"TB", 1000000000000ULL}, {"KiB", 1ULL << 10}, {"MiB", 1ULL << 20},
+        {"GiB", 1ULL << 30}, {"TiB", 1ULL << 40}
+    };
+    char *end;
+    unsigned long long v;
+    size_t k;
+    errno = 0;
+    v = strtoull(text, &end, 10);
+    if (text[0] >= '0' && text[0] <= '9' && errno == 0) {
+        for (k = 0; k < sizeof units / sizeof units[0]; k++) {
+            if (strcmp(end, units[k].suffix) != 0)
+                continue;
+            if (v > (unsigned long long)SIZE_MAX / units[k].mul)
+                break;
+            *out = (size_t)(v * units[k].mul);
+            return 0;
+        }
+    }
+    fprintf(err, "gainsmith %s: error: --%s expects a size in bytes, got "
+            "'%s'\n", cmd, name, text);
+    fprintf(err, "gainsmith %s: hint: a whole number with an optional unit: "
+            "512M, 4G, 2GiB (0: no limit)\n", cmd);
+    return 2;
 }
 
 int gs_cli_real(long double *out, const char *text, const char *unit,

@@ -44,6 +44,10 @@ int gs_cli_has(const gs_cli *cl, const char *name);
    on success, else print a message about option `name` and return 2. */
 int gs_cli_size(size_t *out, const char *text, const char *cmd,
                 const char *name, FILE *err);
+/* A size in bytes: a whole number with an optional B, k/M/G/T (powers
+   of 1000, optionally followed by B) or KiB/MiB/GiB/TiB. */
+int gs_cli_bytes(size_t *out, const char *text, const char *cmd,
+                 const char *name, FILE *err);
 int gs_cli_real(long double *out, const char *text, const char *unit,
                 const char *cmd, const char *name, FILE *err);
 

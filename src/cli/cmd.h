@@ -34,6 +34,11 @@ int gs_cmd_noise(int argc, char **argv, FILE *out, FILE *err);
 /* gainsmith approx FILE: short forms with a measured error
    (cmd_approx.c, docs/approx.md). */
 int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err);
+/* The budget options --max-terms and --max-memory of cl into o (the
+   defaults when absent).  Returns an exit status (2 on a bad value). */
+struct gs_derive_opts;
+int gs_cmd_budget(struct gs_derive_opts *o, const struct gs_cli *cl,
+                  const char *cmd, FILE *err);
 /* The steps derive, eval and check share (cmd_derive.c): read the file
    argument and the derive options of cl, parse and derive into j.
    Returns an exit status; messages go to err prefixed by cmd. */

@@ -13,7 +13,7 @@
 
 static const gs_cli_opt approx_spec[] = {
     {"tol", 1, 0}, {"band", 1, 0}, {"spread", 1, 0}, {"only", 1, 0},
-    {"set", 1, 1}, {"format", 1, 0}, {"max-terms", 1, 0}, {"stats", 0, 0},
+    {"set", 1, 1}, {"format", 1, 0}, {"max-terms", 1, 0}, {"max-memory", 1, 0}, {"stats", 0, 0},
     {"help", 0, 0}, {NULL, 0, 0}
 };
 

@@ -14,7 +14,7 @@
 
 static const gs_cli_opt check_spec[] = {
     {"set", 1, 1}, {"tol", 1, 0}, {"from", 1, 0}, {"to", 1, 0},
-    {"points", 1, 0}, {"only", 1, 0}, {"max-terms", 1, 0}, {"help", 0, 0},
+    {"points", 1, 0}, {"only", 1, 0}, {"max-terms", 1, 0}, {"max-memory", 1, 0}, {"help", 0, 0},
     {NULL, 0, 0}
 };
 
@@ -42,6 +42,11 @@ static int parse_check_opts(check_opts *o, const gs_cli *cl, FILE *err)
     if ((t = gs_cli_get(cl, "points", 0))
         && gs_cli_size(&o->points, t, "check", "points", err))
         return 2;
+    if (o->points > 100000) {      /* each point is a full numeric solve */
+        fprintf(err, "gainsmith check: error: --points takes at most "
+                "100000, got %zu\n", o->points);
+        return 2;
+    }
     if (o->from <= 0 || o->to < o->from || o->points < 1 || o->tol <= 0) {
         fprintf(err, "gainsmith check: error: need 0 < --from <= --to, "
                 "--points >= 1 and --tol > 0\n");

@@ -13,14 +13,14 @@
 static const gs_cli_opt derive_spec[] = {
     {"only", 1, 0}, {"limit", 1, 1}, {"format", 1, 0}, {"collect", 1, 0},
     {"out", 1, 0}, {"in", 1, 0},
-    {"max-terms", 1, 0}, {"method", 1, 0}, {"pivot", 1, 0}, {"stats", 0, 0},
+    {"max-terms", 1, 0}, {"max-memory", 1, 0}, {"method", 1, 0}, {"pivot", 1, 0}, {"stats", 0, 0},
     {"help", 0, 0}, {NULL, 0, 0}
 };
 
 static const gs_cli_opt eval_spec[] = {
     {"only", 1, 0}, {"limit", 1, 1}, {"set", 1, 1}, {"at", 1, 1},
     {"out", 1, 0}, {"in", 1, 0},
-    {"max-terms", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
+    {"max-terms", 1, 0}, {"max-memory", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
 };
 
 /* The one FILE argument. */
@@ -138,6 +138,22 @@ static int numbers_only(const char *cmd)
     return 0;
 }
 
+int gs_cmd_budget(gs_derive_opts *o, const gs_cli *cl, const char *cmd,
+                  FILE *err)
+{
+    if (gs_cli_has(cl, "max-terms")) {
+        if (gs_cli_size(&o->elim.max_terms, gs_cli_get(cl, "max-terms", 0),
+                        cmd, "max-terms", err))
+            return 2;
+        o->terms_given = 1;
+    }
+    if (gs_cli_has(cl, "max-memory")
+        && gs_cli_bytes(&o->elim.max_bytes, gs_cli_get(cl, "max-memory", 0),
+                        cmd, "max-memory", err))
+        return 2;
+    return 0;
+}
+
 int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
                            FILE *err)
 {
@@ -150,9 +166,7 @@ int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
     if ((status = file_arg(&path, cl, cmd, err)) != 0)
         return status;
     gs_derive_opts_default(&o);
-    if (gs_cli_has(cl, "max-terms")
-        && gs_cli_size(&o.elim.max_terms, gs_cli_get(cl, "max-terms", 0),
-                       cmd, "max-terms", err))
+    if (gs_cmd_budget(&o, cl, cmd, err))
         return 2;
     if (gs_cli_count(cl, "pivot") &&
         parse_pivot(&o.elim.pivot, gs_cli_get(cl, "pivot", 0), err))

@@ -17,7 +17,7 @@
 static const gs_cli_opt noise_spec[] = {
     {"only", 1, 0}, {"format", 1, 0}, {"at", 1, 1}, {"band", 1, 0},
     {"source-resistor", 1, 0}, {"csv", 1, 0}, {"svg", 1, 0}, {"from", 1, 0},
-    {"to", 1, 0}, {"points", 1, 0}, {"set", 1, 1}, {"max-terms", 1, 0},
+    {"to", 1, 0}, {"points", 1, 0}, {"set", 1, 1}, {"max-terms", 1, 0}, {"max-memory", 1, 0},
     {"help", 0, 0}, {NULL, 0, 0}
 };
 
@@ -481,9 +481,7 @@ static int load(gs_job *j, gs_noise *n, const gs_cli *cl, nopts *o,
         return 2;
     }
     gs_derive_opts_default(&dopt);
-    if (gs_cli_has(cl, "max-terms")
-        && gs_cli_size(&dopt.elim.max_terms, gs_cli_get(cl, "max-terms", 0),
-                       "noise", "max-terms", err))
+    if (gs_cmd_budget(&dopt, cl, "noise", err))
         return 2;
     gs_diag_init(&d);
     d.max_errors = 20;

@@ -16,13 +16,13 @@
 static const gs_cli_opt bode_spec[] = {
     {"from", 1, 0}, {"to", 1, 0}, {"points", 1, 0}, {"per-decade", 1, 0},
     {"csv", 1, 0}, {"svg", 1, 0}, {"loop", 0, 0}, {"set", 1, 1},
-    {"only", 1, 0}, {"limit", 1, 1}, {"max-terms", 1, 0}, {"help", 0, 0},
+    {"only", 1, 0}, {"limit", 1, 1}, {"max-terms", 1, 0}, {"max-memory", 1, 0}, {"help", 0, 0},
     {NULL, 0, 0}
 };
 
 static const gs_cli_opt step_spec[] = {
     {"until", 1, 0}, {"points", 1, 0}, {"csv", 1, 0}, {"svg", 1, 0},
-    {"set", 1, 1}, {"only", 1, 0}, {"limit", 1, 1}, {"max-terms", 1, 0},
+    {"set", 1, 1}, {"only", 1, 0}, {"limit", 1, 1}, {"max-terms", 1, 0}, {"max-memory", 1, 0},
     {"help", 0, 0}, {NULL, 0, 0}
 };
 
@@ -408,6 +408,11 @@ int gs_cmd_step(int argc, char **argv, FILE *out, FILE *err)
                                        && !(until > 0)))) {
         fprintf(err, "gainsmith step: error: need --points >= 2 and "
                 "--until > 0\n");
+        status = 2;
+    }
+    if (status == 0 && points > 10000000) {     /* the cap bode has */
+        fprintf(err, "gainsmith step: error: --points takes at most "
+                "10000000, got %zu\n", points);
         status = 2;
     }
     if (status == 0)

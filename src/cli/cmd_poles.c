@@ -14,7 +14,7 @@
 
 static const gs_cli_opt poles_spec[] = {
     {"set", 1, 1}, {"only", 1, 0}, {"format", 1, 0}, {"cancel-tol", 1, 0},
-    {"limit", 1, 1}, {"max-terms", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
+    {"limit", 1, 1}, {"max-terms", 1, 0}, {"max-memory", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
 };
 
 static const char *const stability_word[] = {

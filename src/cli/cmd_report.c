@@ -11,7 +11,7 @@
 
 static const gs_cli_opt report_spec[] = {
     {"output", 1, 0}, {"set", 1, 1}, {"only", 1, 0}, {"limit", 1, 1},
-    {"max-terms", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
+    {"max-terms", 1, 0}, {"max-memory", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
 };
 
 static const gs_report_writer *writer_of(int format)

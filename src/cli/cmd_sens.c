@@ -12,7 +12,7 @@
 
 static const gs_cli_opt sens_spec[] = {
     {"set", 1, 1}, {"at", 1, 1}, {"only", 1, 0}, {"format", 1, 0},
-    {"limit", 1, 1}, {"max-terms", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
+    {"limit", 1, 1}, {"max-terms", 1, 0}, {"max-memory", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
 };
 
 /* Below this |S| a symbol is folded into one line of the table. */
