@@ -80,7 +80,8 @@ static void test_options_defaults(void)
     gs_options o;
     memset(&o, 0xA5, sizeof o);
     gs_options_init(&o);
-    CHECK(o.only == NULL && o.max_terms == 0 && o.method == GS_METHOD_AUTO
+    CHECK(o.only == NULL && o.max_terms == GS_DEFAULT_MAX_TERMS
+          && o.method == GS_METHOD_AUTO
           && o.limits == NULL && o.nlimits == 0);
     gs_options_init(NULL);
 }
