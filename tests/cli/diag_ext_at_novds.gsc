@@ -1,0 +1,2 @@
+# --at-id without --at-vds: exit 2.
+# The figures are on the command line; this file is not read.

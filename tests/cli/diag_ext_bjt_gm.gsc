@@ -1,0 +1,2 @@
+# A negative --gm for a bjt: exit 2.
+# The figures are on the command line; this file is not read.

@@ -1,0 +1,2 @@
+# --cmu without --ft: exit 2.
+# The figures are on the command line; this file is not read.

@@ -1,0 +1,2 @@
+# gds*VDS above ID: lambda would be negative, exit 2.
+# The figures are on the command line; this file is not read.

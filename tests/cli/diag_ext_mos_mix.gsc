@@ -1,0 +1,2 @@
+# One-point and two-point figures together: exit 2.
+# The figures are on the command line; this file is not read.

@@ -1,0 +1,2 @@
+# extract without a device: exit 2.
+# The figures are on the command line; this file is not read.

@@ -1,0 +1,2 @@
+# The one-point fit without --gm: exit 2.
+# The figures are on the command line; this file is not read.

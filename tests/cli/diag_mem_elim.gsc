@@ -1,0 +1,9 @@
+# Elimination under a memory budget of 10 bytes, which the first entries
+# already pass: exit 1.
+title      "First-order RC lowpass"
+vsource    vin   in   gnd
+resistor   R1    in   out
+capacitor  C1    out  gnd
+value      R1 = 1k
+value      C1 = 1n
+transfer   H = v(out) / vin

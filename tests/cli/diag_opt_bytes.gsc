@@ -1,0 +1,9 @@
+# --max-memory takes a size in bytes, with an optional k, M, G, kB,
+# MiB, ...: exit 2.
+title      "First-order RC lowpass"
+vsource    vin   in   gnd
+resistor   R1    in   out
+capacitor  C1    out  gnd
+value      R1 = 1k
+value      C1 = 1n
+transfer   H = v(out) / vin
