@@ -12,7 +12,8 @@
 
 static const gs_cli_opt sens_spec[] = {
     {"set", 1, 1}, {"at", 1, 1}, {"only", 1, 0}, {"format", 1, 0},
-    {"limit", 1, 1}, {"max-terms", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
+    {"limit", 1, 1}, {"max-terms", 1, 0}, {"loop", 0, 0}, {"help", 0, 0},
+    {NULL, 0, 0}
 };
 
 /* Below this |S| a symbol is folded into one line of the table. */
@@ -41,8 +42,10 @@ static void fig_head(FILE *out, const gs_sens_fig *f)
         fprintf(out, "  %.10Lg rad/s", creall(f->value));
     else if (f->kind == GS_SENS_PHASE)
         fprintf(out, "  %.6Lg deg", creall(f->value) * 180 / acosl(-1));
+    else if (f->kind == GS_SENS_PM)
+        fprintf(out, "  %.6Lg deg", creall(f->value));
     else if (f->kind == GS_SENS_W0 || f->kind == GS_SENS_ZW0
-             || f->kind == GS_SENS_BW)
+             || f->kind == GS_SENS_BW || f->kind == GS_SENS_UGF)
         fprintf(out, "  %.10Lg rad/s", creall(f->value));
     else
         fprintf(out, "  %.10Lg", creall(f->value));
@@ -110,14 +113,22 @@ static void json_fig(FILE *out, const gs_sens *r, const gs_sens_fig *f,
     fputs("}}", out);
 }
 
+/* tf[i] is the return ratio T of a loopgain line. */
+static int is_loop_gain(const gs_job *j, size_t i)
+{
+    const gs_output *o = &j->c->outputs[j->out_index[i]];
+    return o->kind == GS_OUT_LOOP && o->loop_part == 0;
+}
+
 static int sens_one(const gs_job *j, size_t i, const long double *at,
-                    size_t nat, int json, FILE *out, FILE *err)
+                    size_t nat, int loop, int json, FILE *out, FILE *err)
 {
     gs_sens r;
     size_t k;
     int rc;
     gs_sens_init(&r);
-    rc = gs_sens_compute(&r, &j->tf[i], j->vals, at, nat);
+    rc = gs_sens_compute_loop(&r, &j->tf[i], j->vals, at, nat,
+                              loop && is_loop_gain(j, i));
     if (rc == GS_EINVAL) {
         fprintf(err, "gainsmith sens: error: %s: the denominator is zero "
                 "or not finite with these values\n", j->tf[i].name);
@@ -162,8 +173,8 @@ int gs_cmd_sens(int argc, char **argv, FILE *out, FILE *err)
     gs_cli cl;
     gs_job j;
     long double *at = NULL;
-    size_t i, nat = 0;
-    int status, json = 0;
+    size_t i, nat = 0, nloop = 0;
+    int status, json = 0, loop = 0;
     const char *fmt;
 
     gs_job_init(&j);
@@ -185,10 +196,21 @@ int gs_cmd_sens(int argc, char **argv, FILE *out, FILE *err)
         status = gs_cmd_load_and_derive(&j, &cl, "sens", err);
     if (status == 0)
         status = gs_cmd_bind(&j, &cl, err);
+    loop = status == 0 && gs_cli_has(&cl, "loop");
+    for (i = 0; loop && i < j.ntf; i++)
+        nloop += (size_t)is_loop_gain(&j, i);
+    if (loop && nloop == 0) {
+        fprintf(err, "gainsmith sens: error: --loop: %s has no loopgain "
+                "output\ngainsmith sens: hint: add a line 'loopgain T = "
+                "SOURCE' naming the controlled source that closes the "
+                "loop (docs/language.md)\n", cl.npos ? cl.pos[0]
+                                                   : "the file");
+        status = 2;
+    }
     if (json && status == 0)
         fputs("[\n", out);
     for (i = 0; status == 0 && i < j.ntf; i++) {
-        status = sens_one(&j, i, at, nat, json, out, err);
+        status = sens_one(&j, i, at, nat, loop, json, out, err);
         if (json)
             fputs(i + 1 < j.ntf ? ",\n" : "\n", out);
     }
