@@ -380,3 +380,52 @@ int gs_sens_compute_loop(gs_sens *r, const gs_tf *tf,
     work_clear(&w);
     return rc;
 }
+
+/* Links of one figure kept adjacent: a stable pass per new figure. */
+void gs_sens_bias_links(gs_bias_link **out, size_t *n, const gs_job *j)
+{
+    gs_bias_link *all = NULL, *l;
+    size_t nall = 0, b, k, m, nl;
+    unsigned char *done;
+    *out = NULL;
+    *n = 0;
+    for (b = 0; b < j->c->nbiases; b++) {
+        if (gs_device_bias_links(&l, &nl, j->c, b) != GS_OK)
+            continue;
+        all = gs_realloc(all, (nall + nl + 1) * sizeof *all);
+        for (k = 0; k < nl; k++) {
+            const char *o = j->origin ? j->origin[l[k].sym] : NULL;
+            /* the value must still be the one this line set */
+            if (o && strncmp(o, "bias ", 5) == 0
+                && strcmp(o + 5, l[k].device) == 0)
+                all[nall++] = l[k];
+        }
+        free(l);
+    }
+    done = gs_calloc(nall ? nall : 1, 1);
+    *out = gs_malloc((nall ? nall : 1) * sizeof **out);
+    for (k = 0; k < nall; k++) {
+        if (done[k])
+            continue;
+        for (m = k; m < nall; m++)
+            if (!done[m] && all[m].device == all[k].device
+                && strcmp(all[m].figure, all[k].figure) == 0) {
+                (*out)[(*n)++] = all[m];
+                done[m] = 1;
+            }
+    }
+    free(done);
+    free(all);
+}
+
+long double gs_sens_chain(const gs_sens *r, const gs_sens_fig *f,
+                          const gs_bias_link *l, size_t n)
+{
+    long double sum = 0;
+    size_t k;
+    for (k = 0; k < n; k++)
+        if (l[k].sym < r->nvars && r->used[l[k].sym]
+            && isfinite(f->s[l[k].sym]))
+            sum += f->s[l[k].sym] * l[k].s;
+    return sum;
+}

@@ -32,7 +32,9 @@
 #include <complex.h>
 #include <stddef.h>
 
+#include "analysis/job.h"
 #include "analysis/tf.h"
+#include "circuit/device.h"
 
 typedef enum gs_sens_kind {
     GS_SENS_DC,         /* low-frequency gain */
@@ -91,5 +93,23 @@ int gs_sens_compute(gs_sens *r, const gs_tf *tf, const long double *vals,
 int gs_sens_compute_loop(gs_sens *r, const gs_tf *tf,
                          const long double *vals, const long double *at,
                          size_t nat, int loop);
+
+/* Sensitivities to the figures of bias lines, by the chain rule through
+   the small-signal values the line sets:
+
+     S(Q, F) = sum over parts p of S(Q, p) S(p, F),
+
+   e.g. S(Q, ID) = S(Q, gm) S(gm, ID) + S(Q, rds) S(rds, ID), with
+   S(p, F) from the device model (gs_device_bias_links).  A part whose
+   symbol was overridden afterwards (--set) is no longer the model's and
+   is left out, as is a part Q does not depend on.
+
+   gs_sens_bias_links gathers the links of every bias line of j whose
+   symbols still come from that line: *out new (free it), *n entries;
+   entries of one figure are adjacent.  gs_sens_chain is S(Q, F) for the
+   n links l[0..n) of one figure. */
+void gs_sens_bias_links(gs_bias_link **out, size_t *n, const gs_job *j);
+long double gs_sens_chain(const gs_sens *r, const gs_sens_fig *f,
+                          const gs_bias_link *l, size_t n);
 
 #endif

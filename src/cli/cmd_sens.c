@@ -52,6 +52,54 @@ static void fig_head(FILE *out, const gs_sens_fig *f)
     fputc('\n', out);
 }
 
+/* Length of the run of links of one figure starting at l[k]. */
+static size_t run_len(const gs_bias_link *l, size_t n, size_t k)
+{
+    size_t m = k + 1;
+    while (m < n && l[m].device == l[k].device
+           && strcmp(l[m].figure, l[k].figure) == 0)
+        m++;
+    return m - k;
+}
+
+/* The rows of the bias figures under a figure's table: "M1.id". */
+static void print_bias_rows(FILE *out, const gs_sens *r,
+                            const gs_sens_fig *f, const gs_bias_link *l,
+                            size_t nl)
+{
+    size_t k, m;
+    char name[64];
+    if (nl == 0)
+        return;
+    fputs("    through the bias:\n", out);
+    for (k = 0; k < nl; k += m) {
+        m = run_len(l, nl, k);
+        snprintf(name, sizeof name, "%s.%s", l[k].device, l[k].figure);
+        fprintf(out, "    %-14s % .6Lf\n", name, gs_sens_chain(r, f, l + k, m));
+    }
+}
+
+/* The chain each bias row is worked out by, once per output:
+   "S(Q, M1.id) = 0.5*S(Q, gm1) - 1*S(Q, ro1)". */
+static void print_chains(FILE *out, const gs_bias_link *l, size_t nl,
+                         const gs_symtab *st)
+{
+    size_t k, m, i;
+    if (nl == 0)
+        return;
+    fputs("  bias chains (S of the model's small-signal values to each "
+          "figure):\n", out);
+    for (k = 0; k < nl; k += m) {
+        m = run_len(l, nl, k);
+        fprintf(out, "    S(Q, %s.%s) =", l[k].device, l[k].figure);
+        for (i = k; i < k + m; i++)
+            fprintf(out, i == k ? " %s%.6Lg*S(Q, %s)" : " %s %.6Lg*S(Q, %s)",
+                    l[i].s < 0 ? "-" : i == k ? "" : "+", fabsl(l[i].s),
+                    gs_symtab_name(st, l[i].sym));
+        fputc('\n', out);
+    }
+}
+
 static void print_fig(FILE *out, const gs_sens *r, const gs_sens_fig *f,
                       const gs_symtab *st)
 {
@@ -86,7 +134,7 @@ static void json_num(FILE *out, long double v)
 }
 
 static void json_fig(FILE *out, const gs_sens *r, const gs_sens_fig *f,
-                     const gs_symtab *st)
+                     const gs_symtab *st, const gs_bias_link *l, size_t nl)
 {
     int v, first = 1;
     fprintf(out, "    {\"figure\": \"%s\", ", gs_sens_kind_name(f->kind));
@@ -110,7 +158,41 @@ static void json_fig(FILE *out, const gs_sens *r, const gs_sens_fig *f,
             json_num(out, f->s[v]);
             first = 0;
         }
-    fputs("}}", out);
+    fputc('}', out);
+    if (nl) {
+        size_t k, m;
+        fputs(", \"bias\": {", out);
+        for (k = 0; k < nl; k += m) {
+            m = run_len(l, nl, k);
+            fprintf(out, "%s\"%s.%s\": ", k ? ", " : "", l[k].device,
+                    l[k].figure);
+            json_num(out, gs_sens_chain(r, f, l + k, m));
+        }
+        fputc('}', out);
+    }
+    fputc('}', out);
+}
+
+/* "bias_chain": [{"figure": "M1.id", "value": V, "links": {SYM: S}}] */
+static void json_chains(FILE *out, const gs_bias_link *l, size_t nl,
+                        const gs_symtab *st)
+{
+    size_t k, m, i;
+    fputs(", \"bias_chain\": [", out);
+    for (k = 0; k < nl; k += m) {
+        m = run_len(l, nl, k);
+        fprintf(out, "%s\n    {\"figure\": \"%s.%s\", \"value\": ",
+                k ? "," : "", l[k].device, l[k].figure);
+        json_num(out, l[k].value);
+        fputs(", \"links\": {", out);
+        for (i = k; i < k + m; i++) {
+            fprintf(out, "%s\"%s\": ", i > k ? ", " : "",
+                    gs_symtab_name(st, l[i].sym));
+            json_num(out, l[i].s);
+        }
+        fputs("}}", out);
+    }
+    fputs(nl ? "\n  ]" : "]", out);
 }
 
 /* tf[i] is the return ratio T of a loopgain line. */
@@ -124,9 +206,11 @@ static int sens_one(const gs_job *j, size_t i, const long double *at,
                     size_t nat, int loop, int json, FILE *out, FILE *err)
 {
     gs_sens r;
-    size_t k;
+    gs_bias_link *l;
+    size_t k, nl;
     int rc;
     gs_sens_init(&r);
+    gs_sens_bias_links(&l, &nl, j);
     rc = gs_sens_compute_loop(&r, &j->tf[i], j->vals, at, nat,
                               loop && is_loop_gain(j, i));
     if (rc == GS_EINVAL) {
@@ -136,15 +220,22 @@ static int sens_one(const gs_job *j, size_t i, const long double *at,
         fprintf(out, "  {\"name\": \"%s\", \"figures\": [\n",
                 j->tf[i].name);
         for (k = 0; k < r.n; k++) {
-            json_fig(out, &r, &r.fig[k], j->c->syms);
+            json_fig(out, &r, &r.fig[k], j->c->syms, l, nl);
             fputs(k + 1 < r.n ? ",\n" : "\n", out);
         }
-        fputs("  ]}", out);
+        fputs("  ]", out);
+        if (nl)
+            json_chains(out, l, nl, j->c->syms);
+        fputs("}", out);
     } else {
         fprintf(out, "%s\n", j->tf[i].name);
-        for (k = 0; k < r.n; k++)
+        for (k = 0; k < r.n; k++) {
             print_fig(out, &r, &r.fig[k], j->c->syms);
+            print_bias_rows(out, &r, &r.fig[k], l, nl);
+        }
+        print_chains(out, l, nl, j->c->syms);
     }
+    free(l);
     gs_sens_clear(&r);
     return rc == GS_EINVAL ? 1 : 0;
 }
