@@ -5,7 +5,9 @@
 # usage: tests/latex_check.sh [BUILD]
 # build/tests/test_print writes BUILD/tests/test_print.tex, a document of
 # the equations of its cases (textbook transfer functions and random
-# ones); this script runs it if needed and compiles the document.  Without
+# ones); this script runs it if needed and compiles the document.  Then
+# `derive --format latex` of every example (one of several hundred terms)
+# must compile without overfull boxes over 10 pt.  Without
 # pdflatex it says so loudly and counts nothing.  The last line is
 # "latex_check.sh: N passed, N failed"; the status is 1 on any failure.
 build=${1:-build}
@@ -49,5 +51,41 @@ if [ -f "$tex" ]; then
 else
     fail "$tex not found (make tests, then run $build/tests/test_print)"
 fi
+
+# derive --format latex of every example, in an article with amsmath:
+# it compiles, and no line runs past the margin by more than 10 pt (a
+# long result is broken across lines).  The two-stage op-amp's result
+# has hundreds of terms; the check below makes sure at least one example
+# is that long, so the breaking is exercised and not only short results.
+overfull() {
+    grep -o 'Overfull \\hbox ([0-9.]*pt' "$1" | sed 's/.*(//; s/pt//' \
+        | awk '$1 > 10' | wc -l
+}
+longest=0
+for gsc in examples/*.gsc; do
+    ex=$(basename "$gsc" .gsc)
+    {
+        printf '\\documentclass{article}\n\\usepackage{amsmath}\n'
+        printf '\\begin{document}\n'
+        "$build/gainsmith" derive "$gsc" --format latex
+        printf '\\end{document}\n'
+    } >"$tmp/$ex.tex" 2>"$tmp/$ex.err" || { fail "$ex: derive failed"; continue; }
+    # terms of the longest side, counted in the text form
+    n=$("$build/gainsmith" derive "$gsc" | tr '+-' '\n\n' | wc -l)
+    [ "$n" -gt "$longest" ] && longest=$n
+    if (cd "$tmp" && pdflatex -interaction=nonstopmode -halt-on-error \
+            "$ex.tex" >/dev/null 2>&1); then
+        pass
+    else
+        fail "$ex: derive --format latex does not compile"
+        grep -A 3 '^!' "$tmp/$ex.log" 2>/dev/null | head -n 10
+        continue
+    fi
+    bad=$(overfull "$tmp/$ex.log")
+    [ "$bad" -eq 0 ] && pass \
+        || fail "$ex: derive --format latex has $bad overfull boxes > 10pt"
+done
+[ "$longest" -ge 30 ] && pass \
+    || fail "no example has a result of 30 or more terms ($longest)"
 echo "$name: $passed passed, $failed failed"
 [ "$failed" -eq 0 ]

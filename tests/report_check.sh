@@ -7,7 +7,8 @@
 # every section in the Markdown and in the HTML (the approx section too,
 # and its plain sentence when approx cannot run), MathML in the HTML, the
 # HTML's text content against tests/report/sallen_key.txt; with Debian's
-# chromium, the DOM as the browser parsed it (--dump-dom) and a
+# chromium, the DOM as the browser parsed it (--dump-dom), the laid-out
+# page no wider than the window and no formula wider than its box, and a
 # screenshot whose pixels are not all one colour; with pdflatex, the .tex
 # compiles without errors and without overfull boxes over 10 pt.  A
 # missing tool is a loud skip, and a failure under CI=true.
@@ -39,6 +40,14 @@ for gsc in examples/*.gsc; do
     grep -q "<math display=\"block\">" "$tmp/$ex.html" && pass \
         || fail "$ex.html: no MathML"
     grep -q "<script" "$tmp/$ex.html" && fail "$ex.html: a script" || pass
+    # every formula sits in a box that scrolls sideways rather than widen
+    # the page, and the style sheet has the rule
+    nm=$(grep -o '<math display="block">' "$tmp/$ex.html" | wc -l)
+    nb=$(grep -o '<div class="formula"><math display="block">' \
+        "$tmp/$ex.html" | wc -l)
+    [ "$nm" -eq "$nb" ] && pass || fail "$ex.html: a formula outside a box"
+    grep -q '^\.formula { overflow-x: auto;' "$tmp/$ex.html" && pass \
+        || fail "$ex.html: no overflow-x rule for formulas"
     grep -q '^\$\$.*\$\$$' "$tmp/$ex.md" && pass || fail "$ex.md: no \$\$"
 done
 
@@ -66,7 +75,7 @@ else fail "the text of sallen_key.html differs from tests/report/sallen_key.txt"
 fi
 
 if command -v chromium >/dev/null 2>&1; then
-    for ex in sallen_key miller_opamp; do
+    for ex in sallen_key miller_opamp cascode; do
         flags="--headless --no-sandbox --disable-gpu --no-first-run
             --disable-background-networking --disable-component-update
             --disable-sync --user-data-dir=$tmp/profile"
@@ -80,6 +89,25 @@ if command -v chromium >/dev/null 2>&1; then
             grep -q ">$s" "$tmp/$ex.dom" && pass || fail "$ex DOM: no $s"
         done
         grep -q '<svg' "$tmp/$ex.dom" && pass || fail "$ex DOM: no SVG"
+        # the laid-out widths: a copy of the page with one line of script
+        # (the document itself has none) writes the page's scroll width,
+        # its viewport width and each formula box's scroll and client
+        # widths into an attribute that --dump-dom shows.  Content wider
+        # than the viewport is a page that runs off screen and off paper.
+        sed 's|</body>|<script>document.body.setAttribute("data-w", [document.documentElement.scrollWidth, document.documentElement.clientWidth].concat(Array.from(document.querySelectorAll(".formula"), function (e) { return e.scrollWidth + ":" + e.clientWidth; })).join(" "));</script></body>|' \
+            "$tmp/$ex.html" >"$tmp/$ex-w.html"
+        # shellcheck disable=SC2086
+        w=$(timeout 120 chromium $flags --window-size=900,3000 --dump-dom \
+            "file://$tmp/$ex-w.html" 2>/dev/null \
+            | sed -n 's/.*data-w="\([^"]*\)".*/\1/p')
+        set -- $w
+        if [ $# -ge 3 ] && [ "$1" -le "$2" ]; then pass
+        else fail "$ex: the page is wider than the viewport (widths: $w)"; fi
+        shift 2 2>/dev/null
+        for fw in "$@"; do
+            [ "${fw%%:*}" -le "${fw##*:}" ] && pass \
+                || fail "$ex: a formula runs past its box ($fw)"
+        done
         # shellcheck disable=SC2086
         timeout 120 chromium $flags --window-size=900,3000 \
             --screenshot="$tmp/$ex.png" "file://$tmp/$ex.html" \

@@ -54,7 +54,8 @@ static void fix_init(fix *f, const char *argv0)
         free(path);
     }
     if (f->tex != NULL)
-        fputs("\\documentclass{article}\n\\begin{document}\n", f->tex);
+        fputs("\\documentclass{article}\n\\usepackage{amsmath}\n"
+              "\\begin{document}\n", f->tex);
 }
 
 static void fix_clear(fix *f)

@@ -19,7 +19,7 @@
 
 static const char *const kind_name[] = {
     "dc", "at", "phase", "pole", "zero", "w0", "q", "zero_w0", "zero_q",
-    "bandwidth"
+    "bandwidth", "ugf", "pm"
 };
 
 const char *gs_sens_kind_name(gs_sens_kind k)
@@ -222,6 +222,64 @@ static void fig_bw(gs_sens *r, work *w, const gs_tfn *h,
             f->s[v] = -(creall(sh[v]) - r->fig[0].s[v]) / den;
 }
 
+/* d ln T(j w) / dw = j (N_s/N - D_s/D): its real part is d ln|T|/dw,
+   its imaginary part d arg T/dw. */
+static long double complex dlog_dw(work *w, long double wr)
+{
+    long double complex s = gs_cmplxl(0, wr);
+    return gs_cmplxl(0, 1) * (at(w, &w->ns, s) / at(w, &w->tf->num, s)
+                              - at(w, &w->ds, s) / at(w, &w->tf->den, s));
+}
+
+/* Unity-gain frequency and phase margin of T (formulas in sens.h).  The
+   crossover of gs_freq_margins is polished by Newton's method on
+   ln|T(j w)| = 0 with the exact derivative, so the figure and its
+   finite differences agree to the last digits. */
+static void fig_loop(gs_sens *r, work *w, const gs_tfn *h,
+                     long double complex *sh)
+{
+    const long double pi = acosl(-1);
+    gs_margins m;
+    long double wu, pm, ph0, ph, g;
+    long double complex s, t, dl;
+    gs_sens_fig *fu, *fp;
+    int v, k;
+    if (gs_freq_margins(&m, h) != GS_OK || !m.has_pm)
+        return;
+    wu = 2 * pi * m.pm_hz;
+    s = gs_cmplxl(0, wu);
+    ph0 = cargl(at(w, &w->tf->num, s) / at(w, &w->tf->den, s));
+    for (k = 0; k < 6; k++) {
+        s = gs_cmplxl(0, wu);
+        g = logl(cabsl(at(w, &w->tf->num, s) / at(w, &w->tf->den, s)));
+        dl = dlog_dw(w, wu);
+        if (creall(dl) == 0 || !isfinite(g))
+            return;
+        wu -= g / creall(dl);
+    }
+    s = gs_cmplxl(0, wu);
+    t = at(w, &w->tf->num, s) / at(w, &w->tf->den, s);
+    dl = dlog_dw(w, wu);
+    /* the margin of gs_freq_margins (its phase unwrapped from DC), moved
+       by the change of the wrapped phase the polishing made */
+    ph = cargl(t) - ph0;
+    ph -= 2 * pi * floorl((ph + pi) / (2 * pi));
+    pm = m.pm_deg * pi / 180 + ph;
+    if (creall(dl) == 0 || pm == 0 || !(wu > 0))
+        return;
+    sh_at(sh, w, s);
+    add_fig(r, GS_SENS_UGF);
+    fp = add_fig(r, GS_SENS_PM);
+    fu = fp - 1;                /* adding may move the array */
+    fu->value = wu;
+    fp->value = pm * 180 / pi;
+    for (v = 0; v < w->nv; v++)
+        if (w->used[v]) {
+            fu->s[v] = -creall(sh[v]) / (wu * creall(dl));
+            fp->s[v] = (cimagl(sh[v]) + cimagl(dl) * wu * fu->s[v]) / pm;
+        }
+}
+
 static long double *num_coeffs(work *w, const gs_poly *p, int *deg)
 {
     long d = gs_poly_degree(p, w->sv, w->pc), k;
@@ -285,6 +343,13 @@ static void work_clear(work *w)
 int gs_sens_compute(gs_sens *r, const gs_tf *tf, const long double *vals,
                     const long double *at_hz, size_t nat)
 {
+    return gs_sens_compute_loop(r, tf, vals, at_hz, nat, 0);
+}
+
+int gs_sens_compute_loop(gs_sens *r, const gs_tf *tf,
+                         const long double *vals, const long double *at_hz,
+                         size_t nat, int loop)
+{
     work w;
     gs_tfn h;
     long double *cn, *cd;
@@ -305,6 +370,8 @@ int gs_sens_compute(gs_sens *r, const gs_tf *tf, const long double *vals,
         fig_roots(r, &w, h.poles, h.pole_mult, h.npoles, 0);
         fig_roots(r, &w, h.zeros, h.zero_mult, h.nzeros, 1);
         fig_bw(r, &w, &h, sh);
+        if (loop)
+            fig_loop(r, &w, &h, sh);
     }
     free(sh);
     gs_tfn_clear(&h);
@@ -312,4 +379,53 @@ int gs_sens_compute(gs_sens *r, const gs_tf *tf, const long double *vals,
     free(cd);
     work_clear(&w);
     return rc;
+}
+
+/* Links of one figure kept adjacent: a stable pass per new figure. */
+void gs_sens_bias_links(gs_bias_link **out, size_t *n, const gs_job *j)
+{
+    gs_bias_link *all = NULL, *l;
+    size_t nall = 0, b, k, m, nl;
+    unsigned char *done;
+    *out = NULL;
+    *n = 0;
+    for (b = 0; b < j->c->nbiases; b++) {
+        if (gs_device_bias_links(&l, &nl, j->c, b) != GS_OK)
+            continue;
+        all = gs_realloc(all, (nall + nl + 1) * sizeof *all);
+        for (k = 0; k < nl; k++) {
+            const char *o = j->origin ? j->origin[l[k].sym] : NULL;
+            /* the value must still be the one this line set */
+            if (o && strncmp(o, "bias ", 5) == 0
+                && strcmp(o + 5, l[k].device) == 0)
+                all[nall++] = l[k];
+        }
+        free(l);
+    }
+    done = gs_calloc(nall ? nall : 1, 1);
+    *out = gs_malloc((nall ? nall : 1) * sizeof **out);
+    for (k = 0; k < nall; k++) {
+        if (done[k])
+            continue;
+        for (m = k; m < nall; m++)
+            if (!done[m] && all[m].device == all[k].device
+                && strcmp(all[m].figure, all[k].figure) == 0) {
+                (*out)[(*n)++] = all[m];
+                done[m] = 1;
+            }
+    }
+    free(done);
+    free(all);
+}
+
+long double gs_sens_chain(const gs_sens *r, const gs_sens_fig *f,
+                          const gs_bias_link *l, size_t n)
+{
+    long double sum = 0;
+    size_t k;
+    for (k = 0; k < n; k++)
+        if (l[k].sym < r->nvars && r->used[l[k].sym]
+            && isfinite(f->s[l[k].sym]))
+            sum += f->s[l[k].sym] * l[k].s;
+    return sum;
 }

@@ -969,3 +969,197 @@ int gs_device_apply_biases(const gs_circuit *c, long double *vals,
     }
     return rc;
 }
+
+/* ---- sensitivities of the small-signal values to the bias figures ----
+ *
+ * Each link is d ln(part) / d ln(figure) of the model's closed forms
+ * (docs/devices.md), with the other figures of the line held.  In
+ * saturation, with e = lambda VDS / (1 + lambda VDS):
+ *   id and k given:        gm = sqrt(2 K ID (1 + lambda VDS)) (the square
+ *                          law, Sedra and Smith, "Microelectronic
+ *                          Circuits", MOSFET chapter): S(gm, ID) =
+ *                          S(gm, K) = 1/2, S(gm, VDS) = S(gm, lambda) = e/2;
+ *   id and overdrive:      gm = 2 ID / Vov: S(gm, ID) = 1, S(gm, Vov) = -1;
+ *   k and overdrive:       gm = K Vov (1 + lambda VDS): S(gm, K) =
+ *                          S(gm, Vov) = 1, S(gm, VDS) = S(gm, lambda) = e;
+ *   rds = (1 + lambda VDS) / (lambda ID) when ID is given: S(rds, ID) = -1,
+ *                          S(rds, VDS) = e, S(rds, lambda) = e - 1;
+ *                          rds = 2 / (lambda K Vov^2) otherwise;
+ *   an overdrive as vgs with vth: S(Vov, VGS) = VGS / Vov, S(Vov, Vth) =
+ *                          -Vth / Vov, multiplied in;
+ *   gmb = gm gamma / (2 sqrt(2 phi + VSB)): as gm, and S(gmb, gamma) = 1,
+ *                          S(gmb, phi) = -phi / (2 phi + VSB),
+ *                          S(gmb, VSB) = -VSB / (2 (2 phi + VSB)).
+ * BJT: gm = IC/VT, VT = kT/q; rpi = beta/gm; re = alpha/gm; ro = (VA +
+ * VCE)/IC (or VA/IC); cpi = gm/(2 pi fT) - cmu.
+ */
+
+typedef struct linkset {
+    gs_bias_link *l;
+    size_t n, cap;
+    const gs_circuit *c;
+    const gs_device *dv;
+    const figure *f;
+    const figure_spec *spec;
+} linkset;
+
+static void link_add(linkset *ls, int fig, const char *part, long double s)
+{
+    int sym = device_sym(ls->c, ls->dv, part);
+    if (sym < 0 || !ls->f[fig].given || s == 0)
+        return;
+    if (ls->n == ls->cap) {
+        ls->cap = ls->cap ? 2 * ls->cap : 8;
+        ls->l = gs_reallocarray(ls->l, ls->cap, sizeof *ls->l);
+    }
+    ls->l[ls->n].device = ls->dv->name;
+    ls->l[ls->n].figure = ls->spec[fig].key;
+    ls->l[ls->n].value = ls->f[fig].v;
+    ls->l[ls->n].part = part;
+    ls->l[ls->n].sym = sym;
+    ls->l[ls->n].s = s;
+    ls->n++;
+}
+
+/* The overdrive's figures, times a (the link of the part to Vov). */
+static void link_vov(linkset *ls, const char *part, long double a,
+                     const gs_mos_op *op)
+{
+    const figure *f = ls->f;
+    if (f[M_VOV].given) {
+        link_add(ls, M_VOV, part, a);
+        return;
+    }
+    link_add(ls, M_VGS, part, a * op->vgs / op->vov);
+    link_add(ls, M_VTH, part, -a * op->vth / op->vov);
+}
+
+static void mos_links(linkset *ls, const gs_mos_op *op)
+{
+    const figure *f = ls->f;
+    long double e = op->lambda * op->vds / (1 + op->lambda * op->vds);
+    int by_id = f[M_ID].given, by_k = f[M_K].given;
+    const char *gmparts[2] = {"gm", "gmb"};
+    int i;
+    for (i = 0; i < 2; i++) {
+        const char *p = gmparts[i];
+        if (i == 1 && !f[M_GAMMA].given)
+            break;
+        if (by_id && by_k) {
+            link_add(ls, M_ID, p, 0.5L);
+            link_add(ls, M_K, p, 0.5L);
+            link_add(ls, M_VDS, p, e / 2);
+            link_add(ls, M_LAMBDA, p, e / 2);
+        } else if (by_id) {
+            link_add(ls, M_ID, p, 1);
+            link_vov(ls, p, -1, op);
+        } else {
+            link_add(ls, M_K, p, 1);
+            link_vov(ls, p, 1, op);
+            link_add(ls, M_VDS, p, e);
+            link_add(ls, M_LAMBDA, p, e);
+        }
+    }
+    if (op->gds > 0) {
+        if (by_id) {
+            link_add(ls, M_ID, "rds", -1);
+            link_add(ls, M_VDS, "rds", e);
+            link_add(ls, M_LAMBDA, "rds", e - 1);
+        } else {
+            link_add(ls, M_K, "rds", -1);
+            link_vov(ls, "rds", -2, op);
+            link_add(ls, M_LAMBDA, "rds", -1);
+        }
+    }
+    if (f[M_GAMMA].given) {
+        long double phi = f[M_PHI].v, vsb = fabsl(f[M_VSB].v);
+        link_add(ls, M_GAMMA, "gmb", 1);
+        link_add(ls, M_PHI, "gmb", -phi / (2 * phi + vsb));
+        link_add(ls, M_VSB, "gmb", -vsb / (2 * (2 * phi + vsb)));
+    }
+}
+
+static void bjt_links(linkset *ls, long double gm, long double vce,
+                      long double va)
+{
+    const figure *f = ls->f;
+    long double beta = f[B_BETA].v, g;
+    int plain = f[B_EARLY].v == 1;
+    link_add(ls, B_IC, "gm", 1);
+    link_add(ls, B_TEMP, "gm", -1);
+    if (f[B_BETA].given) {
+        link_add(ls, B_IC, "rpi", -1);
+        link_add(ls, B_TEMP, "rpi", 1);
+        link_add(ls, B_BETA, "rpi", 1);
+        link_add(ls, B_IC, "re", -1);
+        link_add(ls, B_TEMP, "re", 1);
+        link_add(ls, B_BETA, "re", 1 / (beta + 1));
+    }
+    if (f[B_VA].given) {
+        link_add(ls, B_IC, "ro", -1);
+        link_add(ls, B_VA, "ro", plain ? 1 : va / (va + vce));
+        if (!plain)
+            link_add(ls, B_VCE, "ro", vce / (va + vce));
+    }
+    if (f[B_FT].given) {
+        g = gm / (2 * PI_L * f[B_FT].v);
+        link_add(ls, B_IC, "cpi", g / (g - f[B_CMU].v));
+        link_add(ls, B_TEMP, "cpi", -g / (g - f[B_CMU].v));
+        link_add(ls, B_FT, "cpi", -g / (g - f[B_CMU].v));
+        link_add(ls, B_CMU, "cpi", -f[B_CMU].v / (g - f[B_CMU].v));
+    }
+    link_add(ls, B_CMU, "cmu", 1);
+}
+
+int gs_device_bias_links(gs_bias_link **out, size_t *n, const gs_circuit *c,
+                         size_t bias_index)
+{
+    figure f[MAX_FIGURES];
+    gs_diag d;
+    linkset ls;
+    int rc = GS_EINVAL;
+
+    *out = NULL;
+    *n = 0;
+    if (bias_index >= c->nbiases)
+        return GS_EINVAL;
+    gs_diag_init(&d);
+    memset(&ls, 0, sizeof ls);
+    ls.c = c;
+    ls.dv = &c->devices[c->biases[bias_index].device];
+    ls.f = f;
+    if (ls.dv->is_bjt) {
+        const gs_bias *b = &c->biases[bias_index];
+        int pnp;
+        long double vt, gm;
+        ls.spec = bjt_keys;
+        if (read_figures(f, bjt_keys, B_COUNT, "bjt", c, b, &d) == GS_OK
+            && bjt_check(f, 0, 0, ls.dv->name, NULL, &d) == GS_OK
+            && gs_thermal_voltage(&vt, f[B_TEMP].given ? f[B_TEMP].v
+                                  : GS_TEMP_DEFAULT, NULL, &d) == GS_OK) {
+            pnp = f[B_TYPE].v == 1;
+            gm = mag(&f[B_IC], pnp) / vt;
+            bjt_links(&ls, gm, mag(&f[B_VCE], pnp), mag(&f[B_VA], pnp));
+            rc = GS_OK;
+        }
+    } else {
+        const gs_bias *b = &c->biases[bias_index];
+        gs_mos_op op;
+        ls.spec = mos_keys;
+        if (read_figures(f, mos_keys, M_COUNT, "mosfet", c, b, &d) == GS_OK
+            && mos_check(f, 0, ls.dv->name, NULL, &d) == GS_OK
+            && mos_solve(&op, f, NULL, &d) == GS_OK
+            && op.region == GS_MOS_SAT) {
+            mos_links(&ls, &op);
+            rc = GS_OK;
+        }
+    }
+    gs_diag_clear(&d);
+    if (rc != GS_OK) {
+        free(ls.l);
+        return rc;
+    }
+    *out = ls.l;
+    *n = ls.n;
+    return GS_OK;
+}

@@ -152,4 +152,25 @@ int gs_bjt_saturated(long double vce);
 int gs_device_apply_biases(const gs_circuit *c, long double *vals,
                            unsigned char *set, char **origin, gs_diag *d);
 
+/* One link of the chain from a bias line's figure to a small-signal
+   symbol it sets: s = S(part, figure) = d ln|part| / d ln|figure|, the
+   other figures of the line held, from the model's own equations
+   (docs/devices.md, "Sensitivities to the bias"). */
+typedef struct gs_bias_link {
+    const char *device;     /* the device's name (borrowed from c) */
+    const char *figure;     /* the figure's key: "id", "vds", ... */
+    long double value;      /* its value as written (signed) */
+    const char *part;       /* "gm", "rds", "gmb", "rpi", "re", "ro", ... */
+    int sym;                /* the symbol set */
+    long double s;
+} gs_bias_link;
+
+/* The links of bias line bias_index: one per numeric figure given and
+   part set, in the order of the figure table, then of the parts; figures
+   that move no part are left out.  *out is new (free it), *n its length.
+   GS_OK; GS_EINVAL when the line has an error (as gs_device_apply_biases
+   reports it) or puts a MOSFET in triode, where no links are given. */
+int gs_device_bias_links(gs_bias_link **out, size_t *n, const gs_circuit *c,
+                         size_t bias_index);
+
 #endif

@@ -12,7 +12,8 @@
 
 static const gs_cli_opt sens_spec[] = {
     {"set", 1, 1}, {"at", 1, 1}, {"only", 1, 0}, {"format", 1, 0},
-    {"limit", 1, 1}, {"max-terms", 1, 0}, {"max-memory", 1, 0}, {"help", 0, 0}, {NULL, 0, 0}
+    {"limit", 1, 1}, {"max-terms", 1, 0}, {"max-memory", 1, 0},
+    {"loop", 0, 0}, {"help", 0, 0}, {NULL, 0, 0}
 };
 
 /* Below this |S| a symbol is folded into one line of the table. */
@@ -41,12 +42,62 @@ static void fig_head(FILE *out, const gs_sens_fig *f)
         fprintf(out, "  %.10Lg rad/s", creall(f->value));
     else if (f->kind == GS_SENS_PHASE)
         fprintf(out, "  %.6Lg deg", creall(f->value) * 180 / acosl(-1));
+    else if (f->kind == GS_SENS_PM)
+        fprintf(out, "  %.6Lg deg", creall(f->value));
     else if (f->kind == GS_SENS_W0 || f->kind == GS_SENS_ZW0
-             || f->kind == GS_SENS_BW)
+             || f->kind == GS_SENS_BW || f->kind == GS_SENS_UGF)
         fprintf(out, "  %.10Lg rad/s", creall(f->value));
     else
         fprintf(out, "  %.10Lg", creall(f->value));
     fputc('\n', out);
+}
+
+/* Length of the run of links of one figure starting at l[k]. */
+static size_t run_len(const gs_bias_link *l, size_t n, size_t k)
+{
+    size_t m = k + 1;
+    while (m < n && l[m].device == l[k].device
+           && strcmp(l[m].figure, l[k].figure) == 0)
+        m++;
+    return m - k;
+}
+
+/* The rows of the bias figures under a figure's table: "M1.id". */
+static void print_bias_rows(FILE *out, const gs_sens *r,
+                            const gs_sens_fig *f, const gs_bias_link *l,
+                            size_t nl)
+{
+    size_t k, m;
+    char name[64];
+    if (nl == 0)
+        return;
+    fputs("    through the bias:\n", out);
+    for (k = 0; k < nl; k += m) {
+        m = run_len(l, nl, k);
+        snprintf(name, sizeof name, "%s.%s", l[k].device, l[k].figure);
+        fprintf(out, "    %-14s % .6Lf\n", name, gs_sens_chain(r, f, l + k, m));
+    }
+}
+
+/* The chain each bias row is worked out by, once per output:
+   "S(Q, M1.id) = 0.5*S(Q, gm1) - 1*S(Q, ro1)". */
+static void print_chains(FILE *out, const gs_bias_link *l, size_t nl,
+                         const gs_symtab *st)
+{
+    size_t k, m, i;
+    if (nl == 0)
+        return;
+    fputs("  bias chains (S of the model's small-signal values to each "
+          "figure):\n", out);
+    for (k = 0; k < nl; k += m) {
+        m = run_len(l, nl, k);
+        fprintf(out, "    S(Q, %s.%s) =", l[k].device, l[k].figure);
+        for (i = k; i < k + m; i++)
+            fprintf(out, i == k ? " %s%.6Lg*S(Q, %s)" : " %s %.6Lg*S(Q, %s)",
+                    l[i].s < 0 ? "-" : i == k ? "" : "+", fabsl(l[i].s),
+                    gs_symtab_name(st, l[i].sym));
+        fputc('\n', out);
+    }
 }
 
 static void print_fig(FILE *out, const gs_sens *r, const gs_sens_fig *f,
@@ -83,7 +134,7 @@ static void json_num(FILE *out, long double v)
 }
 
 static void json_fig(FILE *out, const gs_sens *r, const gs_sens_fig *f,
-                     const gs_symtab *st)
+                     const gs_symtab *st, const gs_bias_link *l, size_t nl)
 {
     int v, first = 1;
     fprintf(out, "    {\"figure\": \"%s\", ", gs_sens_kind_name(f->kind));
@@ -107,17 +158,61 @@ static void json_fig(FILE *out, const gs_sens *r, const gs_sens_fig *f,
             json_num(out, f->s[v]);
             first = 0;
         }
-    fputs("}}", out);
+    fputc('}', out);
+    if (nl) {
+        size_t k, m;
+        fputs(", \"bias\": {", out);
+        for (k = 0; k < nl; k += m) {
+            m = run_len(l, nl, k);
+            fprintf(out, "%s\"%s.%s\": ", k ? ", " : "", l[k].device,
+                    l[k].figure);
+            json_num(out, gs_sens_chain(r, f, l + k, m));
+        }
+        fputc('}', out);
+    }
+    fputc('}', out);
+}
+
+/* "bias_chain": [{"figure": "M1.id", "value": V, "links": {SYM: S}}] */
+static void json_chains(FILE *out, const gs_bias_link *l, size_t nl,
+                        const gs_symtab *st)
+{
+    size_t k, m, i;
+    fputs(", \"bias_chain\": [", out);
+    for (k = 0; k < nl; k += m) {
+        m = run_len(l, nl, k);
+        fprintf(out, "%s\n    {\"figure\": \"%s.%s\", \"value\": ",
+                k ? "," : "", l[k].device, l[k].figure);
+        json_num(out, l[k].value);
+        fputs(", \"links\": {", out);
+        for (i = k; i < k + m; i++) {
+            fprintf(out, "%s\"%s\": ", i > k ? ", " : "",
+                    gs_symtab_name(st, l[i].sym));
+            json_num(out, l[i].s);
+        }
+        fputs("}}", out);
+    }
+    fputs(nl ? "\n  ]" : "]", out);
+}
+
+/* tf[i] is the return ratio T of a loopgain line. */
+static int is_loop_gain(const gs_job *j, size_t i)
+{
+    const gs_output *o = &j->c->outputs[j->out_index[i]];
+    return o->kind == GS_OUT_LOOP && o->loop_part == 0;
 }
 
 static int sens_one(const gs_job *j, size_t i, const long double *at,
-                    size_t nat, int json, FILE *out, FILE *err)
+                    size_t nat, int loop, int json, FILE *out, FILE *err)
 {
     gs_sens r;
-    size_t k;
+    gs_bias_link *l;
+    size_t k, nl;
     int rc;
     gs_sens_init(&r);
-    rc = gs_sens_compute(&r, &j->tf[i], j->vals, at, nat);
+    gs_sens_bias_links(&l, &nl, j);
+    rc = gs_sens_compute_loop(&r, &j->tf[i], j->vals, at, nat,
+                              loop && is_loop_gain(j, i));
     if (rc == GS_EINVAL) {
         fprintf(err, "gainsmith sens: error: %s: the denominator is zero "
                 "or not finite with these values\n", j->tf[i].name);
@@ -125,15 +220,22 @@ static int sens_one(const gs_job *j, size_t i, const long double *at,
         fprintf(out, "  {\"name\": \"%s\", \"figures\": [\n",
                 j->tf[i].name);
         for (k = 0; k < r.n; k++) {
-            json_fig(out, &r, &r.fig[k], j->c->syms);
+            json_fig(out, &r, &r.fig[k], j->c->syms, l, nl);
             fputs(k + 1 < r.n ? ",\n" : "\n", out);
         }
-        fputs("  ]}", out);
+        fputs("  ]", out);
+        if (nl)
+            json_chains(out, l, nl, j->c->syms);
+        fputs("}", out);
     } else {
         fprintf(out, "%s\n", j->tf[i].name);
-        for (k = 0; k < r.n; k++)
+        for (k = 0; k < r.n; k++) {
             print_fig(out, &r, &r.fig[k], j->c->syms);
+            print_bias_rows(out, &r, &r.fig[k], l, nl);
+        }
+        print_chains(out, l, nl, j->c->syms);
     }
+    free(l);
     gs_sens_clear(&r);
     return rc == GS_EINVAL ? 1 : 0;
 }
@@ -162,8 +264,8 @@ int gs_cmd_sens(int argc, char **argv, FILE *out, FILE *err)
     gs_cli cl;
     gs_job j;
     long double *at = NULL;
-    size_t i, nat = 0;
-    int status, json = 0;
+    size_t i, nat = 0, nloop = 0;
+    int status, json = 0, loop = 0;
     const char *fmt;
 
     gs_job_init(&j);
@@ -185,10 +287,21 @@ int gs_cmd_sens(int argc, char **argv, FILE *out, FILE *err)
         status = gs_cmd_load_and_derive(&j, &cl, "sens", err);
     if (status == 0)
         status = gs_cmd_bind(&j, &cl, err);
+    loop = status == 0 && gs_cli_has(&cl, "loop");
+    for (i = 0; loop && i < j.ntf; i++)
+        nloop += (size_t)is_loop_gain(&j, i);
+    if (loop && nloop == 0) {
+        fprintf(err, "gainsmith sens: error: --loop: %s has no loopgain "
+                "output\ngainsmith sens: hint: add a line 'loopgain T = "
+                "SOURCE' naming the controlled source that closes the "
+                "loop (docs/language.md)\n", cl.npos ? cl.pos[0]
+                                                   : "the file");
+        status = 2;
+    }
     if (json && status == 0)
         fputs("[\n", out);
     for (i = 0; status == 0 && i < j.ntf; i++) {
-        status = sens_one(&j, i, at, nat, json, out, err);
+        status = sens_one(&j, i, at, nat, loop, json, out, err);
         if (json)
             fputs(i + 1 < j.ntf ? ",\n" : "\n", out);
     }

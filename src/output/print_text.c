@@ -29,7 +29,8 @@ typedef struct sbuf {
 
 /* How names, products, powers and groups are spelt. */
 typedef struct style {
-    int latex;
+    int latex;              /* 0 text; 1 LaTeX; 2 LaTeX with plain
+                               parentheses, which may hold a line break */
     char **names;           /* per variable, owned; NULL until needed */
     size_t *lens;           /* their lengths */
     const gs_polyctx *ctx;
@@ -270,9 +271,10 @@ static void put_group(sbuf *b, style *st, const gs_poly *c, int var,
             sb_puts(b, mul_sign(st));
         }
     } else {
-        sb_puts(b, st->latex ? "\\left( " : "(");
+        sb_puts(b, st->latex == 1 ? "\\left( " : "(");
         put_terms(b, st, c, 1, neg, exps);
-        sb_puts(b, st->latex ? " \\right) " : ")*");
+        sb_puts(b, st->latex == 1 ? " \\right) "
+                   : st->latex ? ")\\," : ")*");
     }
     put_power(b, st, var, k);
 }
@@ -311,15 +313,22 @@ static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
     free(exps);
 }
 
+/* a in the style latex, with its break points. */
+static void poly_sbuf(sbuf *b, const gs_tf *tf, const gs_poly *a,
+                      int collect_var, int latex)
+{
+    style st;
+    sb_init(b);
+    style_init(&st, tf->ctx, latex);
+    put_poly(b, &st, a, collect_var);
+    style_clear(&st);
+}
+
 static char *poly_str(const gs_tf *tf, const gs_poly *a, int collect_var,
                       int latex)
 {
-    style st;
     sbuf b;
-    sb_init(&b);
-    style_init(&st, tf->ctx, latex);
-    put_poly(&b, &st, a, collect_var);
-    style_clear(&st);
+    poly_sbuf(&b, tf, a, collect_var, latex);
     free(b.brk);
     return b.s.p;
 }
@@ -344,12 +353,80 @@ void gs_print_text(FILE *out, const gs_tf *tf, int collect_var)
     free(line);
 }
 
+/* A LaTeX side longer than this many characters of its text form is
+   broken across lines.  About what a 10 pt article's text width holds
+   of products in math italic, with room for the "N_{H} = " before it. */
+#define LATEX_COLS 56
+
+/* The LaTeX of side a, broken greedily: the text form (the same terms
+   in the same order, so the same break points) measures each line, and
+   a line ends where the next term would pass LATEX_COLS.  The breaks
+   are multline's "\\", each allowing a page break (\displaybreak[0]),
+   so even a result of hundreds of terms is set. */
+static void latex_broken(FILE *out, const gs_tf *tf, const gs_poly *a,
+                         int collect_var)
+{
+    sbuf tx, lx;
+    size_t j, start = 0, cut = 0, lstart = 0, lcut = 0, bp;
+    int have_cut = 0;
+    poly_sbuf(&tx, tf, a, collect_var, 0);
+    poly_sbuf(&lx, tf, a, collect_var, 2);
+    for (j = 0; j <= tx.nbrk && tx.nbrk == lx.nbrk; j++) {
+        bp = j < tx.nbrk ? tx.brk[j] : tx.s.n;
+        if (bp - start > LATEX_COLS && have_cut && cut > start) {
+            fwrite(lx.s.p + lstart, 1, lcut - lstart, out);
+            fputs(" \\displaybreak[0]\\\\\n", out);
+            start = cut + 1;        /* the line goes on with "+ term" */
+            lstart = lcut + 1;
+        }
+        cut = bp;
+        lcut = j < lx.nbrk ? lx.brk[j] : lx.s.n;
+        have_cut = 1;
+    }
+    if (tx.nbrk != lx.nbrk)         /* cannot happen: one walk for both */
+        lstart = 0;
+    fputs(lx.s.p + lstart, out);
+    sb_free(&tx);
+    sb_free(&lx);
+}
+
+static size_t text_len(const gs_tf *tf, const gs_poly *a, int collect_var)
+{
+    char *t = poly_str(tf, a, collect_var, 0);
+    size_t n = strlen(t);
+    free(t);
+    return n;
+}
+
 void gs_print_latex(FILE *out, const gs_tf *tf, int collect_var)
 {
     char *name = latex_plain(gs_tf_name(tf));
-    char *n = poly_str(tf, &tf->num, collect_var, 1);
-    char *d = poly_str(tf, &tf->den, collect_var, 1);
-    if (gs_poly_is_one(&tf->den, tf->ctx))
+    int poly = gs_poly_is_one(&tf->den, tf->ctx);
+    char *n, *d;
+    if (text_len(tf, &tf->num, collect_var) > LATEX_COLS
+        || (!poly && text_len(tf, &tf->den, collect_var) > LATEX_COLS)) {
+        /* long: a numbered equation H = N_H / D_H, then each side as
+           its own multline* (amsmath) */
+        if (poly) {
+            fprintf(out, "\\begin{multline}\n%s = ", name);
+            latex_broken(out, tf, &tf->num, collect_var);
+            fputs("\n\\end{multline}\n", out);
+        } else {
+            fprintf(out, "\\begin{equation}\n%s = \\frac{N_{%s}}{D_{%s}}\n"
+                    "\\end{equation}\n\\begin{multline*}\nN_{%s} = ",
+                    name, name, name, name);
+            latex_broken(out, tf, &tf->num, collect_var);
+            fprintf(out, "\n\\end{multline*}\n\\begin{multline*}\n"
+                    "D_{%s} = ", name);
+            latex_broken(out, tf, &tf->den, collect_var);
+            fputs("\n\\end{multline*}\n", out);
+        }
+        free(name);
+        return;
+    }
+    n = poly_str(tf, &tf->num, collect_var, 1);
+    d = poly_str(tf, &tf->den, collect_var, 1);
+    if (poly)
         fprintf(out, "\\begin{equation}\n%s = %s\n\\end{equation}\n",
                 name, n);
     else

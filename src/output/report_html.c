@@ -34,8 +34,15 @@ static void h_begin(gs_report_out *o, const char *title)
           " text-align: right; }\n"
           "pre { background: #f4f4f4; padding: 0.5em; overflow-x: auto; }\n"
           "math { font-size: 1.1em; }\n"
+          /* a formula scrolls inside its box rather than widen the
+             page; its long sides are already set as rows (h_formula) */
+          ".formula { overflow-x: auto; max-width: 100%; }\n"
+          "mtd { text-align: left; }\n"
+          ".wide { overflow-x: auto; max-width: 100%; }\n"
           "@media print { body { max-width: none; margin: 0; }"
-          " pre { background: none; border: 1px solid #999; }"
+          " .formula, .wide { overflow-x: visible; }"
+          " pre { background: none; border: 1px solid #999;"
+          " white-space: pre-wrap; overflow-x: visible; }"
           " svg { max-width: 100%; height: auto; }"
           " h2 { page-break-after: avoid; } }\n"
           "</style>\n</head>\n<body>\n<h1>", o->f);
@@ -78,7 +85,7 @@ static void h_table(gs_report_out *o, char *const *cells, size_t rows,
                     size_t cols)
 {
     size_t r, c;
-    fputs("<table>\n", o->f);
+    fputs("<div class=\"wide\"><table>\n", o->f);
     for (r = 0; r < rows; r++) {
         fputs("<tr>", o->f);
         for (c = 0; c < cols; c++) {
@@ -88,12 +95,35 @@ static void h_table(gs_report_out *o, char *const *cells, size_t rows,
         }
         fputs("</tr>\n", o->f);
     }
-    fputs("</table>\n", o->f);
+    fputs("</table></div>\n", o->f);
 }
+
+/* A long side is set as a column of rows, each ending at the first
+   top-level + or - after ROW_CHARS characters of the source text: MathML
+   as Chromium renders it has no line breaking of its own, and a printed
+   page cannot scroll. */
+#define ROW_CHARS 56
+
+typedef struct hstate {
+    FILE *f;
+    size_t chars;
+    int depth, rows;
+} hstate;
 
 static void tok(int kind, const char *t, size_t len, unsigned pw, void *arg)
 {
-    FILE *f = arg;
+    hstate *st = arg;
+    FILE *f = st->f;
+    st->chars += len;
+    if (kind == 'o' && *t == '(')
+        st->depth++;
+    if (kind == 'o' && *t == ')')
+        st->depth--;
+    if (st->rows && kind == 'o' && (*t == '+' || *t == '-')
+        && st->depth == 0 && st->chars > ROW_CHARS) {
+        fputs("</mrow></mtd></mtr>\n<mtr><mtd><mrow>", f);
+        st->chars = 0;
+    }
     switch (kind) {
     case 'i':
         if (pw)
@@ -118,16 +148,25 @@ static void tok(int kind, const char *t, size_t len, unsigned pw, void *arg)
     }
 }
 
+static void side(FILE *f, const char *s)
+{
+    hstate st = {f, 0, 0, 0};
+    st.rows = strlen(s) > ROW_CHARS;
+    fputs(st.rows ? "<mtable><mtr><mtd><mrow>" : "<mrow>", f);
+    gs_report_tokens(s, tok, &st);
+    fputs(st.rows ? "</mrow></mtd></mtr></mtable>" : "</mrow>", f);
+}
+
 static void h_formula(gs_report_out *o, const char *lhs, const char *num,
                       const char *den)
 {
-    fputs("<p><math display=\"block\"><mrow><mi>", o->f);
+    fputs("<div class=\"formula\"><math display=\"block\"><mrow><mi>",
+          o->f);
     esc(o->f, lhs);
-    fputs("</mi><mo>=</mo><mfrac><mrow>", o->f);
-    gs_report_tokens(num, tok, o->f);
-    fputs("</mrow><mrow>", o->f);
-    gs_report_tokens(den, tok, o->f);
-    fputs("</mrow></mfrac></mrow></math></p>\n", o->f);
+    fputs("</mi><mo>=</mo><mfrac>", o->f);
+    side(o->f, num);
+    side(o->f, den);
+    fputs("</mfrac></mrow></math></div>\n", o->f);
 }
 
 static void h_figure(gs_report_out *o, const char *svg, size_t len,

@@ -141,7 +141,7 @@ static void tok(int kind, const char *t, size_t len, unsigned pw, void *arg)
         }
         if ((*t == '+' || *t == '-') && st->depth == 0
             && st->chars > LINE_CHARS) {
-            fputs("\\\\\n", st->f);
+            fputs(" \\displaybreak[0]\\\\\n", st->f);
             st->chars = 0;
         }
         fprintf(st->f, " %c ", *t);
