@@ -121,6 +121,14 @@ typedef struct gs_mgraph_terms {
     int complete;           /* 1: every path was taken (rest is rounding) */
 } gs_mgraph_terms;
 
+/* lin[v] = 1 (v < nvars) when the root's polynomial has degree at most 1
+   in variable v by the rank-one rule of mgraph_terms.c: every entry of
+   the root's matrix is of degree <= 1 in v and the matrix of v's
+   coefficients has rank <= 1 (for N, c0 is also free of v).  The
+   dominant-term search drops every path that takes such a v twice. */
+void gs_mgraph_linear_vars(unsigned char *lin, const gs_mgraph *g,
+                           size_t root);
+
 /* Terms of s^power in `root` until |rest| <= tol * |total| (or all
    of them), at most max_terms (0: no limit) kept, with tol >= 0.  The
    coefficients are exact: a monomial is only kept once no path still to

@@ -13,6 +13,29 @@
  * monomial whose value per unit coefficient is u has |value| >= u, since
  * the entries' coefficients are integers, so the monomial's coefficient
  * is final once the search's next bound falls below u.
+ *
+ * Paths that cancel are pruned before they are taken.  In nodal analysis
+ * a diagonal entry is a sum of conductances, so many paths pick one
+ * conductance twice (G1 from two diagonal entries) and cancel against
+ * the off-diagonal products; a search that takes them finds nothing for
+ * a long time.  The argument that removes them: every element's stamp is
+ * of rank one (an admittance y between nodes a, b adds y (e_a - e_b)
+ * (e_a - e_b)^T, a transconductance gm (e_a - e_b)(e_c - e_d)^T), and by
+ * the matrix determinant lemma det(B + x u v^T) = det B + x v^T adj(B) u
+ * the determinant is then of degree at most 1 in x.  In general: write
+ * the matrix as B + x X with B and X free of x (every entry of degree at
+ * most 1 in x); if X has rank one (all its 2x2 minors vanish, tested
+ * exactly) the determinant, and every minor of it, has degree <= 1 in x.
+ * So every monomial with x^2 has the exact coefficient 0: its paths sum
+ * to zero among themselves, and dropping all of them changes no other
+ * monomial's coefficient.  Exponents only grow along a path, so a
+ * partial path that has used such an x twice is dropped with all its
+ * completions.  The bound best[] ignores the rule and so stays an upper
+ * bound: complete paths still come out in decreasing |value|.  (For a
+ * network of two-terminal admittances this leaves the terms of the
+ * spanning-tree expansion, Kirchhoff's matrix-tree theorem, plus the
+ * pairs of oppositely oriented cycles that still cancel; on a ladder no
+ * such cycle exists.)
  */
 #include "analysis/mgraph.h"
 #include "base/mem.h"
@@ -35,16 +58,24 @@ typedef struct search {
     size_t nst, ast;
     size_t *heap;               /* max-heap of state ids by key */
     size_t nheap, aheap;
+    uint64_t *used;             /* w words a state: the degree-one
+                                   variables its partial path holds */
+    size_t w;
 } search;
 
-static void push(search *q, const state *s)
+static void push(search *q, const state *s, const uint64_t *used)
 {
     size_t i;
     if (q->nst == q->ast) {
         q->ast = q->ast ? 2 * q->ast : 256;
         q->st = gs_reallocarray(q->st, q->ast, sizeof *q->st);
+        if (q->w)
+            q->used = gs_reallocarray(q->used, q->ast * q->w,
+                                      sizeof *q->used);
     }
     q->st[q->nst] = *s;
+    if (q->w)
+        memcpy(q->used + q->nst * q->w, used, q->w * sizeof *used);
     if (q->nheap == q->aheap) {
         q->aheap = q->aheap ? 2 * q->aheap : 256;
         q->heap = gs_reallocarray(q->heap, q->aheap, sizeof *q->heap);
@@ -86,6 +117,107 @@ static size_t pop(search *q)
     if (q->nheap)
         q->heap[i] = last;
     return top;
+}
+
+/* Cells of the root's matrix: the n x n of A for D, else the bordered
+   (n + 1) x (n + 1) (entries are numbered r * (n + 1) + j, the border
+   row r = n). */
+static int root_dim(const gs_mgraph *g, size_t root)
+{
+    return root == g->root_d ? g->n : g->n + 1;
+}
+
+/* X_ij, the coefficient of x^1 in cell (i, j), from the cells that hold
+   x (cell[k], coefficient x1[k]); NULL for zero. */
+static const gs_poly *coef_at(const size_t *cell, const gs_poly *x1,
+                              size_t m, size_t at)
+{
+    size_t k;
+    for (k = 0; k < m; k++)
+        if (cell[k] == at)
+            return &x1[k];
+    return NULL;
+}
+
+/* 1 when the matrix X of x's coefficients (cells cell[0 .. m-1]) has rank
+   at most one: with the pivot X_pq = x1[0], every X_ij X_pq = X_iq X_pj
+   over the rows and columns that hold x (exact products). */
+static int rank_one(const size_t *cell, const gs_poly *x1, size_t m,
+                    int n, const gs_polyctx *ctx)
+{
+    size_t w = (size_t)n + 1, p = cell[0] / w, q = cell[0] % w, a, b;
+    int ok = 1;
+    gs_poly l, r;
+    gs_poly_init(&l);
+    gs_poly_init(&r);
+    for (a = 0; a < m && ok; a++)
+        for (b = 0; b < m && ok; b++) {
+            size_t i = cell[a] / w, j = cell[b] % w;
+            const gs_poly *xij = coef_at(cell, x1, m, i * w + j);
+            const gs_poly *xiq = coef_at(cell, x1, m, i * w + q);
+            const gs_poly *xpj = coef_at(cell, x1, m, p * w + j);
+            if (xij)
+                gs_poly_mul(&l, xij, &x1[0], ctx);
+            else
+                gs_poly_zero(&l);
+            if (xiq && xpj)
+                gs_poly_mul(&r, xiq, xpj, ctx);
+            else
+                gs_poly_zero(&r);
+            ok = gs_poly_equal(&l, &r, ctx);
+        }
+    gs_poly_clear(&l);
+    gs_poly_clear(&r);
+    return ok;
+}
+
+void gs_mgraph_linear_vars(unsigned char *lin, const gs_mgraph *g,
+                           size_t root)
+{
+    const gs_polyctx *ctx = g->ctx;
+    int nv = ctx->nvars, dim = root_dim(g, root), v, i, j;
+    size_t w = (size_t)g->n + 1, *cell, m;
+    unsigned *deg = gs_malloc(((size_t)nv + 1) * sizeof *deg);
+    gs_poly *x1 = gs_malloc((w * w + 1) * sizeof *x1);
+    cell = gs_malloc((w * w + 1) * sizeof *cell);
+    for (v = 0; v < nv; v++)
+        lin[v] = 1;
+    for (i = 0; i < dim; i++)
+        for (j = 0; j < dim; j++) {
+            gs_poly_degrees(deg, &g->entries[(size_t)i * w + (size_t)j],
+                            ctx);
+            for (v = 0; v < nv; v++)
+                if (deg[v] > 1)
+                    lin[v] = 0;
+        }
+    /* N = c0 D - M: c0 must be free of x */
+    if (root == g->root_n) {
+        gs_poly_degrees(deg, &g->entries[g->nentries - 1], ctx);
+        for (v = 0; v < nv; v++)
+            if (deg[v] > 0)
+                lin[v] = 0;
+    }
+    for (v = 0; v < nv; v++) {
+        if (!lin[v])
+            continue;
+        m = 0;
+        for (i = 0; i < dim; i++)
+            for (j = 0; j < dim; j++) {
+                size_t at = (size_t)i * w + (size_t)j;
+                if (gs_poly_degree(&g->entries[at], v, ctx) != 1)
+                    continue;
+                gs_poly_init(&x1[m]);
+                gs_poly_coeff_var(&x1[m], &g->entries[at], v, 1, ctx);
+                cell[m++] = at;
+            }
+        if (m > 1)
+            lin[v] = (unsigned char)rank_one(cell, x1, m, g->n, ctx);
+        while (m)
+            gs_poly_clear(&x1[--m]);
+    }
+    free(deg);
+    free(x1);
+    free(cell);
 }
 
 typedef struct kept {
@@ -135,10 +267,20 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
     search q;
     gs_int c;
     long double sum = 0, min_unit = INFINITY;
-    int finishing = 0;
+    int finishing = 0, *bit = gs_malloc(((size_t)nv + 1) * sizeof *bit);
+    unsigned char *lin = gs_malloc((size_t)nv + 1);
+    uint64_t *tmask, *nu;
+    size_t nlin = 0, wd;
 
     memset(t, 0, sizeof *t);
     memset(&q, 0, sizeof q);
+    /* the variables of degree <= 1 in the root, one bit each */
+    gs_mgraph_linear_vars(lin, g, root);
+    for (i = 0; i < (size_t)nv; i++)
+        bit[i] = lin[i] ? (int)nlin++ : -1;
+    wd = (nlin + 63) / 64;
+    q.w = wd;
+    nu = gs_calloc(wd + 1, sizeof *nu);
     t->power = power;
     t->total = power >= 0 && off[root] + (size_t)power < off[root + 1]
                    ? coef[off[root] + (size_t)power] : 0;
@@ -148,13 +290,24 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
         eoff[i + 1] = eoff[i] + g->entries[i].length;
     tv = gs_malloc((eoff[g->nentries] + 1) * sizeof *tv);
     tdeg = gs_malloc((eoff[g->nentries] + 1) * sizeof *tdeg);
+    tmask = gs_calloc((eoff[g->nentries] + 1) * wd + 1, sizeof *tmask);
     for (i = 0; i < g->nentries; i++) {
         size_t j;
         for (j = 0; j < g->entries[i].length; j++) {
+            int w2, bad = 0;
             gs_poly_get_term_exps(ex, &g->entries[i], j, ctx);
             tv[eoff[i] + j] = fabsl(gs_int_get_ld(&g->entries[i].coeffs[j])
                                     * monomial_value(ex, vals, nv, s_var));
             tdeg[eoff[i] + j] = s_var >= 0 ? (int)ex[s_var] : 0;
+            for (w2 = 0; w2 < nv; w2++)
+                if (bit[w2] >= 0 && ex[w2]) {
+                    tmask[(eoff[i] + j) * wd + (size_t)bit[w2] / 64] |=
+                        1ull << (bit[w2] % 64);
+                    bad |= ex[w2] > 1;
+                }
+            /* a term that alone holds x^2 can be on no surviving path */
+            if (bad)
+                tv[eoff[i] + j] = 0;
         }
     }
     /* best completions per node and s-degree, on the same layout */
@@ -185,7 +338,7 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
         s0.rest = power;
         s0.so_far = 1;
         s0.key = best[off[root] + (size_t)power];
-        push(&q, &s0);
+        push(&q, &s0, nu);
     }
     while (q.nheap) {
         size_t id;
@@ -249,9 +402,18 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
             size_t en = g->entry[e], ch = g->child[e], j;
             for (j = eoff[en]; j < eoff[en + 1]; j++) {
                 state n2;
-                int r = s.rest - tdeg[j];
+                int r = s.rest - tdeg[j], twice = 0;
+                size_t b;
                 if (r < 0 || (size_t)r >= toff[ch + 1] - toff[ch]
                     || best[toff[ch] + (size_t)r] <= 0 || tv[j] <= 0)
+                    continue;
+                /* a degree-one variable taken twice: the path cancels */
+                for (b = 0; b < wd; b++) {
+                    uint64_t have = q.used[id * wd + b];
+                    twice |= (have & tmask[j * wd + b]) != 0;
+                    nu[b] = have | tmask[j * wd + b];
+                }
+                if (twice)
                     continue;
                 n2.node = ch;
                 n2.parent = id;
@@ -260,7 +422,7 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
                 n2.rest = r;
                 n2.so_far = s.so_far * tv[j];
                 n2.key = n2.so_far * best[toff[ch] + (size_t)r];
-                push(&q, &n2);
+                push(&q, &n2, nu);
             }
         }
     }
@@ -294,6 +456,11 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
     gs_int_clear(&c);
     free(q.st);
     free(q.heap);
+    free(q.used);
+    free(nu);
+    free(tmask);
+    free(bit);
+    free(lin);
     free(best);
     free(coef);
     free(off);
