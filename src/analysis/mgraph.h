@@ -107,13 +107,18 @@ void gs_mgraph_fill_recips(long double *vals, const gs_symtab *st,
    exact largest completion, as in the k-shortest-path generation of Tan
    and Shi, "Efficient approximation of symbolic expressions for analog
    behavioral modeling and analysis", IEEE TCAD 23(4), 2004); paths with
-   the same monomial are merged to their exact coefficient. */
+   the same monomial are merged to their exact coefficient, and paths that
+   take a variable of gs_mgraph_linear_vars twice are never taken (they
+   cancel exactly). */
 typedef struct gs_mgraph_terms {
     int power;              /* of s */
     size_t count;
     gs_poly *term;          /* count single-term polynomials (exact, each
                                monomial once; zero sums dropped), in
-                               decreasing |value| */
+                               decreasing |value|; equal values by their
+                               exponent vectors, compared variable by
+                               variable in the context's order, the
+                               larger exponent first */
     long double *value;     /* each term's value at vals */
     long double total;      /* the coefficient of s^power of the root at
                                vals (before scale), from the numeric pass */

@@ -224,8 +224,64 @@ typedef struct kept {
     unsigned *exps;             /* nvars each */
     gs_int coef;
     long double unit;           /* value per unit coefficient */
-    size_t found;               /* order of discovery */
+    int nv;                     /* exps' length, for the sort */
 } kept;
+
+/* The order of kept terms: decreasing |value| at vals, ties by the
+   exponent vectors compared variable by variable in the context's order,
+   the larger exponent first (documented in mgraph.h). */
+
+static int exps_cmp(const unsigned *a, const unsigned *b, int nv)
+{
+    int i;
+    for (i = 0; i < nv; i++)
+        if (a[i] != b[i])
+            return a[i] > b[i] ? -1 : 1;
+    return 0;
+}
+
+/* Monomials met so far, by hash of the exponents (open addressing). */
+typedef struct index {
+    size_t *slot, cap;
+} index;
+
+static size_t exps_hash(const unsigned *e, int nv)
+{
+    uint64_t h = 0xcbf29ce484222325ull;
+    int i;
+    for (i = 0; i < nv; i++)
+        h = (h ^ e[i]) * 0x100000001b3ull;
+    return (size_t)(h ^ (h >> 29));
+}
+
+/* The kept term with exponents e, or nk (not there yet: the slot for it
+   is *at). */
+static size_t index_find(size_t *at, const index *x, const kept *k,
+                         size_t nk, const unsigned *e, int nv)
+{
+    size_t h = exps_hash(e, nv) & (x->cap - 1);
+    for (; x->slot[h] != NONE; h = (h + 1) & (x->cap - 1))
+        if (memcmp(k[x->slot[h]].exps, e, (size_t)nv * sizeof *e) == 0)
+            return x->slot[h];
+    *at = h;
+    return nk;
+}
+
+static void index_grow(index *x, const kept *k, size_t nk, int nv)
+{
+    size_t i, h;
+    free(x->slot);
+    x->cap = x->cap ? 2 * x->cap : 64;
+    x->slot = gs_malloc(x->cap * sizeof *x->slot);
+    for (i = 0; i < x->cap; i++)
+        x->slot[i] = NONE;
+    for (i = 0; i < nk; i++) {
+        h = exps_hash(k[i].exps, nv) & (x->cap - 1);
+        while (x->slot[h] != NONE)
+            h = (h + 1) & (x->cap - 1);
+        x->slot[h] = i;
+    }
+}
 
 static long double monomial_value(const unsigned *ex, const long double *vals,
                                   int nvars, int s_var)
@@ -247,7 +303,7 @@ static int by_value(const void *pa, const void *pb)
     long double vb = fabsl(b->unit * gs_int_get_ld(&b->coef));
     if (va != vb)
         return va > vb ? -1 : 1;
-    return a->found < b->found ? -1 : a->found > b->found;
+    return exps_cmp(a->exps, b->exps, a->nv);
 }
 
 void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
@@ -270,7 +326,8 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
     int finishing = 0, *bit = gs_malloc(((size_t)nv + 1) * sizeof *bit);
     unsigned char *lin = gs_malloc((size_t)nv + 1);
     uint64_t *tmask, *nu;
-    size_t nlin = 0, wd;
+    size_t nlin = 0, wd, slot = 0;
+    index ix = {NULL, 0};
 
     memset(t, 0, sizeof *t);
     memset(&q, 0, sizeof q);
@@ -373,10 +430,11 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
             }
             if (neg)
                 gs_int_neg(&c, &c);
-            for (m = 0; m < nk; m++)
-                if (memcmp(k[m].exps, acc, (size_t)nv * sizeof *acc) == 0)
-                    break;
+            if (2 * (nk + 1) > ix.cap)
+                index_grow(&ix, k, nk, nv);
+            m = index_find(&slot, &ix, k, nk, acc, nv);
             if (m == nk) {
+                ix.slot[slot] = nk;
                 if (nk == ak) {
                     ak = ak ? 2 * ak : 16;
                     k = gs_reallocarray(k, ak, sizeof *k);
@@ -384,8 +442,8 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
                 k[m].exps = gs_malloc(((size_t)nv + 1) * sizeof *acc);
                 memcpy(k[m].exps, acc, (size_t)nv * sizeof *acc);
                 gs_int_init(&k[m].coef);
+                k[m].nv = nv;
                 k[m].unit = monomial_value(acc, vals, nv, s_var);
-                k[m].found = m;
                 if (fabsl(k[m].unit) < min_unit)
                     min_unit = fabsl(k[m].unit);
                 nk++;
@@ -457,6 +515,7 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
     free(q.st);
     free(q.heap);
     free(q.used);
+    free(ix.slot);
     free(nu);
     free(tmask);
     free(bit);
