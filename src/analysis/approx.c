@@ -992,8 +992,9 @@ out:
    far its terms are generated: to gen_tol / share of the coefficient,
    gen_tol a quarter of the relative error the magnitude tolerance
    allows, at most GRAPH_MAX_TERMS a coefficient.  When the tolerance is
-   not met with those terms, once more with gen_tol / 100. */
-#define GRAPH_MAX_TERMS 4000
+   not met with those terms and no coefficient reached the cap, once more
+   with gen_tol / 100. */
+#define GRAPH_MAX_TERMS 2000
 #define GRAPH_MIN_TOL 1e-12L
 
 /* share[k] = max over the band of |a_k| w^k / max_j |a_j| w^j. */
@@ -1015,6 +1016,18 @@ static long double *shares(const long double *a, int deg, long double flo,
                 sh[k] = v;
     }
     return sh;
+}
+
+/* 1 when a coefficient stopped at GRAPH_MAX_TERMS: a finer gen_tol would
+   only list the others further, at the cost of another search. */
+static int capped(const gs_approx_terms *t)
+{
+    int w, k;
+    for (w = 0; w < 2; w++)
+        for (k = 0; k < t->ncoef[w]; k++)
+            if (t->c[w][k].nterms >= GRAPH_MAX_TERMS)
+                return 1;
+    return 0;
 }
 
 static int run_graph(gs_approx_result *r, const gs_job *j, size_t i,
@@ -1050,7 +1063,7 @@ static int run_graph(gs_approx_result *r, const gs_job *j, size_t i,
             rc = gs_approx_run_terms(r, &t, j->ctx, s_var, vals, used, o,
                                      d);
             r->gen_tol = gen_tol;
-            if (rc != GS_OK || r->met || t.complete)
+            if (rc != GS_OK || r->met || t.complete || capped(&t))
                 break;
             gen_tol /= 100;
         }

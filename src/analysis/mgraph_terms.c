@@ -31,11 +31,26 @@
  * monomial's coefficient.  Exponents only grow along a path, so a
  * partial path that has used such an x twice is dropped with all its
  * completions.  The bound best[] ignores the rule and so stays an upper
- * bound: complete paths still come out in decreasing |value|.  (For a
- * network of two-terminal admittances this leaves the terms of the
- * spanning-tree expansion, Kirchhoff's matrix-tree theorem, plus the
- * pairs of oppositely oriented cycles that still cancel; on a ladder no
- * such cycle exists.)
+ * bound: complete paths still come out in decreasing |value|.
+ *
+ * The second rule removes the cancelling cycles.  With the degree-one
+ * variables x_i of rank-one matrices u_i v_i^T and A0 the matrix with
+ * all of them set to 0, the coefficient of the product of a set S of
+ * them is, by the Cauchy-Binet formula, a sum of products
+ * det(U_S[R, :]) det(V_S[C, :]) det(A0[not R, not C]) over row and
+ * column sets R, C of size |S|.  If the u_i of S are linearly dependent,
+ * every such minor of U_S vanishes, and the coefficient with it.  When u
+ * is c (e_a - e_b) or c e_a (an element between nodes a and b, or from a
+ * to ground), dependence is a cycle among the edges (a, b) in the graph
+ * of the rows with a virtual ground; the same holds for v over the
+ * columns.  So a partial path whose degree-one variables close a cycle in
+ * either graph (union-find over the path's edges) is dropped with its
+ * completions: for a network of admittances the terms left are exactly
+ * the spanning trees (Kirchhoff's matrix-tree theorem), with
+ * transconductances the common trees of the two graphs (the two-graph
+ * method of Mayeda; Chen, "Applied Graph Theory", from memory).  For N =
+ * c0 D - M the paths through c0 use the rows and columns of A, the others
+ * those of the bordered matrix.
  */
 #include "analysis/mgraph.h"
 #include "base/mem.h"
@@ -49,7 +64,10 @@
 typedef struct state {
     size_t node, parent;        /* parent: the state this one extends */
     uint32_t edge, term;
+    size_t tj;                  /* the term's index over all entries */
     int rest;                   /* s-degree still to pick */
+    int full;                   /* 1: in det M (the bordered matrix), 0:
+                                   in det A (D, or N's c0 D) */
     long double so_far, key;
 } state;
 
@@ -220,6 +238,82 @@ void gs_mgraph_linear_vars(unsigned char *lin, const gs_mgraph *g,
     free(cell);
 }
 
+/* The incidence edges of the degree-one variables in the cells of a
+   dim x dim region (the n x n of A, or the bordered n + 1): when x's
+   coefficient matrix X = u v^T has u = c (e_a - e_b) or c e_a (rows a, b;
+   b = the virtual ground dim + 1 for e_a alone), re[2x], re[2x+1] = a, b,
+   else -1; ce the same for v over the columns.  A two-terminal element
+   and a transconductance give both. */
+static void incidence(int *re, int *ce, const gs_mgraph *g, int dim,
+                      const unsigned char *lin)
+{
+    const gs_polyctx *ctx = g->ctx;
+    int nv = ctx->nvars, v, i, j, side;
+    size_t w = (size_t)g->n + 1;
+    gs_poly x1, x2, sum;
+    gs_poly_init(&x1);
+    gs_poly_init(&x2);
+    gs_poly_init(&sum);
+    for (v = 0; v < nv; v++) {
+        re[2 * v] = re[2 * v + 1] = ce[2 * v] = ce[2 * v + 1] = -1;
+        if (!lin[v])
+            continue;
+        for (side = 0; side < 2; side++) {
+            /* side 0: the rows (u), over a pivot column; 1: the columns */
+            int at[3], m = 0, piv = -1, k, ok;
+            for (i = 0; i < dim && piv < 0; i++)
+                for (j = 0; j < dim && piv < 0; j++)
+                    if (gs_poly_degree(&g->entries[(size_t)i * w
+                                                   + (size_t)j], v, ctx) == 1)
+                        piv = side ? i : j;
+            if (piv < 0)
+                break;
+            for (k = 0; k < dim && m < 3; k++) {
+                size_t cell = side ? (size_t)piv * w + (size_t)k
+                                   : (size_t)k * w + (size_t)piv;
+                if (gs_poly_degree(&g->entries[cell], v, ctx) == 1)
+                    at[m++] = k;
+            }
+            ok = m == 1;
+            if (m == 2) {
+                size_t c0 = side ? (size_t)piv * w + (size_t)at[0]
+                                 : (size_t)at[0] * w + (size_t)piv;
+                size_t c1 = side ? (size_t)piv * w + (size_t)at[1]
+                                 : (size_t)at[1] * w + (size_t)piv;
+                gs_poly_coeff_var(&x1, &g->entries[c0], v, 1, ctx);
+                gs_poly_coeff_var(&x2, &g->entries[c1], v, 1, ctx);
+                gs_poly_add(&sum, &x1, &x2, ctx);
+                ok = gs_poly_is_zero(&sum);
+            }
+            if (!ok)
+                continue;
+            (side ? ce : re)[2 * v] = at[0];
+            (side ? ce : re)[2 * v + 1] = m == 2 ? at[1] : dim + 1;
+        }
+    }
+    gs_poly_clear(&x1);
+    gs_poly_clear(&x2);
+    gs_poly_clear(&sum);
+}
+
+static int uf_find(int *par, int a)
+{
+    while (par[a] != a)
+        a = par[a] = par[par[a]];
+    return a;
+}
+
+/* Join a and b; 0 when they were joined already (a cycle). */
+static int uf_join(int *par, int a, int b)
+{
+    a = uf_find(par, a);
+    b = uf_find(par, b);
+    if (a == b)
+        return 0;
+    par[a] = b;
+    return 1;
+}
+
 typedef struct kept {
     unsigned *exps;             /* nvars each */
     gs_int coef;
@@ -326,7 +420,8 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
     int finishing = 0, *bit = gs_malloc(((size_t)nv + 1) * sizeof *bit);
     unsigned char *lin = gs_malloc((size_t)nv + 1);
     uint64_t *tmask, *nu;
-    size_t nlin = 0, wd, slot = 0;
+    int *inc[4], *uf, *uf2, *tl;
+    size_t nlin = 0, wd, slot = 0, *tloff, c0cell = g->nentries - 1;
     index ix = {NULL, 0};
 
     memset(t, 0, sizeof *t);
@@ -335,6 +430,22 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
     gs_mgraph_linear_vars(lin, g, root);
     for (i = 0; i < (size_t)nv; i++)
         bit[i] = lin[i] ? (int)nlin++ : -1;
+    /* their incidence edges in A and in the bordered matrix */
+    {
+        int *ed = gs_malloc(8 * ((size_t)nv + 1) * sizeof *ed);
+        size_t nn = (size_t)g->n + 3;
+        inc[0] = ed;
+        inc[1] = ed + 2 * ((size_t)nv + 1);
+        inc[2] = ed + 4 * ((size_t)nv + 1);
+        inc[3] = ed + 6 * ((size_t)nv + 1);
+        incidence(inc[0], inc[1], g, g->n, lin);
+        if (root != g->root_d)
+            incidence(inc[2], inc[3], g, g->n + 1, lin);
+        else
+            memcpy(inc[2], inc[0], 4 * ((size_t)nv + 1) * sizeof *ed);
+        uf = gs_malloc(4 * nn * sizeof *uf);
+        uf2 = gs_malloc(2 * nn * sizeof *uf2);
+    }
     wd = (nlin + 63) / 64;
     q.w = wd;
     nu = gs_calloc(wd + 1, sizeof *nu);
@@ -348,6 +459,8 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
     tv = gs_malloc((eoff[g->nentries] + 1) * sizeof *tv);
     tdeg = gs_malloc((eoff[g->nentries] + 1) * sizeof *tdeg);
     tmask = gs_calloc((eoff[g->nentries] + 1) * wd + 1, sizeof *tmask);
+    tloff = gs_calloc(eoff[g->nentries] + 2, sizeof *tloff);
+    tl = gs_malloc(((size_t)nv + 1) * (eoff[g->nentries] + 1) * sizeof *tl);
     for (i = 0; i < g->nentries; i++) {
         size_t j;
         for (j = 0; j < g->entries[i].length; j++) {
@@ -356,11 +469,13 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
             tv[eoff[i] + j] = fabsl(gs_int_get_ld(&g->entries[i].coeffs[j])
                                     * monomial_value(ex, vals, nv, s_var));
             tdeg[eoff[i] + j] = s_var >= 0 ? (int)ex[s_var] : 0;
+            tloff[eoff[i] + j + 1] = tloff[eoff[i] + j];
             for (w2 = 0; w2 < nv; w2++)
                 if (bit[w2] >= 0 && ex[w2]) {
                     tmask[(eoff[i] + j) * wd + (size_t)bit[w2] / 64] |=
                         1ull << (bit[w2] % 64);
                     bad |= ex[w2] > 1;
+                    tl[tloff[eoff[i] + j + 1]++] = w2;
                 }
             /* a term that alone holds x^2 can be on no surviving path */
             if (bad)
@@ -392,6 +507,8 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
         s0.node = root;
         s0.parent = NONE;
         s0.edge = s0.term = 0;
+        s0.tj = 0;
+        s0.full = root != g->root_d;
         s0.rest = power;
         s0.so_far = 1;
         s0.key = best[off[root] + (size_t)power];
@@ -456,8 +573,28 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
                 finishing = 1;
             continue;
         }
+        /* the forests of the prefix's incidence edges, rows and columns,
+           in A (uf[0], uf[1]) and in the bordered matrix (uf[2], uf[3]) */
+        {
+            size_t nn = (size_t)g->n + 3, p2, z;
+            for (z = 0; z < 4 * nn; z++)
+                uf[z] = (int)(z % nn);
+            for (p2 = id; q.st[p2].parent != NONE; p2 = q.st[p2].parent) {
+                size_t tj = q.st[p2].tj, a;
+                int reg = 2 * q.st[p2].full;
+                for (a = tloff[tj]; a < tloff[tj + 1]; a++) {
+                    int v2 = tl[a], sd;
+                    for (sd = 0; sd < 2; sd++)
+                        if (inc[reg + sd][2 * v2] >= 0)
+                            uf_join(uf + (size_t)(reg + sd) * nn,
+                                    inc[reg + sd][2 * v2],
+                                    inc[reg + sd][2 * v2 + 1]);
+                }
+            }
+        }
         for (e = g->first[s.node]; e < g->first[s.node + 1]; e++) {
             size_t en = g->entry[e], ch = g->child[e], j;
+            int full = s.full && en != c0cell;
             for (j = eoff[en]; j < eoff[en + 1]; j++) {
                 state n2;
                 int r = s.rest - tdeg[j], twice = 0;
@@ -473,10 +610,29 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
                 }
                 if (twice)
                     continue;
+                /* a cycle among the incidence edges: the monomial's
+                   vectors u (or v) are dependent, its coefficient 0 */
+                if (tloff[j + 1] > tloff[j]) {
+                    size_t nn = (size_t)g->n + 3, a;
+                    int reg = 2 * full, sd, cyc = 0;
+                    memcpy(uf2, uf + (size_t)reg * nn, 2 * nn * sizeof *uf2);
+                    for (a = tloff[j]; a < tloff[j + 1] && !cyc; a++)
+                        for (sd = 0; sd < 2 && !cyc; sd++) {
+                            const int *ie = inc[reg + sd] + 2 * tl[a];
+                            if (ie[0] >= 0
+                                && !uf_join(uf2 + (size_t)sd * nn, ie[0],
+                                            ie[1]))
+                                cyc = 1;
+                        }
+                    if (cyc)
+                        continue;
+                }
                 n2.node = ch;
                 n2.parent = id;
                 n2.edge = (uint32_t)e;
                 n2.term = (uint32_t)(j - eoff[en]);
+                n2.tj = j;
+                n2.full = full;
                 n2.rest = r;
                 n2.so_far = s.so_far * tv[j];
                 n2.key = n2.so_far * best[toff[ch] + (size_t)r];
@@ -516,6 +672,11 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
     free(q.heap);
     free(q.used);
     free(ix.slot);
+    free(inc[0]);
+    free(uf);
+    free(uf2);
+    free(tl);
+    free(tloff);
     free(nu);
     free(tmask);
     free(bit);
