@@ -7,7 +7,9 @@
  * determinant has F(n+1) terms: the recurrence D_n = a D_(n-1) -
  * b c D_(n-2), a standard fact), up to F(101) on 100 unknowns, past the
  * 63 of a one-word column set; the first dominant terms are the largest
- * terms of the full expansion.
+ * terms of the full expansion, at random values and, monomial for
+ * monomial, at the circuits' own values (an RC ladder, a common-source
+ * chain with cgs, cgd and cdb, a two-stage op-amp, the examples).
  */
 #include "check.h"
 #include "analysis/job.h"
@@ -104,7 +106,146 @@ static void check_dominant(const gs_mgraph *g, const gs_poly *det, int s,
     gs_poly_clear(&cf);
 }
 
+/* One term of an expanded coefficient: its value at vals as the search
+   computes it (the product of the values, then the coefficient). */
+typedef struct xterm {
+    long double value;
+    unsigned *exps;
+    size_t at;                  /* index in the expanded polynomial */
+    int nv;
+} xterm;
+
+static int xterm_cmp(const void *pa, const void *pb)
+{
+    const xterm *a = pa, *b = pb;
+    long double va = fabsl(a->value), vb = fabsl(b->value);
+    int i;
+    if (va != vb)
+        return va > vb ? -1 : 1;
+    /* the documented tie order: exponent vectors variable by variable,
+       the larger exponent first (mgraph.h) */
+    for (i = 0; i < a->nv; i++)
+        if (a->exps[i] != b->exps[i])
+            return a->exps[i] > b->exps[i] ? -1 : 1;
+    return 0;
+}
+
+/* At the circuit's own values: the terms generated first are exactly the
+   largest terms of the expanded coefficient, monomial and exact
+   coefficient, in the same order, for the whole list (tol 0) and for a
+   prefix cut by a tolerance.  The expansion (minors.c, checked against
+   sympy elsewhere) is the outside reference. */
+static void check_nominal_order(const gs_mgraph *g, const gs_poly *det,
+                                int s, const long double *vals,
+                                const char *path)
+{
+    const gs_polyctx *ctx = g->ctx;
+    int nv = ctx->nvars, p, maxp = (int)gs_poly_degree(det, s, ctx);
+    gs_poly cf;
+    unsigned *ex = malloc(((size_t)nv + 1) * sizeof *ex);
+    gs_poly_init(&cf);
+    for (p = 0; p <= maxp; p++) {
+        static const long double tols[] = {0, 0.05L, 0.002L};
+        xterm *x;
+        size_t i, ti;
+        gs_poly_coeff_var(&cf, det, s, (unsigned)p, ctx);
+        x = malloc((cf.length + 1) * sizeof *x);
+        for (i = 0; i < cf.length; i++) {
+            long double u = 1;
+            int v;
+            unsigned e;
+            x[i].exps = malloc(((size_t)nv + 1) * sizeof *x[i].exps);
+            gs_poly_get_term_exps(x[i].exps, &cf, i, ctx);
+            for (v = 0; v < nv; v++)
+                for (e = 0; e < x[i].exps[v]; e++)
+                    u *= vals[v];
+            x[i].value = gs_int_get_ld(&cf.coeffs[i]) * u;
+            x[i].at = i;
+            x[i].nv = nv;
+        }
+        qsort(x, cf.length, sizeof *x, xterm_cmp);
+        for (ti = 0; ti < sizeof tols / sizeof tols[0]; ti++) {
+            gs_mgraph_terms t;
+            int ok = 1;
+            gs_mgraph_dominant(&t, g, g->root_d, s, p, vals, tols[ti], 0);
+            if (ti == 0)
+                CHECK_MSG(t.count == cf.length,
+                          "%s s^%d: %zu terms generated, %zu expanded",
+                          path, p, t.count, cf.length);
+            else
+                CHECK_MSG(fabsl(t.rest) <= tols[ti] * fabsl(t.total)
+                              * (1 + 1e-9L) + 1e-300L,
+                          "%s s^%d: rest %Lg of %Lg", path, p, t.rest,
+                          t.total);
+            for (i = 0; i < t.count && i < cf.length && ok; i++) {
+                gs_int c;
+                gs_poly_get_term_exps(ex, &t.term[i], 0, ctx);
+                /* the generated term carries s^p, the coefficient not */
+                ok = (int)ex[s] == p;
+                ex[s] = 0;
+                gs_int_init(&c);
+                gs_int_set(&c, &cf.coeffs[x[i].at]);
+                ok = ok && memcmp(ex, x[i].exps, (size_t)nv * sizeof *ex) == 0
+                     && gs_int_cmp(&c, &t.term[i].coeffs[0]) == 0;
+                CHECK_MSG(ok, "%s s^%d tol %Lg: term %zu of %zu is not the "
+                          "%zu-th largest", path, p, tols[ti], i, t.count,
+                          i + 1);
+                gs_int_clear(&c);
+            }
+            gs_mgraph_terms_clear(&t);
+        }
+        for (i = 0; i < cf.length; i++)
+            free(x[i].exps);
+        free(x);
+    }
+    gs_poly_clear(&cf);
+    free(ex);
+}
+
+/* The rank-one rule (mgraph.h) against the expansion: every variable it
+   marks has degree <= 1 in the expanded determinant. */
+static void check_linear_vars(const gs_mgraph *g, const gs_poly *det,
+                              const char *path)
+{
+    int nv = g->ctx->nvars, v, marked = 0;
+    unsigned char *lin = malloc((size_t)nv + 1);
+    gs_mgraph_linear_vars(lin, g, g->root_d);
+    for (v = 0; v < nv; v++)
+        if (lin[v]) {
+            marked++;
+            CHECK_MSG(gs_poly_degree(det, v, g->ctx) <= 1,
+                      "%s: variable %d marked, degree %ld", path, v,
+                      gs_poly_degree(det, v, g->ctx));
+        }
+    CHECK_MSG(marked > 0, "%s: no variable of degree one found", path);
+    free(lin);
+}
+
+static int nominal_cases;
+
+/* Every symbol of det but s has a value of its own (a circuit with value
+   lines for all its elements). */
+static int has_values(const gs_job *j, const gs_poly *det)
+{
+    int v, ok = 1;
+    unsigned char *used = malloc((size_t)j->ctx->nvars + 1);
+    gs_poly_used_vars(used, det, j->ctx);
+    for (v = 0; v < j->ctx->nvars; v++)
+        if (used[v] && v != j->c->s_sym
+            && !gs_symtab_is_recip(j->c->syms, v) && j->vals[v] == 0)
+            ok = 0;
+    free(used);
+    return ok;
+}
+
+static void check_circuit_text(const char *path, const char *text);
+
 static void check_circuit(const char *path)
+{
+    check_circuit_text(path, NULL);
+}
+
+static void check_circuit_text(const char *path, const char *text)
 {
     gs_job j;
     gs_diag d;
@@ -112,11 +253,12 @@ static void check_circuit(const char *path)
     gs_mgraph g;
     gs_poly da, dm, ea, em;
     gs_minors_opts mo;
-    int rc, trial, nv;
+    int rc, trial, nv, flipped = 0;
 
     gs_job_init(&j);
     gs_diag_init(&d);
-    rc = gs_job_load(&j, path, &d);
+    rc = text ? gs_job_load_string(&j, path, text, &d)
+              : gs_job_load(&j, path, &d);
     CHECK_MSG(rc == GS_OK, "%s", path);
     if (rc != GS_OK) {
         gs_diag_print(stderr, &d);
@@ -141,6 +283,7 @@ static void check_circuit(const char *path)
     if (!gs_poly_equal(&ea, &da, j.ctx)) {
         gs_poly_neg(&ea, &ea, j.ctx);
         gs_poly_neg(&em, &em, j.ctx);
+        flipped = 1;
     }
     CHECK_MSG(gs_poly_equal(&ea, &da, j.ctx), "%s det A", path);
     CHECK_MSG(gs_poly_equal(&em, &dm, j.ctx), "%s det M", path);
@@ -191,6 +334,17 @@ static void check_circuit(const char *path)
         for (v = 0; v < nv; v++)
             lv[v] = 0.5L + (long double)rnd(100000) / 7919.0L;
         check_dominant(&g, &da, j.c->s_sym, lv, path);
+        check_linear_vars(&g, &da, path);
+        /* at the circuit's own values, when it gives them all */
+        if (gs_job_bind(&j, NULL, 0, &d) == GS_OK && has_values(&j, &da)) {
+            /* the graph's D: the expansion with the graph's sign */
+            if (flipped)
+                gs_poly_neg(&da, &da, j.ctx);
+            memcpy(lv, j.vals, (size_t)nv * sizeof *lv);
+            gs_mgraph_fill_recips(lv, j.c->syms, nv);
+            check_nominal_order(&g, &da, j.c->s_sym, lv, path);
+            nominal_cases++;
+        }
         free(lv);
     }
     gs_poly_clear(&da);
@@ -396,11 +550,33 @@ int main(void)
         "tests/bench/miller_ota_rz.gsc", "tests/bench/rand_5.gsc",
         "tests/bench/rand_7.gsc", "tests/bench/ladder_RLC_5.gsc",
         "tests/bench/cs_degen.gsc", "tests/bench/engine/cs_chain_6.gsc",
-        NULL
+        "tests/bench/engine/miller_two_stage.gsc", NULL
     };
     int i;
     for (i = 0; files[i]; i++)
         check_circuit(files[i]);
+    {
+        /* an RC ladder of 8 sections with distinct values (the engine
+           bench's rc_ladder with fewer sections) */
+        char text[4096];
+        size_t at = 0;
+        at += (size_t)snprintf(text + at, sizeof text - at,
+                               "vsource vin n0 gnd\n");
+        for (i = 1; i <= 8; i++)
+            at += (size_t)snprintf(text + at, sizeof text - at,
+                                   "resistor R%d n%d n%d\n"
+                                   "capacitor C%d n%d gnd\n"
+                                   "value R%d = %gk\nvalue C%d = %gp\n",
+                                   i, i - 1, i, i, i, i, 1 + 0.13 * i, i,
+                                   1 + 0.07 * i);
+        snprintf(text + at, sizeof text - at,
+                 "transfer H = v(n8) / vin\n");
+        check_circuit_text("rc_ladder_8 (in the test)", text);
+    }
+    /* the circuits with values: examples, the CS chain with cgs, cgd,
+       cdb, the two-stage op-amp, the ladder above */
+    CHECK_MSG(nominal_cases >= 7, "%d circuits at their values",
+              nominal_cases);
     /* Fibonacci numbers F(n+1) (F(1) = F(2) = 1), a math fact; F(101)
        = 573147844013817084101 */
     check_fibonacci(5, "8");

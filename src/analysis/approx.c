@@ -39,10 +39,15 @@ void gs_approx_terms_init(gs_approx_terms *t)
     memset(t, 0, sizeof *t);
 }
 
+static void graph_coefs(long double **cn, int *dn, long double **cd,
+                        int *dd, const long double *vals, void *arg);
+
 void gs_approx_terms_clear(gs_approx_terms *t)
 {
     int w, k;
     size_t i;
+    if (t->coefs == graph_coefs)
+        free(t->coefs_arg);     /* the graph producer's, owned */
     for (w = 0; w < 2; w++) {
         for (k = 0; t->c[w] && k < t->ncoef[w]; k++) {
             for (i = 0; i < t->c[w][k].nterms; i++)
@@ -126,6 +131,113 @@ void gs_approx_terms_from_tf(gs_approx_terms *t, const gs_tf *tf,
     t->path = "exact expansion";
 }
 
+/* ---- terms from the graph of minors ---------------------------------- */
+
+typedef struct graph_arg {
+    const gs_mgraph *g;
+    int s_var, low;             /* low: the power of s common to N and D */
+} graph_arg;
+
+static void graph_coefs(long double **cn, int *dn, long double **cd,
+                        int *dd, const long double *vals, void *arg)
+{
+    const graph_arg *a = arg;
+    int k;
+    gs_mgraph_coeffs_ld(cn, dn, cd, dd, a->g, a->s_var, vals);
+    for (k = a->low; k <= *dn; k++)
+        (*cn)[k - a->low] = (*cn)[k];
+    for (k = a->low; k <= *dd; k++)
+        (*cd)[k - a->low] = (*cd)[k];
+    *dn = *dn >= a->low ? *dn - a->low : -1;
+    *dd = *dd >= a->low ? *dd - a->low : -1;
+}
+
+/* Coefficient c from the dominant terms of s^power of root, each term's
+   integer coefficient multiplied by mul and its s taken off. */
+static int fill_from_graph(gs_approx_coeff *c, const gs_mgraph *g,
+                           size_t root, int s_var, int power,
+                           const long double *vals, long double gen_tol,
+                           size_t max_terms, const gs_int *mul)
+{
+    const gs_polyctx *ctx = g->ctx;
+    gs_mgraph_terms mt;
+    unsigned *e = gs_calloc((size_t)ctx->nvars + 1, sizeof *e);
+    long double m = fabsl(gs_int_get_ld(mul));
+    gs_int cf;
+    size_t i;
+    int complete;
+    gs_mgraph_dominant(&mt, g, root, s_var, power, vals, gen_tol, max_terms);
+    gs_int_init(&cf);
+    c->nterms = mt.count;
+    c->terms = gs_calloc(mt.count ? mt.count : 1, sizeof *c->terms);
+    c->mag = gs_calloc(mt.count ? mt.count : 1, sizeof *c->mag);
+    for (i = 0; i < mt.count; i++) {
+        gs_poly_get_term_exps(e, &mt.term[i], 0, ctx);
+        e[s_var] = 0;
+        gs_int_mul(&cf, &mt.term[i].coeffs[0], mul);
+        gs_poly_init(&c->terms[i]);
+        gs_poly_set_term(&c->terms[i], &cf, e, ctx);
+        c->mag[i] = fabsl(mt.value[i]) * m;
+    }
+    /* the remainder is known exactly as a number, not as a sum of
+       magnitudes: |rest| stands for the bound (docs/approx.md) */
+    c->rest = mt.complete ? 0 : fabsl(mt.rest) * m;
+    complete = mt.complete;
+    gs_int_clear(&cf);
+    gs_mgraph_terms_clear(&mt);
+    free(e);
+    return complete;
+}
+
+void gs_approx_terms_from_graph(gs_approx_terms *t, const gs_mgraph *g,
+                                int s_var, const long double *vals,
+                                long double gen_tol,
+                                long double *const share[2],
+                                size_t max_terms)
+{
+    graph_arg *a = gs_calloc(1, sizeof *a);
+    long double *cn, *cd;
+    int dn, dd, w, k, low = 0, complete = 1;
+    gs_int mul[2];
+    gs_approx_terms_init(t);
+    gs_mgraph_coeffs_ld(&cn, &dn, &cd, &dd, g, s_var, vals);
+    while (low <= dn && low <= dd && cn[low] == 0 && cd[low] == 0)
+        low++;
+    a->g = g;
+    a->s_var = s_var;
+    a->low = low;
+    gs_int_init(&mul[0]);
+    gs_int_init(&mul[1]);
+    gs_int_set(&mul[0], &g->scale.num);
+    gs_int_set(&mul[1], &g->scale.den);
+    for (w = 0; w < 2; w++) {
+        int deg = (w ? dd : dn) - low;
+        size_t root = w ? g->root_d : g->root_n;
+        int n = deg < 0 ? 1 : deg + 1;
+        t->ncoef[w] = n;
+        t->c[w] = gs_calloc((size_t)n, sizeof *t->c[w]);
+        for (k = 0; k <= deg; k++) {
+            long double sh = share && share[w] ? share[w][k] : 1, tk;
+            tk = sh > 0 ? gen_tol / sh : 1;
+            complete &= fill_from_graph(&t->c[w][k], g, root, s_var,
+                                        k + low, vals, tk < 1 ? tk : 1,
+                                        max_terms, &mul[w]);
+        }
+        if (deg < 0) {
+            t->c[w][0].terms = gs_calloc(1, sizeof *t->c[w][0].terms);
+            t->c[w][0].mag = gs_calloc(1, sizeof *t->c[w][0].mag);
+        }
+    }
+    gs_int_clear(&mul[0]);
+    gs_int_clear(&mul[1]);
+    free(cn);
+    free(cd);
+    t->complete = complete;
+    t->path = "graph of minors";
+    t->coefs = graph_coefs;
+    t->coefs_arg = a;
+}
+
 /* ---- options and result --------------------------------------------- */
 
 void gs_approx_opts_default(gs_approx_opts *o)
@@ -186,6 +298,8 @@ typedef struct work {
     size_t *off[2];             /* offset of coefficient k's block */
     long double complex *ref;   /* np * ng reference values */
     int bad_ref;
+    long double *ex[2];         /* np * ncoef exact coefficients at each
+                                   point (t->coefs), else NULL */
 } work;
 
 static uint64_t lcg(uint64_t *st)
@@ -222,6 +336,9 @@ static void make_points(work *wk, gs_approx_result *r,
             int up = corners ? ((p - 1) >> i) & 1 : (int)(lcg(&st) & 1);
             x[sym[i]] = vals[sym[i]] * (up ? 1 + spread : 1 - spread);
         }
+        /* terms from the graph hold 1/R: it follows R */
+        if (wk->t->coefs)
+            gs_mgraph_fill_recips(x, wk->ctx->syms, nv);
     }
     free(sym);
 }
@@ -261,6 +378,50 @@ static long double coef(const work *wk, int w, int k, size_t m, int p)
         return 0;
     return wk->cum[w][wk->off[w][k] + (m - 1) * (size_t)wk->np
                       + (size_t)p];
+}
+
+/* The exact coefficient k of N or D at point p: from the producer when
+   the table is not every term, else the sum of every listed term. */
+static long double exact_coef(const work *wk, int w, int k, int p)
+{
+    if (wk->ex[w])
+        return wk->ex[w][(size_t)p * (size_t)wk->t->ncoef[w] + (size_t)k];
+    return coef(wk, w, k, wk->t->c[w][k].nterms, p);
+}
+
+static void make_exact(work *wk)
+{
+    int w, p, k;
+    if (!wk->t->coefs)
+        return;
+    for (w = 0; w < 2; w++)
+        wk->ex[w] = gs_calloc((size_t)wk->np * (size_t)wk->t->ncoef[w] + 1,
+                              sizeof *wk->ex[w]);
+    for (p = 0; p < wk->np; p++) {
+        long double *c[2];
+        int d[2];
+        wk->t->coefs(&c[0], &d[0], &c[1], &d[1],
+                     wk->pts + (size_t)p * (size_t)wk->ctx->nvars,
+                     wk->t->coefs_arg);
+        for (w = 0; w < 2; w++) {
+            for (k = 0; k <= d[w] && k < wk->t->ncoef[w]; k++)
+                wk->ex[w][(size_t)p * (size_t)wk->t->ncoef[w] + (size_t)k] =
+                    c[w][k];
+            free(c[w]);
+        }
+    }
+}
+
+/* The exact H at point p, from the exact coefficients. */
+static long double complex exact_h(const work *wk, int p, long double omega)
+{
+    long double complex s = gs_cmplxl(0, omega), nv = 0, dv = 0;
+    int k;
+    for (k = wk->t->ncoef[0] - 1; k >= 0; k--)
+        nv = nv * s + exact_coef(wk, 0, k, p);
+    for (k = wk->t->ncoef[1] - 1; k >= 0; k--)
+        dv = dv * s + exact_coef(wk, 1, k, p);
+    return nv / dv;
 }
 
 /* keep[w][k]: terms kept of each coefficient (0 drops the power). */
@@ -328,7 +489,7 @@ static int measure(errs *e, const work *wk, size_t *const keep[2],
    from a thirtieth of the smallest root to ten times the last frequency
    where |H| >= 1 when H has gain, else thirty times the largest root. */
 static void pick_band(long double *flo, long double *fhi, const work *wk,
-                      size_t *const full[2], const long double complex *rt,
+                      const long double complex *rt,
                       int nrt, const gs_approx_opts *o)
 {
     long double wmin = INFINITY, wmax = 0, lo, hi, f, unity = 0;
@@ -353,7 +514,7 @@ static void pick_band(long double *flo, long double *fhi, const work *wk,
     lo = wmin / (2 * PI_L) / 30;
     hi = wmax / (2 * PI_L) * 30;
     for (f = lo; f <= hi * 30; f *= 1.0471285480508996L)   /* 50/decade */
-        if (cabsl(eval_h(wk, full, 0, 2 * PI_L * f)) >= 1)
+        if (cabsl(exact_h(wk, 0, 2 * PI_L * f)) >= 1)
             unity = f;
     if (unity > 0 && unity < hi * 30)
         hi = 10 * unity;
@@ -400,8 +561,8 @@ static void drop_powers(size_t *keep, const work *wk, int w, long double eps)
             long double big = 0, mine = 0;
             int j;
             for (j = 0; j < n; j++) {
-                long double v = fabsl(coef(wk, w, j, wk->t->c[w][j].nterms,
-                                           0)) * powl(wk->w[g], j);
+                long double v = fabsl(exact_coef(wk, w, j, 0))
+                                * powl(wk->w[g], j);
                 if (v > big) big = v;
                 if (j == k) mine = v;
             }
@@ -534,8 +695,8 @@ static void dc_gain(gs_approx_result *r, const work *wk,
         cut(&md, cd, 1, eps);
         for (p = 0; p < wk->np; p++) {
             long double g = coef(wk, 0, kn, mn, p) / coef(wk, 1, kd, md, p);
-            long double x = coef(wk, 0, kn, cn->nterms, p)
-                            / coef(wk, 1, kd, cd->nterms, p);
+            long double x = exact_coef(wk, 0, kn, p)
+                            / exact_coef(wk, 1, kd, p);
             long double e = g / x > 0 ? fabsl(20 * log10l(g / x)) : INFINITY;
             if (g == x)
                 e = 0;
@@ -550,8 +711,7 @@ static void dc_gain(gs_approx_result *r, const work *wk,
     gs_reduce_ratio(&r->dcn, &r->dcd, wk->ctx->syms, wk->ctx, 1, NULL);
     r->dc_order = kn - kd;
     r->dc_value = coef(wk, 0, kn, mn, 0) / coef(wk, 1, kd, md, 0);
-    r->dc_exact = coef(wk, 0, kn, cn->nterms, 0)
-                  / coef(wk, 1, kd, cd->nterms, 0);
+    r->dc_exact = exact_coef(wk, 0, kn, 0) / exact_coef(wk, 1, kd, 0);
     r->dc_rel_error = r->dc_exact != 0
         ? fabsl((r->dc_value - r->dc_exact) / r->dc_exact) : 0;
 }
@@ -691,7 +851,7 @@ static void roots_of(gs_approx_result *r, const work *wk, int w,
     long double complex *rt = gs_calloc((size_t)n, sizeof *rt);
     gs_roots_info info;
     for (i = 0; i < n; i++)
-        a[i] = coef(wk, w, i, t->c[w][i].nterms, 0);
+        a[i] = exact_coef(wk, w, i, 0);
     while (deg > 0 && a[deg] == 0)
         deg--;
     if (deg < 1 || gs_roots(rt, NULL, a, deg, &info) == GS_EINVAL) {
@@ -809,6 +969,7 @@ int gs_approx_run_terms(gs_approx_result *r, const gs_approx_terms *t,
     gs_tf_init(&r->h, ctx, s_var);
     make_points(&wk, r, vals, used, s_var, o->spread);
     make_cum(&wk);
+    make_exact(&wk);
     for (w = 0; w < 2; w++) {
         size_t n = (size_t)t->ncoef[w];
         full[w] = gs_calloc(n, sizeof *full[w]);
@@ -828,7 +989,7 @@ int gs_approx_run_terms(gs_approx_result *r, const gs_approx_terms *t,
         long double *a = gs_calloc((size_t)n, sizeof *a);
         gs_roots_info info;
         for (i = 0; i < n; i++)
-            a[i] = coef(&wk, w, i, full[w][i], 0);
+            a[i] = exact_coef(&wk, w, i, 0);
         while (deg > 0 && a[deg] == 0)
             deg--;
         if (deg >= 1 && gs_roots(rt + nrt, NULL, a, deg, &info) != GS_EINVAL)
@@ -838,7 +999,7 @@ int gs_approx_run_terms(gs_approx_result *r, const gs_approx_terms *t,
     for (p = 0; p < wk.np; p++) {
         long double d0 = 0;
         for (i = 0; i < t->ncoef[1]; i++)
-            d0 += fabsl(coef(&wk, 1, i, full[1][i], p));
+            d0 += fabsl(exact_coef(&wk, 1, i, p));
         if (!(d0 > 0) || !isfinite(d0)) {
             gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL, "the denominator is "
                         "zero or not finite at %s",
@@ -849,7 +1010,7 @@ int gs_approx_run_terms(gs_approx_result *r, const gs_approx_terms *t,
         }
     }
     wk.ng = 1;
-    pick_band(&r->f_lo, &r->f_hi, &wk, full, rt, nrt, o);
+    pick_band(&r->f_lo, &r->f_hi, &wk, rt, nrt, o);
     decades = log10l(r->f_hi / r->f_lo);
     /* the slack keeps a whole number of decades from gaining a point
        through the last bit of log10l, which differs between builds */
@@ -864,7 +1025,9 @@ int gs_approx_run_terms(gs_approx_result *r, const gs_approx_terms *t,
     for (p = 0; p < wk.np; p++)
         for (g = 0; g < wk.ng; g++) {
             long double complex h;
-            if (t->ref) {
+            if (t->coefs) {
+                h = exact_h(&wk, p, wk.w[g]);
+            } else if (t->ref) {
                 if (t->ref(&h, gs_cmplxl(0, wk.w[g]), wk.pts + (size_t)p
                            * (size_t)ctx->nvars, t->ref_arg) != GS_OK)
                     h = NAN;
@@ -889,7 +1052,7 @@ int gs_approx_run_terms(gs_approx_result *r, const gs_approx_terms *t,
         for (w = 0; w < 2; w++)
             memcpy(prev[w], keep[w], (size_t)t->ncoef[w] * sizeof *keep[w]);
         ok = measure(&e, &wk, keep, o, 0);
-        if (i == RUNGS && t->complete && !t->ref)
+        if (i == RUNGS && t->complete && !t->ref && !t->coefs)
             ok = 1;             /* every term: the exact H itself */
         worst = e.db / (o->tol_db > 0 ? o->tol_db : 1e-30L);
         if (e.deg / (o->tol_deg > 0 ? o->tol_deg : 1e-30L) > worst)
@@ -948,11 +1111,101 @@ out:
         free(shortk[w]);
         free(wk.cum[w]);
         free(wk.off[w]);
+        free(wk.ex[w]);
     }
     free(rt);
     free(wk.pts);
     free(wk.w);
     free(wk.ref);
+    return rc;
+}
+
+/* The graph path (docs/approx.md).  A first run on one term per
+   coefficient finds the band; each power's largest share of its
+   polynomial over the band, from the exact coefficients, then sets how
+   far its terms are generated: to gen_tol / share of the coefficient,
+   gen_tol a quarter of the relative error the magnitude tolerance
+   allows, at most GRAPH_MAX_TERMS a coefficient.  When the tolerance is
+   not met with those terms and no coefficient reached the cap, once more
+   with gen_tol / 100. */
+#define GRAPH_MAX_TERMS 2000
+#define GRAPH_MIN_TOL 1e-12L
+
+/* share[k] = max over the band of |a_k| w^k / max_j |a_j| w^j. */
+static long double *shares(const long double *a, int deg, long double flo,
+                           long double fhi)
+{
+    long double *sh = gs_calloc((size_t)(deg >= 0 ? deg + 1 : 1),
+                                sizeof *sh);
+    int n = (int)ceill(log10l(fhi / flo) * 50) + 1, g, k;
+    for (g = 0; g < n && deg >= 0; g++) {
+        long double w = 2 * PI_L * flo
+                        * powl(fhi / flo, g / (long double)(n > 1 ? n - 1 : 1));
+        long double big = 0, v;
+        for (k = 0; k <= deg; k++)
+            if ((v = fabsl(a[k]) * powl(w, k)) > big)
+                big = v;
+        for (k = 0; k <= deg && big > 0; k++)
+            if ((v = fabsl(a[k]) * powl(w, k) / big) > sh[k])
+                sh[k] = v;
+    }
+    return sh;
+}
+
+/* 1 when a coefficient stopped at GRAPH_MAX_TERMS: a finer gen_tol would
+   only list the others further, at the cost of another search. */
+static int capped(const gs_approx_terms *t)
+{
+    int w, k;
+    for (w = 0; w < 2; w++)
+        for (k = 0; k < t->ncoef[w]; k++)
+            if (t->c[w][k].nterms >= GRAPH_MAX_TERMS)
+                return 1;
+    return 0;
+}
+
+static int run_graph(gs_approx_result *r, const gs_job *j, size_t i,
+                     const unsigned char *used, const gs_approx_opts *o,
+                     gs_diag *d)
+{
+    const gs_mgraph *g = j->graph[i];
+    int nv = j->ctx->nvars, rc, round, s_var = j->tf[i].s_var;
+    long double *vals = gs_calloc((size_t)nv + 1, sizeof *vals);
+    long double *share[2] = {NULL, NULL}, gen_tol;
+    gs_approx_terms t;
+    memcpy(vals, j->vals, (size_t)nv * sizeof *vals);
+    gs_mgraph_fill_recips(vals, j->c->syms, nv);
+    /* the band, from a table of one term per coefficient */
+    gs_approx_terms_from_graph(&t, g, s_var, vals, 1, NULL, 1);
+    rc = gs_approx_run_terms(r, &t, j->ctx, s_var, vals, used, o, d);
+    if (rc == GS_OK && !t.complete) {
+        long double *c[2];
+        int deg[2], w;
+        t.coefs(&c[0], &deg[0], &c[1], &deg[1], vals, t.coefs_arg);
+        for (w = 0; w < 2; w++) {
+            share[w] = shares(c[w], deg[w], r->f_lo, r->f_hi);
+            free(c[w]);
+        }
+        gen_tol = (powl(10, o->tol_db / 20) - 1) / 4;
+        if (gen_tol < GRAPH_MIN_TOL)
+            gen_tol = GRAPH_MIN_TOL;
+        for (round = 0; round < 2; round++) {
+            gs_approx_terms_clear(&t);
+            gs_approx_result_clear(r);
+            gs_approx_terms_from_graph(&t, g, s_var, vals, gen_tol, share,
+                                       GRAPH_MAX_TERMS);
+            rc = gs_approx_run_terms(r, &t, j->ctx, s_var, vals, used, o,
+                                     d);
+            r->gen_tol = gen_tol;
+            if (rc != GS_OK || r->met || t.complete || capped(&t))
+                break;
+            gen_tol /= 100;
+        }
+    }
+    gs_approx_terms_clear(&t);
+    free(share[0]);
+    free(share[1]);
+    free(vals);
     return rc;
 }
 
@@ -962,9 +1215,14 @@ int gs_approx_run(gs_approx_result *r, const gs_job *j, size_t i,
     gs_approx_terms t;
     unsigned char *used = gs_job_used_symbols(j);
     int rc;
-    gs_approx_terms_from_tf(&t, &j->tf[i], j->vals);
-    rc = gs_approx_run_terms(r, &t, j->ctx, j->tf[i].s_var, j->vals, used,
-                             o, d);
+    if (j->graph && j->graph[i]) {
+        rc = run_graph(r, j, i, used, o, d);
+        gs_approx_terms_init(&t);
+    } else {
+        gs_approx_terms_from_tf(&t, &j->tf[i], j->vals);
+        rc = gs_approx_run_terms(r, &t, j->ctx, j->tf[i].s_var, j->vals,
+                                 used, o, d);
+    }
     gs_tf_set_name(&r->h, j->tf[i].name);
     gs_tf_set_description(&r->h, j->tf[i].description);
     r->h.kind = j->tf[i].kind;

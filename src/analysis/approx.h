@@ -20,8 +20,10 @@
  * power of s, the terms largest first at the nominal point, with a bound
  * on the magnitude of the terms that are not listed.  Today the table is
  * filled from the exact expansion (gs_approx_terms_from_tf, every term
- * present, bound 0); an engine that produces dominant terms without
- * expanding can fill the same table and give a numeric reference H.
+ * present, bound 0) or, when the expansion is over its budget, from the
+ * dominant terms of the graph of minors (gs_approx_terms_from_graph),
+ * which also gives the exact numeric coefficients of N and D at every
+ * sample point, the reference for the errors.
  */
 #ifndef GS_APPROX_H
 #define GS_APPROX_H
@@ -31,6 +33,7 @@
 
 #include "algebra/poly.h"
 #include "analysis/job.h"
+#include "analysis/mgraph.h"
 #include "analysis/tf.h"
 #include "base/diag.h"
 
@@ -53,6 +56,13 @@ typedef int (*gs_approx_ref_fn)(long double complex *h,
                                 long double complex s,
                                 const long double *vals, void *arg);
 
+/* The exact numeric coefficients of N and D at vals (one per variable of
+   the context): new arrays cn[0 .. *dn], cd[0 .. *dd], ascending powers,
+   the caller frees them.  Their ratio is the exact H. */
+typedef void (*gs_approx_coefs_fn)(long double **cn, int *dn,
+                                   long double **cd, int *dd,
+                                   const long double *vals, void *arg);
+
 typedef struct gs_approx_terms {
     int ncoef[2];           /* [0] N, [1] D: powers 0 .. ncoef - 1 */
     gs_approx_coeff *c[2];  /* c[0][k] of N, c[1][k] of D */
@@ -61,6 +71,10 @@ typedef struct gs_approx_terms {
     gs_approx_ref_fn ref;   /* NULL: the listed terms are the reference
                                (only when complete) */
     void *ref_arg;
+    gs_approx_coefs_fn coefs;   /* NULL: the listed terms are exact; else
+                                   the exact coefficients (and from them
+                                   the reference H, ahead of ref) */
+    void *coefs_arg;
 } gs_approx_terms;
 
 void gs_approx_terms_init(gs_approx_terms *t);
@@ -69,6 +83,22 @@ void gs_approx_terms_clear(gs_approx_terms *t);
    symbol of tf->ctx).  Every term is listed; path "exact expansion". */
 void gs_approx_terms_from_tf(gs_approx_terms *t, const gs_tf *tf,
                              const long double *vals);
+
+/* Fill t from the graph of minors g (mgraph.h) at vals (one per variable
+   of g's context, reciprocal symbols included, gs_mgraph_fill_recips):
+   per power k of s of N and D the dominant terms, best first, until the
+   remainder is within gen_tol / share[w][k] of the coefficient (share:
+   its largest share of the polynomial over the band, NULL for 1; a
+   power that matters little needs fewer terms) or max_terms (0: no
+   limit) are kept; coefs gives the exact coefficients from one pass over
+   g.  H = scale N / D is kept by multiplying N's terms by scale's
+   numerator and D's by its denominator; a power of s common to N and D
+   is divided out.  Path "graph of minors".  g must outlive t. */
+void gs_approx_terms_from_graph(gs_approx_terms *t, const gs_mgraph *g,
+                                int s_var, const long double *vals,
+                                long double gen_tol,
+                                long double *const share[2],
+                                size_t max_terms);
 
 /* ---- Options and result -------------------------------------------- */
 
@@ -124,6 +154,8 @@ typedef struct gs_approx_result {
     long double eps;        /* the relative size below which terms went */
     size_t terms_exact, terms_kept;
     const char *path;       /* from the terms table */
+    long double gen_tol;    /* graph path: each coefficient's terms were
+                               generated to this remainder; 0 exact */
     /* low-frequency gain ~ (dcn/dcd) s^dc_order */
     gs_poly dcn, dcd;
     int dc_order;

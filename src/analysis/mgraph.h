@@ -107,19 +107,32 @@ void gs_mgraph_fill_recips(long double *vals, const gs_symtab *st,
    exact largest completion, as in the k-shortest-path generation of Tan
    and Shi, "Efficient approximation of symbolic expressions for analog
    behavioral modeling and analysis", IEEE TCAD 23(4), 2004); paths with
-   the same monomial are merged to their exact coefficient. */
+   the same monomial are merged to their exact coefficient, and paths that
+   take a variable of gs_mgraph_linear_vars twice are never taken (they
+   cancel exactly). */
 typedef struct gs_mgraph_terms {
     int power;              /* of s */
     size_t count;
     gs_poly *term;          /* count single-term polynomials (exact, each
                                monomial once; zero sums dropped), in
-                               decreasing |value| */
+                               decreasing |value|; equal values by their
+                               exponent vectors, compared variable by
+                               variable in the context's order, the
+                               larger exponent first */
     long double *value;     /* each term's value at vals */
     long double total;      /* the coefficient of s^power of the root at
                                vals (before scale), from the numeric pass */
     long double rest;       /* total - sum of the kept values */
     int complete;           /* 1: every path was taken (rest is rounding) */
 } gs_mgraph_terms;
+
+/* lin[v] = 1 (v < nvars) when the root's polynomial has degree at most 1
+   in variable v by the rank-one rule of mgraph_terms.c: every entry of
+   the root's matrix is of degree <= 1 in v and the matrix of v's
+   coefficients has rank <= 1 (for N, c0 is also free of v).  The
+   dominant-term search drops every path that takes such a v twice. */
+void gs_mgraph_linear_vars(unsigned char *lin, const gs_mgraph *g,
+                           size_t root);
 
 /* Terms of s^power in `root` until |rest| <= tol * |total| (or all
    of them), at most max_terms (0: no limit) kept, with tol >= 0.  The

@@ -159,11 +159,19 @@ int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
                         "shown\n", j.tf[i].name);
                 unmet = 1;
             }
-            if (gs_cli_has(&cl, "stats"))
+            if (gs_cli_has(&cl, "stats")) {
                 fprintf(err, "approx %s: path=%s terms_exact=%zu "
-                        "terms_kept=%zu eps=%.3Lg points=%d spread_points=%d"
-                        "\n", j.tf[i].name, r.path, r.terms_exact,
-                        r.terms_kept, r.eps, r.npoints, r.nspread);
+                        "terms_kept=%zu eps=%.3Lg points=%d spread_points=%d",
+                        j.tf[i].name, r.path, r.terms_exact, r.terms_kept,
+                        r.eps, r.npoints, r.nspread);
+                /* the graph path: terms listed, how far generated, the
+                   graph's size */
+                if (j.graph && j.graph[i])
+                    fprintf(err, " gen_tol=%.3Lg graph_nodes=%zu "
+                            "graph_edges=%zu", r.gen_tol,
+                            j.graph[i]->nnodes, j.graph[i]->nedges);
+                fputc('\n', err);
+            }
         }
         gs_approx_result_clear(&r);
         gs_diag_clear(&d);

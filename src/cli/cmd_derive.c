@@ -130,7 +130,7 @@ static int adhoc_transfer(gs_job *j, const gs_cli *cl, const char *cmd,
 static int numbers_only(const char *cmd)
 {
     static const char *const numeric[] = {"eval", "poles", "bode", "step",
-                                          "check"};
+                                          "check", "approx"};
     size_t i;
     for (i = 0; i < sizeof numeric / sizeof numeric[0]; i++)
         if (strcmp(cmd, numeric[i]) == 0)
@@ -183,8 +183,9 @@ int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
     if (rc == GS_OK)
         rc = adhoc_transfer(j, cl, cmd, &d, err, &status);
     /* The numeric commands can take their numbers from the graph of
-       minors when the expansion is over budget; derive and the symbolic
-       analyses (approx, sens, noise, report) need the expanded N and D. */
+       minors when the expansion is over budget, and approx its dominant
+       terms; derive and the other symbolic analyses (sens, noise, report)
+       need the expanded N and D. */
     j->graph_ok = numbers_only(cmd);
     if (rc == GS_OK) {
         o.limits = limits;

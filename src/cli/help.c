@@ -304,6 +304,9 @@ static const char approx_text[] =
 "complex pair) or exact from a short factor of N or D in s, compared with\n"
 "the exact root, and the conditions the dropped terms rest on.\n"
 "par(a, b) = a*b/(a + b).  See docs/approx.md.\n"
+"When the expansion is over its budget (or --max-terms), the terms are\n"
+"the dominant ones generated from the graph of minors and the errors are\n"
+"measured against its exact numbers.\n"
 "The errors are measured near the nominal point: no substitute for\n"
 "simulation across corners.\n"
 "\n"
@@ -314,12 +317,13 @@ static const char approx_text[] =
 "  --only NAME          one output\n"
 "  --set SYM=VALUE      override a value (repeatable)\n"
 "  --format F           text (default), pretty, latex or json\n"
-"  --max-terms N        refuse a circuit whose expansion exceeds N terms\n"
-"  --stats              which path ran, terms, grid, on standard error\n"
+"  --max-terms N        expand at most N terms a minor; past it, the graph\n"
+"  --stats              which path ran (exact expansion or graph of\n"
+"                       minors), terms, grid, on standard error\n"
 "  --help               this text\n"
 "\n"
-"Exit status 1 when the tolerance cannot be met (the best form is shown)\n"
-"or the budget is exceeded; 2 for bad input or an unbound symbol.\n";
+"Exit status 1 when the tolerance cannot be met (the best form is shown);\n"
+"2 for bad input or an unbound symbol.\n";
 
 const char *gs_cmd_help_text(const char *command)
 {

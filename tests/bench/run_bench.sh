@@ -12,7 +12,8 @@
 #   ...the lines of every BUILD/bench/bench_* program and of the sympy
 #   benchmark scripts, passed through...
 #   bench engine-NAME graph_nodes=N graph_edges=E build_seconds=B
-#         bode_1k_seconds=T paths_D=P peak_kib=K   (bench_engine.c)
+#         bode_1k_seconds=T paths_D=P ... approx_seconds=A approx_err_db=E
+#         ... peak_kib=K   (bench_engine.c)
 #   bench engine-order-NAME greedy=N/E/S natural=N/E/S sparse=N/E/S
 #   bench goal KEY=yes|no ...
 #   bench load loadavg_1min=L
