@@ -524,6 +524,8 @@ static void test_examples_honest(void)
             }
         gs_job_clear(&j);
     }
+}
+
 /* The worst |dB| and |degrees| of r's short form against the independent
    numeric solve of the circuit (numsolve.c: its own stamps, LU) on a grid
    three times as dense as r's, at the nominal values. */
