@@ -157,7 +157,8 @@ static void graph_coefs(long double **cn, int *dn, long double **cd,
 static int fill_from_graph(gs_approx_coeff *c, const gs_mgraph *g,
                            size_t root, int s_var, int power,
                            const long double *vals, long double gen_tol,
-                           size_t max_terms, const gs_int *mul)
+                           size_t max_terms, const gs_int *mul,
+                           int *overflow)
 {
     const gs_polyctx *ctx = g->ctx;
     gs_mgraph_terms mt;
@@ -167,6 +168,8 @@ static int fill_from_graph(gs_approx_coeff *c, const gs_mgraph *g,
     size_t i;
     int complete;
     gs_mgraph_dominant(&mt, g, root, s_var, power, vals, gen_tol, max_terms);
+    if (mt.overflow && !*overflow)
+        *overflow = mt.overflow;
     gs_int_init(&cf);
     c->nterms = mt.count;
     c->terms = gs_calloc(mt.count ? mt.count : 1, sizeof *c->terms);
@@ -221,7 +224,7 @@ void gs_approx_terms_from_graph(gs_approx_terms *t, const gs_mgraph *g,
             tk = sh > 0 ? gen_tol / sh : 1;
             complete &= fill_from_graph(&t->c[w][k], g, root, s_var,
                                         k + low, vals, tk < 1 ? tk : 1,
-                                        max_terms, &mul[w]);
+                                        max_terms, &mul[w], &t->overflow);
         }
         if (deg < 0) {
             t->c[w][0].terms = gs_calloc(1, sizeof *t->c[w][0].terms);
@@ -1164,6 +1167,21 @@ static int capped(const gs_approx_terms *t)
     return 0;
 }
 
+/* A term of the graph whose power of a symbol no polynomial holds:
+   GS_ERANGE with the symbol named, as the expansion reports it. */
+static int graph_overflow(const gs_approx_terms *t, const gs_job *j,
+                          gs_diag *d)
+{
+    gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                "lower the powers in the element values, or bind the "
+                "symbol to a number",
+                "exponent overflow in the dominant terms of the graph of "
+                "minors: the power of '%s' would exceed %d",
+                gs_symtab_name(j->ctx->syms, t->overflow - 1),
+                GS_POLY_MAX_EXP);
+    return GS_ERANGE;
+}
+
 static int run_graph(gs_approx_result *r, const gs_job *j, size_t i,
                      const unsigned char *used, const gs_approx_opts *o,
                      gs_diag *d)
@@ -1177,7 +1195,9 @@ static int run_graph(gs_approx_result *r, const gs_job *j, size_t i,
     gs_mgraph_fill_recips(vals, j->c->syms, nv);
     /* the band, from a table of one term per coefficient */
     gs_approx_terms_from_graph(&t, g, s_var, vals, 1, NULL, 1);
-    rc = gs_approx_run_terms(r, &t, j->ctx, s_var, vals, used, o, d);
+    rc = t.overflow ? graph_overflow(&t, j, d)
+                    : gs_approx_run_terms(r, &t, j->ctx, s_var, vals, used,
+                                          o, d);
     if (rc == GS_OK && !t.complete) {
         long double *c[2];
         int deg[2], w;
@@ -1194,8 +1214,9 @@ static int run_graph(gs_approx_result *r, const gs_job *j, size_t i,
             gs_approx_result_clear(r);
             gs_approx_terms_from_graph(&t, g, s_var, vals, gen_tol, share,
                                        GRAPH_MAX_TERMS);
-            rc = gs_approx_run_terms(r, &t, j->ctx, s_var, vals, used, o,
-                                     d);
+            rc = t.overflow ? graph_overflow(&t, j, d)
+                            : gs_approx_run_terms(r, &t, j->ctx, s_var, vals,
+                                                  used, o, d);
             r->gen_tol = gen_tol;
             if (rc != GS_OK || r->met || t.complete || capped(&t))
                 break;

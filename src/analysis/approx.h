@@ -75,6 +75,9 @@ typedef struct gs_approx_terms {
                                    the exact coefficients (and from them
                                    the reference H, ahead of ref) */
     void *coefs_arg;
+    int overflow;           /* 0; or 1 + a symbol whose power in a term of
+                               the graph passes GS_POLY_MAX_EXP (that
+                               coefficient's terms are missing) */
 } gs_approx_terms;
 
 void gs_approx_terms_init(gs_approx_terms *t);

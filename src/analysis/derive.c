@@ -242,7 +242,10 @@ static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
             mo.max_products = 0;
         rc = gs_minors_bordered(det_a, det_m, m, ctx, &mo, &stats->minors,
                                 d);
-        if (rc != GS_ERANGE && rc != GS_ESINGULAR) {
+        /* an exponent overflow would overflow elimination too: it is
+           reported, not retried */
+        if ((rc != GS_ERANGE && rc != GS_ESINGULAR)
+            || stats->minors.exp_overflow) {
             stats->method = GS_DET_MINORS;
             return rc;
         }

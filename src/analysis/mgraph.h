@@ -124,6 +124,9 @@ typedef struct gs_mgraph_terms {
                                vals (before scale), from the numeric pass */
     long double rest;       /* total - sum of the kept values */
     int complete;           /* 1: every path was taken (rest is rounding) */
+    int overflow;           /* 0; or 1 + a symbol whose power in a term
+                               passes GS_POLY_MAX_EXP: the search stopped
+                               there and count is 0 */
 } gs_mgraph_terms;
 
 /* lin[v] = 1 (v < nvars) when the root's polynomial has degree at most 1

@@ -530,14 +530,13 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
         if (s.node == 0) {
             /* a complete path: its monomial and coefficient */
             size_t p = id, m;
-            int neg = 0;
+            int neg = 0, w;
             memset(acc, 0, (size_t)nv * sizeof *acc);
             gs_int_set_si(&c, 1);
             for (; q.st[p].parent != NONE; p = q.st[p].parent) {
                 const state *x = &q.st[q.st[p].parent];
                 uint32_t ed = q.st[p].edge, tm = q.st[p].term;
                 const gs_poly *en = &g->entries[g->entry[ed]];
-                int w;
                 (void)x;
                 gs_poly_get_term_exps(ex, en, tm, ctx);
                 for (w = 0; w < nv; w++)
@@ -547,6 +546,11 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
             }
             if (neg)
                 gs_int_neg(&c, &c);
+            for (w = 0; w < nv && !t->overflow; w++)
+                if (acc[w] > GS_POLY_MAX_EXP)
+                    t->overflow = w + 1;
+            if (t->overflow)
+                break;      /* a term no polynomial can hold */
             if (2 * (nk + 1) > ix.cap)
                 index_grow(&ix, k, nk, nv);
             m = index_find(&slot, &ix, k, nk, acc, nv);
@@ -640,7 +644,10 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
             }
         }
     }
-    t->complete = q.nheap == 0;
+    t->complete = q.nheap == 0 && !t->overflow;
+    /* on overflow no term is kept: the caller reports, nothing to print */
+    for (i = 0; t->overflow && i < nk; i++)
+        gs_int_set_si(&k[i].coef, 0);
     /* zero sums dropped, the rest in decreasing |value| */
     for (i = 0, v = 0; i < nk; i++) {
         if (gs_int_is_zero(&k[i].coef)) {

@@ -275,18 +275,55 @@ typedef struct watch {
     size_t big, alive, bytes;
     size_t max_terms, max_alive, max_bytes;    /* 0: unlimited */
     double work, max_work;  /* term pairs x words (elim.h's rule) */
+    int overflow_var;       /* a symbol whose power would not fit, or -1 */
 } watch;
 
 static int over(const watch *w)
 {
-    return (w->max_terms && w->big > w->max_terms)
+    return w->overflow_var >= 0
+           || (w->max_terms && w->big > w->max_terms)
            || (w->max_alive && w->alive > w->max_alive)
            || (w->max_bytes && w->bytes > w->max_bytes)
            || (w->max_work > 0 && w->work > w->max_work);
 }
 
+/* Does every product of a row entry and a minor of the level below fit
+   the exponent fields?  A cheap bound first: the row's highest powers plus
+   the level's, one pass over each.  Only when that bound fails is each
+   product checked on its own (in eval_level), so a circuit whose powers
+   come near the limit without passing it is never refused. */
+static int level_fits(const view *v, int r, const gs_poly *next,
+                      size_t count, const gs_polyctx *ctx)
+{
+    size_t nv = (size_t)ctx->nvars + 1, i;
+    unsigned *top = gs_calloc(nv, sizeof *top);
+    unsigned *deg = gs_calloc(nv, sizeof *deg);
+    unsigned *row = gs_calloc(nv, sizeof *row);
+    int j, var, ok = 1;
+    for (j = 0; j <= v->n; j++) {
+        gs_poly_degrees(deg, v->x[(size_t)r * ((size_t)v->n + 1)
+                                  + (size_t)j], ctx);
+        for (var = 0; var < ctx->nvars; var++)
+            if (deg[var] > row[var])
+                row[var] = deg[var];
+    }
+    for (i = 0; i < count; i++) {
+        gs_poly_degrees(deg, &next[i], ctx);
+        for (var = 0; var < ctx->nvars; var++)
+            if (deg[var] > top[var])
+                top[var] = deg[var];
+    }
+    for (var = 0; var < ctx->nvars && ok; var++)
+        ok = top[var] + row[var] <= GS_POLY_MAX_EXP;
+    free(top);
+    free(deg);
+    free(row);
+    return ok;
+}
+
 /* Values of level k from those of level k + 1, vals[0 .. count-1] all
-   initialised; stops early (the rest zero) once a size in w is over. */
+   initialised; stops early (the rest zero) once a size in w is over, or
+   a product would overflow an exponent (w->overflow_var). */
 static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
                        const gs_poly *next, watch *w, const gs_polyctx *ctx)
 {
@@ -294,10 +331,11 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
     const gs_poly *ea[GS_MINORS_MAX_UNKNOWNS + 1];
     const gs_poly *mb[GS_MINORS_MAX_UNKNOWNS + 1];
     int neg[GS_MINORS_MAX_UNKNOWNS + 1];
-    int r = p->order[k];
+    int r = p->order[k], fits;
     size_t i;
     for (i = 0; i < lv->count; i++)
         gs_poly_init(&vals[i]);
+    fits = level_fits(v, r, next, below->count, ctx);
     for (i = 0; i < below->count; i++) {
         w->alive += next[i].length;
         if (w->max_bytes)
@@ -317,9 +355,13 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
             mb[np] = &next[at];
             neg[np++] = __builtin_popcountll(S & (bit - 1)) & 1;
         }
-        for (k2 = 0; k2 < np; k2++)
+        for (k2 = 0; k2 < np; k2++) {
             w->work += (double)ea[k2]->length * (double)mb[k2]->length
                        * ctx->nwords;
+            if (!fits && !gs_poly_mul_fits(&w->overflow_var, ea[k2],
+                                           mb[k2], ctx))
+                break;
+        }
         if (over(w))
             break;          /* before the work is done */
         gs_poly_sum_of_products(acc, ea, mb, neg, np, ctx);
@@ -329,6 +371,17 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
         if (acc->length > w->big)
             w->big = acc->length;
     }
+}
+
+static void report_overflow(gs_diag *d, const gs_polyctx *ctx, int var,
+                            int level, int n)
+{
+    gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                "lower the powers in the element values, or bind the "
+                "symbol to a number",
+                "exponent overflow at expansion level %d of %d: the power "
+                "of '%s' would exceed %d", level, n,
+                gs_symtab_name(ctx->syms, var), GS_POLY_MAX_EXP);
 }
 
 static void report_budget(gs_diag *d, const watch *w, int level, int n)
@@ -376,6 +429,7 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
     w.max_bytes = o->max_bytes;
     w.work = 0;
     w.max_work = (double)o->max_terms * GS_WORK_PER_TERM;
+    w.overflow_var = -1;
     next = gs_malloc((p->lv[n].count ? p->lv[n].count : 1) * sizeof *next);
     if (p->lv[n].count) {
         gs_poly_init(&next[0]);
@@ -396,8 +450,13 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
         if (over(&w)) {
             if (o->progress)
                 fputc('\n', o->progress);
-            report_budget(d, &w, n - k, n);
             free_values(next, p->lv[k].count);
+            if (w.overflow_var >= 0) {
+                report_overflow(d, ctx, w.overflow_var, n - k, n);
+                st->exp_overflow = 1;
+                return GS_ERANGE;
+            }
+            report_budget(d, &w, n - k, n);
             return GS_EBUDGET;
         }
     }
@@ -407,14 +466,22 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
     return GS_OK;
 }
 
-/* det A and det M from level 0's values. */
-static void assemble(gs_poly *det_a, gs_poly *det_m, const plan *p,
-                     const view *v, gs_poly *top, const gs_polyctx *ctx)
+/* det A and det M from level 0's values; 0, or 1 + the symbol whose
+   power in a product of the border would overflow (nothing assembled). */
+static int assemble(gs_poly *det_a, gs_poly *det_m, const plan *p,
+                    const view *v, gs_poly *top, const gs_polyctx *ctx)
 {
-    int n = v->n, j;
+    int n = v->n, j, var = 0;
     uint64_t full = (1ull << n << 1) - 1;
     gs_poly t;
     size_t at = maskset_find(&p->lv[0], full & ~(1ull << n));
+    for (j = 0; j <= n; j++) {
+        size_t aj = j == n ? at : maskset_find(&p->lv[0],
+                                               full & ~(1ull << j));
+        if (aj != NOT_FOUND && !gs_poly_mul_fits(&var, v->top[j], &top[aj],
+                                                 ctx))
+            return var + 1;
+    }
     gs_poly_zero(det_a);
     if (at != NOT_FOUND)
         gs_poly_swap(det_a, &top[at]);
@@ -433,6 +500,7 @@ static void assemble(gs_poly *det_a, gs_poly *det_m, const plan *p,
             gs_poly_add(det_m, det_m, &t, ctx);
     }
     gs_poly_clear(&t);
+    return 0;
 }
 
 void gs_minors_opts_default(gs_minors_opts *o)
@@ -476,9 +544,13 @@ int gs_minors_bordered(gs_poly *det_a, gs_poly *det_m, const gs_mna *m,
         stats->transposed = pick;
         rc[pick] = evaluate(&top, &p[pick], &v[pick], ctx, o, stats, d);
         if (rc[pick] == GS_OK) {
-            assemble(det_a, det_m, &p[pick], &v[pick], top, ctx);
+            int bad = assemble(det_a, det_m, &p[pick], &v[pick], top, ctx);
             free_values(top, p[pick].lv[0].count);
-            if (gs_poly_is_zero(det_a))
+            if (bad) {
+                report_overflow(d, ctx, bad - 1, n, n);
+                stats->exp_overflow = 1;
+                rc[pick] = GS_ERANGE;
+            } else if (gs_poly_is_zero(det_a))
                 rc[pick] = GS_ESINGULAR;
         }
     }

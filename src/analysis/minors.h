@@ -56,6 +56,8 @@ typedef struct gs_minors_stats {
     size_t products;      /* entry x minor products of the plan */
     size_t max_minor_terms;
     int transposed;       /* 1: expanded along the columns of A */
+    int exp_overflow;     /* 1: the GS_ERANGE returned is an exponent
+                             overflow, with its message in d */
 } gs_minors_stats;
 
 /* Defaults: no term budget, at most 200000 products, no progress. */
@@ -68,8 +70,10 @@ void gs_minors_opts_default(gs_minors_opts *o);
    caller eliminates instead); GS_ESINGULAR, with no message, when
    det A = 0 (elimination can say which unknowns are undetermined);
    GS_EBUDGET, with a message in d, when a minor outgrew o->max_terms or
-   the minors kept at once GS_MINORS_KEPT_FACTOR times that.
-   stats may be NULL. */
+   the minors kept at once GS_MINORS_KEPT_FACTOR times that; GS_ERANGE
+   with a message in d and stats->exp_overflow set when a power of a
+   symbol would pass GS_POLY_MAX_EXP (checked before each product, so
+   never an assert).  stats may be NULL. */
 int gs_minors_bordered(gs_poly *det_a, gs_poly *det_m, const gs_mna *m,
                        const gs_polyctx *ctx, const gs_minors_opts *o,
                        gs_minors_stats *stats, gs_diag *d);

@@ -1,0 +1,67 @@
+# A divider chain of 60 resistors of value R^640 under a term budget:
+# the expansion in minors is tried first and its powers outgrow the
+# exponent field; that is reported, not handed on to elimination.
+title "Chain of high powers"
+vsource vin n0 gnd
+resistor R0 n0 n1 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R1 n1 n2 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R2 n2 n3 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R3 n3 n4 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R4 n4 n5 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R5 n5 n6 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R6 n6 n7 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R7 n7 n8 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R8 n8 n9 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R9 n9 n10 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R10 n10 n11 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R11 n11 n12 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R12 n12 n13 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R13 n13 n14 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R14 n14 n15 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R15 n15 n16 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R16 n16 n17 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R17 n17 n18 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R18 n18 n19 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R19 n19 n20 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R20 n20 n21 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R21 n21 n22 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R22 n22 n23 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R23 n23 n24 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R24 n24 n25 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R25 n25 n26 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R26 n26 n27 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R27 n27 n28 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R28 n28 n29 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R29 n29 n30 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R30 n30 n31 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R31 n31 n32 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R32 n32 n33 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R33 n33 n34 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R34 n34 n35 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R35 n35 n36 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R36 n36 n37 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R37 n37 n38 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R38 n38 n39 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R39 n39 n40 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R40 n40 n41 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R41 n41 n42 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R42 n42 n43 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R43 n43 n44 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R44 n44 n45 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R45 n45 n46 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R46 n46 n47 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R47 n47 n48 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R48 n48 n49 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R49 n49 n50 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R50 n50 n51 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R51 n51 n52 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R52 n52 n53 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R53 n53 n54 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R54 n54 n55 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R55 n55 n56 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R56 n56 n57 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R57 n57 n58 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R58 n58 n59 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor R59 n59 n60 = R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64*R^64
+resistor RL n60 gnd = R
+transfer Av = v(n60) / vin
