@@ -50,7 +50,23 @@ int gs_cmd_load_and_derive(struct gs_job *j, const struct gs_cli *cl,
 int gs_cmd_bind(struct gs_job *j, const struct gs_cli *cl, FILE *err);
 
 /* The manual text of `extract` (cmd_extract.c). */
+extern const char gs_cmd_extract_help_text[];
 const char *gs_cmd_extract_help(void);
+
+/* One command of the table in help.c, the single list of commands. */
+typedef struct gs_cmd_entry {
+    const char *name;       /* "derive" */
+    const char *summary;    /* its line in the overview */
+    int (*run)(int argc, char **argv, FILE *out, FILE *err);
+    const char *help;       /* its manual text (gainsmith help NAME) */
+} gs_cmd_entry;
+
+/* The table and its length in *n, in the order the overview lists it. */
+const gs_cmd_entry *gs_cmd_table(size_t *n);
+/* The entry of name, or NULL when there is no such command (or NULL). */
+const gs_cmd_entry *gs_cmd_find(const char *name);
+/* The overview (gainsmith help): usage, the table's commands, help. */
+void gs_cmd_print_overview(FILE *out);
 
 /* The manual text of a command ("derive"), or NULL when unknown. */
 const char *gs_cmd_help_text(const char *command);

@@ -27,7 +27,7 @@ static gs_numtext fmt(long double v, gs_quantity q)
 
 #define WORD (-1)           /* an option whose value is a keyword */
 
-static const char help_text[] =
+const char gs_cmd_extract_help_text[] =
 "usage: gainsmith extract mos --id=I --gm=G [--gds=G | --lambda=L] [--vds=V]\n"
 "                             [--vth=V | --vgs=V] [CARRY] [COMMON]\n"
 "       gainsmith extract mos --id1=I --vgs1=V --id2=I --vgs2=V\n"
@@ -93,7 +93,7 @@ static const char help_text[] =
 
 const char *gs_cmd_extract_help(void)
 {
-    return help_text;
+    return gs_cmd_extract_help_text;
 }
 
 /* ---- options ---- */
@@ -859,7 +859,7 @@ static int run(int argc, char **argv, const figspec *fs, size_t n,
     }
     if (gs_cli_has(&cl, "help")) {
         gs_cli_clear(&cl);
-        fputs(help_text, out);
+        fputs(gs_cmd_extract_help_text, out);
         return 0;
     }
     gs_diag_init(&d);
@@ -884,7 +884,7 @@ int gs_cmd_extract(int argc, char **argv, FILE *out, FILE *err)
     const char *dev = argc > 1 ? argv[1] : "";
 
     if (strcmp(dev, "--help") == 0 || strcmp(dev, "-h") == 0) {
-        fputs(help_text, out);
+        fputs(gs_cmd_extract_help_text, out);
         return 0;
     }
     if (strcmp(dev, "mos") == 0)

@@ -8,7 +8,8 @@
 
 #include <string.h>
 
-static const char overview[] =
+/* The overview around its list of commands, which comes from the table. */
+static const char overview_head[] =
 "gainsmith " GS_VERSION " - exact small-signal transfer functions of analog "
 "circuits\n"
 "\n"
@@ -16,18 +17,9 @@ static const char overview[] =
 "       gainsmith help [COMMAND]\n"
 "       gainsmith --version\n"
 "\n"
-"commands:\n"
-"  derive    the exact transfer functions of a circuit, in lowest terms\n"
-"  eval      their numbers: DC value, values at frequencies, coefficients\n"
-"  poles     poles and zeros, w0, Q, stability, DC and HF gain\n"
-"  bode      gain, phase and group delay over frequency; CSV and SVG\n"
-"  step      step response: rise time, overshoot, settling; CSV and SVG\n"
-"  check     the exact result against an independent numeric solve\n"
-"  extract   device figures from a datasheet point -> model parameters\n"
-"  sens      normalised sensitivities of gain, poles, w0, Q, bandwidth\n"
-"  report    the review document: HTML, Markdown or LaTeX\n"
-"  noise     noise densities, their exact transfers, rms over a band\n"
-"  approx    short symbolic forms with a measured error, root estimates\n"
+"commands:\n";
+
+static const char overview_tail[] =
 "  help      this text, or the manual of one command\n"
 "\n"
 "FILE is a circuit in the gainsmith language (.gsc; see docs/language.md),\n"
@@ -328,31 +320,60 @@ static const char approx_text[] =
 "Exit status 1 when the tolerance cannot be met (the best form is shown);\n"
 "2 for bad input or an unbound symbol.\n";
 
+/* The one list of commands: main.c dispatches from it, the overview lists
+   it, and tests/test_commands.c checks that each has its manual text, a
+   section of man/gainsmith.1 and one of docs/commands.md. */
+static const gs_cmd_entry table[] = {
+    {"derive", "the exact transfer functions of a circuit, in lowest terms",
+     gs_cmd_derive, derive_text},
+    {"eval", "their numbers: DC value, values at frequencies, coefficients",
+     gs_cmd_eval, eval_text},
+    {"poles", "poles and zeros, w0, Q, stability, DC and HF gain",
+     gs_cmd_poles, poles_text},
+    {"bode", "gain, phase and group delay over frequency; CSV and SVG",
+     gs_cmd_bode, bode_text},
+    {"step", "step response: rise time, overshoot, settling; CSV and SVG",
+     gs_cmd_step, step_text},
+    {"check", "the exact result against an independent numeric solve",
+     gs_cmd_check, check_text},
+    {"extract", "device figures from a datasheet point -> model parameters",
+     gs_cmd_extract, gs_cmd_extract_help_text},
+    {"sens", "normalised sensitivities of gain, poles, w0, Q, bandwidth",
+     gs_cmd_sens, sens_text},
+    {"report", "the review document: HTML, Markdown or LaTeX",
+     gs_cmd_report, report_text},
+    {"noise", "noise densities, their exact transfers, rms over a band",
+     gs_cmd_noise, noise_text},
+    {"approx", "short symbolic forms with a measured error, root estimates",
+     gs_cmd_approx, approx_text},
+};
+
+const gs_cmd_entry *gs_cmd_table(size_t *n)
+{
+    *n = sizeof table / sizeof table[0];
+    return table;
+}
+
+const gs_cmd_entry *gs_cmd_find(const char *name)
+{
+    size_t i;
+    for (i = 0; name && i < sizeof table / sizeof table[0]; i++)
+        if (strcmp(name, table[i].name) == 0)
+            return &table[i];
+    return NULL;
+}
+
+void gs_cmd_print_overview(FILE *out)
+{
+    size_t i;
+    fputs(overview_head, out);
+    for (i = 0; i < sizeof table / sizeof table[0]; i++)
+        fprintf(out, "  %-9s %s\n", table[i].name, table[i].summary);
+    fputs(overview_tail, out);
+}
+
 const char *gs_cmd_help_text(const char *command)
 {
-    if (command && strcmp(command, "approx") == 0)
-        return approx_text;
-    if (command && strcmp(command, "report") == 0)
-        return report_text;
-    if (command && strcmp(command, "sens") == 0)
-        return sens_text;
-    if (command == NULL)
-        return overview;
-    if (strcmp(command, "derive") == 0)
-        return derive_text;
-    if (strcmp(command, "eval") == 0)
-        return eval_text;
-    if (strcmp(command, "poles") == 0)
-        return poles_text;
-    if (strcmp(command, "bode") == 0)
-        return bode_text;
-    if (strcmp(command, "step") == 0)
-        return step_text;
-    if (strcmp(command, "check") == 0)
-        return check_text;
-    if (strcmp(command, "extract") == 0)
-        return gs_cmd_extract_help();
-    if (strcmp(command, "noise") == 0)
-        return noise_text;
-    return NULL;
+    const gs_cmd_entry *c = gs_cmd_find(command);
+    return c ? c->help : NULL;
 }

@@ -8,32 +8,11 @@
 #include <stdio.h>
 #include <string.h>
 
-typedef struct command {
-    const char *name;
-    int (*run)(int argc, char **argv, FILE *out, FILE *err);
-} command;
-
-static const command commands[] = {
-    {"derive", gs_cmd_derive},
-    {"eval", gs_cmd_eval},
-    {"poles", gs_cmd_poles},
-    {"bode", gs_cmd_bode},
-    {"step", gs_cmd_step},
-    {"check", gs_cmd_check},
-    {"extract", gs_cmd_extract},
-    {"sens", gs_cmd_sens},
-    {"report", gs_cmd_report},
-    {"noise", gs_cmd_noise},
-    {"approx", gs_cmd_approx},
-};
-
-#define NCOMMANDS (sizeof commands / sizeof commands[0])
-
 static int help(int argc, char **argv)
 {
     const char *text;
     if (argc < 3) {
-        fputs(gs_cmd_help_text(NULL), stdout);
+        gs_cmd_print_overview(stdout);
         return 0;
     }
     text = gs_cmd_help_text(argv[2]);
@@ -49,11 +28,12 @@ static int help(int argc, char **argv)
 
 int main(int argc, char **argv)
 {
-    size_t i;
+    const gs_cmd_entry *commands, *c;
+    size_t i, ncommands;
     int status;
     if (argc < 2 || strcmp(argv[1], "--help") == 0
         || strcmp(argv[1], "-h") == 0) {
-        fputs(gs_cmd_help_text(NULL), argc < 2 ? stderr : stdout);
+        gs_cmd_print_overview(argc < 2 ? stderr : stdout);
         return argc < 2 ? 2 : 0;
     }
     if (strcmp(argv[1], "--version") == 0) {
@@ -62,23 +42,24 @@ int main(int argc, char **argv)
     }
     if (strcmp(argv[1], "help") == 0)
         return help(argc, argv);
-    for (i = 0; i < NCOMMANDS; i++) {
-        if (strcmp(argv[1], commands[i].name) == 0) {
-            status = commands[i].run(argc - 1, argv + 1, stdout, stderr);
-            if (fflush(stdout) != 0) {
-                perror("gainsmith: standard output");
-                return 2;
-            }
-            return status;
+    c = gs_cmd_find(argv[1]);
+    if (c != NULL) {
+        status = c->run(argc - 1, argv + 1, stdout, stderr);
+        if (fflush(stdout) != 0) {
+            perror("gainsmith: standard output");
+            return 2;
         }
+        return status;
     }
     fprintf(stderr, "gainsmith: error: unknown command '%s'\n", argv[1]);
     {
-        const char *names[NCOMMANDS + 2], *best;
-        for (i = 0; i < NCOMMANDS; i++)
+        /* room for the table's names, "help" and the NULL end */
+        const char *names[32], *best;
+        commands = gs_cmd_table(&ncommands);
+        for (i = 0; i < ncommands && i < 30; i++)
             names[i] = commands[i].name;
-        names[NCOMMANDS] = "help";
-        names[NCOMMANDS + 1] = NULL;
+        names[i] = "help";
+        names[i + 1] = NULL;
         best = gs_closest_word(argv[1], names);
         if (best)
             fprintf(stderr, "gainsmith: hint: did you mean '%s'?\n", best);
