@@ -262,8 +262,14 @@ void gs_approx_result_init(gs_approx_result *r)
 void gs_approx_result_clear(gs_approx_result *r)
 {
     size_t i;
-    if (r->ctx)
+    if (r->ctx) {
         gs_tf_clear(&r->h);
+    } else {
+        /* a run that stopped before its form (an error): only the
+           labels that gs_approx_run set after it are held */
+        free(r->h.name);
+        free(r->h.description);
+    }
     gs_poly_clear(&r->dcn);
     gs_poly_clear(&r->dcd);
     for (i = 0; i < r->nroots; i++) {
