@@ -122,8 +122,12 @@ void gs_reduce_ratio(gs_poly *num, gs_poly *den,
     gs_poly_clear(&g);
 }
 
+/* A limit that is infinite sets stats->no_limit: it is the one GS_ERANGE
+   that concerns this output alone, which a run over several outputs can
+   leave out and go on (job.c); an exponent overflow is another. */
 static int apply_limits(gs_tf *tf, const gs_circuit *c, const gs_output *out,
-                        const gs_derive_opts *o, gs_diag *d)
+                        const gs_derive_opts *o, gs_derive_stats *stats,
+                        gs_diag *d)
 {
     size_t i;
     for (i = 0; i < o->nlimits; i++) {
@@ -146,8 +150,10 @@ static int apply_limits(gs_tf *tf, const gs_circuit *c, const gs_output *out,
         }
         gs_poly_clear(&rn);
         gs_poly_clear(&rd);
-        if (rc != GS_OK)
+        if (rc != GS_OK) {
+            stats->no_limit = 1;
             return GS_ERANGE;
+        }
     }
     return GS_OK;
 }
@@ -532,7 +538,7 @@ static int derive_direct(gs_tf *tf, gs_circuit *c, const gs_output *op,
    Ainf = (A (1 + T) - d) / T; part 2 is d itself. */
 static int derive_loop_part(gs_tf *tf, gs_circuit *c, size_t out,
                             const gs_polyctx *ctx, const gs_derive_opts *o,
-                            gs_diag *d)
+                            gs_derive_stats *stats, gs_diag *d)
 {
     gs_output *op = &c->outputs[out];
     gs_derive_opts plain = *o;
@@ -592,7 +598,7 @@ static int derive_loop_part(gs_tf *tf, gs_circuit *c, size_t out,
     free(desc);
     tf->kind = GS_TF_TRANSFER;
     if (rc == GS_OK)
-        rc = apply_limits(tf, c, op, o, d);
+        rc = apply_limits(tf, c, op, o, stats, d);
     return rc;
 }
 
@@ -609,7 +615,7 @@ static int derive_loop(gs_tf *tf, const gs_circuit *cc, size_t out,
     int rc, i;
 
     if (op->loop_part != 0)
-        return derive_loop_part(tf, c, out, ctx, o, d);
+        return derive_loop_part(tf, c, out, ctx, o, stats, d);
     if (x->kind == GS_VCCS || x->kind == GS_VCVS) {
         op->out.kind = GS_PROBE_V;
         op->out.a = x->node[2];
@@ -653,7 +659,7 @@ static int derive_loop(gs_tf *tf, const gs_circuit *cc, size_t out,
     desc = gs_asprintf("return ratio of %s", x->name);
     gs_tf_set_description(tf, desc);
     free(desc);
-    return apply_limits(tf, c, op, o, d);
+    return apply_limits(tf, c, op, o, stats, d);
 }
 
 int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
@@ -680,7 +686,7 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
         tf->kind = GS_TF_TRANSFER;
         rc = gs_derive_figure_part(tf, c, out, ctx, o, d, 0);
         if (rc == GS_OK)
-            rc = apply_limits(tf, c, op, o, d);
+            rc = apply_limits(tf, c, op, o, stats, d);
         return rc;
     }
     desc = describe(c, op);
@@ -707,7 +713,7 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
     if (rc == GS_OK) {
         gs_reduce_ratio(&tf->num, &tf->den, c->syms, ctx, !o->no_gcd,
                         &stats->gcd_terms);
-        rc = apply_limits(tf, c, op, o, d);
+        rc = apply_limits(tf, c, op, o, stats, d);
     }
     return rc;
 }

@@ -46,6 +46,8 @@ typedef struct gs_derive_stats {
     size_t graph_edges;      /* (mgraph.h); 0 otherwise */
     double graph_paths_n;    /* its path counts: the terms N and D would */
     double graph_paths_d;    /* have before equal monomials combine */
+    int no_limit;            /* 1: GS_ERANGE because a limit of o is
+                                infinite (not an exponent overflow) */
 } gs_derive_stats;
 
 /* Under AUTO without a term budget, an expansion whose graph has more
@@ -61,8 +63,9 @@ void gs_derive_opts_default(gs_derive_opts *o);
    which must cover c's whole symbol table after gs_mna_intern_symbols).
    tf gets H = num/den in lowest terms, reciprocal symbols cleared, den's
    leading term positive, and its name.  Returns GS_OK, GS_ESINGULAR,
-   GS_EBUDGET, GS_EINVAL or GS_ERANGE (a limit is infinite), with a
-   message in d.  stats may be NULL. */
+   GS_EBUDGET, GS_EINVAL or GS_ERANGE (a limit is infinite, and then
+   stats->no_limit is 1; or an exponent overflows), with a message in d.
+   stats may be NULL. */
 int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
               const gs_polyctx *ctx, const gs_derive_opts *o,
               gs_derive_stats *stats, gs_diag *d);

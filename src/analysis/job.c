@@ -239,6 +239,20 @@ static void name_output(gs_diag *d, const char *file, const char *name)
     }
 }
 
+/* Give back the last slot of j->tf, the one of a failed output: what
+   derive_one_raw added is the result (its name, description and partial
+   polynomials) and perhaps a graph; the arrays keep their room. */
+static void drop_last(gs_job *j)
+{
+    size_t i = --j->ntf;
+    gs_tf_clear(&j->tf[i]);
+    if (j->graph[i]) {
+        gs_mgraph_clear(j->graph[i]);
+        free(j->graph[i]);
+        j->graph[i] = NULL;
+    }
+}
+
 static int derive_one(gs_job *j, size_t k, const gs_derive_opts *o,
                       gs_diag *d)
 {
@@ -246,6 +260,9 @@ static int derive_one(gs_job *j, size_t k, const gs_derive_opts *o,
     gs_diag here;
     gs_diag_init(&here);
     rc = derive_one_raw(j, k, o, &here);
+    /* an output with no finite limit has no result to keep */
+    if (rc == GS_ERANGE && j->stats[j->ntf - 1].no_limit)
+        drop_last(j);
     name_output(&here, j->c->file, j->c->outputs[k].name);
     gs_diag_append(d, &here);
     gs_diag_clear(&here);
@@ -285,8 +302,9 @@ static int derive_one_raw(gs_job *j, size_t k, const gs_derive_opts *o,
 int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,
                   gs_diag *d)
 {
-    size_t k;
+    size_t k, nfailed = 0;
     int rc = GS_OK;
+    j->partial = 0;
     if (only) {
         int idx = gs_circuit_find_output(j->c, only);
         if (idx < 0) {
@@ -302,9 +320,19 @@ int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,
                     "the file asks for no transfer or impedance");
         return GS_EINVAL;
     }
-    for (k = 0; k < j->c->noutputs && rc == GS_OK; k++)
+    /* An output whose limit is infinite is left out and the others still
+       derived: its message says why it is missing.  Any other error ends
+       the run, as the outputs after it would likely fail the same way. */
+    for (k = 0; k < j->c->noutputs; k++) {
+        size_t before = j->ntf;
         rc = derive_one(j, k, o, d);
-    return rc;
+        if (rc == GS_ERANGE && j->ntf == before)
+            nfailed++;
+        else if (rc != GS_OK)
+            return rc;
+    }
+    j->partial = nfailed > 0 && j->ntf > 0;
+    return nfailed ? GS_ERANGE : GS_OK;
 }
 
 /* Replace (or add) the value definition of sym by expr (owned after). */

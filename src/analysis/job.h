@@ -29,6 +29,9 @@ typedef struct gs_job {
                                expansion exceeds the budget is kept as its
                                graph of minors, for the numbers */
     gs_mgraph **graph;      /* per output: that graph, or NULL */
+    int partial;            /* after gs_job_derive: 1 when it returned
+                               GS_ERANGE for outputs left out, and tf holds
+                               every other output (at least one) */
 } gs_job;
 
 void gs_job_init(gs_job *j);
@@ -49,7 +52,11 @@ int gs_job_load_string(gs_job *j, const char *name, const char *text,
 int gs_job_add_transfer(gs_job *j, const char *name, const char *out,
                         const char *src, gs_diag *d);
 
-/* Derive every output, or only the one named `only` (NULL for all). */
+/* Derive every output, or only the one named `only` (NULL for all).
+   An output with no finite limit under o's limits is left out (its
+   message in d) and the others derived: GS_ERANGE at the end, with
+   j->partial set when some were derived.  Any other error stops the run
+   and is returned at once. */
 int gs_job_derive(gs_job *j, const char *only, const gs_derive_opts *o,
                   gs_diag *d);
 

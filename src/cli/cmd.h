@@ -41,7 +41,10 @@ int gs_cmd_budget(struct gs_derive_opts *o, const struct gs_cli *cl,
                   const char *cmd, FILE *err);
 /* The steps derive, eval and check share (cmd_derive.c): read the file
    argument and the derive options of cl, parse and derive into j.
-   Returns an exit status; messages go to err prefixed by cmd. */
+   Returns an exit status; messages go to err prefixed by cmd.  Status 1
+   with j->partial set: outputs with no finite limit were left out and j
+   holds the others, which derive and eval print before returning 1; the
+   other commands fail as a whole. */
 int gs_cmd_load_and_derive(struct gs_job *j, const struct gs_cli *cl,
                            const char *cmd, FILE *err);
 

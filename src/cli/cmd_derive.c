@@ -283,7 +283,7 @@ int gs_cmd_derive(int argc, char **argv, FILE *out, FILE *err)
 {
     gs_cli cl;
     gs_job j;
-    int status, var = 0;
+    int status, var = 0, partial;
     const char *format;
 
     gs_job_init(&j);
@@ -293,6 +293,11 @@ int gs_cmd_derive(int argc, char **argv, FILE *out, FILE *err)
     } else if (status == 0) {
         format = gs_cli_get(&cl, "format", 0);
         status = gs_cmd_load_and_derive(&j, &cl, "derive", err);
+        /* outputs left out for an infinite limit: the others are printed,
+           and the status stays 1 */
+        partial = status == 1 && j.partial;
+        if (partial)
+            status = 0;
         if (status == 0)
             status = collect_var(&var, &cl, &j, err);
         if (status == 0)
@@ -300,6 +305,8 @@ int gs_cmd_derive(int argc, char **argv, FILE *out, FILE *err)
                                    err);
         if (status == 0 && gs_cli_has(&cl, "stats"))
             print_stats(&j, err);
+        if (status == 0 && partial)
+            status = 1;
     }
     gs_cli_clear(&cl);
     gs_job_clear(&j);
@@ -456,7 +463,7 @@ int gs_cmd_eval(int argc, char **argv, FILE *out, FILE *err)
     gs_cli cl;
     gs_job j;
     size_t i;
-    int status;
+    int status, partial;
 
     gs_job_init(&j);
     status = gs_cli_parse(&cl, argc, argv, eval_spec, err);
@@ -464,12 +471,17 @@ int gs_cmd_eval(int argc, char **argv, FILE *out, FILE *err)
         fputs(gs_cmd_help_text("eval"), out);
     } else if (status == 0) {
         status = gs_cmd_load_and_derive(&j, &cl, "eval", err);
+        partial = status == 1 && j.partial;     /* as for derive */
+        if (partial)
+            status = 0;
         if (status == 0)
             status = gs_cmd_bind(&j, &cl, err);
         if (status == 0)
             print_values(out, &j);
         for (i = 0; status == 0 && i < j.ntf; i++)
             status = eval_one(&j, i, &cl, out, err);
+        if (status == 0 && partial)
+            status = 1;
     }
     gs_cli_clear(&cl);
     gs_job_clear(&j);
