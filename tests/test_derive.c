@@ -253,11 +253,95 @@ static void test_controlled_sources(void)
                      "H", "-gm*RL", "1", NULL, 0));
 }
 
+/* A run over several outputs where one has no finite limit: that one is
+   left out with its message, the others derived.  Zs = v(a)/isens = Rin
+   (Ohm's law) grows without bound as Rin -> inf; Av = v(out)/vin =
+   Rin/(R1 + Rin) (voltage divider) tends to 1, and Zt = v(out)/it with
+   vin at zero is R1 || Rin = R1 Rin/(R1 + Rin) (parallel resistors),
+   which tends to R1. */
+static const char partial_text[] =
+    "isource isens gnd a\nresistor Ra a gnd = Rin\n"
+    "vsource vin in gnd\nresistor R1 in out\n"
+    "resistor Rb out gnd = Rin\nisource it gnd out\n"
+    "transfer Zs = v(a) / isens\ntransfer Av = v(out) / vin\n"
+    "transfer Zt = v(out) / it\n";
+
+/* tf == n/d as polynomials in lowest terms: cross-multiplied. */
+static int tf_is(const gs_tf *tf, const char *n, const char *d,
+                 const gs_polyctx *ctx)
+{
+    gs_poly bn, bd, l, r;
+    int ok;
+    gs_poly_init(&bn);
+    gs_poly_init(&bd);
+    gs_poly_init(&l);
+    gs_poly_init(&r);
+    ok = gs_poly_set_str(&bn, n, ctx) == GS_OK
+         && gs_poly_set_str(&bd, d, ctx) == GS_OK;
+    if (ok) {
+        gs_poly_mul(&l, &tf->num, &bd, ctx);
+        gs_poly_mul(&r, &bn, &tf->den, ctx);
+        ok = gs_poly_equal(&l, &r, ctx);
+    }
+    gs_poly_clear(&bn);
+    gs_poly_clear(&bd);
+    gs_poly_clear(&l);
+    gs_poly_clear(&r);
+    return ok;
+}
+
+static int derive_partial(gs_job *j, gs_diag *d, const char *only,
+                          int to_inf)
+{
+    gs_derive_opts o;
+    gs_limit lim;
+    gs_job_init(j);
+    gs_diag_init(d);
+    gs_derive_opts_default(&o);
+    if (gs_job_load_string(j, "probe.gsc", partial_text, d) != GS_OK)
+        return GS_ESYNTAX;
+    lim.sym = gs_symtab_find(j->c->syms, "Rin");
+    lim.to_inf = to_inf;
+    o.limits = &lim;
+    o.nlimits = 1;
+    return gs_job_derive(j, only, &o, d);
+}
+
+static void test_partial_limit(void)
+{
+    gs_job j;
+    gs_diag d;
+    /* Rin -> inf: Zs left out, Av -> 1 and Zt -> R1 (above) */
+    CHECK(derive_partial(&j, &d, NULL, 1) == GS_ERANGE);
+    CHECK(j.partial == 1);
+    CHECK(j.ntf == 2);
+    if (j.ntf == 2) {
+        CHECK(strcmp(j.tf[0].name, "Av") == 0 && j.out_index[0] == 1);
+        CHECK(tf_is(&j.tf[0], "1", "1", j.ctx));
+        CHECK(strcmp(j.tf[1].name, "Zt") == 0 && j.out_index[1] == 2);
+        CHECK(tf_is(&j.tf[1], "R1", "1", j.ctx));
+    }
+    CHECK(d.n == 1 && strstr(d.v[0].message, "Zs has no finite limit") != NULL);
+    gs_diag_clear(&d);
+    gs_job_clear(&j);
+    /* Rin -> 0 is finite for all three: Zs -> 0, Av -> 0, Zt -> 0 */
+    CHECK(derive_partial(&j, &d, NULL, 0) == GS_OK);
+    CHECK(j.partial == 0 && j.ntf == 3);
+    gs_diag_clear(&d);
+    gs_job_clear(&j);
+    /* only the failing one: nothing derived, and no partial result */
+    CHECK(derive_partial(&j, &d, "Zs", 1) == GS_ERANGE);
+    CHECK(j.partial == 0 && j.ntf == 0);
+    gs_diag_clear(&d);
+    gs_job_clear(&j);
+}
+
 int main(void)
 {
     test_passive();
     test_amplifiers();
     test_transistors();
     test_controlled_sources();
+    test_partial_limit();
     return check_report("derive");
 }
