@@ -85,6 +85,30 @@ for gsc in examples/*.gsc; do
     [ "$bad" -eq 0 ] && pass \
         || fail "$ex: derive --format latex has $bad overfull boxes > 10pt"
 done
+# noise --format latex of the noise examples: the densities as equations
+# (output/formula.h) compile, within the margin
+for gsc in examples/noise_*.gsc; do
+    ex=$(basename "$gsc" .gsc)-noise
+    {
+        printf '\\documentclass{article}\n\\usepackage{amsmath}\n'
+        printf '\\begin{document}\n'
+        "$build/gainsmith" noise "$gsc" --format latex
+        printf '\\end{document}\n'
+    } >"$tmp/$ex.tex" 2>"$tmp/$ex.err" || { fail "$ex: noise failed"; continue; }
+    grep -q '^S_{\\mathrm{out}} = ' "$tmp/$ex.tex" && pass \
+        || fail "$ex: no S_out equation"
+    if (cd "$tmp" && pdflatex -interaction=nonstopmode -halt-on-error \
+            "$ex.tex" >/dev/null 2>&1); then
+        pass
+    else
+        fail "$ex: noise --format latex does not compile"
+        grep -A 3 '^!' "$tmp/$ex.log" 2>/dev/null | head -n 10
+        continue
+    fi
+    bad=$(overfull "$tmp/$ex.log")
+    [ "$bad" -eq 0 ] && pass \
+        || fail "$ex: noise --format latex has $bad overfull boxes > 10pt"
+done
 [ "$longest" -ge 30 ] && pass \
     || fail "no example has a result of 30 or more terms ($longest)"
 echo "$name: $passed passed, $failed failed"

@@ -64,6 +64,48 @@ for f in html md tex; do
         || fail "edge_feedback.$f: the document stops early"
 done
 
+# the noise section, where the circuit has noise sources: every noise
+# example has one, in every format
+for ex in noise_cs noise_bjt noise_divider; do
+    for f in md html tex; do
+        grep -q "Noise" "$tmp/$ex.$f" && grep -q "rms over the band" \
+            "$tmp/$ex.$f" && pass || fail "$ex.$f: no noise section"
+    done
+done
+# and its figures on an RC low-pass over the plot's span, fc = 159.2 kHz
+# so f1 = 1 kHz and f2 = 100 MHz: the output rms is
+# sqrt((kT/C)(2/pi)(atan(f2/fc) - atan(f1/fc))) (Gray, Hurst, Lewis and
+# Meyer, noise chapter, from memory) and the input-referred rms that of
+# the resistor alone, sqrt(4kTR(f2 - f1)) (Johnson-Nyquist), each to the
+# four digits printed
+"$bin" report tests/report/rc_noise.gsc -o "$tmp/rc.md" >/dev/null
+line=$(grep "the span of the Bode plot" "$tmp/rc.md")
+si_value() {    # "2.03 µV" -> 2.03e-06
+    awk -v s="$1" 'BEGIN { n = split(s, a, " "); v = a[1]; u = a[2];
+        m = 1; if (u ~ /^n/) m = 1e-9; else if (u ~ /^µ/) m = 1e-6;
+        else if (u ~ /^m/) m = 1e-3; else if (u ~ /^p/) m = 1e-12;
+        printf "%.10g\n", v * m }'
+}
+out=$(si_value "$(echo "$line" | sed 's/.*: output \([^ ]* [^ ]*\) rms.*/\1/')")
+inr=$(si_value "$(echo "$line" | sed 's/.*input-referred \([^ ]* [^ ]*\) rms.*/\1/')")
+if awk -v o="$out" -v i="$inr" 'BEGIN { k = 1.380649e-23; t = 300;
+        r = 1e3; c = 1e-9; pi = atan2(0, -1); fc = 1 / (2 * pi * r * c);
+        wo = sqrt(k * t / c * 2 / pi * (atan2(1e8, fc) - atan2(1e3, fc)));
+        wi = sqrt(4 * k * t * r * (1e8 - 1e3));
+        exit !(o > 0 && i > 0 && (o - wo) ^ 2 < (1e-3 * wo) ^ 2 \
+               && (i - wi) ^ 2 < (1e-3 * wi) ^ 2) }'; then pass
+else fail "rc_noise: output $out, input-referred $inr V rms against kT/C"
+fi
+
+# where the noise is not computed, the section says why in one sentence
+"$bin" report tests/report/rc_noise.gsc --limit s=0 -o "$tmp/rcl.md" \
+    >/dev/null
+grep -q "Not computed under --limit" "$tmp/rcl.md" && pass \
+    || fail "rc_noise --limit: the noise section does not say why"
+"$bin" report - -o "$tmp/rcs.md" <tests/report/rc_noise.gsc >/dev/null
+grep -q "Not computed: the circuit was read from standard input" \
+    "$tmp/rcs.md" && pass || fail "rc_noise from stdin: no sentence"
+
 # the text of one document, tags stripped; the check's error (last bits
 # of long double, which may differ between compilers) is left out
 sed -e 's/<[^>]*>//g' -e 's/worst relative error [^ ]* at [^ ]* Hz/worst/' \

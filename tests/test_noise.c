@@ -186,20 +186,22 @@ static void test_rc_ktc(void)
 
 /* A common-source stage, input-referred: 4kT gamma/gm + 4kT RD/(gm RD)^2
    (Razavi, "Design of Analog CMOS Integrated Circuits", noise chapter,
-   from memory), gamma 2/3 by default and 1 when bound. */
+   from memory), gamma 2/3 by default, and bound by a value line or by
+   the mosfet line (an expression there as on a value line). */
 static void test_cs_stage(void)
 {
-    static const char *gam[] = {"", "value gamma_M1 = 1\n"};
-    static const long double gv[] = {2.0L / 3.0L, 1.0L};
+    static const char *gam[] = {"", "value nthermal_M1 = 1\n", "", ""};
+    static const char *line[] = {"", "", " nthermal=1", " nthermal=5/4"};
+    static const long double gv[] = {2.0L / 3.0L, 1.0L, 1.0L, 1.25L};
     int i;
-    for (i = 0; i < 2; i++) {
+    for (i = 0; i < 4; i++) {
         fixture f;
         char text[512];
         long double gm = 2e-3L, rd = 5e3L, want;
         snprintf(text, sizeof text, "vsource vin g gnd\n"
-                 "mosfet M1 d g gnd gm=gm1 rds=inf\nresistor RD d vdd\n"
+                 "mosfet M1 d g gnd gm=gm1 rds=inf%s\nresistor RD d vdd\n"
                  "ground vdd\nvalue gm1 = 2m\nvalue RD = 5k\n%s"
-                 "transfer Av = v(d) / vin\n", gam[i]);
+                 "transfer Av = v(d) / vin\n", line[i], gam[i]);
         load(&f, text);
         CHECK(f.ok);
         if (!f.ok)
@@ -215,15 +217,23 @@ static void test_cs_stage(void)
 
 /* Flicker noise: gm^2 K/(Cox W L f) at the drain, so the gate-referred
    density falls as 1/f (Razavi, noise chapter, from memory). */
-static void test_flicker(void)
+static void test_flicker(int on_line)
 {
     fixture f;
     long double k = 1e-25L, cox = 5e-3L, w = 10e-6L, l = 1e-6L, gm = 1e-3L;
-    load(&f, "vsource vin g gnd\nmosfet M1 d g gnd gm=gm1 rds=ro\n"
-             "resistor RD d gnd = 10k\nvalue gm1 = 1m\nvalue ro = 100k\n"
-             "value kf_M1 = 1e-25\nvalue cox_M1 = 5m\nvalue w_M1 = 10u\n"
-             "value l_M1 = 1u\ntransfer Av = v(d) / vin\n");
-    CHECK(f.ok);
+    if (on_line)        /* the same parameters on the mosfet line */
+        load(&f, "vsource vin g gnd\nmosfet M1 d g gnd gm=gm1 rds=ro "
+                 "kf=1e-25 cox=5m w=10u l=wl/10\n"
+                 "resistor RD d gnd = 10k\nvalue gm1 = 1m\n"
+                 "value ro = 100k\nvalue wl = 10u\n"
+                 "transfer Av = v(d) / vin\n");
+    else
+        load(&f, "vsource vin g gnd\nmosfet M1 d g gnd gm=gm1 rds=ro\n"
+                 "resistor RD d gnd = 10k\nvalue gm1 = 1m\n"
+                 "value ro = 100k\nvalue kf_M1 = 1e-25\n"
+                 "value cox_M1 = 5m\nvalue w_M1 = 10u\n"
+                 "value l_M1 = 1u\ntransfer Av = v(d) / vin\n");
+    CHECK_MSG(f.ok, "flicker, on the line %d", on_line);
     if (!f.ok)
         return;
     {
@@ -325,7 +335,8 @@ int main(void)
     test_divider();
     test_rc_ktc();
     test_cs_stage();
-    test_flicker();
+    test_flicker(0);
+    test_flicker(1);
     test_noninverting();
     test_bjt_nf();
     test_bjt_adjoint();

@@ -197,11 +197,60 @@ static char *describe(const gs_circuit *c, const gs_output *o)
    how large the expansion would be; one far past what anyone reads is
    refused, naming the graph that holds it instead.  Returns GS_OK to go
    on expanding. */
+/* A bound on the terms of the determinant of the leading k x k block of
+   M from the degrees alone: a term is a monomial, and the degree of the
+   determinant in a symbol is at most the sum over the rows (or over the
+   columns) of its largest degree there, since every term of the
+   expansion takes one entry from each row and each column (the Leibniz
+   formula).  So the terms are at most the product over the symbols of
+   (that degree + 1); where the entries are mostly numbers this is far
+   below the paths of the graph, which count terms before equal
+   monomials combine.  In double: the product may overflow to inf. */
+static double degree_bound(const gs_mna *m, int k, const gs_polyctx *ctx)
+{
+    int nv = ctx->nvars, v, i, j;
+    unsigned *row = gs_calloc((size_t)nv, sizeof *row);
+    unsigned *col = gs_calloc((size_t)nv * (size_t)k, sizeof *col);
+    unsigned *degs = gs_calloc((size_t)nv, sizeof *degs);
+    unsigned long *sum_r = gs_calloc((size_t)nv, sizeof *sum_r);
+    unsigned long *sum_c = gs_calloc((size_t)nv, sizeof *sum_c);
+    double bound = 1;
+    for (i = 0; i < k; i++) {
+        memset(row, 0, (size_t)nv * sizeof *row);
+        for (j = 0; j < k; j++) {
+            const gs_poly *e = GS_MNA_AT(m, i, j);
+            if (e->length == 0)
+                continue;
+            gs_poly_degrees(degs, e, ctx);
+            for (v = 0; v < nv; v++) {
+                if (degs[v] > row[v])
+                    row[v] = degs[v];
+                if (degs[v] > col[(size_t)j * (size_t)nv + (size_t)v])
+                    col[(size_t)j * (size_t)nv + (size_t)v] = degs[v];
+            }
+        }
+        for (v = 0; v < nv; v++)
+            sum_r[v] += row[v];
+    }
+    for (j = 0; j < k; j++)
+        for (v = 0; v < nv; v++)
+            sum_c[v] += col[(size_t)j * (size_t)nv + (size_t)v];
+    for (v = 0; v < nv; v++)
+        bound *= (double)(sum_r[v] < sum_c[v] ? sum_r[v] : sum_c[v]) + 1;
+    free(row);
+    free(col);
+    free(degs);
+    free(sum_r);
+    free(sum_c);
+    return bound;
+}
+
 static int size_gate(const gs_mna *m, const gs_polyctx *ctx,
                      gs_derive_stats *stats, gs_diag *d)
 {
     gs_mgraph g;
     gs_int c;
+    double bn, bd;
     int rc = gs_mgraph_build(&g, m, GS_MGRAPH_ORDER_GREEDY, ctx);
     if (rc != GS_OK) {
         gs_mgraph_clear(&g);
@@ -216,29 +265,28 @@ static int size_gate(const gs_mna *m, const gs_polyctx *ctx,
     stats->graph_paths_d = (double)gs_int_get_d(&c);
     gs_int_clear(&c);
     gs_mgraph_clear(&g);
-    if (stats->graph_paths_n <= GS_DERIVE_MAX_PATHS
-        && stats->graph_paths_d <= GS_DERIVE_MAX_PATHS)
+    bd = degree_bound(m, m->n, ctx);
+    /* N is c0 det A - det M */
+    bn = degree_bound(m, m->n + 1, ctx) + (m->c0.length ? bd : 0);
+    bn = bn < stats->graph_paths_n ? bn : stats->graph_paths_n;
+    bd = bd < stats->graph_paths_d ? bd : stats->graph_paths_d;
+    if (bn <= GS_DERIVE_MAX_PATHS && bd <= GS_DERIVE_MAX_PATHS)
         return GS_OK;
     gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
                 "eval, bode, poles and check compute from the graph, approx "
                 "gives the dominant terms; --max-terms N expands anyway",
                 "the expansion is too large to print: about %.3g terms in "
                 "N and %.3g in D, held as a graph of %zu minors and %zu "
-                "edges", stats->graph_paths_n, stats->graph_paths_d,
-                stats->graph_nodes, stats->graph_edges);
+                "edges", bn, bd, stats->graph_nodes, stats->graph_edges);
     return GS_EBUDGET;
 }
 
-static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
-                           const gs_polyctx *ctx, const gs_derive_opts *o,
-                           gs_derive_stats *stats, gs_diag *d)
+static int expand(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
+                  const gs_polyctx *ctx, const gs_derive_opts *o,
+                  gs_derive_stats *stats, gs_diag *d)
 {
     gs_minors_opts mo;
     int rc;
-    if (o->method == GS_DET_AUTO && !o->terms_given
-        && m->n <= GS_MINORS_MAX_UNKNOWNS
-        && (rc = size_gate(m, ctx, stats, d)) != GS_OK)
-        return rc;
     if (o->method != GS_DET_BAREISS) {
         gs_minors_opts_default(&mo);
         mo.max_terms = o->elim.max_terms;
@@ -265,6 +313,44 @@ static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
     }
     stats->method = GS_DET_BAREISS;
     return gs_elim_bordered(det_a, det_m, m, ctx, &o->elim, &stats->elim, d);
+}
+
+/* Under AUTO without a term budget the size gate runs first, for any
+   number of unknowns (the graph of minors takes column sets of any
+   width).  Its estimate counts terms before they combine or cancel, which
+   can be far too many (a resistor chain, whose det is one product, has
+   10^24 paths at 64 resistors), so a refusal is tried once: the
+   expansion within GS_DERIVE_TRY_TERMS terms an entry.  Only when that
+   outgrows its budget does the gate's message stand. */
+static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
+                           const gs_polyctx *ctx, const gs_derive_opts *o,
+                           gs_derive_stats *stats, gs_diag *d)
+{
+    gs_derive_opts tried;
+    gs_diag gate, trial;
+    int rc;
+    if (o->method != GS_DET_AUTO || o->terms_given)
+        return expand(det_a, det_m, m, ctx, o, stats, d);
+    gs_diag_init(&gate);
+    rc = size_gate(m, ctx, stats, &gate);
+    if (rc != GS_EBUDGET) {
+        gs_diag_append(d, &gate);
+        gs_diag_clear(&gate);
+        return rc != GS_OK ? rc : expand(det_a, det_m, m, ctx, o, stats, d);
+    }
+    tried = *o;
+    if (tried.elim.max_terms == 0 || tried.elim.max_terms > GS_DERIVE_TRY_TERMS)
+        tried.elim.max_terms = GS_DERIVE_TRY_TERMS;
+    gs_diag_init(&trial);
+    rc = expand(det_a, det_m, m, ctx, &tried, stats, &trial);
+    /* the graph is not singular (the gate built it): a trial that fails
+       outgrew its budget or its exponents, and the graph holds it */
+    if (rc != GS_OK)
+        rc = GS_EBUDGET;
+    gs_diag_append(d, rc == GS_EBUDGET ? &gate : &trial);
+    gs_diag_clear(&trial);
+    gs_diag_clear(&gate);
+    return rc;
 }
 
 /* The determinants only ever hold the symbols that occur in M: the

@@ -54,6 +54,10 @@ typedef struct gs_derive_stats {
    paths than this for N or D is refused (GS_EBUDGET): the numbers come
    from the graph instead, and --max-terms expands anyway. */
 #define GS_DERIVE_MAX_PATHS 2000000.0
+/* The terms an entry may reach when a refused expansion is tried once
+   (derive.c): the estimate counts terms before equal monomials combine
+   or cancel. */
+#define GS_DERIVE_TRY_TERMS 50000
 
 /* Defaults: AUTO, the budgets GS_DEFAULT_MAX_TERMS and
    GS_DEFAULT_MAX_BYTES (gainsmith.h) not given, no limits. */

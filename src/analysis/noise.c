@@ -105,7 +105,7 @@ static void collect(gs_noise *n, const gs_circuit *c)
                    && !c->devices[e->device].is_bjt) {
             name = gs_asprintf("%s.channel", dev);
             add_src(n, GS_NZ_CHANNEL, name, ek, e->device, e->node[0],
-                    e->node[1], gs_asprintf("4*k*T*gamma_%s*%s", dev, v));
+                    e->node[1], gs_asprintf("4*k*T*nthermal_%s*%s", dev, v));
             free(name);
             if (has_value_line(c, "kf", dev)) {
                 name = gs_asprintf("%s.flicker", dev);
@@ -278,6 +278,16 @@ static int param(long double *v, const char *key, const gs_noise_src *s,
                     dv->name, name);
         rc = GS_EUNBOUND;
     }
+    /* every one of them is a positive physical figure; a zero or
+       negative one would give a density below zero */
+    if (rc == GS_OK && !(*v > 0 && isfinite(*v))) {
+        gs_diag_add(d, GS_SEV_ERROR, c->file, dv->line, dv->col,
+                    "the noise parameters nthermal, kf, cox, w and l are "
+                    "positive figures (docs/noise.md)",
+                    "the noise of '%s' needs '%s' above 0, got %Lg",
+                    dv->name, name, *v);
+        rc = GS_ERANGE;
+    }
     free(name);
     return rc;
 }
@@ -301,7 +311,7 @@ int gs_noise_density(long double *white, long double *flicker,
         *white = 4 * kt * v;
         break;
     case GS_NZ_CHANNEL:
-        rc = param(&g, "gamma", s, c, vals, set, 2.0L / 3.0L, d);
+        rc = param(&g, "nthermal", s, c, vals, set, 2.0L / 3.0L, d);
         *white = 4 * kt * g * v;
         break;
     case GS_NZ_FLICKER:

@@ -7,7 +7,7 @@
  *
  *   resistor R      thermal  4kT/R            (Johnson 1928, Nyquist 1928)
  *   conductance G   thermal  4kTG
- *   mosfet M gm     channel  4kT*gamma_M*gm   gamma_M 2/3 unless bound
+ *   mosfet M gm     channel  4kT*nthermal_M*gm  nthermal_M 2/3 unless bound
  *                   flicker  gm^2*kf_M/(cox_M*w_M*l_M*f), when kf_M is
  *                            bound by a value line (the gate-referred
  *                            K/(Cox W L f) of Razavi, "Design of Analog

@@ -52,6 +52,16 @@ static const dev_param bjt_params[] = {
 
 #define MAX_PARAMS 7
 
+/* The noise parameters a mosfet line may give (docs/noise.md): the
+   channel thermal-noise factor (the gamma of 4kT*gamma*gm, named so as
+   not to be read as the body-effect gamma of a bias line), the flicker
+   coefficient K_f and the Cox, W and L of K_f/(Cox*W*L*f).  Each binds
+   the symbol KEY_NAME that the noise analysis reads. */
+#define NOISE_KEYS 5
+static const char *const noise_keys[NOISE_KEYS] = {
+    "nthermal", "kf", "cox", "w", "l"
+};
+
 /* What a device line said about each of its parameters. */
 typedef struct dev_line {
     const dev_param *params;
@@ -65,6 +75,10 @@ typedef struct dev_line {
     int inf[MAX_PARAMS];
     gs_monomial val[MAX_PARAMS];
     size_t val_off[MAX_PARAMS];
+    /* a mosfet's noise parameters (noise_keys): value expressions that
+       bind the symbols KEY_NAME, as value lines would */
+    const gs_token *nz_key[NOISE_KEYS];
+    gs_expr *nz_expr[NOISE_KEYS];
 } dev_line;
 
 static void dev_line_init(dev_line *L, int is_bjt)
@@ -78,7 +92,8 @@ static void dev_line_init(dev_line *L, int is_bjt)
     L->form = is_bjt ? "bjt NAME c b e [gm=..] [rpi=..] [ro=..] [cpi=..] "
                        "[cmu=..] [rb=..]"
                      : "mosfet NAME d g s [b] [gm=..] [rds=..] [gmb=..] "
-                       "[cgs=..] [cgd=..] [cdb=..] [csb=..]";
+                       "[cgs=..] [cgd=..] [cdb=..] [csb=..] "
+                       "[nthermal=..] [kf=.. cox=.. w=.. l=..]";
     for (i = 0; i < 4; i++)
         L->node[i] = -1;
     for (i = 0; i < MAX_PARAMS; i++)
@@ -92,6 +107,8 @@ static void dev_line_clear(dev_line *L)
         free(L->raw[i]);
         gs_monomial_clear(&L->val[i]);
     }
+    for (i = 0; i < NOISE_KEYS; i++)
+        gs_expr_free(L->nz_expr[i]);
 }
 
 /* Is the cursor at "IDENT =", the start of a parameter? */
@@ -119,23 +136,89 @@ static char *join_tokens(const gs_token *from, const gs_token *to)
 
 static int param_index(gs_parser *p, dev_line *L, const gs_token *key)
 {
-    const char *names[MAX_PARAMS];
+    const char *names[MAX_PARAMS + NOISE_KEYS];
     char *hint, *list;
-    size_t i;
+    size_t i, n = L->nparams;
     for (i = 0; i < L->nparams; i++) {
         names[i] = L->params[i].key;
         if (strcmp(key->text, names[i]) == 0)
             return (int)i;
     }
-    hint = gs_suggest_hint(key->text, names, L->nparams);
+    if (L->params == mos_params)
+        for (i = 0; i < NOISE_KEYS; i++)
+            names[n++] = noise_keys[i];
+    hint = gs_suggest_hint(key->text, names, n);
     list = gs_asprintf("the %s parameters are %s", L->word, L->nparams == 7
-                       ? "gm, rds, gmb, cgs, cgd, cdb and csb"
+                       ? "gm, rds, gmb, cgs, cgd, cdb and csb, and for its "
+                         "noise nthermal, kf, cox, w and l"
                        : "gm, rpi, ro, cpi, cmu and rb");
     gs_cur_error(&p->cur, key, hint ? hint : list, "unknown %s parameter "
                  "'%s'", L->word, key->text);
     free(list);
     free(hint);
     return -1;
+}
+
+/* The index of KEY among a mosfet's noise parameters, or -1. */
+static int noise_index(const dev_line *L, const char *key)
+{
+    int i;
+    if (L->params != mos_params)
+        return -1;
+    for (i = 0; i < NOISE_KEYS; i++)
+        if (strcmp(key, noise_keys[i]) == 0)
+            return i;
+    return -1;
+}
+
+/* A noise parameter KEY=EXPR of a mosfet line: an expression as on a
+   value line (its sign is checked where the noise analysis reads it). */
+static int parse_noise_param(gs_parser *p, dev_line *L, int k)
+{
+    const gs_token *key = gs_cur_peek(&p->cur);
+    if (L->nz_key[k] != NULL) {
+        gs_cur_error(&p->cur, key, NULL, "parameter '%s' given twice",
+                     key->text);
+        return GS_ESYNTAX;
+    }
+    gs_cur_next(&p->cur);
+    gs_cur_next(&p->cur);               /* '=' */
+    L->nz_key[k] = key;
+    return gs_parse_expr(&L->nz_expr[k], &p->cur, p->c) == GS_OK
+           ? GS_OK : GS_ESYNTAX;
+}
+
+/* Bind KEY_NAME to each noise parameter the line gave, as a value line
+   with the origin "mosfet NAME"; a value line for the same symbol is a
+   duplicate (reported where the second one is). */
+static int add_noise_values(gs_parser *p, dev_line *L)
+{
+    int k, line, col, sym;
+    size_t i;
+    for (k = 0; k < NOISE_KEYS; k++) {
+        char *name, *origin;
+        if (L->nz_key[k] == NULL)
+            continue;
+        name = gs_asprintf("%s_%s", noise_keys[k], L->name->text);
+        sym = gs_symtab_intern(p->c->syms, name);
+        for (i = 0; i < p->c->nvalues; i++)
+            if (p->c->values[i].sym == sym)
+                break;
+        if (i < p->c->nvalues) {
+            gs_cur_error(&p->cur, L->nz_key[k], NULL, "duplicate value for "
+                         "'%s' (first at %d:%d)", name,
+                         p->c->values[i].line, p->c->values[i].col);
+            free(name);
+            return GS_ESYNTAX;
+        }
+        free(name);
+        origin = gs_asprintf("mosfet %s", L->name->text);
+        gs_lex_position(&p->lx, L->nz_key[k]->off, &line, &col);
+        gs_circuit_add_value(p->c, sym, L->nz_expr[k], origin, line, col);
+        L->nz_expr[k] = NULL;           /* the circuit owns it now */
+        free(origin);
+    }
+    return GS_OK;
 }
 
 /* One KEY=VALUE of a device line. */
@@ -147,6 +230,8 @@ static int parse_param(gs_parser *p, dev_line *L)
         gs_parser_expected(p, key, "a parameter KEY=VALUE", L->form);
         return GS_ESYNTAX;
     }
+    if ((k = noise_index(L, key->text)) >= 0)
+        return parse_noise_param(p, L, k);
     if ((k = param_index(p, L, key)) < 0)
         return GS_ESYNTAX;
     if (L->key[k] != NULL) {
@@ -336,6 +421,8 @@ int gs_parse_device(gs_parser *p, int is_bjt)
             rc = parse_param(p, &L);
         if (rc == GS_OK)
             rc = check_params(p, &L, want);
+        if (rc == GS_OK)
+            rc = add_noise_values(p, &L);
         if (rc == GS_OK) {
             dev = add_device(p, &L, is_bjt);
             expand(p, &L, is_bjt, dev, want);

@@ -7,6 +7,8 @@
 #include "analysis/noise.h"
 #include "base/mem.h"
 #include "numeric/spectrum.h"
+#include "algebra/sym.h"
+#include "output/formula.h"
 #include "output/svg.h"
 
 #include <math.h>
@@ -145,6 +147,58 @@ static void print_tf(FILE *out, const gs_tf *tf, const char *format)
         gs_print_text(out, tf, var);
 }
 
+/* S_{NAME} for a source name ("M1.channel"), upright, _ escaped. */
+static void latex_s(FILE *out, const char *name)
+{
+    fputs("S_{\\mathrm{", out);
+    for (; *name; name++) {
+        if (*name == '_')
+            fputs("\\_", out);
+        else
+            fputc(*name, out);
+    }
+    fputs("}}", out);
+}
+
+/* The densities as LaTeX equations: S_out as the sum (three terms a
+   line, in multline* when longer), S_in, and each S_k. */
+static void print_latex_densities(FILE *out, const gs_job *j,
+                                  const gs_noise *n, size_t i)
+{
+    const gs_noise_target *t = &n->target[i];
+    const gs_tf *tf = tf_for(j, t->out);
+    int long_sum = n->nsrc > 3;
+    size_t k;
+    char *h, *tex;
+    fputs(long_sum ? "\\begin{multline*}\n" : "\\begin{equation}\n", out);
+    fputs("S_{\\mathrm{out}} = ", out);
+    for (k = 0; k < n->nsrc; k++) {
+        h = h_name(n->src[k].name);
+        tex = gs_sym_latex_name(h);
+        fprintf(out, "%s\\left|%s\\right|^{2} ", k == 0 ? ""
+                : k % 3 == 0 ? "\\\\\n+ " : "+ ", tex);
+        latex_s(out, n->src[k].name);
+        fputc(' ', out);
+        free(tex);
+        free(h);
+    }
+    fprintf(out, "\\quad \\mathrm{%s^2/Hz}\n", out_unit(j->c, t->out));
+    fputs(long_sum ? "\\end{multline*}\n" : "\\end{equation}\n", out);
+    tex = gs_sym_latex_name(gs_tf_name(tf));
+    fprintf(out, "\\begin{equation}\nS_{\\mathrm{in}} = \\frac{S_{\\mathrm"
+            "{out}}}{\\left|%s\\right|^{2}} \\quad \\mathrm{%s^2/Hz}\n"
+            "\\end{equation}\n", tex, in_unit(j->c, t->out));
+    free(tex);
+    for (k = 0; k < n->nsrc; k++) {
+        tex = gs_formula_latex(n->src[k].density);
+        fputs("\\begin{equation}\n", out);
+        latex_s(out, n->src[k].name);
+        fprintf(out, " = %s \\quad \\mathrm{%s}\n\\end{equation}\n",
+                tex ? tex : "?", n->src[k].unit);
+        free(tex);
+    }
+}
+
 /* The symbolic densities: S_out as the sum, each S_k and each H_k. */
 static void print_symbolic(FILE *out, const gs_job *j, const gs_noise *n,
                            size_t i, const char *format)
@@ -156,6 +210,15 @@ static void print_symbolic(FILE *out, const gs_job *j, const gs_noise *n,
     char *h;
     fprintf(out, "%snoise of %s = %s, at its output\n", c, gs_tf_name(tf),
             tf->description ? tf->description : "");
+    if (*c) {
+        print_latex_densities(out, j, n, i);
+        fprintf(out, "%% with k = 1.380649e-23 J/K, q = 1.602176634e-19 C, "
+                "T in K, f in Hz, s = j*2*pi*f\n");
+        print_tf(out, tf, format);
+        for (k = 0; k < n->nsrc; k++)
+            print_tf(out, tf_for(j, t->first + k), format);
+        return;
+    }
     fprintf(out, "%sS_out = ", c);
     for (k = 0; k < n->nsrc; k++) {
         h = h_name(n->src[k].name);

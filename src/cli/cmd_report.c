@@ -3,6 +3,7 @@
 #include "cli/cli.h"
 #include "cli/cmd.h"
 #include "analysis/job.h"
+#include "analysis/noise.h"
 #include "analysis/refcheck.h"
 #include "base/mem.h"
 #include "output/report.h"
@@ -24,8 +25,116 @@ static const gs_report_writer *writer_of(int format)
     return &gs_report_tex;
 }
 
-static int write_report(const gs_job *j, const char *path, FILE *out,
-                        FILE *err)
+/* The noise analysis of the report: the file loaded a second time with
+   the noise sources' transfers added (noise.h), derived and bound as the
+   job was.  `pub` is what the document reads. */
+typedef struct report_noise {
+    gs_job j;
+    gs_noise n;
+    gs_noise_num nn;
+    gs_report_noise pub;
+    char *why;
+} report_noise;
+
+static void report_noise_init(report_noise *rn)
+{
+    gs_job_init(&rn->j);
+    gs_noise_init(&rn->n);
+    memset(&rn->nn, 0, sizeof rn->nn);
+    memset(&rn->pub, 0, sizeof rn->pub);
+    rn->why = NULL;
+}
+
+static void report_noise_clear(report_noise *rn)
+{
+    gs_noise_num_clear(&rn->nn);
+    gs_noise_clear(&rn->n);
+    gs_job_clear(&rn->j);
+    free(rn->why);
+}
+
+/* Derive every target and the transfer from each source to it. */
+static int noise_derive(report_noise *rn, const gs_derive_opts *o,
+                        gs_diag *d)
+{
+    size_t i, k;
+    int rc = GS_OK;
+    for (i = 0; rc == GS_OK && i < rn->n.ntarget; i++) {
+        const gs_noise_target *t = &rn->n.target[i];
+        rc = gs_job_derive(&rn->j, rn->j.c->outputs[t->out].name, o, d);
+        for (k = 0; rc == GS_OK && k < rn->n.nsrc; k++)
+            rc = gs_job_derive(&rn->j,
+                               rn->j.c->outputs[t->first + k].name, o, d);
+    }
+    return rc;
+}
+
+/* The values bound as the job's were; what gs_cmd_bind says went to
+   the user already, when the job was bound, so it is dropped here. */
+static int noise_bind(report_noise *rn, const gs_cli *cl)
+{
+    char *buf = NULL;
+    size_t len = 0;
+    FILE *quiet = open_memstream(&buf, &len);
+    int status;
+    if (quiet == NULL)
+        return 1;
+    status = gs_cmd_bind(&rn->j, cl, quiet);
+    fclose(quiet);
+    free(buf);
+    return status;
+}
+
+/* Make the noise analysis, or say in pub.skipped why there is none.
+   Returns the struct the document reads, or NULL for no noise section
+   (the circuit has no noise source). */
+static const gs_report_noise *noise_make(report_noise *rn, const gs_cli *cl,
+                                         const char *file, FILE *err)
+{
+    gs_derive_opts o;
+    gs_diag d;
+    int rc;
+    if (strcmp(file, "-") == 0 || gs_cli_has(cl, "limit")) {
+        rn->pub.skipped = strcmp(file, "-") == 0
+            ? "Not computed: the circuit was read from standard input, "
+              "which can be read once; run gainsmith noise on a file."
+            : "Not computed under --limit: gainsmith noise derives its "
+              "transfers without limits, so its figures would not be "
+              "those of this document.";
+        return &rn->pub;
+    }
+    gs_derive_opts_default(&o);
+    if (gs_cmd_budget(&o, cl, "report", err))
+        return NULL;
+    gs_diag_init(&d);
+    rc = gs_job_load(&rn->j, file, &d);
+    if (rc == GS_OK
+        && gs_noise_setup(&rn->n, rn->j.c, gs_cli_get(cl, "only", 0), &d)
+           != GS_OK) {
+        gs_diag_clear(&d);      /* no noise source: no section */
+        return NULL;
+    }
+    if (rc == GS_OK)
+        rc = noise_derive(rn, &o, &d);
+    if (rc == GS_OK && noise_bind(rn, cl) != 0)
+        rc = GS_EUNBOUND;
+    if (rc == GS_OK)
+        rc = gs_noise_num_make(&rn->nn, &rn->n, &rn->j, &d);
+    gs_diag_clear(&d);
+    if (rc != GS_OK) {
+        rn->why = gs_asprintf("Not computed: %s; gainsmith noise on the "
+                              "file says where.", gs_strerror(rc));
+        rn->pub.skipped = rn->why;
+        return &rn->pub;
+    }
+    rn->pub.n = &rn->n;
+    rn->pub.nn = &rn->nn;
+    rn->pub.j = &rn->j;
+    return &rn->pub;
+}
+
+static int write_report(const gs_job *j, const char *path,
+                        const gs_report_noise *noise, FILE *out, FILE *err)
 {
     gs_report_out o;
     int format = gs_report_format_of(path), rc;
@@ -37,6 +146,7 @@ static int write_report(const gs_job *j, const char *path, FILE *out,
     o.f = fopen(path, "w");
     o.path = path;
     o.nfig = 0;
+    o.noise = noise;
     if (o.f == NULL) {
         fprintf(err, "gainsmith report: error: cannot write '%s'\n", path);
         return 2;
@@ -54,6 +164,7 @@ int gs_cmd_report(int argc, char **argv, FILE *out, FILE *err)
 {
     gs_cli cl;
     gs_job j;
+    report_noise rn;
     int status, i;
     const char *path = NULL;
     char **args = gs_malloc((size_t)(argc + 1) * sizeof *args);
@@ -63,6 +174,7 @@ int gs_cmd_report(int argc, char **argv, FILE *out, FILE *err)
         args[i] = strcmp(argv[i], "-o") == 0 ? "--output" : argv[i];
     args[argc] = NULL;
     gs_job_init(&j);
+    report_noise_init(&rn);
     status = gs_cli_parse(&cl, argc, args, report_spec, err);
     if (status == 0 && gs_cli_has(&cl, "help")) {
         fputs(gs_cmd_help_text("report"), out);
@@ -86,8 +198,11 @@ int gs_cmd_report(int argc, char **argv, FILE *out, FILE *err)
     if (status == 0)        /* for the check section, as check does */
         gs_refcheck_generic_values(&j, NULL);
     if (status == 0)
-        status = write_report(&j, path, out, err);
+        status = write_report(&j, path,
+                              noise_make(&rn, &cl, cl.pos[0], err),
+                              out, err);
 done:
+    report_noise_clear(&rn);
     free(args);
     gs_cli_clear(&cl);
     gs_job_clear(&j);

@@ -15,6 +15,7 @@
 #include "analysis/refcheck.h"
 #include "analysis/sens.h"
 #include "base/mem.h"
+#include "base/si.h"
 #include "gainsmith.h"
 #include "numeric/freq.h"
 #include "numeric/roots.h"
@@ -579,6 +580,126 @@ done:
     gs_approx_result_clear(&a);
 }
 
+/* "V" or "A": the unit of output k's output quantity or of its input. */
+static const char *noise_unit(const gs_circuit *c, size_t out, int input)
+{
+    if (input)
+        return c->elems[c->outputs[out].in].kind == GS_ISOURCE ? "A" : "V";
+    return c->outputs[out].out.kind == GS_PROBE_I ? "A" : "V";
+}
+
+typedef struct noise_rank {
+    size_t k;
+    long double v;
+} noise_rank;
+
+/* Largest first; equal ones in the order of the sources. */
+static int by_band_share(const void *a, const void *b)
+{
+    const noise_rank *x = a, *y = b;
+    if (x->v != y->v)
+        return x->v < y->v ? 1 : -1;
+    return x->k < y->k ? -1 : x->k > y->k;
+}
+
+/* The table of the noise section: per source its density at the spot
+   frequency and its rms over the band, each with its share of the
+   total power, sorted by the band share. */
+static void noise_table(rctx *r, const gs_noise *n, const long double *spot,
+                        long double spot_tot, const long double *band,
+                        long double band_tot, const char *unit)
+{
+    static const char *const head[] = {
+        "source", "density at the spot", "share", "rms over the band",
+        "share"
+    };
+    char **cells = gs_malloc((n->nsrc + 1) * 5 * sizeof *cells), b[64];
+    noise_rank *rk = gs_malloc((n->nsrc ? n->nsrc : 1) * sizeof *rk);
+    char u[32];
+    size_t k, row;
+    for (k = 0; k < n->nsrc; k++) {
+        rk[k].k = k;
+        rk[k].v = band[k];
+    }
+    qsort(rk, n->nsrc, sizeof *rk, by_band_share);
+    for (k = 0; k < 5; k++)
+        cells[k] = gs_strdup(head[k]);
+    snprintf(u, sizeof u, "%s/rtHz", unit);
+    for (row = 1; row <= n->nsrc; row++) {
+        size_t s = rk[row - 1].k;
+        char **c = &cells[row * 5];
+        c[0] = gs_strdup(n->src[s].name);
+        c[1] = gs_strdup(gs_si_format(b, sizeof b, sqrtl(spot[s]), 4, u));
+        c[2] = gs_asprintf("%.2Lf %%", spot_tot > 0
+                                       ? 100 * spot[s] / spot_tot : 0);
+        c[3] = gs_strdup(gs_si_format(b, sizeof b, sqrtl(band[s]), 4,
+                                      unit));
+        c[4] = gs_asprintf("%.2Lf %%", band_tot > 0
+                                       ? 100 * band[s] / band_tot : 0);
+    }
+    r->w->table(r->o, cells, n->nsrc + 1, 5);
+    for (k = 0; k < (n->nsrc + 1) * 5; k++)
+        free(cells[k]);
+    free(cells);
+    free(rk);
+}
+
+/* The noise of this output (noise.h), when the report was given a noise
+   analysis with this output among its targets: the output and
+   input-referred density at a spot frequency (the geometric centre of
+   the Bode plot's span), the rms over that span, and each source's
+   share, the table a reviewer reads first. */
+static void sec_noise(rctx *r)
+{
+    const gs_report_noise *z = r->o->noise;
+    const gs_circuit *c;
+    size_t ti, out = r->j->out_index[r->i];
+    long double lo, hi, spot, tot, in, btot, bin, *ps, *pb;
+    char b1[64], b2[64], b3[64], b4[64], f1[48], f2[48], f3[48], u[32];
+    char *t;
+    if (z == NULL || !r->have_h)
+        return;
+    if (z->skipped) {
+        r->w->heading(r->o, 3, "Noise");
+        r->w->para(r->o, z->skipped);
+        return;
+    }
+    for (ti = 0; ti < z->n->ntarget; ti++)
+        if (z->n->target[ti].out == out)
+            break;
+    if (ti == z->n->ntarget)
+        return;
+    c = z->j->c;
+    span(&lo, &hi, &r->h);
+    spot = sqrtl(lo * hi);
+    ps = gs_calloc(z->n->nsrc ? z->n->nsrc : 1, sizeof *ps);
+    pb = gs_calloc(z->n->nsrc ? z->n->nsrc : 1, sizeof *pb);
+    tot = gs_noise_out_psd(z->nn, ti, spot, ps);
+    in = gs_noise_in_psd(z->nn, ti, spot);
+    gs_noise_band(&btot, &bin, pb, z->nn, ti, lo, hi);
+    r->w->heading(r->o, 3, "Noise");
+    snprintf(u, sizeof u, "%s/rtHz", noise_unit(c, out, 0));
+    gs_si_format(b1, sizeof b1, sqrtl(tot), 4, u);
+    snprintf(u, sizeof u, "%s/rtHz", noise_unit(c, out, 1));
+    gs_si_format(b2, sizeof b2, sqrtl(in), 4, u);
+    gs_si_format(b3, sizeof b3, sqrtl(btot), 4, noise_unit(c, out, 0));
+    gs_si_format(b4, sizeof b4, sqrtl(bin), 4, noise_unit(c, out, 1));
+    t = gs_asprintf("At T = %.6Lg K. At the spot frequency %s: output %s, "
+                    "input-referred %s. From %s to %s, the span of the "
+                    "Bode plot: output %s rms, input-referred %s rms.",
+                    z->nn->t, gs_si_format(f3, sizeof f3, spot, 4, "Hz"),
+                    b1, b2, gs_si_format(f1, sizeof f1, lo, 4, "Hz"),
+                    gs_si_format(f2, sizeof f2, hi, 4, "Hz"), b3, b4);
+    r->w->para(r->o, t);
+    free(t);
+    noise_table(r, z->n, ps, tot, pb, btot, noise_unit(c, out, 0));
+    r->w->para(r->o, "Noise results are small-signal white-plus-flicker "
+               "models at one operating point and one temperature, the "
+               "sources taken as uncorrelated (docs/noise.md).");
+    free(ps);
+    free(pb);
+}
+
 /* The verdict of `gainsmith check` with its defaults: the exact result
    against the reference that bounds its own error (analysis/refcheck.h)
    at 61 log-spaced frequencies from 10 mHz to 10 GHz, relative error at
@@ -641,7 +762,7 @@ static const section_fn out_sections[] = {
     sec_bode,
     sec_step,
     sec_sens,
-    /* >>> the noise section goes here */
+    sec_noise,
     sec_check,
 };
 

@@ -6,7 +6,9 @@
  * terms when long), the short forms of approx.h with their measured
  * errors (or a sentence saying there is none), the DC gain, the poles
  * and zeros, the Bode plot and step response (svg.h), the sensitivity
- * table (sens.h), then the caution.  The document is a list of section writers (report.c); the
+ * table (sens.h), the noise at a spot frequency and over the plot's
+ * span with each source's share (noise.h), the check verdict, then the
+ * caution.  The document is a list of section writers (report.c); the
  * format is a gs_report_writer (report_html.c, report_md.c, report_tex.c).
  */
 #ifndef GS_REPORT_H
@@ -15,17 +17,30 @@
 #include <stdio.h>
 
 #include "analysis/job.h"
+#include "analysis/noise.h"
 
 typedef enum gs_report_format {
     GS_REPORT_HTML, GS_REPORT_MD, GS_REPORT_TEX
 } gs_report_format;
 
+/* The noise analysis of the circuit, made beside the job (noise.h): its
+   sources and targets, their numbers, and the job that derived them; or
+   only `skipped`, a sentence saying why there is none. */
+typedef struct gs_report_noise {
+    const gs_noise *n;
+    const gs_noise_num *nn;
+    const gs_job *j;
+    const char *skipped;
+} gs_report_noise;
+
 /* Where a document goes: path names it (the Markdown writer puts its SVG
-   files beside it, PATH-N.svg); nfig counts the figures written. */
+   files beside it, PATH-N.svg); nfig counts the figures written; noise,
+   when not NULL, adds a noise section to each output it analysed. */
 typedef struct gs_report_out {
     FILE *f;
     const char *path;
     int nfig;
+    const gs_report_noise *noise;
 } gs_report_out;
 
 /* One format.  Strings are UTF-8 and unescaped; each writer escapes.
