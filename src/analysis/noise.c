@@ -474,3 +474,39 @@ void gs_noise_band(long double *out, long double *in, long double *part,
     a.t = NULL;
     *in = gs_spectrum_integrate(in_fn, &a, f1, f2, 1e-13L);
 }
+
+const char *gs_noise_unit(const gs_circuit *c, size_t out, int input)
+{
+    if (input)
+        return c->elems[c->outputs[out].in].kind == GS_ISOURCE ? "A" : "V";
+    return c->outputs[out].out.kind == GS_PROBE_I ? "A" : "V";
+}
+
+/* qsort's comparison sees only the indices; the values ride along. */
+typedef struct ranked_entry {
+    size_t k;
+    long double v;
+} ranked_entry;
+
+static int by_size(const void *a, const void *b)
+{
+    const ranked_entry *x = a, *y = b;
+    if (x->v != y->v)
+        return x->v < y->v ? 1 : -1;
+    return x->k < y->k ? -1 : x->k > y->k;
+}
+
+size_t *gs_noise_ranked(const long double *part, size_t n)
+{
+    ranked_entry *e = gs_calloc(n ? n : 1, sizeof *e);
+    size_t *r = gs_calloc(n ? n : 1, sizeof *r), k;
+    for (k = 0; k < n; k++) {
+        e[k].k = k;
+        e[k].v = part[k];
+    }
+    qsort(e, n, sizeof *e, by_size);
+    for (k = 0; k < n; k++)
+        r[k] = e[k].k;
+    free(e);
+    return r;
+}

@@ -119,6 +119,15 @@ int gs_noise_num_make(gs_noise_num *nn, const gs_noise *n, const gs_job *j,
                       gs_diag *d);
 void gs_noise_num_clear(gs_noise_num *nn);
 
+/* "V" or "A": the unit of the output quantity of output `out` of c, or
+   (input set) of its input source. */
+const char *gs_noise_unit(const gs_circuit *c, size_t out, int input);
+
+/* The indices 0..n-1 in decreasing order of part[k], equal ones in
+   source order: the ranking of the contribution tables (a new array the
+   caller frees). */
+size_t *gs_noise_ranked(const long double *part, size_t n);
+
 /* The output density of target i at f (unit^2/Hz), and each source's
    part of it in part[k] (part may be NULL). */
 long double gs_noise_out_psd(const gs_noise_num *nn, size_t i, long double f,

@@ -126,16 +126,6 @@ static const gs_tf *tf_for(const gs_job *j, size_t out)
     return NULL;
 }
 
-static const char *out_unit(const gs_circuit *c, size_t out)
-{
-    return c->outputs[out].out.kind == GS_PROBE_I ? "A" : "V";
-}
-
-static const char *in_unit(const gs_circuit *c, size_t out)
-{
-    return c->elems[c->outputs[out].in].kind == GS_ISOURCE ? "A" : "V";
-}
-
 static void print_tf(FILE *out, const gs_tf *tf, const char *format)
 {
     int var = tf->s_var;
@@ -182,12 +172,12 @@ static void print_latex_densities(FILE *out, const gs_job *j,
         free(tex);
         free(h);
     }
-    fprintf(out, "\\quad \\mathrm{%s^2/Hz}\n", out_unit(j->c, t->out));
+    fprintf(out, "\\quad \\mathrm{%s^2/Hz}\n", gs_noise_unit(j->c, t->out, 0));
     fputs(long_sum ? "\\end{multline*}\n" : "\\end{equation}\n", out);
     tex = gs_sym_latex_name(gs_tf_name(tf));
     fprintf(out, "\\begin{equation}\nS_{\\mathrm{in}} = \\frac{S_{\\mathrm"
             "{out}}}{\\left|%s\\right|^{2}} \\quad \\mathrm{%s^2/Hz}\n"
-            "\\end{equation}\n", tex, in_unit(j->c, t->out));
+            "\\end{equation}\n", tex, gs_noise_unit(j->c, t->out, 1));
     free(tex);
     for (k = 0; k < n->nsrc; k++) {
         tex = gs_formula_latex(n->src[k].density);
@@ -225,9 +215,9 @@ static void print_symbolic(FILE *out, const gs_job *j, const gs_noise *n,
         fprintf(out, "%s|%s|^2*S_%s", k ? " + " : "", h, n->src[k].name);
         free(h);
     }
-    fprintf(out, "   (%s^2/Hz)\n", out_unit(j->c, t->out));
+    fprintf(out, "   (%s^2/Hz)\n", gs_noise_unit(j->c, t->out, 0));
     fprintf(out, "%sS_in = S_out/|%s|^2   (%s^2/Hz)\n", c, gs_tf_name(tf),
-            in_unit(j->c, t->out));
+            gs_noise_unit(j->c, t->out, 1));
     for (k = 0; k < n->nsrc; k++)
         fprintf(out, "%sS_%s = %s   (%s)\n", c, n->src[k].name,
                 n->src[k].density, n->src[k].unit);
@@ -236,31 +226,6 @@ static void print_symbolic(FILE *out, const gs_job *j, const gs_noise *n,
     print_tf(out, tf, format);
     for (k = 0; k < n->nsrc; k++)
         print_tf(out, tf_for(j, t->first + k), format);
-}
-
-typedef struct rank {
-    size_t k;
-    long double v;
-} rank;
-
-static int by_size(const void *a, const void *b)
-{
-    const rank *x = a, *y = b;
-    if (x->v != y->v)
-        return x->v < y->v ? 1 : -1;
-    return x->k < y->k ? -1 : x->k > y->k;
-}
-
-static rank *ranked(const long double *part, size_t n)
-{
-    rank *r = gs_calloc(n ? n : 1, sizeof *r);
-    size_t k;
-    for (k = 0; k < n; k++) {
-        r[k].k = k;
-        r[k].v = part[k];
-    }
-    qsort(r, n, sizeof *r, by_size);
-    return r;
 }
 
 static void print_share(FILE *out, const char *name, long double v,
@@ -286,24 +251,24 @@ static void print_spot(FILE *out, const gs_job *j, const gs_noise *n,
 {
     long double *part = gs_calloc(n->nsrc, sizeof *part), tot, in;
     char b[64], u[32], fu[48];
-    rank *r;
+    size_t *r;
     size_t k;
     tot = gs_noise_out_psd(nn, i, f, part);
     in = gs_noise_in_psd(nn, i, f);
-    r = ranked(part, n->nsrc);
-    snprintf(u, sizeof u, "%s/rtHz", out_unit(j->c, n->target[i].out));
+    r = gs_noise_ranked(part, n->nsrc);
+    snprintf(u, sizeof u, "%s/rtHz", gs_noise_unit(j->c, n->target[i].out, 0));
     fprintf(out, "%s at %s (T = %.6Lg K)\n",
             gs_tf_name(tf_for(j, n->target[i].out)),
             gs_si_format(fu, sizeof fu, f, 6, "Hz"), nn->t);
     fprintf(out, "  output          %s\n",
             gs_si_format(b, sizeof b, sqrtl(tot), 6, u));
-    snprintf(u, sizeof u, "%s/rtHz", in_unit(j->c, n->target[i].out));
+    snprintf(u, sizeof u, "%s/rtHz", gs_noise_unit(j->c, n->target[i].out, 1));
     fprintf(out, "  input-referred  %s\n",
             gs_si_format(b, sizeof b, sqrtl(in), 6, u));
-    snprintf(u, sizeof u, "%s/rtHz", out_unit(j->c, n->target[i].out));
+    snprintf(u, sizeof u, "%s/rtHz", gs_noise_unit(j->c, n->target[i].out, 0));
     fputs("  sources at the output, largest first:\n", out);
     for (k = 0; k < n->nsrc; k++)
-        print_share(out, n->src[r[k].k].name, sqrtl(r[k].v), tot, u);
+        print_share(out, n->src[r[k]].name, sqrtl(part[r[k]]), tot, u);
     if (o->rs_src >= 0)
         print_nf(out, tot, part[o->rs_src], "(spot)");
     free(r);
@@ -316,8 +281,8 @@ static void print_band(FILE *out, const gs_job *j, const gs_noise *n,
                        long double t)
 {
     char b[64], f1[48], f2[48];
-    const char *u = out_unit(j->c, n->target[i].out);
-    rank *r = ranked(part, n->nsrc);
+    const char *u = gs_noise_unit(j->c, n->target[i].out, 0);
+    size_t *r = gs_noise_ranked(part, n->nsrc);
     size_t k;
     fprintf(out, "%s from %s to %s (T = %.6Lg K)\n",
             gs_tf_name(tf_for(j, n->target[i].out)),
@@ -327,10 +292,10 @@ static void print_band(FILE *out, const gs_job *j, const gs_noise *n,
             gs_si_format(b, sizeof b, sqrtl(tot), 6, u));
     fprintf(out, "  input-referred rms  %s\n",
             gs_si_format(b, sizeof b, sqrtl(in), 6,
-                         in_unit(j->c, n->target[i].out)));
+                         gs_noise_unit(j->c, n->target[i].out, 1)));
     fputs("  sources at the output, largest first:\n", out);
     for (k = 0; k < n->nsrc; k++)
-        print_share(out, n->src[r[k].k].name, sqrtl(r[k].v), tot, u);
+        print_share(out, n->src[r[k]].name, sqrtl(part[r[k]]), tot, u);
     if (o->rs_src >= 0)
         print_nf(out, tot, part[o->rs_src], "(band)");
     free(r);
@@ -360,12 +325,12 @@ static void print_json(FILE *out, const gs_job *j, const gs_noise *n,
 {
     long double *part = gs_calloc(n->nsrc, sizeof *part), tot, in;
     size_t i, k;
-    rank *r;
+    size_t *r;
     fputc('[', out);
     for (i = 0; i < n->ntarget; i++) {
         const gs_tf *tf = tf_for(j, n->target[i].out);
         gs_noise_band(&tot, &in, part, nn, i, o->f1, o->f2);
-        r = ranked(part, n->nsrc);
+        r = gs_noise_ranked(part, n->nsrc);
         fputs(i ? ",\n {\"name\": " : "{\"name\": ", out);
         json_str(out, gs_tf_name(tf));
         fputs(", \"band\": [", out);
@@ -375,8 +340,8 @@ static void print_json(FILE *out, const gs_job *j, const gs_noise *n,
         fputs("], \"temperature\": ", out);
         json_num(out, nn->t);
         fprintf(out, ", \"output_unit\": \"%s\", \"input_unit\": \"%s\", "
-                "\"output_rms\": ", out_unit(j->c, n->target[i].out),
-                in_unit(j->c, n->target[i].out));
+                "\"output_rms\": ", gs_noise_unit(j->c, n->target[i].out, 0),
+                gs_noise_unit(j->c, n->target[i].out, 1));
         json_num(out, sqrtl(tot));
         fputs(", \"input_rms\": ", out);
         json_num(out, sqrtl(in));
@@ -386,16 +351,16 @@ static void print_json(FILE *out, const gs_job *j, const gs_noise *n,
         }
         fputs(", \"sources\": [", out);
         for (k = 0; k < n->nsrc; k++) {
-            const gs_noise_src *s = &n->src[r[k].k];
+            const gs_noise_src *s = &n->src[r[k]];
             char *h = h_name(s->name);
             fputs(k ? ", {\"name\": " : "{\"name\": ", out);
             json_str(out, s->name);
             fputs(", \"density\": ", out);
             json_str(out, s->density);
             fputs(", \"output_rms\": ", out);
-            json_num(out, sqrtl(r[k].v));
+            json_num(out, sqrtl(part[r[k]]));
             fputs(", \"transfer\": ", out);
-            gs_print_json(out, tf_for(j, n->target[i].first + r[k].k),
+            gs_print_json(out, tf_for(j, n->target[i].first + r[k]),
                           tf->s_var);
             fputc('}', out);
             free(h);
@@ -460,8 +425,8 @@ static int spectrum(const gs_job *j, const gs_noise *n,
         for (i = 0; i < nt; i++) {
             const char *nm = gs_tf_name(tf_for(j, n->target[i].out));
             fprintf(f, ",%s_out_%s_rtHz,%s_out_dB,%s_in_%s_rtHz,%s_in_dB",
-                    nm, out_unit(j->c, n->target[i].out), nm, nm,
-                    in_unit(j->c, n->target[i].out), nm);
+                    nm, gs_noise_unit(j->c, n->target[i].out, 0), nm, nm,
+                    gs_noise_unit(j->c, n->target[i].out, 1), nm);
             for (k = 0; k < n->nsrc; k++)
                 fprintf(f, ",%s_%s_rtHz", nm, n->src[k].name);
         }

@@ -580,28 +580,6 @@ done:
     gs_approx_result_clear(&a);
 }
 
-/* "V" or "A": the unit of output k's output quantity or of its input. */
-static const char *noise_unit(const gs_circuit *c, size_t out, int input)
-{
-    if (input)
-        return c->elems[c->outputs[out].in].kind == GS_ISOURCE ? "A" : "V";
-    return c->outputs[out].out.kind == GS_PROBE_I ? "A" : "V";
-}
-
-typedef struct noise_rank {
-    size_t k;
-    long double v;
-} noise_rank;
-
-/* Largest first; equal ones in the order of the sources. */
-static int by_band_share(const void *a, const void *b)
-{
-    const noise_rank *x = a, *y = b;
-    if (x->v != y->v)
-        return x->v < y->v ? 1 : -1;
-    return x->k < y->k ? -1 : x->k > y->k;
-}
-
 /* The table of the noise section: per source its density at the spot
    frequency and its rms over the band, each with its share of the
    total power, sorted by the band share. */
@@ -614,19 +592,14 @@ static void noise_table(rctx *r, const gs_noise *n, const long double *spot,
         "share"
     };
     char **cells = gs_malloc((n->nsrc + 1) * 5 * sizeof *cells), b[64];
-    noise_rank *rk = gs_malloc((n->nsrc ? n->nsrc : 1) * sizeof *rk);
+    size_t *rk = gs_noise_ranked(band, n->nsrc);
     char u[32];
     size_t k, row;
-    for (k = 0; k < n->nsrc; k++) {
-        rk[k].k = k;
-        rk[k].v = band[k];
-    }
-    qsort(rk, n->nsrc, sizeof *rk, by_band_share);
     for (k = 0; k < 5; k++)
         cells[k] = gs_strdup(head[k]);
     snprintf(u, sizeof u, "%s/rtHz", unit);
     for (row = 1; row <= n->nsrc; row++) {
-        size_t s = rk[row - 1].k;
+        size_t s = rk[row - 1];
         char **c = &cells[row * 5];
         c[0] = gs_strdup(n->src[s].name);
         c[1] = gs_strdup(gs_si_format(b, sizeof b, sqrtl(spot[s]), 4, u));
@@ -678,12 +651,12 @@ static void sec_noise(rctx *r)
     in = gs_noise_in_psd(z->nn, ti, spot);
     gs_noise_band(&btot, &bin, pb, z->nn, ti, lo, hi);
     r->w->heading(r->o, 3, "Noise");
-    snprintf(u, sizeof u, "%s/rtHz", noise_unit(c, out, 0));
+    snprintf(u, sizeof u, "%s/rtHz", gs_noise_unit(c, out, 0));
     gs_si_format(b1, sizeof b1, sqrtl(tot), 4, u);
-    snprintf(u, sizeof u, "%s/rtHz", noise_unit(c, out, 1));
+    snprintf(u, sizeof u, "%s/rtHz", gs_noise_unit(c, out, 1));
     gs_si_format(b2, sizeof b2, sqrtl(in), 4, u);
-    gs_si_format(b3, sizeof b3, sqrtl(btot), 4, noise_unit(c, out, 0));
-    gs_si_format(b4, sizeof b4, sqrtl(bin), 4, noise_unit(c, out, 1));
+    gs_si_format(b3, sizeof b3, sqrtl(btot), 4, gs_noise_unit(c, out, 0));
+    gs_si_format(b4, sizeof b4, sqrtl(bin), 4, gs_noise_unit(c, out, 1));
     t = gs_asprintf("At T = %.6Lg K. At the spot frequency %s: output %s, "
                     "input-referred %s. From %s to %s, the span of the "
                     "Bode plot: output %s rms, input-referred %s rms.",
@@ -692,7 +665,7 @@ static void sec_noise(rctx *r)
                     gs_si_format(f2, sizeof f2, hi, 4, "Hz"), b3, b4);
     r->w->para(r->o, t);
     free(t);
-    noise_table(r, z->n, ps, tot, pb, btot, noise_unit(c, out, 0));
+    noise_table(r, z->n, ps, tot, pb, btot, gs_noise_unit(c, out, 0));
     r->w->para(r->o, "Noise results are small-signal white-plus-flicker "
                "models at one operating point and one temperature, the "
                "sources taken as uncorrelated (docs/noise.md).");
