@@ -61,53 +61,46 @@ overfull() {
     grep -o 'Overfull \\hbox ([0-9.]*pt' "$1" | sed 's/.*(//; s/pt//' \
         | awk '$1 > 10' | wc -l
 }
-longest=0
-for gsc in examples/*.gsc; do
-    ex=$(basename "$gsc" .gsc)
+# article EX CMD GSC: the output of `gainsmith CMD GSC --format latex`
+# in an amsmath article, $tmp/EX.tex; fails when the command does
+article() {
     {
         printf '\\documentclass{article}\n\\usepackage{amsmath}\n'
         printf '\\begin{document}\n'
-        "$build/gainsmith" derive "$gsc" --format latex
+        "$build/gainsmith" "$2" "$3" --format latex
         printf '\\end{document}\n'
-    } >"$tmp/$ex.tex" 2>"$tmp/$ex.err" || { fail "$ex: derive failed"; continue; }
+    } >"$tmp/$1.tex" 2>"$tmp/$1.err"
+}
+# compiles EX WHAT: $tmp/EX.tex compiles with pdflatex, within the margin
+compiles() {
+    if (cd "$tmp" && pdflatex -interaction=nonstopmode -halt-on-error \
+            "$1.tex" >/dev/null 2>&1); then
+        pass
+    else
+        fail "$1: $2 does not compile"
+        grep -A 3 '^!' "$tmp/$1.log" 2>/dev/null | head -n 10
+        return
+    fi
+    bad=$(overfull "$tmp/$1.log")
+    [ "$bad" -eq 0 ] && pass || fail "$1: $2 has $bad overfull boxes > 10pt"
+}
+longest=0
+for gsc in examples/*.gsc; do
+    ex=$(basename "$gsc" .gsc)
+    article "$ex" derive "$gsc" || { fail "$ex: derive failed"; continue; }
     # terms of the longest side, counted in the text form
     n=$("$build/gainsmith" derive "$gsc" | tr '+-' '\n\n' | wc -l)
     [ "$n" -gt "$longest" ] && longest=$n
-    if (cd "$tmp" && pdflatex -interaction=nonstopmode -halt-on-error \
-            "$ex.tex" >/dev/null 2>&1); then
-        pass
-    else
-        fail "$ex: derive --format latex does not compile"
-        grep -A 3 '^!' "$tmp/$ex.log" 2>/dev/null | head -n 10
-        continue
-    fi
-    bad=$(overfull "$tmp/$ex.log")
-    [ "$bad" -eq 0 ] && pass \
-        || fail "$ex: derive --format latex has $bad overfull boxes > 10pt"
+    compiles "$ex" "derive --format latex"
 done
 # noise --format latex of the noise examples: the densities as equations
 # (output/formula.h) compile, within the margin
 for gsc in examples/noise_*.gsc; do
     ex=$(basename "$gsc" .gsc)-noise
-    {
-        printf '\\documentclass{article}\n\\usepackage{amsmath}\n'
-        printf '\\begin{document}\n'
-        "$build/gainsmith" noise "$gsc" --format latex
-        printf '\\end{document}\n'
-    } >"$tmp/$ex.tex" 2>"$tmp/$ex.err" || { fail "$ex: noise failed"; continue; }
+    article "$ex" noise "$gsc" || { fail "$ex: noise failed"; continue; }
     grep -q '^S_{\\mathrm{out}} = ' "$tmp/$ex.tex" && pass \
         || fail "$ex: no S_out equation"
-    if (cd "$tmp" && pdflatex -interaction=nonstopmode -halt-on-error \
-            "$ex.tex" >/dev/null 2>&1); then
-        pass
-    else
-        fail "$ex: noise --format latex does not compile"
-        grep -A 3 '^!' "$tmp/$ex.log" 2>/dev/null | head -n 10
-        continue
-    fi
-    bad=$(overfull "$tmp/$ex.log")
-    [ "$bad" -eq 0 ] && pass \
-        || fail "$ex: noise --format latex has $bad overfull boxes > 10pt"
+    compiles "$ex" "noise --format latex"
 done
 [ "$longest" -ge 30 ] && pass \
     || fail "no example has a result of 30 or more terms ($longest)"
