@@ -93,6 +93,9 @@ int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
     size_t i;
     int status, style = GS_FORM_TEXT, json = 0, unmet = 0;
     const char *fmt, *t;
+    FILE *doc = out;
+    char *doc_buf = NULL;
+    size_t doc_len = 0;
 
     gs_job_init(&j);
     gs_approx_opts_default(&o);
@@ -133,8 +136,17 @@ int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
         status = gs_cmd_load_and_derive(&j, &cl, "approx", err);
     if (status == 0)
         status = gs_cmd_bind(&j, &cl, err);
+    /* a JSON document is written whole or not at all: held until every
+       output is done, so that an error leaves no half array on stdout */
+    if (json && status == 0) {
+        doc = open_memstream(&doc_buf, &doc_len);
+        if (doc == NULL) {
+            fprintf(err, "gainsmith approx: error: out of memory\n");
+            status = 1;
+        }
+    }
     if (json && status == 0)
-        fputs("[\n", out);
+        fputs("[\n", doc);
     for (i = 0; status == 0 && i < j.ntf; i++) {
         gs_approx_result r;
         gs_diag d;
@@ -148,11 +160,11 @@ int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
             status = 1;
         } else {
             if (json)
-                gs_print_approx_json(out, &r);
+                gs_print_approx_json(doc, &r);
             else
-                gs_print_approx(out, &r, style);
+                gs_print_approx(doc, &r, style);
             if (json)
-                fputs(i + 1 < j.ntf ? ",\n" : "\n", out);
+                fputs(i + 1 < j.ntf ? ",\n" : "\n", doc);
             if (!r.met) {
                 fprintf(err, "gainsmith approx: error: %s: the tolerance "
                         "could not be met; the best form reached is "
@@ -177,7 +189,14 @@ int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
         gs_diag_clear(&d);
     }
     if (json && status == 0)
-        fputs("]\n", out);
+        fputs("]\n", doc);
+    if (doc != out) {
+        if (doc != NULL)
+            fclose(doc);
+        if (status == 0 || unmet)
+            fwrite(doc_buf, 1, doc_len, out);
+        free(doc_buf);
+    }
     if (status == 0 && unmet)
         status = 1;
 done:
