@@ -46,12 +46,8 @@ static int has_value_line(const gs_circuit *c, const char *key,
 {
     char *name = gs_asprintf("%s_%s", key, dev);
     int sym = gs_symtab_find(c->syms, name);
-    size_t i;
     free(name);
-    for (i = 0; sym >= 0 && i < c->nvalues; i++)
-        if (c->values[i].sym == sym)
-            return 1;
-    return 0;
+    return sym >= 0 && gs_circuit_find_value(c, sym) >= 0;
 }
 
 static void add_src(gs_noise *n, gs_noise_kind kind, const char *name,

@@ -156,6 +156,15 @@ void gs_circuit_clear_outputs(gs_circuit *c)
     c->noutputs = 0;
 }
 
+int gs_circuit_find_value(const gs_circuit *c, int sym)
+{
+    size_t i;
+    for (i = 0; i < c->nvalues; i++)
+        if (c->values[i].sym == sym)
+            return (int)i;
+    return -1;
+}
+
 size_t gs_circuit_add_value(gs_circuit *c, int sym, gs_expr *expr,
                             const char *origin, int line, int col)
 {

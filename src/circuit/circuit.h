@@ -231,6 +231,8 @@ int gs_circuit_check(const gs_circuit *c, gs_diag *d);
 int gs_circuit_find_element(const gs_circuit *c, const char *name);
 int gs_circuit_find_node(const gs_circuit *c, const char *name);
 int gs_circuit_find_output(const gs_circuit *c, const char *name);
+/* The index in c->values of the definition of symbol sym, or -1. */
+int gs_circuit_find_value(const gs_circuit *c, int sym);
 int gs_circuit_find_device(const gs_circuit *c, const char *name);
 
 /* Drop every output (transfer and impedance lines), freeing them. */

@@ -362,15 +362,6 @@ static int parse_ground(gs_parser *p, const stmt_kind *k)
     return GS_OK;
 }
 
-static int find_value(const gs_circuit *c, int sym)
-{
-    size_t i;
-    for (i = 0; i < c->nvalues; i++)
-        if (c->values[i].sym == sym)
-            return (int)i;
-    return -1;
-}
-
 static int parse_value(gs_parser *p, const stmt_kind *k)
 {
     const gs_token *t = gs_cur_next(&p->cur), *eq;
@@ -393,7 +384,7 @@ static int parse_value(gs_parser *p, const stmt_kind *k)
         gs_expr_free(e);
         return GS_ESYNTAX;
     }
-    if ((prev = find_value(p->c, sym)) >= 0) {
+    if ((prev = gs_circuit_find_value(p->c, sym)) >= 0) {
         gs_cur_error(&p->cur, t, NULL, "duplicate value for '%s' (first at "
                      "%d:%d)", t->text, p->c->values[prev].line,
                      p->c->values[prev].col);

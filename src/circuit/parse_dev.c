@@ -171,19 +171,28 @@ static int noise_index(const dev_line *L, const char *key)
     return -1;
 }
 
-/* A noise parameter KEY=EXPR of a mosfet line: an expression as on a
-   value line (its sign is checked where the noise analysis reads it). */
-static int parse_noise_param(gs_parser *p, dev_line *L, int k)
+/* Past the KEY = at the cursor, noted in *seen; an error when *seen
+   already holds an earlier one. */
+static int take_key(gs_parser *p, const gs_token **seen)
 {
     const gs_token *key = gs_cur_peek(&p->cur);
-    if (L->nz_key[k] != NULL) {
+    if (*seen != NULL) {
         gs_cur_error(&p->cur, key, NULL, "parameter '%s' given twice",
                      key->text);
         return GS_ESYNTAX;
     }
     gs_cur_next(&p->cur);
     gs_cur_next(&p->cur);               /* '=' */
-    L->nz_key[k] = key;
+    *seen = key;
+    return GS_OK;
+}
+
+/* A noise parameter KEY=EXPR of a mosfet line: an expression as on a
+   value line (its sign is checked where the noise analysis reads it). */
+static int parse_noise_param(gs_parser *p, dev_line *L, int k)
+{
+    if (take_key(p, &L->nz_key[k]) != GS_OK)
+        return GS_ESYNTAX;
     return gs_parse_expr(&L->nz_expr[k], &p->cur, p->c) == GS_OK
            ? GS_OK : GS_ESYNTAX;
 }
@@ -193,21 +202,17 @@ static int parse_noise_param(gs_parser *p, dev_line *L, int k)
    duplicate (reported where the second one is). */
 static int add_noise_values(gs_parser *p, dev_line *L)
 {
-    int k, line, col, sym;
-    size_t i;
+    int k, line, col, sym, prev;
     for (k = 0; k < NOISE_KEYS; k++) {
         char *name, *origin;
         if (L->nz_key[k] == NULL)
             continue;
         name = gs_asprintf("%s_%s", noise_keys[k], L->name->text);
         sym = gs_symtab_intern(p->c->syms, name);
-        for (i = 0; i < p->c->nvalues; i++)
-            if (p->c->values[i].sym == sym)
-                break;
-        if (i < p->c->nvalues) {
+        if ((prev = gs_circuit_find_value(p->c, sym)) >= 0) {
             gs_cur_error(&p->cur, L->nz_key[k], NULL, "duplicate value for "
                          "'%s' (first at %d:%d)", name,
-                         p->c->values[i].line, p->c->values[i].col);
+                         p->c->values[prev].line, p->c->values[prev].col);
             free(name);
             return GS_ESYNTAX;
         }
@@ -232,17 +237,9 @@ static int parse_param(gs_parser *p, dev_line *L)
     }
     if ((k = noise_index(L, key->text)) >= 0)
         return parse_noise_param(p, L, k);
-    if ((k = param_index(p, L, key)) < 0)
+    if ((k = param_index(p, L, key)) < 0 || take_key(p, &L->key[k]) != GS_OK)
         return GS_ESYNTAX;
-    if (L->key[k] != NULL) {
-        gs_cur_error(&p->cur, key, NULL, "parameter '%s' given twice",
-                     key->text);
-        return GS_ESYNTAX;
-    }
-    gs_cur_next(&p->cur);
-    gs_cur_next(&p->cur);               /* '=' */
     start = gs_cur_peek(&p->cur);
-    L->key[k] = key;
     L->val_off[k] = start->off;
     if (L->params[k].inf_ok && start->kind == GS_TK_IDENT
         && strcmp(start->text, "inf") == 0) {
