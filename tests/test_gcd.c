@@ -10,7 +10,8 @@
  * loops use a seeded generator (seed in argv[1]); failures print the seed,
  * the case and the polynomials in sympy syntax.
  *
- * The file includes poly_gcd.c itself, to reach the remainder-sequence
+ * The file includes the gcd's sources (poly_gcd.c and the three
+ * poly_gcd_*.c it drives) itself, to reach the remainder-sequence
  * fallback and the internal pieces directly.
  */
 #include <inttypes.h>
@@ -24,6 +25,9 @@
 #include "algebra/sym.h"
 
 #include "algebra/poly_gcd.c"
+#include "algebra/poly_gcd_eval.c"
+#include "algebra/poly_gcd_prs.c"
+#include "algebra/poly_gcd_zippel.c"
 
 static uint64_t seed = 20261201u;
 
@@ -1022,7 +1026,7 @@ static void test_gcd_fallback_and_bounds(void)
     for (i = 0; i < 60; i++) {
         factor_pool(F, 6, 0, 3, &rng, &e);
         pool_case(&a, &b, &w, F, i % 3 == 0 ? 2 : 1, &rng, &e);
-        prs_gcd(&g, &a, &b, e.ctx);
+        gs_pgcd_prs(&g, &a, &b, e.ctx);
         CHECK_MSG(associates(&g, &w, &e) && normalised(&g),
                   "prs: seed %" PRIu64 " case %d", seed, i);
         gs_poly_primitive(&A, &a, e.ctx);
@@ -1032,17 +1036,17 @@ static void test_gcd_fallback_and_bounds(void)
         {
             tab ta, tb;
             pts pt;
-            tab_init(&ta, &A, e.ctx);
-            tab_init(&tb, &B, e.ctx);
-            pts_init(&pt, &ta, &tb, e.n);
-            degree_bounds(bd, &ta, &tb, &pt, &r2);
+            gs_pgcd_tab_init(&ta, &A, e.ctx);
+            gs_pgcd_tab_init(&tb, &B, e.ctx);
+            gs_pgcd_pts_init(&pt, &ta, &tb, e.n);
+            gs_pgcd_degree_bounds(bd, &ta, &tb, &pt, &r2);
             for (v = 0; v < e.n; v++)
                 CHECK_MSG(bd[v] >= gs_poly_degree(&w, v, e.ctx),
                           "bounds: seed %" PRIu64 " case %d var %d", seed,
                           i, v);
-            tab_clear(&ta);
-            tab_clear(&tb);
-            pts_clear(&pt);
+            gs_pgcd_tab_clear(&ta);
+            gs_pgcd_tab_clear(&tb);
+            gs_pgcd_pts_clear(&pt);
         }
     }
     for (k = 0; k < NF; k++)
@@ -1106,7 +1110,8 @@ static void test_gcd_lead_factor(void)
         CHECK_MSG(gam.length == 2 * (size_t)(k + 1), "gamma: case %d", k);
         for (r = 0; r < 4; r++)
             bd[r] = gs_poly_degree(&f, r, e.ctx);
-        r = modular_divisor(&c, &qa, &qb, &a, &b, &gam, 0, bd, e.ctx, &rng);
+        r = gs_pgcd_modular_divisor(&c, &qa, &qb, &a, &b, &gam, 0, bd, e.ctx,
+                                    &rng);
         CHECK_MSG(r == R_OK && associates(&c, &f0, &e), "case %d", k);
         check_gcd(&a, &b, &f, &e, "leading coefficient problem", k);
     }
@@ -1178,14 +1183,14 @@ static int support_step(gs_poly *g, const char *sa, const char *sb,
     CHECK(gs_poly_set_str(&a, sa, e->ctx) == GS_OK);
     CHECK(gs_poly_set_str(&b, sb, e->ctx) == GS_OK);
     gs_rng_seed(&rng, seed);
-    tab_init(&ta, &a, e->ctx);
-    tab_init(&tb, &b, e->ctx);
-    pts_init(&pt, &ta, &tb, e->n);
-    found = degree_bounds(bd, &ta, &tb, &pt, &rng) != 0
+    gs_pgcd_tab_init(&ta, &a, e->ctx);
+    gs_pgcd_tab_init(&tb, &b, e->ctx);
+    gs_pgcd_pts_init(&pt, &ta, &tb, e->n);
+    found = gs_pgcd_degree_bounds(bd, &ta, &tb, &pt, &rng) != 0
             && gcd_by_support(g, &a, &b, bd, &ta, &tb, e->ctx, &rng);
-    tab_clear(&ta);
-    tab_clear(&tb);
-    pts_clear(&pt);
+    gs_pgcd_tab_clear(&ta);
+    gs_pgcd_tab_clear(&tb);
+    gs_pgcd_pts_clear(&pt);
     gs_poly_clear(&a);
     gs_poly_clear(&b);
     return found;
