@@ -7,10 +7,12 @@
  * give small values a two-limb array on the stack, so one code path serves
  * every mix of small and big operands.  Results are written into a buffer
  * that is either the output's own (when that is safe) or a fresh one, and
- * set_mag() then installs it, dropping back to the inline form whenever the
- * value fits.
+ * gs_int_set_mag() then installs it, dropping back to the inline form
+ * whenever the value fits.  Division, gcd and lcm are in int_div.c, and
+ * int_impl.h holds what the two files share.
  */
 #include "algebra/int.h"
+#include "algebra/int_impl.h"
 
 #include <float.h>
 #include <inttypes.h>
@@ -22,11 +24,6 @@
 
 #include "gainsmith.h"
 #include "base/mem.h"
-
-typedef uint32_t limb;
-typedef uint64_t dlimb;
-#define LIMB_BITS 32
-#define LIMB_MAX UINT32_MAX
 
 /* Checked 64-bit arithmetic: compiler builtins where known to exist.
    Defining GS_PORTABLE_INT selects the plain C fallbacks (for tests). */
@@ -56,51 +53,7 @@ __extension__ typedef unsigned __int128 u128;
 #define KARATSUBA_MIN 32
 #endif
 
-/* A read-only look at a magnitude and its sign.  Small values are spread
-   into buf; a view must not be copied (d may point into it). */
-typedef struct {
-    const limb *d;
-    size_t n;
-    int neg;
-    limb buf[2];
-} mview;
-
 /* ---- bits and words ----------------------------------------------------- */
-
-static unsigned clz32(limb x)
-{
-#if defined(__GNUC__) && !defined(GS_PORTABLE_INT)
-    return x ? (unsigned)__builtin_clz(x) : 32u;
-#else
-    unsigned n = 0;
-    if (x == 0)
-        return 32;
-    while (!(x & 0x80000000u)) {
-        x <<= 1;
-        n++;
-    }
-    return n;
-#endif
-}
-
-static unsigned ctz64(uint64_t x)
-{
-#if defined(__GNUC__) && !defined(GS_PORTABLE_INT)
-    return (unsigned)__builtin_ctzll(x);
-#else
-    unsigned n = 0;
-    while (!(x & 1)) {
-        x >>= 1;
-        n++;
-    }
-    return n;
-#endif
-}
-
-static uint64_t uabs64(int64_t v)
-{
-    return v < 0 ? 0 - (uint64_t)v : (uint64_t)v;
-}
 
 /* *s = a + b when the sum is a small value (in [-INT64_MAX, INT64_MAX]). */
 static int add_small(int64_t *s, int64_t a, int64_t b)
@@ -132,28 +85,6 @@ static int mul_small(int64_t *p, int64_t a, int64_t b)
 
 /* ---- magnitudes --------------------------------------------------------- */
 
-static size_t mag_norm(const limb *d, size_t n)
-{
-    while (n > 0 && d[n - 1] == 0)
-        n--;
-    return n;
-}
-
-static int mag_cmp(const limb *a, size_t an, const limb *b, size_t bn)
-{
-    if (an != bn)
-        return an < bn ? -1 : 1;
-    while (an-- > 0)
-        if (a[an] != b[an])
-            return a[an] < b[an] ? -1 : 1;
-    return 0;
-}
-
-static size_t mag_bits(const limb *d, size_t n)
-{
-    return n == 0 ? 0 : LIMB_BITS * n - clz32(d[n - 1]);
-}
-
 /* r = a + b with an >= bn; r has room for an + 1 limbs and may be a or b
    (limb i is read before it is written).  Returns the length. */
 static size_t mag_add(limb *r, const limb *a, size_t an, const limb *b,
@@ -176,7 +107,7 @@ static size_t mag_add(limb *r, const limb *a, size_t an, const limb *b,
 }
 
 /* r = a - b with a >= b; r may be a or b.  Returns the normalized length. */
-static size_t mag_sub(limb *r, const limb *a, size_t an, const limb *b,
+size_t gs_int_mag_sub(limb *r, const limb *a, size_t an, const limb *b,
                       size_t bn)
 {
     limb borrow = 0;
@@ -195,7 +126,7 @@ static size_t mag_sub(limb *r, const limb *a, size_t an, const limb *b,
 }
 
 /* d[0..n) += 1; d has room for n + 1 limbs.  Returns the length. */
-static size_t mag_inc(limb *d, size_t n)
+size_t gs_int_mag_inc(limb *d, size_t n)
 {
     size_t i;
     for (i = 0; i < n; i++)
@@ -266,8 +197,8 @@ static void mag_mul_kara(limb *r, const limb *a, const limb *b, size_t n)
     if (sn && tn)
         mag_mul(p, s, sn, t, tn);
     pn = mag_norm(p, 2 * hi + 2);
-    pn = mag_sub(p, p, pn, r, mag_norm(r, 2 * h));
-    pn = mag_sub(p, p, pn, r + 2 * h, mag_norm(r + 2 * h, 2 * hi));
+    pn = gs_int_mag_sub(p, p, pn, r, mag_norm(r, 2 * h));
+    pn = gs_int_mag_sub(p, p, pn, r + 2 * h, mag_norm(r + 2 * h, 2 * hi));
     mag_add_into(r + h, 2 * n - h, p, pn);
     free(s);
 }
@@ -311,7 +242,7 @@ static void mag_mul(limb *r, const limb *a, size_t an, const limb *b,
 }
 
 /* q = a / d, returns a mod d; q may be a. */
-static limb mag_divrem_1(limb *q, const limb *a, size_t n, limb d)
+limb gs_int_mag_divrem_1(limb *q, const limb *a, size_t n, limb d)
 {
     dlimb r = 0;
     while (n-- > 0) {
@@ -397,7 +328,7 @@ static limb knuth_step(limb *w, const limb *v, size_t n)
 
 /* q[0..un-n] = u / v and r[0..n) = u mod v for un >= n >= 2, v[n-1] != 0
    (Knuth, TAOCP vol. 2, 4.3.1, algorithm D).  Outputs overlap no input. */
-static void mag_divrem_knuth(limb *q, limb *r, const limb *u, size_t un,
+void gs_int_mag_divrem_knuth(limb *q, limb *r, const limb *u, size_t un,
                              const limb *v, size_t n)
 {
     unsigned s = clz32(v[n - 1]);
@@ -414,7 +345,7 @@ static void mag_divrem_knuth(limb *q, limb *r, const limb *u, size_t un,
 }
 
 /* a mod m for 0 < m < 2^63. */
-static uint64_t mag_mod_u64(const limb *d, size_t n, uint64_t m)
+uint64_t gs_int_mag_mod_u64(const limb *d, size_t n, uint64_t m)
 {
     uint64_t r = 0;
     if (m <= LIMB_MAX) {
@@ -439,35 +370,6 @@ static uint64_t mag_mod_u64(const limb *d, size_t n, uint64_t m)
 
 /* ---- views and results -------------------------------------------------- */
 
-static void view_u64(mview *w, uint64_t m, int neg)
-{
-    w->buf[0] = (limb)m;
-    w->buf[1] = (limb)(m >> LIMB_BITS);
-    w->n = w->buf[1] ? 2 : w->buf[0] ? 1 : 0;
-    w->d = w->buf;
-    w->neg = neg;
-}
-
-static void view_of(mview *w, const gs_int *a)
-{
-    if (a->size == 0) {
-        view_u64(w, uabs64(a->u.v), a->u.v < 0);
-    } else {
-        w->d = a->u.d;
-        w->n = (size_t)(a->size < 0 ? -(int64_t)a->size : a->size);
-        w->neg = a->size < 0;
-    }
-}
-
-static void set_small(gs_int *r, int64_t v)
-{
-    if (r->alloc != 0)
-        free(r->u.d);
-    r->size = 0;
-    r->alloc = 0;
-    r->u.v = v;
-}
-
 /* A buffer of at least need limbs for a result bound for r: r's own when
    reuse is allowed and it is large enough, else a fresh one. */
 static limb *result_buf(gs_int *r, size_t need, size_t *cap, int reuse)
@@ -482,7 +384,7 @@ static limb *result_buf(gs_int *r, size_t need, size_t *cap, int reuse)
 
 /* r = +-buf[0..n), taking ownership of buf (cap limbs, possibly r's own
    array); returns to the inline form when the value fits. */
-static void set_mag(gs_int *r, limb *buf, size_t n, size_t cap, int neg)
+void gs_int_set_mag(gs_int *r, limb *buf, size_t n, size_t cap, int neg)
 {
     n = mag_norm(buf, n);
     if (n <= 2) {
@@ -502,7 +404,7 @@ static void set_mag(gs_int *r, limb *buf, size_t n, size_t cap, int neg)
     r->size = neg ? -(int32_t)n : (int32_t)n;
 }
 
-static void set_u64(gs_int *r, uint64_t m, int neg)
+void gs_int_set_u64(gs_int *r, uint64_t m, int neg)
 {
     size_t cap;
     limb *buf;
@@ -513,23 +415,23 @@ static void set_u64(gs_int *r, uint64_t m, int neg)
     buf = result_buf(r, 2, &cap, 1);
     buf[0] = (limb)m;
     buf[1] = (limb)(m >> LIMB_BITS);
-    set_mag(r, buf, 2, cap, neg);
+    gs_int_set_mag(r, buf, 2, cap, neg);
 }
 
 /* r = +-|a| (a view, possibly of r itself) */
-static void set_view(gs_int *r, const mview *a, int neg)
+void gs_int_set_view(gs_int *r, const mview *a, int neg)
 {
     size_t cap;
     limb *buf;
     if (a->n <= 2) {
         uint64_t m = a->n == 0 ? 0 : a->n == 1 ? a->d[0]
                    : a->d[0] | (uint64_t)a->d[1] << LIMB_BITS;
-        set_u64(r, m, neg);
+        gs_int_set_u64(r, m, neg);
         return;
     }
     buf = result_buf(r, a->n, &cap, 1);
     memmove(buf, a->d, a->n * sizeof *buf);
-    set_mag(r, buf, a->n, cap, neg);
+    gs_int_set_mag(r, buf, a->n, cap, neg);
 }
 
 /* r = a + (bneg ? -|b| : |b|).  r's array is written in place when big
@@ -551,8 +453,8 @@ static void addsub(gs_int *r, const mview *a, const mview *b, int bneg)
     if (xneg == yneg)
         n = mag_add(buf, x->d, x->n, y->d, y->n);
     else
-        n = mag_sub(buf, x->d, x->n, y->d, y->n);
-    set_mag(r, buf, n, cap, xneg);
+        n = gs_int_mag_sub(buf, x->d, x->n, y->d, y->n);
+    gs_int_set_mag(r, buf, n, cap, xneg);
 }
 
 /* r = a * b; reuse says r is neither a nor b, so its array may be
@@ -567,7 +469,7 @@ static void mul_views(gs_int *r, const mview *a, const mview *b, int reuse)
     }
     buf = result_buf(r, n, &cap, reuse);
     mag_mul(buf, a->d, a->n, b->d, b->n);
-    set_mag(r, buf, n, cap, a->neg != b->neg);
+    gs_int_set_mag(r, buf, n, cap, a->neg != b->neg);
 }
 
 /* r += (neg ? -1 : 1) t in place, for big r with at least as many limbs
@@ -605,7 +507,7 @@ static int accumulate(gs_int *r, const limb *t, size_t tn, int neg)
         for (; borrow != 0 && i < n; i++)
             borrow = d[i]-- == 0;
     }
-    set_mag(r, d, n, (size_t)r->alloc, rneg);
+    gs_int_set_mag(r, d, n, (size_t)r->alloc, rneg);
     return 1;
 }
 
@@ -657,20 +559,20 @@ void gs_int_set(gs_int *r, const gs_int *a)
         return;
     }
     view_of(&va, a);
-    set_view(r, &va, va.neg);
+    gs_int_set_view(r, &va, va.neg);
 }
 
 void gs_int_set_si(gs_int *r, int64_t v)
 {
     if (v == INT64_MIN)
-        set_u64(r, (uint64_t)1 << 63, 1);
+        gs_int_set_u64(r, (uint64_t)1 << 63, 1);
     else
         set_small(r, v);
 }
 
 void gs_int_set_ui(gs_int *r, uint64_t v)
 {
-    set_u64(r, v, 0);
+    gs_int_set_u64(r, v, 0);
 }
 
 void gs_int_swap(gs_int *a, gs_int *b)
@@ -880,7 +782,7 @@ static void set_i128(gs_int *r, i128 t)
     buf[1] = (limb)(m >> 32);
     buf[2] = (limb)(m >> 64);
     buf[3] = (limb)(m >> 96);
-    set_mag(r, buf, 4, 4, t < 0);
+    gs_int_set_mag(r, buf, 4, 4, t < 0);
 }
 #endif
 
@@ -989,7 +891,7 @@ void gs_int_mul_2exp(gs_int *r, const gs_int *a, unsigned long e)
     buf = result_buf(r, n, &cap, r != a);
     memset(buf, 0, words * sizeof *buf);
     buf[n - 1] = mag_shl_small(buf + words, va.d, va.n, bits);
-    set_mag(r, buf, n, cap, va.neg);
+    gs_int_set_mag(r, buf, n, cap, va.neg);
 }
 
 void gs_int_pow_ui(gs_int *r, const gs_int *a, unsigned long e)
@@ -1020,325 +922,6 @@ void gs_int_pow_ui(gs_int *r, const gs_int *a, unsigned long e)
     gs_int_clear(&base);
 }
 
-/* ---- division ----------------------------------------------------------- */
-
-/* |a| = q |b| + r into fresh arrays; q has room for one more limb and r
-   for max(|a|, |b|) limbs, so the floor adjustment fits. */
-typedef struct {
-    limb *q, *r;
-    size_t qn, qcap, rn, rcap;
-} divres;
-
-static void mag_divmod(divres *res, const mview *a, const mview *b)
-{
-    size_t n = b->n;
-    res->qcap = a->n >= n ? a->n - n + 2 : 1;
-    res->rcap = (a->n > n ? a->n : n) + 1;
-    res->q = gs_calloc(res->qcap, sizeof(limb));
-    res->r = gs_calloc(res->rcap, sizeof(limb));
-    res->qn = 0;
-    if (mag_cmp(a->d, a->n, b->d, n) < 0) {
-        memcpy(res->r, a->d, a->n * sizeof(limb));
-        res->rn = a->n;
-        return;
-    }
-    if (n == 1) {
-        res->r[0] = mag_divrem_1(res->q, a->d, a->n, b->d[0]);
-        res->rn = 1;
-    } else {
-        mag_divrem_knuth(res->q, res->r, a->d, a->n, b->d, n);
-        res->rn = n;
-    }
-    res->qn = mag_norm(res->q, a->n - n + 1);
-    res->rn = mag_norm(res->r, res->rn);
-}
-
-static void install(gs_int *r, limb *buf, size_t n, size_t cap, int neg)
-{
-    if (r != NULL)
-        set_mag(r, buf, n, cap, neg);
-    else
-        free(buf);
-}
-
-static void divide_small(gs_int *q, gs_int *r, int64_t x, int64_t y,
-                         int floor_div)
-{
-    int64_t qq = x / y, rr = x % y;    /* no overflow: x != INT64_MIN */
-    if (floor_div && rr != 0 && ((rr < 0) != (y < 0))) {
-        qq--;                           /* |y| >= 2 so qq > INT64_MIN */
-        rr += y;
-    }
-    if (q != NULL)
-        set_small(q, qq);
-    if (r != NULL)
-        set_small(r, rr);
-}
-
-static int divide(gs_int *q, gs_int *r, const gs_int *a, const gs_int *b,
-                  int floor_div)
-{
-    mview va, vb;
-    divres d;
-    int rneg;
-    if (gs_int_is_zero(b))
-        return GS_EDIVZERO;
-    if (a->size == 0 && b->size == 0) {
-        divide_small(q, r, a->u.v, b->u.v, floor_div);
-        return GS_OK;
-    }
-    view_of(&va, a);
-    view_of(&vb, b);
-    mag_divmod(&d, &va, &vb);
-    rneg = va.neg;
-    if (floor_div && d.rn != 0 && va.neg != vb.neg) {
-        /* floor = trunc - 1, r = a - floor*b = r_t + b: |r| = |b| - |r_t| */
-        d.qn = mag_inc(d.q, d.qn);
-        d.rn = mag_sub(d.r, vb.d, vb.n, d.r, d.rn);
-        rneg = vb.neg;
-    }
-    install(q, d.q, d.qn, d.qcap, va.neg != vb.neg);
-    install(r, d.r, d.rn, d.rcap, rneg);
-    return GS_OK;
-}
-
-int gs_int_tdiv_qr(gs_int *q, gs_int *r, const gs_int *a, const gs_int *b)
-{
-    return divide(q, r, a, b, 0);
-}
-
-int gs_int_fdiv_qr(gs_int *q, gs_int *r, const gs_int *a, const gs_int *b)
-{
-    return divide(q, r, a, b, 1);
-}
-
-int gs_int_divexact(gs_int *q, const gs_int *a, const gs_int *b)
-{
-    mview va, vb;
-    divres d;
-    if (gs_int_is_zero(b))
-        return GS_EDIVZERO;
-    if (a->size == 0 && b->size == 0) {
-        if (a->u.v % b->u.v != 0)
-            return GS_EINEXACT;
-        set_small(q, a->u.v / b->u.v);
-        return GS_OK;
-    }
-    view_of(&va, a);
-    view_of(&vb, b);
-    mag_divmod(&d, &va, &vb);
-    free(d.r);
-    if (d.rn != 0) {
-        free(d.q);
-        return GS_EINEXACT;
-    }
-    set_mag(q, d.q, d.qn, d.qcap, va.neg != vb.neg);
-    return GS_OK;
-}
-
-uint64_t gs_int_mod_ui(const gs_int *a, uint64_t m)
-{
-    mview va;
-    uint64_t r;
-    view_of(&va, a);
-    r = mag_mod_u64(va.d, va.n, m);
-    return va.neg && r != 0 ? m - r : r;
-}
-
-/* Binary gcd (Stein 1967; Knuth, TAOCP vol. 2, 4.5.2, algorithm B). */
-static uint64_t gcd_u64(uint64_t a, uint64_t b)
-{
-    unsigned k;
-    if (a == 0 || b == 0)
-        return a | b;
-    k = ctz64(a | b);
-    a >>= ctz64(a);
-    do {
-        b >>= ctz64(b);
-        if (a > b) {
-            uint64_t t = a;
-            a = b;
-            b = t;
-        }
-        b -= a;
-    } while (b != 0);
-    return a << k;
-}
-
-static limb limb_at(const limb *d, size_t n, size_t s);
-
-/* bits [s, s + 60) of d[0..n) */
-static int64_t bits60(const limb *d, size_t n, size_t s)
-{
-    uint64_t lo = limb_at(d, n, s), hi = limb_at(d, n, s + LIMB_BITS);
-    return (int64_t)(((hi << LIMB_BITS) | lo) & (((uint64_t)1 << 60) - 1));
-}
-
-/* out[0..n) = p u - q v for cofactors p, q < 2^31, when the result is
-   known to be >= 0; u and v have un, vn <= n limbs. */
-static size_t mag_lincomb(limb *out, int64_t p, const limb *u, size_t un,
-                          int64_t q, const limb *v, size_t vn, size_t n)
-{
-    dlimb cp = 0, cq = 0, t;
-    limb borrow = 0;
-    size_t i;
-    for (i = 0; i < n; i++) {
-        cp += (dlimb)p * (i < un ? u[i] : 0);
-        cq += (dlimb)q * (i < vn ? v[i] : 0);
-        t = (dlimb)(limb)cp - (limb)cq - borrow;
-        out[i] = (limb)t;
-        borrow = (limb)(t >> 63);
-        cp >>= LIMB_BITS;
-        cq >>= LIMB_BITS;
-    }
-    return mag_norm(out, n);
-}
-
-#define COFACTOR_MAX ((int64_t)1 << 31)
-
-/* The inner loop of Lehmer's gcd on the leading 60 bits x > y of the two
-   operands: runs Euclid's algorithm on them while the quotients are
-   certain to be those of the full operands, and returns the number of
-   steps with their cofactors in m[4] = A, B, C, D.  The stopping test
-   (a quotient is trusted while the next cofactor stays below the next
-   remainder) is a Collins/Jebelean-style condition (T. Jebelean,
-   "Improving the multiprecision Euclidean algorithm", DISCO 1993), in the
-   form CPython's integer gcd uses (from memory).  The extra bounds keep
-   every product inside 63 bits and the cofactors under 2^31; stopping
-   early is always safe, it only makes less progress. */
-static int lehmer_steps(int64_t m[4], int64_t x, int64_t y)
-{
-    int64_t A = 1, B = 0, C = 0, D = 1, q, s, t, u;
-    int k;
-    for (k = 0;; k++) {
-        if (y - C == 0)
-            break;
-        q = (x + (A - 1)) / (y - C);
-        if (q >= COFACTOR_MAX)
-            break;
-        s = B + q * D;
-        t = x - q * y;
-        if (s > t)
-            break;
-        u = A + q * C;
-        if (s >= COFACTOR_MAX || u >= COFACTOR_MAX)
-            break;
-        x = y;
-        y = t;
-        A = D;
-        B = C;
-        C = s;
-        D = u;
-    }
-    m[0] = A;
-    m[1] = B;
-    m[2] = C;
-    m[3] = D;
-    return k;
-}
-
-/* r = a mod b for a >= b, nb > 0, into r (nb limbs), with q (na - nb + 1
-   limbs) as scratch.  Returns the length. */
-static size_t mag_mod(limb *r, limb *q, const limb *a, size_t na,
-                      const limb *b, size_t nb)
-{
-    if (nb == 1) {
-        r[0] = mag_divrem_1(q, a, na, b[0]);
-        return r[0] != 0;
-    }
-    mag_divrem_knuth(q, r, a, na, b, nb);
-    return mag_norm(r, nb);
-}
-
-/* gcd(|a|, |b|) for multi-limb operands: Lehmer's algorithm (Knuth,
-   TAOCP vol. 2, 4.5.2, algorithm L), replacing a run of single-precision
-   Euclid steps by one linear combination of the full operands, with a
-   full division whenever the leading parts promise no progress; the
-   last 64 bits go to the binary gcd. */
-static void gcd_big(gs_int *r, const mview *va, const mview *vb)
-{
-    size_t n = va->n > vb->n ? va->n : vb->n, na, nb;
-    limb *buf = gs_reallocarray(NULL, 4 * n, sizeof *buf);
-    limb *a = buf, *b = a + n, *c = b + n, *d = c + n, *t;
-    int swap = mag_cmp(va->d, va->n, vb->d, vb->n) < 0;
-    na = swap ? vb->n : va->n;
-    nb = swap ? va->n : vb->n;
-    memcpy(a, swap ? vb->d : va->d, na * sizeof *a);
-    memcpy(b, swap ? va->d : vb->d, nb * sizeof *b);
-    while (nb > 0 && mag_bits(a, na) > 64) {
-        int64_t m[4];
-        size_t s = mag_bits(a, na) - 60, nc;
-        int k = lehmer_steps(m, bits60(a, na, s), bits60(b, nb, s));
-        if (k == 0) {                   /* a, b = b, a mod b */
-            nc = mag_mod(c, d, a, na, b, nb);
-            t = a, a = b, b = c, c = t;
-            na = nb;
-            nb = nc;
-            continue;
-        }
-        if (k % 2 == 0) {               /* a, b = A a - B b, D b - C a */
-            nc = mag_lincomb(c, m[0], a, na, m[1], b, nb, na);
-            nb = mag_lincomb(d, m[3], b, nb, m[2], a, na, na);
-        } else {                        /* a, b = A b - B a, D a - C b */
-            nc = mag_lincomb(c, m[0], b, nb, m[1], a, na, na);
-            nb = mag_lincomb(d, m[3], a, na, m[2], b, nb, na);
-        }
-        na = nc;
-        t = a, a = c, c = t;
-        t = b, b = d, d = t;
-    }
-    if (nb == 0) {
-        mview g;
-        g.d = a;
-        g.n = na;
-        set_view(r, &g, 0);
-    } else {
-        uint64_t x = a[0] | (na > 1 ? (uint64_t)a[1] << LIMB_BITS : 0);
-        uint64_t y = b[0] | (nb > 1 ? (uint64_t)b[1] << LIMB_BITS : 0);
-        set_u64(r, gcd_u64(x, y), 0);
-    }
-    free(buf);
-}
-
-void gs_int_gcd(gs_int *r, const gs_int *a, const gs_int *b)
-{
-    mview va, vb;
-    if (a->size == 0 && b->size == 0) {
-        set_u64(r, gcd_u64(uabs64(a->u.v), uabs64(b->u.v)), 0);
-        return;
-    }
-    view_of(&va, a);
-    view_of(&vb, b);
-    if (va.n == 0 || vb.n == 0) {       /* gcd(x, 0) = |x| */
-        set_view(r, va.n == 0 ? &vb : &va, 0);
-        return;
-    }
-    if (a->size == 0 || b->size == 0) { /* one word: reduce the other */
-        uint64_t m = uabs64(a->size == 0 ? a->u.v : b->u.v);
-        const mview *big = a->size == 0 ? &vb : &va;
-        set_u64(r, gcd_u64(m, mag_mod_u64(big->d, big->n, m)), 0);
-        return;
-    }
-    gcd_big(r, &va, &vb);
-}
-
-void gs_int_lcm(gs_int *r, const gs_int *a, const gs_int *b)
-{
-    gs_int g, t;
-    if (gs_int_is_zero(a) || gs_int_is_zero(b)) {
-        set_small(r, 0);
-        return;
-    }
-    gs_int_init(&g);
-    gs_int_init(&t);
-    gs_int_gcd(&g, a, b);
-    gs_int_divexact(&t, a, &g);
-    gs_int_mul(&t, &t, b);
-    gs_int_abs(r, &t);
-    gs_int_clear(&t);
-    gs_int_clear(&g);
-}
-
 /* ---- conversions -------------------------------------------------------- */
 
 static int bit_at(const limb *d, size_t k)
@@ -1355,16 +938,6 @@ static int bits_below(const limb *d, size_t k)
         if (d[i] != 0)
             return 1;
     return b != 0 && (d[w] & (((limb)1 << b) - 1)) != 0;
-}
-
-/* bits [s, s + 32) of d[0..n) */
-static limb limb_at(const limb *d, size_t n, size_t s)
-{
-    size_t w = s / LIMB_BITS;
-    unsigned b = (unsigned)(s % LIMB_BITS);
-    limb lo = w < n ? d[w] >> b : 0;
-    limb hi = b != 0 && w + 1 < n ? d[w + 1] << (LIMB_BITS - b) : 0;
-    return lo | hi;
 }
 
 /* |a| rounded to prec bits, ties to even, as an integer-valued long double
@@ -1483,7 +1056,7 @@ int gs_int_set_str(gs_int *r, const char *s)
             buf[n++] = (limb)c;
         i += k;
     }
-    set_mag(r, buf, n, cap, neg);
+    gs_int_set_mag(r, buf, n, cap, neg);
     return GS_OK;
 }
 
@@ -1502,7 +1075,7 @@ char *gs_int_get_str(const gs_int *a)
     /* 10^9 > 2^29, so each chunk takes at least 29 bits away */
     chunks = gs_reallocarray(NULL, n * LIMB_BITS / 29 + 2, sizeof *chunks);
     while (n > 0) {
-        chunks[nc++] = mag_divrem_1(t, t, n, CHUNK);
+        chunks[nc++] = gs_int_mag_divrem_1(t, t, n, CHUNK);
         n = mag_norm(t, n);
     }
     s = gs_malloc(nc * 9 + 2);
