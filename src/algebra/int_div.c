@@ -136,6 +136,20 @@ uint64_t gs_int_mod_ui(const gs_int *a, uint64_t m)
     return va.neg && r != 0 ? m - r : r;
 }
 
+static unsigned ctz64(uint64_t x)
+{
+#if defined(__GNUC__) && !defined(GS_PORTABLE_INT)
+    return (unsigned)__builtin_ctzll(x);
+#else
+    unsigned n = 0;
+    while (!(x & 1)) {
+        x >>= 1;
+        n++;
+    }
+    return n;
+#endif
+}
+
 /* Binary gcd (Stein 1967; Knuth, TAOCP vol. 2, 4.5.2, algorithm B). */
 static uint64_t gcd_u64(uint64_t a, uint64_t b)
 {

@@ -1,7 +1,11 @@
 /* int_impl.h - internal to the integers (int.c, int_div.c): the limb
  * representation, the read-only views, the small helpers both files
- * inline, and the magnitude and result routines of int.c that division
+ * use, and the magnitude and result routines of int.c that division
  * calls.  Nothing else includes it.  See LICENSE.
+ *
+ * The small helpers are defined here as plain static functions, as they
+ * were in int.c, so the compiler inlines them as it did there; each is
+ * used by both files (an unused one would be a warning).
  */
 #ifndef GS_INT_IMPL_H
 #define GS_INT_IMPL_H
@@ -28,7 +32,7 @@ typedef struct {
 
 /* ---- bits and words ----------------------------------------------------- */
 
-static inline unsigned clz32(limb x)
+static unsigned clz32(limb x)
 {
 #if defined(__GNUC__) && !defined(GS_PORTABLE_INT)
     return x ? (unsigned)__builtin_clz(x) : 32u;
@@ -44,35 +48,21 @@ static inline unsigned clz32(limb x)
 #endif
 }
 
-static inline unsigned ctz64(uint64_t x)
-{
-#if defined(__GNUC__) && !defined(GS_PORTABLE_INT)
-    return (unsigned)__builtin_ctzll(x);
-#else
-    unsigned n = 0;
-    while (!(x & 1)) {
-        x >>= 1;
-        n++;
-    }
-    return n;
-#endif
-}
-
-static inline uint64_t uabs64(int64_t v)
+static uint64_t uabs64(int64_t v)
 {
     return v < 0 ? 0 - (uint64_t)v : (uint64_t)v;
 }
 
 /* ---- magnitudes --------------------------------------------------------- */
 
-static inline size_t mag_norm(const limb *d, size_t n)
+static size_t mag_norm(const limb *d, size_t n)
 {
     while (n > 0 && d[n - 1] == 0)
         n--;
     return n;
 }
 
-static inline int mag_cmp(const limb *a, size_t an, const limb *b, size_t bn)
+static int mag_cmp(const limb *a, size_t an, const limb *b, size_t bn)
 {
     if (an != bn)
         return an < bn ? -1 : 1;
@@ -82,13 +72,13 @@ static inline int mag_cmp(const limb *a, size_t an, const limb *b, size_t bn)
     return 0;
 }
 
-static inline size_t mag_bits(const limb *d, size_t n)
+static size_t mag_bits(const limb *d, size_t n)
 {
     return n == 0 ? 0 : LIMB_BITS * n - clz32(d[n - 1]);
 }
 
 /* bits [s, s + 32) of d[0..n) */
-static inline limb limb_at(const limb *d, size_t n, size_t s)
+static limb limb_at(const limb *d, size_t n, size_t s)
 {
     size_t w = s / LIMB_BITS;
     unsigned b = (unsigned)(s % LIMB_BITS);
@@ -99,7 +89,7 @@ static inline limb limb_at(const limb *d, size_t n, size_t s)
 
 /* ---- views and results -------------------------------------------------- */
 
-static inline void view_u64(mview *w, uint64_t m, int neg)
+static void view_u64(mview *w, uint64_t m, int neg)
 {
     w->buf[0] = (limb)m;
     w->buf[1] = (limb)(m >> LIMB_BITS);
@@ -108,7 +98,7 @@ static inline void view_u64(mview *w, uint64_t m, int neg)
     w->neg = neg;
 }
 
-static inline void view_of(mview *w, const gs_int *a)
+static void view_of(mview *w, const gs_int *a)
 {
     if (a->size == 0) {
         view_u64(w, uabs64(a->u.v), a->u.v < 0);
@@ -119,7 +109,7 @@ static inline void view_of(mview *w, const gs_int *a)
     }
 }
 
-static inline void set_small(gs_int *r, int64_t v)
+static void set_small(gs_int *r, int64_t v)
 {
     if (r->alloc != 0)
         free(r->u.d);
