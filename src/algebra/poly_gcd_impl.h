@@ -78,6 +78,9 @@ int gs_pgcd_modular_divisor(gs_poly *c, gs_poly *qa, gs_poly *qb,
 
 void gs_pgcd_prs(gs_poly *g, const gs_poly *a, const gs_poly *b,
                  const gs_polyctx *ctx);
+/* the content in x, by the modular gcd (rng) or the sequence (rng NULL) */
+void gs_pgcd_content_in(gs_poly *r, const gs_poly *a, int x,
+                        const gs_polyctx *ctx, gs_rng *rng);
 
 /* ---- poly_gcd.c: the gcd of nonzero operands, for the recursion ------- */
 

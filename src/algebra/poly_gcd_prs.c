@@ -32,9 +32,11 @@ static int prs_var(const gs_poly *a, const gs_poly *b, const gs_polyctx *ctx)
     return best >= 0 ? best : any;
 }
 
-/* content in x by the remainder-sequence gcd itself */
-static void prs_content(gs_poly *r, const gs_poly *a, int x,
-                        const gs_polyctx *ctx)
+/* r = the gcd of a's coefficients in x (a primitive polynomial): by the
+   modular method with rng, by the remainder-sequence gcd itself with rng
+   NULL (the fallback never calls back into the method that failed). */
+void gs_pgcd_content_in(gs_poly *r, const gs_poly *a, int x,
+                        const gs_polyctx *ctx, gs_rng *rng)
 {
     gs_poly t;
     long k;
@@ -46,6 +48,8 @@ static void prs_content(gs_poly *r, const gs_poly *a, int x,
             continue;
         if (gs_poly_is_zero(r))
             gs_poly_primitive(r, &t, ctx);
+        else if (rng != NULL)
+            gs_pgcd_nonzero(r, r, &t, ctx, rng);
         else
             gs_pgcd_prs(r, r, &t, ctx);
         if (gs_poly_is_const(r, ctx))
@@ -60,7 +64,7 @@ static void prs_primitive(gs_poly *r, const gs_poly *a, int x,
 {
     gs_poly c;
     gs_poly_init(&c);
-    prs_content(&c, a, x, ctx);
+    gs_pgcd_content_in(&c, a, x, ctx, NULL);
     gs_poly_divexact(r, a, &c, ctx);
     gs_poly_primitive(r, r, ctx);
     gs_poly_clear(&c);
@@ -173,8 +177,8 @@ void gs_pgcd_prs(gs_poly *g, const gs_poly *a, const gs_poly *b,
     gs_poly_init(&pa);
     gs_poly_init(&pb);
     gs_poly_init(&d);
-    prs_content(&ca, a, x, ctx);
-    prs_content(&cb, b, x, ctx);
+    gs_pgcd_content_in(&ca, a, x, ctx, NULL);
+    gs_pgcd_content_in(&cb, b, x, ctx, NULL);
     gs_poly_divexact(&pa, a, &ca, ctx);
     gs_poly_divexact(&pb, b, &cb, ctx);
     gs_pgcd_prs(&d, &ca, &cb, ctx);

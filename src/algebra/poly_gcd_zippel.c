@@ -682,28 +682,6 @@ static int divides_both(gs_poly *qa, gs_poly *qb, const gs_poly *c,
     return ok;
 }
 
-/* r = the gcd of a's coefficients in x (a primitive polynomial) */
-static void content_in(gs_poly *r, const gs_poly *a, int x,
-                       const gs_polyctx *ctx, gs_rng *rng)
-{
-    gs_poly t;
-    long k;
-    gs_poly_init(&t);
-    gs_poly_zero(r);
-    for (k = gs_poly_degree(a, x, ctx); k >= 0; k--) {
-        gs_poly_coeff_var(&t, a, x, (unsigned)k, ctx);
-        if (gs_poly_is_zero(&t))
-            continue;
-        if (gs_poly_is_zero(r))
-            gs_poly_primitive(r, &t, ctx);
-        else
-            gs_pgcd_nonzero(r, r, &t, ctx, rng);
-        if (gs_poly_is_const(r, ctx))
-            break;
-    }
-    gs_poly_clear(&t);
-}
-
 /* The candidate from G: without monomial and integer content, and if it
    does not divide, without its content in x either (G carries the extra
    factor gamma / lc_x g then). */
@@ -720,7 +698,7 @@ static int certify(gs_poly *c, gs_poly *qa, gs_poly *qb, const gs_poly *G,
     if (!gs_poly_is_const(c, z->ctx))
         ok = divides_both(qa, qb, c, a, b, z);
     if (!ok && !gs_poly_is_const(c, z->ctx)) {
-        content_in(&k, c, z->x, z->ctx, z->rng);
+        gs_pgcd_content_in(&k, c, z->x, z->ctx, z->rng);
         if (!gs_poly_is_const(&k, z->ctx)
             && gs_poly_divexact(c, c, &k, z->ctx) == GS_OK) {
             gs_poly_primitive(c, c, z->ctx);
