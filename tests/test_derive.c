@@ -388,16 +388,17 @@ static long double complex ladder_h(int n, long double complex s)
    from the source to it, RC n(n+1)/2 here (W. C. Elmore, J. Appl. Phys.
    19 (1948)); and H at three frequencies against the chain matrices.
    The numeric 30-section one expands (its 31 terms are far below the
-   paths of its graph); the symbolic 70-section one, with 70 unknowns
-   past the 63 of the expansion in minors, is held as its graph and gives
-   the same numbers from it. */
+   paths of its graph); the numeric 40-section one, 81 unknowns, past the
+   63 that one word of columns holds, expands from the graph of minors
+   (method minors); the symbolic 70-section one is held as its graph and
+   gives the same numbers from it. */
 static void test_ladders(void)
 {
-    static const int sections[] = {30, 70};
+    static const int sections[] = {30, 40, 70};
     int t;
-    for (t = 0; t < 2; t++) {
+    for (t = 0; t < 3; t++) {
         int n = sections[t], dn, dd, k;
-        char *text = ladder(n, t == 1);
+        char *text = ladder(n, t == 2);
         gs_job j;
         gs_diag d;
         gs_derive_opts o;
@@ -414,8 +415,11 @@ static void test_ladders(void)
         if (!ok) {
             gs_diag_print(stderr, &d);
         } else {
-            CHECK_MSG((j.graph[0] != NULL) == (t == 1), "%d sections: %s",
+            CHECK_MSG((j.graph[0] != NULL) == (t == 2), "%d sections: %s",
                       n, j.graph[0] ? "graph" : "expanded");
+            if (t < 2)
+                CHECK_MSG(j.stats[0].method == GS_DET_MINORS,
+                          "%d sections: method %d", n, j.stats[0].method);
             cn = gs_job_coeffs(&j, &j.tf[0].num, &dn);
             cd = gs_job_coeffs(&j, &j.tf[0].den, &dd);
             CHECK(dn == 0 && dd == n);

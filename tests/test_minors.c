@@ -239,6 +239,49 @@ static void random_matrix(gs_mna *m, int n, unsigned density,
                 random_entry(GS_MNA_AT(m, i, j), ctx);
 }
 
+/* The expansion of m (stats in *ms, may be NULL) and the elimination of
+   a copy agree up to their common sign, singular both or neither; what
+   names the case.  Returns the terms of det A (0 when singular). */
+static size_t agree_with_elimination(const gs_mna *m, gs_minors_stats *ms,
+                                     const gs_polyctx *ctx, const char *what)
+{
+    gs_mna copy;
+    gs_poly da, dm, ea, em;
+    gs_elim_opts eo;
+    gs_minors_opts o;
+    gs_diag d;
+    size_t k, cells = (size_t)(m->n + 1) * (size_t)(m->n + 1), terms;
+    int sign = 0, rm, re;
+
+    mna_new(&copy, m->n);
+    for (k = 0; k < cells; k++)
+        gs_poly_set(&copy.m[k], &m->m[k], ctx);
+    gs_poly_init(&da);
+    gs_poly_init(&dm);
+    gs_poly_init(&ea);
+    gs_poly_init(&em);
+    gs_diag_init(&d);
+    gs_elim_opts_default(&eo);
+    gs_minors_opts_default(&o);
+    o.max_products = 0;
+    rm = gs_minors_bordered(&da, &dm, m, ctx, &o, ms, &d);
+    re = gs_elim_bordered(&ea, &em, &copy, ctx, &eo, NULL, &d);
+    if (re == GS_ESINGULAR)
+        CHECK_MSG(rm == GS_ESINGULAR, "%s: singular", what);
+    else
+        CHECK_MSG(rm == GS_OK && re == GS_OK
+                  && equal_up_to(&sign, &da, &ea, ctx)
+                  && equal_up_to(&sign, &dm, &em, ctx), "%s", what);
+    terms = re == GS_OK ? ea.length : 0;
+    gs_diag_clear(&d);
+    gs_poly_clear(&da);
+    gs_poly_clear(&dm);
+    gs_poly_clear(&ea);
+    gs_poly_clear(&em);
+    gs_mna_clear(&copy);
+    return terms;
+}
+
 /* Expansion and elimination agree, up to their common sign. */
 static void test_against_elimination(void)
 {
@@ -246,44 +289,89 @@ static void test_against_elimination(void)
     gs_polyctx *ctx = context(st, 5, "y");
     int round;
     for (round = 0; round < 300; round++) {
-        int n = 1 + (int)(round % 10), sign = 0, rm, re;
+        int n = 1 + (int)(round % 10);
         /* dense and large together would make elimination, the
            reference here, take minutes */
         unsigned density = 10 + 10 * (unsigned)(round % (n <= 6 ? 7 : 3));
-        gs_mna m, copy;
-        gs_poly da, dm, ea, em;
-        gs_elim_opts eo;
-        gs_diag d;
-        size_t k, cells = (size_t)(n + 1) * (size_t)(n + 1);
+        char what[48];
+        gs_mna m;
 
         gs_rng_seed(&rng_state, 5000 + (unsigned long long)round);
         random_matrix(&m, n, density, ctx);
-        mna_new(&copy, n);
-        for (k = 0; k < cells; k++)
-            gs_poly_set(&copy.m[k], &m.m[k], ctx);
+        snprintf(what, sizeof what, "seed %d, n = %d", round, n);
+        agree_with_elimination(&m, NULL, ctx, what);
+        gs_mna_clear(&m);
+    }
+    gs_polyctx_free(ctx);
+    gs_symtab_free(st);
+}
+
+/* A tridiagonal matrix of n unknowns with a sparse border: diagonal
+   entries a + b y1, the others integers, so that the determinants stay
+   polynomials of degree at most n in one symbol. */
+static void banded_matrix(gs_mna *m, int n, const gs_polyctx *ctx)
+{
+    int i, j;
+    char text[48];
+    mna_new(m, n);
+    for (i = 0; i < n; i++)
+        for (j = i > 0 ? i - 1 : 0; j <= i + 1 && j < n; j++) {
+            if (i == j)
+                snprintf(text, sizeof text, "%d*y1 + %d", 1 + (int)rnd(3),
+                         1 + (int)rnd(5));
+            else
+                snprintf(text, sizeof text, "%d", (int)rnd(7) - 3);
+            set(m, i, j, text, ctx);
+        }
+    /* a border as a circuit's: the input in two rows, the output read
+       from two unknowns */
+    for (j = 0; j < 2; j++) {
+        snprintf(text, sizeof text, "%d*y1 + 1", 1 + (int)rnd(3));
+        set(m, (int)rnd((unsigned)n), n, text, ctx);
+        snprintf(text, sizeof text, "%d", 1 + (int)rnd(3));
+        set(m, n, (int)rnd((unsigned)n), text, ctx);
+    }
+}
+
+/* Past one word of columns the expansion runs on the graph of minors:
+   it agrees with elimination up to the common sign, and its budgets
+   stop it with the level named. */
+static void test_wide(void)
+{
+    static const int sizes[] = {64, 71, 100};
+    gs_symtab *st = gs_symtab_new();
+    gs_polyctx *ctx = context(st, 5, "y");
+    size_t t;
+    for (t = 0; t < sizeof sizes / sizeof *sizes; t++) {
+        int n = sizes[t];
+        gs_mna m;
+        gs_poly da, dm;
+        gs_minors_opts o;
+        gs_minors_stats ms;
+        gs_diag d;
+        char what[32];
+        size_t terms;
+
+        gs_rng_seed(&rng_state, 9100 + (unsigned long long)n);
+        banded_matrix(&m, n, ctx);
+        snprintf(what, sizeof what, "banded, n = %d", n);
+        terms = agree_with_elimination(&m, &ms, ctx, what);
+        CHECK_MSG(terms > 2 && ms.minors > (size_t)n, "%s: %zu terms, "
+                  "%zu minors", what, terms, ms.minors);
+        /* a budget of 2 terms a minor: the graph's expansion stops with
+           the message of the level expansion */
         gs_poly_init(&da);
         gs_poly_init(&dm);
-        gs_poly_init(&ea);
-        gs_poly_init(&em);
         gs_diag_init(&d);
-        gs_elim_opts_default(&eo);
-        rm = minors(&da, &dm, &m, ctx);
-        re = gs_elim_bordered(&ea, &em, &copy, ctx, &eo, NULL, &d);
-        if (re == GS_ESINGULAR) {
-            CHECK_MSG(rm == GS_ESINGULAR, "seed %d: singular", round);
-        } else {
-            CHECK_MSG(rm == GS_OK && re == GS_OK
-                      && equal_up_to(&sign, &da, &ea, ctx)
-                      && equal_up_to(&sign, &dm, &em, ctx),
-                      "seed %d, n = %d", round, n);
-        }
+        gs_minors_opts_default(&o);
+        o.max_terms = 2;
+        CHECK_MSG(gs_minors_bordered(&da, &dm, &m, ctx, &o, &ms, &d)
+                  == GS_EBUDGET, "%s", what);
+        CHECK(d.n == 1 && strstr(d.v[0].message, "expansion level"));
         gs_diag_clear(&d);
         gs_poly_clear(&da);
         gs_poly_clear(&dm);
-        gs_poly_clear(&ea);
-        gs_poly_clear(&em);
         gs_mna_clear(&m);
-        gs_mna_clear(&copy);
     }
     gs_polyctx_free(ctx);
     gs_symtab_free(st);
@@ -306,12 +394,24 @@ static void test_limits(void)
     gs_diag_init(&d);
     gs_minors_opts_default(&o);
 
-    /* 64 unknowns: one more than a column mask holds */
+    /* 64 unknowns, one more than a column mask holds: the graph of
+       minors takes them; det of diag(3, ..., 3) = 3^64, of 102 bits
+       (64 log2 3 = 101.4) */
     mna_new(&m, GS_MINORS_MAX_UNKNOWNS + 1);
     for (i = 0; i < m.n; i++)
-        gs_poly_set_si(GS_MNA_AT(&m, i, i), 1, ctx);
-    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, NULL, &d) == GS_ERANGE);
-    CHECK(d.n == 0);
+        gs_poly_set_si(GS_MNA_AT(&m, i, i), 3, ctx);
+    CHECK(gs_minors_bordered(&da, &dm, &m, ctx, &o, &ms, &d) == GS_OK);
+    CHECK_MSG(d.n == 0 && ms.minors >= 65 && ms.products >= 64,
+              "%zu minors, %zu products", ms.minors, ms.products);
+    CHECK(da.length == 1 && gs_int_bits(&da.coeffs[0]) == 102);
+    if (da.length == 1) {
+        char *text = gs_int_get_str(&da.coeffs[0]);
+        /* 3^64 by hand (or any bignum calculator) */
+        CHECK_MSG(strcmp(text, "3433683820292512484657849089281") == 0
+                  || strcmp(text, "-3433683820292512484657849089281") == 0,
+                  "det %s", text);
+        free(text);
+    }
     gs_mna_clear(&m);
 
     /* 63 unknowns on a diagonal: accepted, det = 2^63 */
@@ -477,6 +577,7 @@ static void test_more_budgets(void)
 
 int main(void)
 {
+    test_wide();
     test_vandermonde();
     test_chebyshev();
     test_against_elimination();

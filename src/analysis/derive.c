@@ -303,13 +303,6 @@ static int expand(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
             stats->method = GS_DET_MINORS;
             return rc;
         }
-        if (rc == GS_ERANGE && o->method == GS_DET_MINORS) {
-            gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
-                        "use --method bareiss (or auto)",
-                        "expansion in minors takes at most %d unknowns; "
-                        "this circuit has %d", GS_MINORS_MAX_UNKNOWNS, m->n);
-            return GS_EINVAL;
-        }
     }
     stats->method = GS_DET_BAREISS;
     return gs_elim_bordered(det_a, det_m, m, ctx, &o->elim, &stats->elim, d);

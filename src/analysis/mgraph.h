@@ -90,7 +90,8 @@ void gs_mgraph_coeffs_ld(long double **cn, int *dn, long double **cd,
 long double *gs_mgraph_node_coeffs(size_t **off, const gs_mgraph *g,
                                    int s_var, const long double *vals);
 
-/* The full expansion of a root (tests, and derive beyond 63 unknowns).
+/* The full expansion of one root, without budgets (tests; derive past
+   63 unknowns expands both roots under its budgets, minors.c).
    Returns GS_OK, or GS_EBUDGET when a node outgrows max_terms (0 for no
    limit). */
 int gs_mgraph_expand(gs_poly *r, const gs_mgraph *g, size_t root,

@@ -12,6 +12,7 @@
  */
 #include "analysis/minors.h"
 #include "analysis/elim.h"
+#include "analysis/mgraph.h"
 #include "base/mem.h"
 
 #include <stdint.h>
@@ -287,6 +288,17 @@ static int over(const watch *w)
            || (w->max_work > 0 && w->work > w->max_work);
 }
 
+static void watch_start(watch *w, const gs_minors_opts *o)
+{
+    w->big = w->alive = w->bytes = 0;
+    w->max_terms = o->max_terms;
+    w->max_alive = o->max_terms * GS_MINORS_KEPT_FACTOR;
+    w->max_bytes = o->max_bytes;
+    w->work = 0;
+    w->max_work = (double)o->max_terms * GS_WORK_PER_TERM;
+    w->overflow_var = -1;
+}
+
 /* Does every product of a row entry and a minor of the level below fit
    the exponent fields?  A cheap bound first: the row's highest powers plus
    the level's, one pass over each.  Only when that bound fails is each
@@ -423,13 +435,7 @@ static int evaluate(gs_poly **top, const plan *p, const view *v,
     gs_poly *next, *vals;
     watch w;
 
-    w.big = 0;
-    w.max_terms = o->max_terms;
-    w.max_alive = o->max_terms * GS_MINORS_KEPT_FACTOR;
-    w.max_bytes = o->max_bytes;
-    w.work = 0;
-    w.max_work = (double)o->max_terms * GS_WORK_PER_TERM;
-    w.overflow_var = -1;
+    watch_start(&w, o);
     next = gs_malloc((p->lv[n].count ? p->lv[n].count : 1) * sizeof *next);
     if (p->lv[n].count) {
         gs_poly_init(&next[0]);
@@ -503,6 +509,166 @@ static int assemble(gs_poly *det_a, gs_poly *det_m, const plan *p,
     return 0;
 }
 
+/* ---- past one word of columns: the graph of minors ------------------ */
+
+/* Node v's value from its children's, under the watch: the exponent check
+   on every product first, then the sum of the products. */
+static void eval_node(gs_poly *val, const gs_mgraph *g, size_t v,
+                      const gs_poly *vals, const gs_poly **ea,
+                      const gs_poly **mb, int *neg, watch *w)
+{
+    size_t e, np = 0, k;
+    for (e = g->first[v]; e < g->first[v + 1]; e++) {
+        const gs_poly *c = &vals[g->child[e]];
+        if (gs_poly_is_zero(c))
+            continue;
+        ea[np] = &g->entries[g->entry[e]];
+        mb[np] = c;
+        neg[np++] = g->neg[e];
+    }
+    for (k = 0; k < np; k++) {
+        w->work += (double)ea[k]->length * (double)mb[k]->length
+                   * g->ctx->nwords;
+        if (!gs_poly_mul_fits(&w->overflow_var, ea[k], mb[k], g->ctx))
+            return;
+    }
+    if (!over(w))
+        gs_poly_sum_of_products(val, ea, mb, neg, np, g->ctx);
+}
+
+/* The nodes below the two roots: reach[v] = 1, and last[v] the last of
+   its parents in node order, after which its value is let go. */
+static void graph_reach(unsigned char *reach, size_t *last,
+                        const gs_mgraph *g, size_t top)
+{
+    size_t v, e;
+    for (v = top + 1; v-- > 0;) {
+        last[v] = NOT_FOUND;
+        if (v == g->root_d || v == g->root_m)
+            reach[v] = 1;
+    }
+    for (v = top + 1; v-- > 0;)
+        if (reach[v])
+            for (e = g->first[v]; e < g->first[v + 1]; e++)
+                reach[g->child[e]] = 1;
+    for (v = 0; v <= top; v++)
+        if (reach[v])
+            for (e = g->first[v]; e < g->first[v + 1]; e++)
+                last[g->child[e]] = v;
+}
+
+static void watch_value(watch *w, const gs_poly *p, const gs_polyctx *ctx,
+                        int sign)
+{
+    size_t bytes = w->max_bytes ? gs_poly_storage(p, ctx) : 0;
+    if (sign > 0) {
+        w->alive += p->length;
+        w->bytes += bytes;
+        if (p->length > w->big)
+            w->big = p->length;
+    } else {
+        w->alive -= p->length;
+        w->bytes -= bytes;
+    }
+}
+
+/* Expand the roots D and M of g children first, each value let go after
+   its last parent, with the budgets of the level expansion: the terms of
+   one minor and of all kept at once, their storage, the work, and the
+   exponents before every product.  The level in a message is the node's
+   (the rows expanded below it). */
+static int expand_graph(gs_poly *det_a, gs_poly *det_m, const gs_mgraph *g,
+                        const gs_minors_opts *o, gs_minors_stats *st,
+                        gs_diag *d)
+{
+    size_t top = g->root_m == SIZE_MAX || g->root_m < g->root_d
+                 ? g->root_d : g->root_m, v, e;
+    gs_poly *vals = gs_malloc((top + 1) * sizeof *vals);
+    size_t *last = gs_malloc((top + 1) * sizeof *last);
+    unsigned char *reach = gs_calloc(top + 1, 1);
+    const gs_poly **ea = gs_malloc(((size_t)g->n + 2) * sizeof *ea);
+    const gs_poly **mb = gs_malloc(((size_t)g->n + 2) * sizeof *mb);
+    int *neg = gs_malloc(((size_t)g->n + 2) * sizeof *neg), shown = 0;
+    int rc = GS_OK, lvl = 0;
+    watch w;
+
+    watch_start(&w, o);
+    graph_reach(reach, last, g, top);
+    for (v = 0; v <= top; v++)
+        gs_poly_init(&vals[v]);
+    gs_poly_set_si(&vals[0], 1, g->ctx);        /* the empty minor */
+    for (v = 1; v <= top && rc == GS_OK; v++) {
+        if (!reach[v])
+            continue;
+        lvl = g->level[v];
+        if (o->progress && lvl > shown)
+            fprintf(o->progress, "\rexpansion level %d/%d", shown = lvl,
+                    g->n);
+        eval_node(&vals[v], g, v, vals, ea, mb, neg, &w);
+        watch_value(&w, &vals[v], g->ctx, 1);
+        if (over(&w))
+            rc = w.overflow_var >= 0 ? GS_ERANGE : GS_EBUDGET;
+        for (e = g->first[v]; e < g->first[v + 1]; e++) {
+            size_t c = g->child[e];
+            if (last[c] == v && c != g->root_d && c != g->root_m) {
+                watch_value(&w, &vals[c], g->ctx, -1);
+                gs_poly_clear(&vals[c]);
+                gs_poly_init(&vals[c]);
+                last[c] = NOT_FOUND;
+            }
+        }
+    }
+    if (o->progress)
+        fputc('\n', o->progress);
+    st->max_minor_terms = w.big;
+    if (rc == GS_ERANGE) {
+        report_overflow(d, g->ctx, w.overflow_var, lvl, g->n);
+        st->exp_overflow = 1;
+    } else if (rc == GS_EBUDGET)
+        report_budget(d, &w, lvl, g->n);
+    else {
+        gs_poly_swap(det_a, &vals[g->root_d]);
+        if (g->root_m != SIZE_MAX)
+            gs_poly_swap(det_m, &vals[g->root_m]);
+        else
+            gs_poly_zero(det_m);
+    }
+    free_values(vals, top + 1);
+    free(last);
+    free(reach);
+    free(ea);
+    free(mb);
+    free(neg);
+    return rc;
+}
+
+/* Past GS_MINORS_MAX_UNKNOWNS a column set no longer fits one word: the
+   graph of minors, whose column sets take as many words as they need,
+   holds the same expansion, and its two roots are expanded instead.  The
+   product budget is its edge count. */
+static int graph_bordered(gs_poly *det_a, gs_poly *det_m, const gs_mna *m,
+                          const gs_polyctx *ctx, const gs_minors_opts *o,
+                          gs_minors_stats *st, gs_diag *d)
+{
+    gs_mgraph g;
+    int rc = gs_mgraph_build(&g, m, GS_MGRAPH_ORDER_GREEDY, ctx);
+    if (rc == GS_OK) {
+        st->minors = g.nnodes;
+        st->products = g.nedges;
+        st->transposed = g.transposed;
+        if (g.root_d == SIZE_MAX)
+            rc = GS_ESINGULAR;
+        else if (o->max_products && g.nedges > o->max_products)
+            rc = GS_ERANGE;
+        else
+            rc = expand_graph(det_a, det_m, &g, o, st, d);
+    }
+    if (rc == GS_OK && gs_poly_is_zero(det_a))
+        rc = GS_ESINGULAR;
+    gs_mgraph_clear(&g);
+    return rc;
+}
+
 void gs_minors_opts_default(gs_minors_opts *o)
 {
     o->max_terms = 0;
@@ -524,8 +690,10 @@ int gs_minors_bordered(gs_poly *det_a, gs_poly *det_m, const gs_mna *m,
     if (stats == NULL)
         stats = &local;
     memset(stats, 0, sizeof *stats);
-    if (n < 1 || n > GS_MINORS_MAX_UNKNOWNS)
+    if (n < 1)
         return GS_ERANGE;
+    if (n > GS_MINORS_MAX_UNKNOWNS)
+        return graph_bordered(det_a, det_m, m, ctx, o, stats, d);
     for (t = 0; t < 2; t++) {
         view_init(&v[t], m, t);
         rc[t] = make_plan(&p[t], &v[t], o->max_products);

@@ -32,8 +32,10 @@
 #include "analysis/mna.h"
 #include "algebra/poly.h"
 
-/* The largest matrix the expansion accepts: a column set is one 64-bit
-   mask of the n + 1 columns of [A b]. */
+/* The largest matrix the level plan takes: a column set is one 64-bit
+   mask of the n + 1 columns of [A b].  Past it, the same expansion is
+   built as the graph of minors (mgraph.h, masks of any width) and its two
+   roots expanded under the same budgets. */
 #define GS_MINORS_MAX_UNKNOWNS 63
 
 /* With a term budget N, the minors kept at one time (two levels of the
@@ -65,8 +67,8 @@ void gs_minors_opts_default(gs_minors_opts *o);
 
 /* det A and det M of m (unchanged) up to one common sign, so that
    H = scale * (c0 det_a - det_m) / det_a (mna.h).  Returns GS_OK;
-   GS_ERANGE, with no message, when m has more than GS_MINORS_MAX_UNKNOWNS
-   unknowns or the plan needs more than o->max_products products (the
+   GS_ERANGE, with no message, when the plan (past GS_MINORS_MAX_UNKNOWNS
+   unknowns, the graph) needs more than o->max_products products (the
    caller eliminates instead); GS_ESINGULAR, with no message, when
    det A = 0 (elimination can say which unknowns are undetermined);
    GS_EBUDGET, with a message in d, when a minor outgrew o->max_terms or

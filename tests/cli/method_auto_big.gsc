@@ -1,4 +1,5 @@
-# 64 resistors in a chain: 65 unknowns, more than expansion takes
+# 64 resistors in a chain: 66 unknowns, past one word of columns; auto
+# still expands in minors, from the graph of minors
 vsource vin n0 gnd
 resistor R1 n0 n1
 resistor R2 n1 n2
