@@ -858,6 +858,31 @@ static void test_tf_lifetime(fix *f)
     gs_tf_clear(&tf);
 }
 
+/* The text printer streams through a 64 KiB buffer: a result of a few
+   hundred kilobytes prints byte for byte the line gs_tf_get_str makes
+   (and reads back as the same polynomials). */
+static void test_stream_long(fix *f)
+{
+    gs_tf tf;
+    gs_rng x;
+    char *t, *line, *num;
+    gs_rng_seed(&x, 77);
+    tf_from(&tf, f, "Hlong", "1", "1");
+    random_poly(&tf.num, &x, 9000, f);
+    random_poly(&tf.den, &x, 7000, f);
+    t = capture(gs_print_text, &tf, f->s);
+    line = gs_tf_get_str(&tf, f->s);
+    CHECK_MSG(strlen(t) > 200000, "%zu bytes", strlen(t));
+    CHECK(strlen(t) == strlen(line) + 1 && strncmp(t, line, strlen(line)) == 0
+          && t[strlen(line)] == '\n');
+    num = text_num(t);
+    CHECK(reads_back(num, &tf.num, f));
+    free(num);
+    free(line);
+    free(t);
+    gs_tf_clear(&tf);
+}
+
 int main(int argc, char **argv)
 {
     uint64_t seed = argc > 1 ? strtoull(argv[1], NULL, 10) : 20240601u;
@@ -873,6 +898,7 @@ int main(int argc, char **argv)
     test_c_compiles(&f);
     test_pretty_wrap(&f);
     test_random(&f, seed);
+    test_stream_long(&f);
     fix_clear(&f);
     return check_report("print");
 }

@@ -10,6 +10,25 @@ void gs_strbuf_init(gs_strbuf *b)
     b->p = gs_malloc(b->cap);
     b->p[0] = '\0';
     b->n = 0;
+    b->sink = NULL;
+}
+
+void gs_strbuf_init_sink(gs_strbuf *b, FILE *sink)
+{
+    b->cap = 65536;
+    b->p = gs_malloc(b->cap);
+    b->p[0] = '\0';
+    b->n = 0;
+    b->sink = sink;
+}
+
+void gs_strbuf_flush(gs_strbuf *b)
+{
+    if (b->sink && b->n) {
+        fwrite(b->p, 1, b->n, b->sink);
+        b->n = 0;
+        b->p[0] = '\0';
+    }
 }
 
 void gs_strbuf_clear(gs_strbuf *b)
@@ -17,10 +36,14 @@ void gs_strbuf_clear(gs_strbuf *b)
     free(b->p);
     b->p = NULL;
     b->n = b->cap = 0;
+    b->sink = NULL;
 }
 
 void gs_strbuf_reserve(gs_strbuf *b, size_t more)
 {
+    if (b->n + more + 1 <= b->cap)
+        return;
+    gs_strbuf_flush(b);
     if (b->n + more + 1 <= b->cap)
         return;
     while (b->n + more + 1 > b->cap)

@@ -5,19 +5,27 @@
 #define GS_STRBUF_H
 
 #include <stddef.h>
+#include <stdio.h>
 #include <string.h>
 
 /* p[0 .. n) is the text, p[n] is NUL, cap bytes are allocated.  The
    caller owns the struct; gs_strbuf_clear frees p, or the caller takes p
-   (free it with free()) and drops the struct. */
+   (free it with free()) and drops the struct.  With a sink the text is
+   written out whenever the buffer fills, so p holds only what came since
+   (a printer streams a result of any size through 64 KiB). */
 typedef struct gs_strbuf {
     char *p;
     size_t n, cap;
+    FILE *sink;             /* NULL: the whole text is kept */
 } gs_strbuf;
 
 void gs_strbuf_init(gs_strbuf *b);          /* the empty string */
+/* The empty string streamed to sink; gs_strbuf_flush writes the rest. */
+void gs_strbuf_init_sink(gs_strbuf *b, FILE *sink);
+void gs_strbuf_flush(gs_strbuf *b);
 void gs_strbuf_clear(gs_strbuf *b);
-/* room for `more` bytes after the text and its NUL (doubling) */
+/* room for `more` bytes after the text and its NUL (doubling; with a
+   sink, after writing the text out) */
 void gs_strbuf_reserve(gs_strbuf *b, size_t more);
 
 /* Append s[0 .. n); inline, as the printers append a few bytes at a

@@ -25,6 +25,7 @@ typedef struct sbuf {
     gs_strbuf s;
     size_t *brk;
     size_t nbrk, capbrk;
+    int streamed;           /* 1: s has a sink, no breaks are kept */
 } sbuf;
 
 /* How names, products, powers and groups are spelt. */
@@ -41,6 +42,16 @@ static void sb_init(sbuf *b)
     gs_strbuf_init(&b->s);
     b->brk = NULL;
     b->nbrk = b->capbrk = 0;
+    b->streamed = 0;
+}
+
+/* Text written to out as it is made, in 64 KiB pieces. */
+static void sb_init_stream(sbuf *b, FILE *out)
+{
+    sb_init(b);
+    gs_strbuf_clear(&b->s);
+    gs_strbuf_init_sink(&b->s, out);
+    b->streamed = 1;
 }
 
 static void sb_free(sbuf *b)
@@ -61,6 +72,8 @@ static void sb_puts(sbuf *b, const char *s)
 
 static void sb_mark_break(sbuf *b)
 {
+    if (b->streamed)
+        return;
     if (b->nbrk == b->capbrk) {
         b->capbrk = b->capbrk ? 2 * b->capbrk : 16;
         b->brk = gs_reallocarray(b->brk, b->capbrk, sizeof *b->brk);
@@ -346,11 +359,27 @@ char *gs_tf_get_str(const gs_tf *tf, int collect_var)
     return line;
 }
 
+/* The same line as gs_tf_get_str, written to out as it is made: a result
+   of millions of terms needs no string of its size (nor two). */
 void gs_print_text(FILE *out, const gs_tf *tf, int collect_var)
 {
-    char *line = gs_tf_get_str(tf, collect_var);
-    fprintf(out, "%s\n", line);
-    free(line);
+    sbuf b;
+    style st;
+    int poly = gs_poly_is_one(&tf->den, tf->ctx);
+    sb_init_stream(&b, out);
+    style_init(&st, tf->ctx, 0);
+    sb_puts(&b, gs_tf_name(tf));
+    sb_puts(&b, poly ? " = " : " = (");
+    put_poly(&b, &st, &tf->num, collect_var);
+    if (!poly) {
+        sb_puts(&b, ")/(");
+        put_poly(&b, &st, &tf->den, collect_var);
+        sb_puts(&b, ")");
+    }
+    sb_puts(&b, "\n");
+    gs_strbuf_flush(&b.s);
+    style_clear(&st);
+    sb_free(&b);
 }
 
 /* A LaTeX side longer than this many characters of its text form is
