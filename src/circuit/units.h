@@ -31,7 +31,10 @@ typedef enum gs_quantity {
     GS_Q_TEMPERATURE,   /* K, or C / degC / °C (Celsius, no prefix)    */
     GS_Q_KPARAM,        /* A/V^2: the MOSFET K = µCox·W/L              */
     GS_Q_INV_VOLTAGE,   /* 1/V, /V, V^-1: the MOSFET lambda            */
-    GS_Q_SQRT_VOLTAGE   /* V^0.5, V^1/2: the body-effect gamma         */
+    GS_Q_SQRT_VOLTAGE,  /* V^0.5, V^1/2: the body-effect gamma         */
+    GS_Q_LENGTH,        /* m, after a prefix only (a lone m is milli):
+                           a MOSFET's W and L                          */
+    GS_Q_CAP_AREA       /* F/m^2, F/m2: a MOSFET's Cox                 */
 } gs_quantity;
 
 /* Where a figure was written, for messages (file may be NULL; line 0
