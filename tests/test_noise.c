@@ -6,6 +6,7 @@
 #include "analysis/job.h"
 #include "analysis/mna.h"
 #include "analysis/noise.h"
+#include "circuit/device.h"
 #include "numeric/numsolve.h"
 #include "numeric/spectrum.h"
 
@@ -375,6 +376,47 @@ static void test_bias_param_errors(void)
     }
 }
 
+/* Bias line TEXT read and applied: the first message, "" for none. */
+static void bias_applied(char *out, size_t size, const char *text)
+{
+    gs_circuit *c = gs_circuit_new();
+    gs_diag d;
+    long double vals[64] = {0};
+    unsigned char set[64] = {0};
+    gs_diag_init(&d);
+    if (gs_parse_string(c, "t.gsc", text, &d) == GS_OK
+        && gs_symtab_count(c->syms) <= 64)
+        gs_device_apply_biases(c, vals, set, NULL, &d);
+    snprintf(out, size, "%s", d.n ? d.v[0].message : "");
+    gs_diag_clear(&d);
+    gs_circuit_free(c);
+}
+
+/* The noise parameters fix no operating point: the rules of the figures
+   say the same with them as without; a bjt's bias line refuses them (its
+   shot noise needs only the gm and rpi the line sets). */
+static void test_bias_param_rules(void)
+{
+    char a[256], b[256];
+    static const char cs[] = "vsource vin g gnd\nresistor RD d gnd = 1k\n"
+                             "mosfet M1 d g gnd rds=inf\n";
+    char text[256];
+    snprintf(text, sizeof text, "%sbias M1 id=1m kf=1e-25 cox=5m w=1u l=1u "
+             "nthermal=1\n", cs);
+    bias_applied(a, sizeof a, text);
+    snprintf(text, sizeof text, "%sbias M1 id=1m\n", cs);
+    bias_applied(b, sizeof b, text);
+    CHECK_MSG(strcmp(a, b) == 0 && strstr(a, "under-determined") != NULL,
+              "'%s' vs '%s'", a, b);
+    snprintf(text, sizeof text, "%sbias M1 id=1m vds=2 k=2m kf=1e-25 "
+             "cox=5m w=1u l=1u\n", cs);
+    bias_applied(a, sizeof a, text);
+    CHECK_MSG(a[0] == '\0', "'%s'", a);
+    bias_applied(a, sizeof a, "vsource vin b gnd\nresistor RC c gnd = 1k\n"
+                 "bjt Q1 c b gnd\nbias Q1 ic=1m vce=2 beta=100 kf=1e-25\n");
+    CHECK_MSG(strcmp(a, "unknown bjt bias figure 'kf'") == 0, "'%s'", a);
+}
+
 /* A non-inverting amplifier: a noise voltage at the + input reaches the
    output through the noise gain 1 + R2/R1 (Franco, "Design with
    Operational Amplifiers and Analog Integrated Circuits", noise chapter,
@@ -462,6 +504,7 @@ int main(void)
     test_flicker(1);
     test_bias_params();
     test_bias_param_errors();
+    test_bias_param_rules();
     test_noninverting();
     test_bjt_nf();
     test_bjt_adjoint();
