@@ -255,6 +255,7 @@ static void test_format(void)
     check_format(0, GS_Q_CONDUCTANCE, "0 S");
     check_format(1e-18L, GS_Q_CAPACITANCE, "1e-18 F");
     check_format(20e-6L, GS_Q_LENGTH, "20 um");
+    check_format(1.5L, GS_Q_LENGTH, "1500 mm");   /* not "1.5 m": milli */
     check_format(8e-3L, GS_Q_CAP_AREA, "8 mF/m^2");
     if (has_inf()) {
         check_format(INFINITY, GS_Q_RESISTANCE, "inf Ohm");

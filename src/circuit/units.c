@@ -367,6 +367,11 @@ static char *format_prefixed(long double v, const char *unit)
         m = v / powl(10, 3 * e3);
         snprintf(buf, sizeof buf, "%.6Lg", m);
     }
+    if (e3 == 0 && strcmp(unit, "m") == 0) {
+        e3 = -1;                /* "1.5 m" would read back as milli */
+        m = v * 1000;
+        snprintf(buf, sizeof buf, "%.6Lg", m);
+    }
     if (e3 == 0)
         return gs_asprintf("%s %s", buf, unit);
     /* micro as u here: these figures are meant to be typed back */

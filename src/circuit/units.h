@@ -67,7 +67,9 @@ const char *gs_quantity_unit(gs_quantity q);
 
 /* v in engineering notation with an SI prefix and q's unit, six
    significant digits, ASCII only: "25.852 mV", "4.5 mA/V^2", "25 kOhm",
-   "0.04 1/V" (inverse units and temperatures take no prefix).  Infinity
+   "0.04 1/V" (inverse units and temperatures take no prefix; a length
+   of metres is said in millimetres, "1500 mm", as a lone m reads as
+   milli).  Infinity
    prints as "inf".  A new string the caller frees. */
 char *gs_units_format(long double v, gs_quantity q);
 
