@@ -38,6 +38,7 @@ bias line names no device
 the current of '%s' is controlled by itself through a loop of current-controlled sources
 %s: the root search did not converge; the roots shown are the best found
 %s: the tolerance could not be met; the best form reached is shown
+%s: the short form is not within the tolerance; the best one reached is shown
 EOF
 # (the first four: arguments of the C library's calls, which the command
 # checks first; the adjoint solve: a library call the command does not

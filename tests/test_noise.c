@@ -6,6 +6,7 @@
 #include "analysis/job.h"
 #include "analysis/mna.h"
 #include "analysis/noise.h"
+#include "analysis/noise_approx.h"
 #include "circuit/device.h"
 #include "numeric/numsolve.h"
 #include "numeric/spectrum.h"
@@ -495,6 +496,96 @@ static void test_bjt_adjoint(void)
     unload(&f);
 }
 
+/* The short form of target 0 of f at tolerance tol over [f1, f2]. */
+static int short_form(gs_noise_short *sh, const fixture *f, long double tol,
+                      long double f1, long double f2)
+{
+    gs_approx_opts o;
+    gs_diag d;
+    int rc;
+    gs_approx_opts_default(&o);
+    o.tol_db = tol;
+    o.f_lo = f1;
+    o.f_hi = f2;
+    gs_diag_init(&d);
+    gs_noise_short_init(sh);
+    rc = gs_noise_short_make(sh, &f->n, &f->nn, &f->j, 0, &o, &d);
+    if (rc != GS_OK)
+        gs_diag_print(stderr, &d);
+    gs_diag_clear(&d);
+    return rc;
+}
+
+/* Short forms of a divider R1 = 1k, R2 = 1M.  Its parts are 4kT R1 and
+   4kT R2 times the squares of R2/(R1 + R2) and R1/(R1 + R2)
+   (Johnson-Nyquist with the divider rule, textbook facts): R2's share is
+   R1/(R1 + R2) = 1/1001 at every frequency.  At 0.5 dB (a third of it,
+   3.8 %, for what is left out) R2 goes, and the short S_out is then low
+   by the factor R2/(R1 + R2) whatever the short transfer of R1 (R1 R2 /
+   (R1 + R2) or R1): an error of 10 log10(1.001) dB.  At 0.01 dB (a third
+   is 0.077 %) it stays. */
+static void test_short_divider(void)
+{
+    fixture f;
+    gs_noise_short sh;
+    int r1, r2;
+    load(&f, "vsource vin in gnd\nresistor R1 in out = 1k\n"
+             "resistor R2 out gnd = 1M\ntransfer Av = v(out) / vin\n");
+    CHECK(f.ok);
+    if (!f.ok)
+        return;
+    r1 = src_index(&f, "R1");
+    r2 = src_index(&f, "R2");
+    CHECK(short_form(&sh, &f, 0.5L, 1, 1e9L) == GS_OK);
+    CHECK(sh.kept[r1] == 1 && sh.kept[r2] == 0 && sh.met);
+    CHECK(close_to(sh.max_share[r2], 1 / 1001.0L, 1e-12L));
+    CHECK_MSG(close_to(sh.err_out_db, 10 * log10l(1.001L), 1e-9L),
+              "%Lg dB", sh.err_out_db);
+    CHECK(sh.err_in_db <= 0.5L);
+    gs_noise_short_clear(&sh);
+    CHECK(short_form(&sh, &f, 0.01L, 1, 1e9L) == GS_OK);
+    CHECK(sh.kept[r1] == 1 && sh.kept[r2] == 1 && sh.met);
+    CHECK(sh.err_out_db <= 0.01L && sh.err_in_db <= 0.01L);
+    gs_noise_short_clear(&sh);
+    unload(&f);
+}
+
+/* An RC low-pass has nothing to leave out: one source, and a first-order
+   transfer that loses either term at a large error.  The short density
+   is the textbook 4kTR / (1 + (f/fc)^2) (Gray, Hurst, Lewis and Meyer,
+   noise chapter, from memory), checked at three frequencies. */
+static void test_short_rc(void)
+{
+    fixture f;
+    gs_noise_short sh;
+    long double r = 10e3L, c = 1e-9L, fc = 1 / (2 * acosl(-1) * r * c);
+    int q;
+    load(&f, "vsource vin in gnd\nresistor R in out = 10k\n"
+             "capacitor C out gnd = 1n\ntransfer H = v(out) / vin\n");
+    CHECK(f.ok);
+    if (!f.ok)
+        return;
+    CHECK(short_form(&sh, &f, 0.1L, 1, 1e9L) == GS_OK);
+    CHECK(sh.nsrc == 1 && sh.kept[0] == 1 && sh.met);
+    CHECK(sh.err_out_db < 1e-12L && sh.err_in_db < 1e-12L);
+    for (q = 0; q < 3; q++) {
+        long double fr = fc * powl(10, q - 1), want, got;
+        gs_noise_term t = f.nn.term[0];
+        long double *num = gs_job_coeffs(&f.j, &sh.h[0].h.num, &t.dn);
+        long double *den = gs_job_coeffs(&f.j, &sh.h[0].h.den, &t.dd);
+        t.num = num;
+        t.den = den;
+        got = gs_spectrum_term(&t, fr);
+        want = 4 * kT(300) * r / (1 + (fr / fc) * (fr / fc));
+        CHECK_MSG(close_to(got, want, 1e-12L), "at %Lg Hz: %Lg vs %Lg", fr,
+                  got, want);
+        free(num);
+        free(den);
+    }
+    gs_noise_short_clear(&sh);
+    unload(&f);
+}
+
 int main(void)
 {
     test_divider();
@@ -508,5 +599,7 @@ int main(void)
     test_noninverting();
     test_bjt_nf();
     test_bjt_adjoint();
+    test_short_divider();
+    test_short_rc();
     return check_report("noise");
 }

@@ -232,3 +232,38 @@ int gs_cli_real(long double *out, const char *text, const char *unit,
     gs_rat_clear(&r);
     return 0;
 }
+
+/* --tol X (dB, phase 10 X degrees), X/Y (dB/degrees) or P% (a relative
+   error P: 20 log10(1 + P) dB, asin(P) degrees). */
+int gs_cli_tol(long double *tol_db, long double *tol_deg, const char *t,
+               const char *cmd, FILE *err)
+{
+    char *end;
+    long double a = strtold(t, &end), b;
+    if (end != t && a >= 0 && *end == '%' && end[1] == 0) {
+        a /= 100;
+        *tol_db = 20 * log10l(1 + a);
+        *tol_deg = asinl(a < 1 ? a : 1) * 180
+                     / 3.141592653589793238462643383279502884L;
+        return 0;
+    }
+    if (end != t && a >= 0 && *end == 0) {
+        *tol_db = a;
+        *tol_deg = 10 * a;
+        return 0;
+    }
+    if (end != t && a >= 0 && *end == '/') {
+        const char *u = end + 1;
+        b = strtold(u, &end);
+        if (end != u && b >= 0 && *end == 0) {
+            *tol_db = a;
+            *tol_deg = b;
+            return 0;
+        }
+    }
+    fprintf(err, "gainsmith %s: error: --tol expects DB, DB/DEG or "
+            "PERCENT%%, got '%s'\n", cmd, t);
+    fprintf(err, "gainsmith %s: hint: e.g. --tol 0.1, --tol 0.1/1 or "
+            "--tol 1%%\n", cmd);
+    return 2;
+}

@@ -50,5 +50,10 @@ int gs_cli_bytes(size_t *out, const char *text, const char *cmd,
                  const char *name, FILE *err);
 int gs_cli_real(long double *out, const char *text, const char *unit,
                 const char *cmd, const char *name, FILE *err);
+/* --tol X (dB, phase 10 X degrees), X/Y (dB/degrees) or P% (a relative
+   error P: 20 log10(1 + P) dB, asin(P) degrees) into *tol_db, *tol_deg;
+   0, or 2 with the message on err under the command's name. */
+int gs_cli_tol(long double *tol_db, long double *tol_deg, const char *t,
+               const char *cmd, FILE *err);
 
 #endif

@@ -17,40 +17,6 @@ static const gs_cli_opt approx_spec[] = {
     {"help", 0, 0}, {NULL, 0, 0}
 };
 
-/* --tol X (dB, phase 10 X degrees), X/Y (dB/degrees) or P% (a relative
-   error P: 20 log10(1 + P) dB, asin(P) degrees). */
-static int parse_tol(gs_approx_opts *o, const char *t, FILE *err)
-{
-    char *end;
-    long double a = strtold(t, &end), b;
-    if (end != t && a >= 0 && *end == '%' && end[1] == 0) {
-        a /= 100;
-        o->tol_db = 20 * log10l(1 + a);
-        o->tol_deg = asinl(a < 1 ? a : 1) * 180
-                     / 3.141592653589793238462643383279502884L;
-        return 0;
-    }
-    if (end != t && a >= 0 && *end == 0) {
-        o->tol_db = a;
-        o->tol_deg = 10 * a;
-        return 0;
-    }
-    if (end != t && a >= 0 && *end == '/') {
-        const char *u = end + 1;
-        b = strtold(u, &end);
-        if (end != u && b >= 0 && *end == 0) {
-            o->tol_db = a;
-            o->tol_deg = b;
-            return 0;
-        }
-    }
-    fprintf(err, "gainsmith approx: error: --tol expects DB, DB/DEG or "
-            "PERCENT%%, got '%s'\n", t);
-    fprintf(err, "gainsmith approx: hint: e.g. --tol 0.1, --tol 0.1/1 or "
-            "--tol 1%%\n");
-    return 2;
-}
-
 static int parse_band(gs_approx_opts *o, const char *t, FILE *err)
 {
     const char *colon = strchr(t, ':');
@@ -119,7 +85,7 @@ int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
         }
     }
     if (status == 0 && (t = gs_cli_get(&cl, "tol", 0)))
-        status = parse_tol(&o, t, err);
+        status = gs_cli_tol(&o.tol_db, &o.tol_deg, t, "approx", err);
     if (status == 0 && (t = gs_cli_get(&cl, "band", 0)))
         status = parse_band(&o, t, err);
     if (status == 0 && (t = gs_cli_get(&cl, "spread", 0))) {

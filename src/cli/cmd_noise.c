@@ -5,10 +5,12 @@
 #include "cli/cmd.h"
 #include "analysis/job.h"
 #include "analysis/noise.h"
+#include "analysis/noise_approx.h"
 #include "base/mem.h"
 #include "numeric/spectrum.h"
 #include "algebra/sym.h"
 #include "output/formula.h"
+#include "output/json.h"
 #include "output/svg.h"
 
 #include <math.h>
@@ -19,8 +21,9 @@
 static const gs_cli_opt noise_spec[] = {
     {"only", 1, 0}, {"format", 1, 0}, {"at", 1, 1}, {"band", 1, 0},
     {"source-resistor", 1, 0}, {"csv", 1, 0}, {"svg", 1, 0}, {"from", 1, 0},
-    {"to", 1, 0}, {"points", 1, 0}, {"set", 1, 1}, {"max-terms", 1, 0}, {"max-memory", 1, 0},
-    {"help", 0, 0}, {NULL, 0, 0}
+    {"to", 1, 0}, {"points", 1, 0}, {"set", 1, 1}, {"max-terms", 1, 0},
+    {"max-memory", 1, 0}, {"approx", 0, 0}, {"tol", 1, 0}, {"help", 0, 0},
+    {NULL, 0, 0}
 };
 
 typedef struct nopts {
@@ -33,6 +36,8 @@ typedef struct nopts {
     size_t points;
     const char *csv, *svg, *rs;
     int rs_src;                 /* index of the source resistor's noise */
+    int approx;                 /* --approx: the short forms */
+    gs_approx_opts ao;          /* their tolerance and band */
 } nopts;
 
 static int bad(FILE *err, const char *msg, const char *hint)
@@ -49,6 +54,7 @@ static int parse_opts(nopts *o, const gs_cli *cl, FILE *err)
     size_t i;
     memset(o, 0, sizeof *o);
     o->rs_src = -1;
+    gs_approx_opts_default(&o->ao);
     o->format = gs_cli_get(cl, "format", 0);
     if (o->format == NULL)
         o->format = "text";
@@ -96,6 +102,17 @@ static int parse_opts(nopts *o, const gs_cli *cl, FILE *err)
         return 2;
     if (o->points < 2 || o->points > 10000000)
         return bad(err, "the spectrum needs 2 to 10000000 points", NULL);
+    /* the short form holds over the band, else over the spectrum's span
+       (flicker noise makes the low end matter, which approx's own band,
+       set by the poles and zeros, would leave out) */
+    o->ao.f_lo = o->has_band ? o->f1 : o->from;
+    o->ao.f_hi = o->has_band ? o->f2 : o->to;
+    o->approx = gs_cli_has(cl, "approx");
+    if ((t = gs_cli_get(cl, "tol", 0)) && !o->approx)
+        return bad(err, "--tol goes with --approx",
+                   "e.g. --approx --tol 0.5 (dB)");
+    if (t && gs_cli_tol(&o->ao.tol_db, &o->ao.tol_deg, t, "noise", err))
+        return 2;
     o->csv = gs_cli_get(cl, "csv", 0);
     o->svg = gs_cli_get(cl, "svg", 0);
     o->rs = gs_cli_get(cl, "source-resistor", 0);
@@ -104,7 +121,7 @@ static int parse_opts(nopts *o, const gs_cli *cl, FILE *err)
 
 static int wants_numbers(const nopts *o)
 {
-    return o->nat || o->has_band || o->csv || o->svg || o->rs;
+    return o->nat || o->has_band || o->csv || o->svg || o->rs || o->approx;
 }
 
 /* "H_M1_channel" for the source M1.channel */
@@ -150,36 +167,53 @@ static void latex_s(FILE *out, const char *name)
     fputs("}}", out);
 }
 
+/* Is source k in the density printed (every one, or the short form's)? */
+static int shown(const gs_noise_short *sh, size_t k)
+{
+    return sh == NULL || sh->kept[k];
+}
+
 /* The densities as LaTeX equations: S_out as the sum (three terms a
-   line, in multline* when longer), S_in, and each S_k. */
+   line, in multline* when longer), S_in, and each S_k; with sh, the
+   short form's sources and \approx. */
 static void print_latex_densities(FILE *out, const gs_job *j,
-                                  const gs_noise *n, size_t i)
+                                  const gs_noise *n, size_t i,
+                                  const gs_noise_short *sh)
 {
     const gs_noise_target *t = &n->target[i];
     const gs_tf *tf = tf_for(j, t->out);
-    int long_sum = n->nsrc > 3;
-    size_t k;
+    const char *eq = sh ? "\\approx" : "=";
+    size_t k, m = 0;
+    int long_sum;
     char *h, *tex;
+    for (k = 0; k < n->nsrc; k++)
+        m += (size_t)shown(sh, k);
+    long_sum = m > 3;
     fputs(long_sum ? "\\begin{multline*}\n" : "\\begin{equation}\n", out);
-    fputs("S_{\\mathrm{out}} = ", out);
-    for (k = 0; k < n->nsrc; k++) {
+    fprintf(out, "S_{\\mathrm{out}} %s ", eq);
+    for (k = 0, m = 0; k < n->nsrc; k++) {
+        if (!shown(sh, k))
+            continue;
         h = h_name(n->src[k].name);
         tex = gs_sym_latex_name(h);
-        fprintf(out, "%s\\left|%s\\right|^{2} ", k == 0 ? ""
-                : k % 3 == 0 ? "\\\\\n+ " : "+ ", tex);
+        fprintf(out, "%s\\left|%s\\right|^{2} ", m == 0 ? ""
+                : m % 3 == 0 ? "\\\\\n+ " : "+ ", tex);
         latex_s(out, n->src[k].name);
         fputc(' ', out);
         free(tex);
         free(h);
+        m++;
     }
     fprintf(out, "\\quad \\mathrm{%s^2/Hz}\n", gs_noise_unit(j->c, t->out, 0));
     fputs(long_sum ? "\\end{multline*}\n" : "\\end{equation}\n", out);
     tex = gs_sym_latex_name(gs_tf_name(tf));
-    fprintf(out, "\\begin{equation}\nS_{\\mathrm{in}} = \\frac{S_{\\mathrm"
+    fprintf(out, "\\begin{equation}\nS_{\\mathrm{in}} %s \\frac{S_{\\mathrm"
             "{out}}}{\\left|%s\\right|^{2}} \\quad \\mathrm{%s^2/Hz}\n"
-            "\\end{equation}\n", tex, gs_noise_unit(j->c, t->out, 1));
+            "\\end{equation}\n", eq, tex, gs_noise_unit(j->c, t->out, 1));
     free(tex);
     for (k = 0; k < n->nsrc; k++) {
+        if (!shown(sh, k))
+            continue;
         tex = gs_formula_latex(n->src[k].density);
         fputs("\\begin{equation}\n", out);
         latex_s(out, n->src[k].name);
@@ -189,43 +223,86 @@ static void print_latex_densities(FILE *out, const gs_job *j,
     }
 }
 
-/* The symbolic densities: S_out as the sum, each S_k and each H_k. */
+/* What the short form left out, how many terms each transfer kept, the
+   band and the measured errors; lines start with c. */
+static void print_short_summary(FILE *out, const gs_noise *n,
+                                const gs_noise_short *sh, const char *c)
+{
+    char f1[48], f2[48];
+    size_t k, left = 0;
+    for (k = 0; k < n->nsrc; k++)
+        if (!sh->kept[k]) {
+            if (left == 0)
+                fprintf(out, "%s  left out:", c);
+            fprintf(out, "%s %s", left ? "," : "", n->src[k].name);
+            left++;
+        }
+    if (left)
+        fprintf(out, " (together at most %.3Lg %% of S_out in the band)\n",
+                100 * sh->dropped_share);
+    fprintf(out, "%s  terms kept: %s %zu of %zu", c,
+            gs_tf_name(&sh->target.h), sh->target.terms_kept,
+            sh->target.terms_exact);
+    for (k = 0; k < n->nsrc; k++)
+        if (sh->kept[k])
+            fprintf(out, ", %s %zu of %zu", gs_tf_name(&sh->h[k].h),
+                    sh->h[k].terms_kept, sh->h[k].terms_exact);
+    fprintf(out, "\n%s  band %s to %s, %d points; measured error at the "
+            "nominal point: S_out %.3Lg dB, S_in %.3Lg dB (tolerance %.3Lg "
+            "dB)\n", c, gs_si_format(f1, sizeof f1, sh->f_lo, 4, "Hz"),
+            gs_si_format(f2, sizeof f2, sh->f_hi, 4, "Hz"), sh->npoints,
+            sh->err_out_db, sh->err_in_db, sh->tol_db);
+    if (!sh->met)
+        fprintf(out, "%s  the tolerance is NOT met; this is the best form "
+                "reached\n", c);
+}
+
+/* The symbolic densities: S_out as the sum, each S_k and each H_k; with
+   sh, the short form: its sources, \~ and the short transfers. */
 static void print_symbolic(FILE *out, const gs_job *j, const gs_noise *n,
-                           size_t i, const char *format)
+                           size_t i, const char *format,
+                           const gs_noise_short *sh)
 {
     const gs_noise_target *t = &n->target[i];
     const gs_tf *tf = tf_for(j, t->out);
     const char *c = strcmp(format, "latex") == 0 ? "% " : "";
-    size_t k;
+    const char *eq = sh ? "~" : "=";
+    size_t k, m;
     char *h;
-    fprintf(out, "%snoise of %s = %s, at its output\n", c, gs_tf_name(tf),
-            tf->description ? tf->description : "");
+    fprintf(out, "%snoise of %s = %s, at its output%s\n", c, gs_tf_name(tf),
+            tf->description ? tf->description : "",
+            sh ? ", short form" : "");
     if (*c) {
-        print_latex_densities(out, j, n, i);
+        print_latex_densities(out, j, n, i, sh);
         fprintf(out, "%% with k = 1.380649e-23 J/K, q = 1.602176634e-19 C, "
                 "T in K, f in Hz, s = j*2*pi*f\n");
-        print_tf(out, tf, format);
+    } else {
+        fprintf(out, "S_out %s ", eq);
+        for (k = 0, m = 0; k < n->nsrc; k++) {
+            if (!shown(sh, k))
+                continue;
+            h = h_name(n->src[k].name);
+            fprintf(out, "%s|%s|^2*S_%s", m++ ? " + " : "", h,
+                    n->src[k].name);
+            free(h);
+        }
+        fprintf(out, "   (%s^2/Hz)\n", gs_noise_unit(j->c, t->out, 0));
+        fprintf(out, "S_in %s S_out/|%s|^2   (%s^2/Hz)\n", eq,
+                gs_tf_name(tf), gs_noise_unit(j->c, t->out, 1));
         for (k = 0; k < n->nsrc; k++)
-            print_tf(out, tf_for(j, t->first + k), format);
-        return;
+            if (shown(sh, k))
+                fprintf(out, "S_%s = %s   (%s)\n", n->src[k].name,
+                        n->src[k].density, n->src[k].unit);
+        fputs("with k = 1.380649e-23 J/K, q = 1.602176634e-19 C, "
+              "T in K, f in Hz, s = j*2*pi*f\n", out);
     }
-    fprintf(out, "%sS_out = ", c);
-    for (k = 0; k < n->nsrc; k++) {
-        h = h_name(n->src[k].name);
-        fprintf(out, "%s|%s|^2*S_%s", k ? " + " : "", h, n->src[k].name);
-        free(h);
-    }
-    fprintf(out, "   (%s^2/Hz)\n", gs_noise_unit(j->c, t->out, 0));
-    fprintf(out, "%sS_in = S_out/|%s|^2   (%s^2/Hz)\n", c, gs_tf_name(tf),
-            gs_noise_unit(j->c, t->out, 1));
+    print_tf(out, sh ? &sh->target.h : tf, format);
     for (k = 0; k < n->nsrc; k++)
-        fprintf(out, "%sS_%s = %s   (%s)\n", c, n->src[k].name,
-                n->src[k].density, n->src[k].unit);
-    fprintf(out, "%swith k = 1.380649e-23 J/K, q = 1.602176634e-19 C, "
-            "T in K, f in Hz, s = j*2*pi*f\n", c);
-    print_tf(out, tf, format);
-    for (k = 0; k < n->nsrc; k++)
-        print_tf(out, tf_for(j, t->first + k), format);
+        if (shown(sh, k))
+            print_tf(out, sh ? &sh->h[k].h : tf_for(j, t->first + k),
+                     format);
+    if (sh)
+        print_short_summary(out, n, sh, c);
 }
 
 static void print_share(FILE *out, const char *name, long double v,
@@ -309,19 +386,59 @@ static void json_num(FILE *out, long double v)
         fputs("null", out);
 }
 
-static void json_str(FILE *out, const char *s)
+/* , "key": number */
+static void json_field(FILE *out, const char *key, long double v)
 {
-    fputc('"', out);
-    for (; *s; s++) {
-        if (*s == '"' || *s == '\\')
-            fputc('\\', out);
-        fputc(*s, out);
+    fprintf(out, ", \"%s\": ", key);
+    json_num(out, v);
+}
+
+/* , "key": [a, b] */
+static void json_pair(FILE *out, const char *key, long double a,
+                      long double b)
+{
+    fprintf(out, ", \"%s\": [", key);
+    json_num(out, a);
+    fputs(", ", out);
+    json_num(out, b);
+    fputc(']', out);
+}
+
+/* "short": the short form's band, tolerance, errors and each kept
+   source's short transfer, in the object of target i. */
+static void json_short(FILE *out, const gs_noise *n,
+                       const gs_noise_short *sh)
+{
+    size_t k, m = 0;
+    fprintf(out, ", \"short\": {\"met\": %s", sh->met ? "true" : "false");
+    json_pair(out, "band", sh->f_lo, sh->f_hi);
+    json_field(out, "tolerance_db", sh->tol_db);
+    json_field(out, "output_error_db", sh->err_out_db);
+    json_field(out, "input_error_db", sh->err_in_db);
+    fputs(", \"transfer\": ", out);
+    gs_print_json(out, &sh->target.h, sh->target.h.s_var);
+    fputs(", \"sources\": [", out);
+    for (k = 0; k < n->nsrc; k++) {
+        if (!sh->kept[k])
+            continue;
+        fputs(m++ ? ", {\"name\": " : "{\"name\": ", out);
+        gs_json_string(out, n->src[k].name);
+        fputs(", \"transfer\": ", out);
+        gs_print_json(out, &sh->h[k].h, sh->h[k].h.s_var);
+        fputc('}', out);
     }
-    fputc('"', out);
+    fputs("], \"left_out\": [", out);
+    for (k = 0, m = 0; k < n->nsrc; k++)
+        if (!sh->kept[k]) {
+            fputs(m++ ? ", " : "", out);
+            gs_json_string(out, n->src[k].name);
+        }
+    fputs("]}", out);
 }
 
 static void print_json(FILE *out, const gs_job *j, const gs_noise *n,
-                       const gs_noise_num *nn, const nopts *o)
+                       const gs_noise_num *nn, const nopts *o,
+                       const gs_noise_short *sh)
 {
     long double *part = gs_calloc(n->nsrc, sizeof *part), tot, in;
     size_t i, k;
@@ -332,40 +449,36 @@ static void print_json(FILE *out, const gs_job *j, const gs_noise *n,
         gs_noise_band(&tot, &in, part, nn, i, o->f1, o->f2);
         r = gs_noise_ranked(part, n->nsrc);
         fputs(i ? ",\n {\"name\": " : "{\"name\": ", out);
-        json_str(out, gs_tf_name(tf));
-        fputs(", \"band\": [", out);
-        json_num(out, o->f1);
-        fputs(", ", out);
-        json_num(out, o->f2);
-        fputs("], \"temperature\": ", out);
-        json_num(out, nn->t);
-        fprintf(out, ", \"output_unit\": \"%s\", \"input_unit\": \"%s\", "
-                "\"output_rms\": ", gs_noise_unit(j->c, n->target[i].out, 0),
+        gs_json_string(out, gs_tf_name(tf));
+        json_pair(out, "band", o->f1, o->f2);
+        json_field(out, "temperature", nn->t);
+        fprintf(out, ", \"output_unit\": \"%s\", \"input_unit\": \"%s\"",
+                gs_noise_unit(j->c, n->target[i].out, 0),
                 gs_noise_unit(j->c, n->target[i].out, 1));
-        json_num(out, sqrtl(tot));
-        fputs(", \"input_rms\": ", out);
-        json_num(out, sqrtl(in));
-        if (o->rs_src >= 0) {
-            fputs(", \"noise_figure_db\": ", out);
-            json_num(out, 10 * log10l(tot / part[o->rs_src]));
-        }
+        json_field(out, "output_rms", sqrtl(tot));
+        json_field(out, "input_rms", sqrtl(in));
+        if (o->rs_src >= 0)
+            json_field(out, "noise_figure_db",
+                       10 * log10l(tot / part[o->rs_src]));
         fputs(", \"sources\": [", out);
         for (k = 0; k < n->nsrc; k++) {
             const gs_noise_src *s = &n->src[r[k]];
             char *h = h_name(s->name);
             fputs(k ? ", {\"name\": " : "{\"name\": ", out);
-            json_str(out, s->name);
+            gs_json_string(out, s->name);
             fputs(", \"density\": ", out);
-            json_str(out, s->density);
-            fputs(", \"output_rms\": ", out);
-            json_num(out, sqrtl(part[r[k]]));
+            gs_json_string(out, s->density);
+            json_field(out, "output_rms", sqrtl(part[r[k]]));
             fputs(", \"transfer\": ", out);
             gs_print_json(out, tf_for(j, n->target[i].first + r[k]),
                           tf->s_var);
             fputc('}', out);
             free(h);
         }
-        fputs("]}", out);
+        fputc(']', out);
+        if (sh)
+            json_short(out, n, &sh[i]);
+        fputc('}', out);
         free(r);
     }
     fputs("]\n", out);
@@ -562,6 +675,25 @@ static int numbers(const gs_job *j, const gs_noise *n, gs_noise_num *nn,
     return gs_job_exit_status(rc);
 }
 
+/* The short forms of every target (--approx), in a new array. */
+static int make_short(gs_noise_short **sh, const gs_job *j,
+                      const gs_noise *n, const gs_noise_num *nn,
+                      const nopts *o, FILE *err)
+{
+    size_t i;
+    int rc = GS_OK;
+    gs_diag d;
+    gs_diag_init(&d);
+    *sh = gs_calloc(n->ntarget ? n->ntarget : 1, sizeof **sh);
+    for (i = 0; i < n->ntarget; i++)
+        gs_noise_short_init(&(*sh)[i]);
+    for (i = 0; i < n->ntarget && rc == GS_OK; i++)
+        rc = gs_noise_short_make(&(*sh)[i], n, nn, j, i, &o->ao, &d);
+    gs_diag_print(err, &d);
+    gs_diag_clear(&d);
+    return gs_job_exit_status(rc);
+}
+
 int gs_cmd_noise(int argc, char **argv, FILE *out, FILE *err)
 {
     gs_cli cl;
@@ -569,6 +701,7 @@ int gs_cmd_noise(int argc, char **argv, FILE *out, FILE *err)
     gs_noise n;
     gs_noise_num nn;
     nopts o;
+    gs_noise_short *sh = NULL;
     size_t i, k;
     int status, json;
 
@@ -588,10 +721,12 @@ int gs_cmd_noise(int argc, char **argv, FILE *out, FILE *err)
     json = status == 0 && strcmp(o.format, "json") == 0;
     if (status == 0 && wants_numbers(&o))
         status = numbers(&j, &n, &nn, &cl, err);
+    if (status == 0 && o.approx)
+        status = make_short(&sh, &j, &n, &nn, &o, err);
     if (status == 0 && json)
-        print_json(out, &j, &n, &nn, &o);
+        print_json(out, &j, &n, &nn, &o, sh);
     for (i = 0; status == 0 && !json && i < n.ntarget; i++) {
-        print_symbolic(out, &j, &n, i, o.format);
+        print_symbolic(out, &j, &n, i, o.format, sh ? &sh[i] : NULL);
         for (k = 0; k < o.nat; k++)
             print_spot(out, &j, &n, &nn, i, o.at[k], &o);
         if (o.has_band) {
@@ -607,6 +742,16 @@ int gs_cmd_noise(int argc, char **argv, FILE *out, FILE *err)
               "(docs/noise.md)\n", out);
     if (status == 0 && (o.csv || o.svg))
         status = spectrum(&j, &n, &nn, &o, err);
+    for (i = 0; sh && i < n.ntarget; i++) {
+        if (status == 0 && !sh[i].met) {
+            fprintf(err, "gainsmith noise: error: %s: the short form is not "
+                    "within the tolerance; the best one reached is shown\n",
+                    gs_tf_name(tf_for(&j, n.target[i].out)));
+            status = 1;
+        }
+        gs_noise_short_clear(&sh[i]);
+    }
+    free(sh);
 done:
     free(o.at);
     gs_noise_num_clear(&nn);

@@ -287,12 +287,18 @@ static const char noise_text[] =
 "                          resistor in the circuit\n"
 "  --csv FILE, --svg FILE  the spectrum, log-spaced over --from..--to\n"
 "                          (the band, or 1 Hz..1 GHz), --points N (201)\n"
+"  --approx                the short form: each H_k simplified (approx),\n"
+"                          the sources that stay small over the band (or\n"
+"                          --from..--to) left out, the errors of S_out and\n"
+"                          S_in measured there\n"
+"  --tol X                 its tolerance in dB (0.1), as for approx\n"
 "  --set SYM=EXPR          as for eval (repeatable)\n"
 "  --max-terms N           as for derive\n"
 "  --max-memory SIZE       as for derive\n"
 "\n"
 "example:\n"
-"  gainsmith noise examples/noise_cs.gsc --at 1k --band 10:1M\n";
+"  gainsmith noise examples/noise_cs.gsc --at 1k --band 10:1M\n"
+"  gainsmith noise examples/miller_opamp.gsc --approx --tol 0.5\n";
 
 static const char approx_text[] =
 "usage: gainsmith approx FILE [options]\n"

@@ -15,6 +15,8 @@
 #         bode_1k_seconds=T paths_D=P ... approx_seconds=A approx_err_db=E
 #         ... peak_kib=K   (bench_engine.c)
 #   bench engine-order-NAME greedy=N/E/S natural=N/E/S sparse=N/E/S
+#   bench noise-NAME seconds=S peak_kib=K status=ok
+#   bench noise-approx-NAME seconds=S err_db=E peak_kib=K status=ok
 #   bench goal KEY=yes|no ...
 #   bench load loadavg_1min=L
 #   bench summary cases=C mismatches=M max_peak_kib=K
@@ -282,6 +284,18 @@ for f in examples/noise_*.gsc examples/miller_opamp.gsc \
     [ "$st" = ok ] || { noise_ok=no; status=1; }
     larger 0.1 "$sec" || noise_ok=no
     if larger "$sec" "$noise_max"; then noise_max=$sec; fi
+done
+# Short forms of the noise (noise --approx, 0.5 dB) on two examples.
+for f in examples/noise_cs.gsc examples/miller_opamp.gsc; do
+    name=$(basename "$f" .gsc)
+    t=$("$timer" -n 5 -s 10 -l "$limit" -m "$max_mib" -o "$tmp/out" -- \
+        "$bin" noise "$f" --approx --tol 0.5)
+    err=$(sed -n 's/.*S_out \([^ ]*\) dB, S_in \([^ ]*\) dB.*/\1 \2/p' \
+        "$tmp/out" | awk '{m = $1 > $2 ? $1 : $2; if (m > w) w = m} \
+        END {print w + 0}')
+    echo "bench noise-approx-$name seconds=$(field seconds "$t")" \
+        "err_db=$err peak_kib=$(field peak_kib "$t") status=$(field status "$t")"
+    [ "$(field status "$t")" = ok ] || status=1
 done
 # approx: whole-process time of `gainsmith approx FILE --stats` (median of
 # 5) on the examples with a transfer function worth simplifying and on the
