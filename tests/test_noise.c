@@ -7,6 +7,7 @@
 #include "analysis/mna.h"
 #include "analysis/noise.h"
 #include "analysis/noise_approx.h"
+#include "circuit/device.h"
 #include "numeric/numsolve.h"
 #include "numeric/spectrum.h"
 
@@ -253,6 +254,170 @@ static void test_flicker(int on_line)
     unload(&f);
 }
 
+/* The density of source NAME of f (white, and the 1/f coefficient). */
+static int density_of(long double *white, long double *flicker,
+                      const fixture *f, const char *name)
+{
+    int k = src_index(f, name), rc;
+    gs_diag d;
+    if (k < 0)
+        return 0;
+    gs_diag_init(&d);
+    rc = gs_noise_density(white, flicker, &f->n.src[k], f->j.c, f->j.vals,
+                          f->j.set, f->nn.t, &d);
+    gs_diag_clear(&d);
+    return rc == GS_OK;
+}
+
+/* The noise parameters on a mosfet's bias line: the same densities as
+   the same numbers on value lines, and the channel density 4kT*gamma*gm
+   and the flicker coefficient gm^2*K_f/(Cox*W*L) with gm of the square
+   law in saturation, gm = sqrt(2*K*ID*(1 + lambda*VDS)) (Razavi, "Design
+   of Analog CMOS Integrated Circuits", ch. 2 and the noise chapter, from
+   memory), worked out here from the bias figures. */
+static void test_bias_params(void)
+{
+    static const char head[] =
+        "vsource vin g gnd\nmosfet M1 d g gnd gm=gm1 rds=ro1\n"
+        "resistor RD d vdd = 5k\nground vdd\n"
+        "transfer Av = v(d) / vin\nbias M1 id=1m vds=2 k=2m lambda=0.04";
+    char text[2][512];
+    fixture f[2];
+    long double w[2], fl[2], cw[2], cf[2], k = 2e-3L, id = 1e-3L;
+    long double gm = sqrtl(2 * k * id * (1 + 0.04L * 2));
+    long double kf = 2e-25L, cox = 8e-3L, wd = 20e-6L, l = 0.5e-6L;
+    int i, sym;
+    snprintf(text[0], sizeof text[0], "%s nthermal=1 kf=2e-25 "
+             "cox=8mF/m^2 w=20um l=0.5u\n", head);
+    snprintf(text[1], sizeof text[1], "%s\nvalue nthermal_M1 = 1\n"
+             "value kf_M1 = 2e-25\nvalue cox_M1 = 8m\nvalue w_M1 = 20u\n"
+             "value l_M1 = 0.5u\n", head);
+    for (i = 0; i < 2; i++) {
+        load(&f[i], text[i]);
+        CHECK_MSG(f[i].ok, "bias params, form %d", i);
+        if (!f[i].ok)
+            return;
+        CHECK(density_of(&w[i], &fl[i], &f[i], "M1.channel"));
+        CHECK(density_of(&cw[i], &cf[i], &f[i], "M1.flicker"));
+    }
+    /* the same numbers either way (exact decimals, rounded once) */
+    CHECK_MSG(w[0] == w[1] && cf[0] == cf[1], "%Lg %Lg, %Lg %Lg", w[0],
+              w[1], cf[0], cf[1]);
+    CHECK(fl[0] == 0 && cw[0] == 0);
+    CHECK(close_to(gs_noise_out_psd(&f[0].nn, 0, 1e3L, NULL),
+                   gs_noise_out_psd(&f[1].nn, 0, 1e3L, NULL), 1e-15L));
+    /* against the textbook forms, gamma = nthermal = 1 */
+    CHECK_MSG(close_to(w[0], 4 * kT(300) * 1 * gm, 1e-15L), "%Lg vs %Lg",
+              w[0], 4 * kT(300) * gm);
+    CHECK(close_to(cf[0], gm * gm * kf / (cox * wd * l), 1e-15L));
+    /* bound as values from the bias line; the line keeps its figures */
+    sym = gs_symtab_find(f[0].j.c->syms, "kf_M1");
+    CHECK(sym >= 0 && f[0].j.origin[sym]
+          && strcmp(f[0].j.origin[sym], "bias M1") == 0);
+    CHECK(f[0].j.c->nbiases == 1 && f[0].j.c->biases[0].nparams == 4);
+    /* rds = (1 + lambda*VDS)/(lambda*ID) (square law with channel-length
+       modulation, same chapter): the figures still fix the point */
+    sym = gs_symtab_find(f[0].j.c->syms, "ro1");
+    CHECK(sym >= 0 && close_to(f[0].j.vals[sym], 1.08L / (0.04L * id),
+                               1e-15L));
+    CHECK(adjoint_agrees(&f[0]));
+    unload(&f[0]);
+    unload(&f[1]);
+}
+
+/* Parse text; the messages joined "LINE:COL: message" a line. */
+static int parse_errors(char *out, size_t size, const char *text)
+{
+    gs_circuit *c = gs_circuit_new();
+    gs_diag d;
+    size_t i, n = 0;
+    int rc;
+    gs_diag_init(&d);
+    rc = gs_parse_string(c, "t.gsc", text, &d);
+    out[0] = '\0';
+    for (i = 0; i < d.n && n < size; i++)
+        n += (size_t)snprintf(out + n, size - n, "%d:%d: %s\n", d.v[i].line,
+                              d.v[i].col, d.v[i].message);
+    gs_diag_clear(&d);
+    gs_circuit_free(c);
+    return rc;
+}
+
+/* A noise parameter bound twice (the second place is reported, as for
+   two value lines), or at or below zero; a bjt's bias line takes none. */
+static void test_bias_param_errors(void)
+{
+    static const char *const text[] = {
+        "mosfet M1 d g gnd gm=1m rds=inf\nbias M1 id=1m vds=2 k=2m "
+        "w=20u\nvalue w_M1 = 1u\n",
+        "mosfet M1 d g gnd gm=1m rds=inf\nvalue w_M1 = 1u\nbias M1 "
+        "id=1m vds=2 k=2m w=20u\n",
+        "bias M1 id=1m vds=2 k=2m kf=1e-25\nmosfet M1 d g gnd gm=1m "
+        "rds=inf kf=2e-25\n",
+        "mosfet M1 d g gnd gm=1m rds=inf\nbias M1 id=1m vds=2 k=2m "
+        "l=0 nthermal=-1\n",
+        "mosfet M1 d g gnd gm=1m rds=inf\nbias M1 id=1m vds=2 k=2m "
+        "cox=8mF w=1/0\n",
+    };
+    static const char *const want[] = {
+        "3:7: duplicate value for 'w_M1' (first at 2:26)\n",
+        "3:26: duplicate value for 'w_M1' (first at 2:7)\n",
+        "2:33: duplicate value for 'kf_M1' (first at 1:26)\n",
+        "2:28: l must be positive, got 0 m\n"
+        "2:39: nthermal must be positive, got -1\n",
+        "2:30: cox expects F/m^2, got 8mF\n"
+        "2:36: w: division by zero in 1/0\n",
+    };
+    char got[512];
+    size_t i;
+    for (i = 0; i < sizeof text / sizeof text[0]; i++) {
+        int rc = parse_errors(got, sizeof got, text[i]);
+        CHECK_MSG(rc != GS_OK && strcmp(got, want[i]) == 0,
+                  "case %zu: got\n%s", i, got);
+    }
+}
+
+/* Bias line TEXT read and applied: the first message, "" for none. */
+static void bias_applied(char *out, size_t size, const char *text)
+{
+    gs_circuit *c = gs_circuit_new();
+    gs_diag d;
+    long double vals[64] = {0};
+    unsigned char set[64] = {0};
+    gs_diag_init(&d);
+    if (gs_parse_string(c, "t.gsc", text, &d) == GS_OK
+        && gs_symtab_count(c->syms) <= 64)
+        gs_device_apply_biases(c, vals, set, NULL, &d);
+    snprintf(out, size, "%s", d.n ? d.v[0].message : "");
+    gs_diag_clear(&d);
+    gs_circuit_free(c);
+}
+
+/* The noise parameters fix no operating point: the rules of the figures
+   say the same with them as without; a bjt's bias line refuses them (its
+   shot noise needs only the gm and rpi the line sets). */
+static void test_bias_param_rules(void)
+{
+    char a[256], b[256];
+    static const char cs[] = "vsource vin g gnd\nresistor RD d gnd = 1k\n"
+                             "mosfet M1 d g gnd rds=inf\n";
+    char text[256];
+    snprintf(text, sizeof text, "%sbias M1 id=1m kf=1e-25 cox=5m w=1u l=1u "
+             "nthermal=1\n", cs);
+    bias_applied(a, sizeof a, text);
+    snprintf(text, sizeof text, "%sbias M1 id=1m\n", cs);
+    bias_applied(b, sizeof b, text);
+    CHECK_MSG(strcmp(a, b) == 0 && strstr(a, "under-determined") != NULL,
+              "'%s' vs '%s'", a, b);
+    snprintf(text, sizeof text, "%sbias M1 id=1m vds=2 k=2m kf=1e-25 "
+             "cox=5m w=1u l=1u\n", cs);
+    bias_applied(a, sizeof a, text);
+    CHECK_MSG(a[0] == '\0', "'%s'", a);
+    bias_applied(a, sizeof a, "vsource vin b gnd\nresistor RC c gnd = 1k\n"
+                 "bjt Q1 c b gnd\nbias Q1 ic=1m vce=2 beta=100 kf=1e-25\n");
+    CHECK_MSG(strcmp(a, "unknown bjt bias figure 'kf'") == 0, "'%s'", a);
+}
+
 /* A non-inverting amplifier: a noise voltage at the + input reaches the
    output through the noise gain 1 + R2/R1 (Franco, "Design with
    Operational Amplifiers and Analog Integrated Circuits", noise chapter,
@@ -428,6 +593,9 @@ int main(void)
     test_cs_stage();
     test_flicker(0);
     test_flicker(1);
+    test_bias_params();
+    test_bias_param_errors();
+    test_bias_param_rules();
     test_noninverting();
     test_bjt_nf();
     test_bjt_adjoint();

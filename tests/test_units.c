@@ -95,6 +95,17 @@ static void test_units(void)
     check_exact("40mV^-1", "0.04", GS_Q_INV_VOLTAGE);
     check_exact("0.4V^0.5", "0.4", GS_Q_SQRT_VOLTAGE);
     check_exact("0.4V^1/2", "0.4", GS_Q_SQRT_VOLTAGE);
+    /* the metre (SI Brochure table 2) after a prefix; alone, m is the
+       prefix milli, as in "10m" above */
+    check_exact("20um", "20e-6", GS_Q_LENGTH);
+    check_exact("0.5um", "0.5e-6", GS_Q_LENGTH);
+    check_exact("180nm", "180e-9", GS_Q_LENGTH);
+    check_exact("10mm", "10e-3", GS_Q_LENGTH);
+    check_exact("0.5 um", "0.5e-6", GS_Q_LENGTH);
+    check_exact("1 m", "1e-3", GS_Q_NUMBER);
+    check_exact("8mF/m^2", "8e-3", GS_Q_CAP_AREA);
+    check_exact("8mF/m2", "8e-3", GS_Q_CAP_AREA);
+    check_exact("8F/m^2", "8", GS_Q_CAP_AREA);
 }
 
 static void test_fraction_and_celsius(void)
@@ -129,7 +140,8 @@ static void test_scan_errors(void)
     CHECK(gs_units_scan(&v, &q, ".") == GS_ESYNTAX);
     CHECK(gs_units_scan(&v, &q, "5e") == GS_ESYNTAX);
     CHECK(gs_units_scan(&v, &q, "10xS") == GS_ESYNTAX);
-    CHECK(gs_units_scan(&v, &q, "10mm") == GS_ESYNTAX);  /* no metre */
+    CHECK(gs_units_scan(&v, &q, "10mg") == GS_ESYNTAX);  /* no gram */
+    CHECK(gs_units_scan(&v, &q, "10F/m") == GS_ESYNTAX);
     CHECK(gs_units_scan(&v, &q, "1/45k") == GS_ESYNTAX);
     CHECK(gs_units_scan(&v, &q, "27mC") == GS_ESYNTAX);
     CHECK(gs_units_scan(&v, &q, "1/0") == GS_ESYNTAX);
@@ -181,6 +193,12 @@ static void test_parse_messages(void)
           == GS_EINVAL);
     CHECK(parse_msg("2mS", GS_Q_KPARAM, "k",
                     "k expects A/V^2, got 2mS", NULL) == GS_EINVAL);
+    CHECK(parse_msg("20uF", GS_Q_LENGTH, "w",
+                    "w expects metres, got 20uF", NULL) == GS_EINVAL);
+    CHECK(parse_msg("8mF", GS_Q_CAP_AREA, "cox",
+                    "cox expects F/m^2, got 8mF", NULL) == GS_EINVAL);
+    CHECK(parse_msg("1um", GS_Q_CAPACITANCE, "cmu",
+                    "cmu expects farads, got 1um", NULL) == GS_EINVAL);
     CHECK(parse_msg("abc", GS_Q_CURRENT, "id", "id expects a number, got abc",
                     "write id as a number with an optional SI prefix (f p n "
                     "u m k M G T) and unit, e.g. 1mA") == GS_ESYNTAX);
@@ -236,6 +254,9 @@ static void test_format(void)
     check_format(100, GS_Q_NUMBER, "100");
     check_format(0, GS_Q_CONDUCTANCE, "0 S");
     check_format(1e-18L, GS_Q_CAPACITANCE, "1e-18 F");
+    check_format(20e-6L, GS_Q_LENGTH, "20 um");
+    check_format(1.5L, GS_Q_LENGTH, "1500 mm");   /* not "1.5 m": milli */
+    check_format(8e-3L, GS_Q_CAP_AREA, "8 mF/m^2");
     if (has_inf()) {
         check_format(INFINITY, GS_Q_RESISTANCE, "inf Ohm");
         check_format(-INFINITY, GS_Q_NUMBER, "-inf");

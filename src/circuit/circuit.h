@@ -159,7 +159,10 @@ typedef struct gs_device {
     char **vals;             /* their text as written */
 } gs_device;
 
-/* A bias line: raw key=value pairs; the device module interprets them. */
+/* A bias line: raw key=value pairs; the device module interprets them.
+   A mosfet's noise parameters (nthermal=, kf=, ...) are not among them:
+   the parser binds them as values (origin "bias NAME") and takes them
+   off the line. */
 typedef struct gs_bias {
     int device;              /* index into devices[] */
     int line, col;

@@ -1020,6 +1020,7 @@ static void parser_clear(gs_parser *p)
     for (i = 0; i < p->c->ndevices; i++)
         free(p->dev_body[i]);
     free(p->dev_body);
+    free(p->bias_noise);
     free(p->name_kind);
     free(p->name_index);
     free(p->name_off);
@@ -1054,6 +1055,7 @@ int gs_parse_text(gs_circuit *c, const char *name, const char *text,
         parse_statement(&p);
     }
     gs_parser_resolve(&p);
+    gs_parser_bias_noise(&p);
     check_figures(&p);
     check_loops(&p);
     gs_parser_finish_devices(&p);

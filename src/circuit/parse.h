@@ -38,6 +38,14 @@ typedef struct gs_ref {
     size_t off;         /* where it was written */
 } gs_ref;
 
+/* A noise parameter (nthermal=, kf=, ...) on a bias line: bound as a
+   value once the line's device is known to be a mosfet. */
+typedef struct gs_bias_noise {
+    size_t bias;        /* index into biases[] */
+    int key;            /* which parameter (parse_dev.c's noise_keys) */
+    size_t key_off, val_off;
+} gs_bias_noise;
+
 typedef struct gs_parser {
     gs_circuit *c;
     gs_diag *d;
@@ -52,6 +60,8 @@ typedef struct gs_parser {
     gs_ref *refs;
     size_t nrefs, refs_alloc;
     char **dev_body;        /* per device: its b node as written, or NULL */
+    gs_bias_noise *bias_noise;
+    size_t nbias_noise;
     size_t title_off;       /* where the title line is */
     size_t nodes_alloc, elems_alloc, outputs_alloc, devices_alloc,
            biases_alloc;
@@ -90,6 +100,10 @@ void gs_parser_resolve(gs_parser *p);
 int gs_parse_device(gs_parser *p, int is_bjt);
 int gs_parse_bias(gs_parser *p);
 void gs_parser_finish_devices(gs_parser *p);
+/* After gs_parser_resolve: bind the noise parameters of the bias lines
+   of mosfets as values KEY_NAME (origin "bias NAME") and take them off
+   the lines, which then hold operating-point figures only. */
+void gs_parser_bias_noise(gs_parser *p);
 
 /* expr.c: the symbol written at t (reports s, pi, inf and dotted names),
    or -1. */

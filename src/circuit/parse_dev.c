@@ -14,6 +14,7 @@
 #include "gainsmith.h"
 #include "base/mem.h"
 #include "circuit/parse.h"
+#include "circuit/units.h"
 
 #include <stdlib.h>
 #include <string.h>
@@ -61,6 +62,23 @@ static const dev_param bjt_params[] = {
 static const char *const noise_keys[NOISE_KEYS] = {
     "nthermal", "kf", "cox", "w", "l"
 };
+/* Their units on a bias line, where figures are numbers with units
+   (units.h): nthermal is a ratio, K_f in V^2*F (the SI unit that makes
+   gm^2*K_f/(Cox*W*L*f) a density in A^2/Hz) is written as a bare number,
+   Cox in F/m^2, W and L in metres. */
+static const gs_quantity noise_units[NOISE_KEYS] = {
+    GS_Q_NUMBER, GS_Q_NUMBER, GS_Q_CAP_AREA, GS_Q_LENGTH, GS_Q_LENGTH
+};
+
+/* The index of KEY in noise_keys, or -1. */
+static int noise_key_index(const char *key)
+{
+    int i;
+    for (i = 0; i < NOISE_KEYS; i++)
+        if (strcmp(key, noise_keys[i]) == 0)
+            return i;
+    return -1;
+}
 
 /* What a device line said about each of its parameters. */
 typedef struct dev_line {
@@ -162,13 +180,7 @@ static int param_index(gs_parser *p, dev_line *L, const gs_token *key)
 /* The index of KEY among a mosfet's noise parameters, or -1. */
 static int noise_index(const dev_line *L, const char *key)
 {
-    int i;
-    if (L->params != mos_params)
-        return -1;
-    for (i = 0; i < NOISE_KEYS; i++)
-        if (strcmp(key, noise_keys[i]) == 0)
-            return i;
-    return -1;
+    return L->params == mos_params ? noise_key_index(key) : -1;
 }
 
 /* Past the KEY = at the cursor, noted in *seen; an error when *seen
@@ -450,7 +462,7 @@ static const char bias_form[] = "bias DEVICE KEY=VALUE...";
 static int bias_pair(gs_parser *p, gs_bias *b)
 {
     const gs_token *key = gs_cur_peek(&p->cur), *start;
-    int i, line;
+    int i, line, k;
     if (!at_key(&p->cur)) {
         gs_parser_expected(p, key, "a parameter KEY=VALUE", bias_form);
         return GS_ESYNTAX;
@@ -481,6 +493,16 @@ static int bias_pair(gs_parser *p, gs_bias *b)
     b->vals[b->nparams] = join_tokens(start, gs_cur_peek(&p->cur));
     gs_lex_position(&p->lx, start->off, &line, &b->val_col[b->nparams]);
     b->nparams++;
+    if ((k = noise_key_index(key->text)) >= 0) {
+        /* whether it is a mosfet's is known once the names resolve */
+        p->bias_noise = gs_reallocarray(p->bias_noise, p->nbias_noise + 1,
+                                        sizeof *p->bias_noise);
+        p->bias_noise[p->nbias_noise].bias = p->c->nbiases;
+        p->bias_noise[p->nbias_noise].key = k;
+        p->bias_noise[p->nbias_noise].key_off = key->off;
+        p->bias_noise[p->nbias_noise].val_off = start->off;
+        p->nbias_noise++;
+    }
     return GS_OK;
 }
 
@@ -519,6 +541,10 @@ int gs_parse_bias(gs_parser *p)
     while (rc == GS_OK && gs_cur_peek(&p->cur)->kind != GS_TK_END)
         rc = bias_pair(p, &b);
     if (rc != GS_OK) {
+        /* the line is not kept, and neither are its noise parameters */
+        while (p->nbias_noise > 0
+               && p->bias_noise[p->nbias_noise - 1].bias == c->nbiases)
+            p->nbias_noise--;
         bias_clear(&b);
         return rc;
     }
@@ -527,4 +553,131 @@ int gs_parse_bias(gs_parser *p)
     c->biases[c->nbiases] = b;
     gs_parser_add_ref(p, GS_REF_BIAS, c->nbiases++, 0, name);
     return GS_OK;
+}
+
+/* ---- noise parameters on bias lines ---- */
+
+/* The exact value of a figure that gs_units_parse has accepted: the
+   decimal with its prefix (gs_rat_parse stops before the unit), or the
+   quotient a/b, as a value line would hold it. */
+static int exact_figure(gs_rat *r, const char *text)
+{
+    const char *end;
+    gs_rat den;
+    int rc;
+    if (gs_rat_parse(r, text, &end) != GS_OK)
+        return GS_ESYNTAX;
+    if (*end != '/')
+        return GS_OK;
+    gs_rat_init(&den);
+    rc = gs_rat_parse(&den, end + 1, &end) == GS_OK ? GS_OK : GS_ESYNTAX;
+    if (rc == GS_OK)
+        rc = gs_rat_div(r, r, &den) == GS_OK ? GS_OK : GS_ESYNTAX;
+    gs_rat_clear(&den);
+    return rc;
+}
+
+/* A value bound twice: reported where the later of the two is written,
+   as two value lines would be. */
+static void noise_dup(gs_parser *p, const char *name, const gs_valuedef *v,
+                      size_t key_off, int line, int col)
+{
+    if (v->line < line || (v->line == line && v->col < col))
+        gs_lex_report(&p->lx, p->d, GS_SEV_ERROR, key_off, NULL,
+                      "duplicate value for '%s' (first at %d:%d)", name,
+                      v->line, v->col);
+    else
+        gs_diag_add(p->d, GS_SEV_ERROR, p->c->file, v->line, v->col, NULL,
+                    "duplicate value for '%s' (first at %d:%d)", name, line,
+                    col);
+}
+
+/* Bind one noise parameter KEY=FIGURE of the bias line of mosfet dv. */
+static void bind_bias_noise(gs_parser *p, const gs_bias_noise *bn,
+                            const gs_device *dv, const char *key,
+                            const char *text)
+{
+    int k = noise_key_index(key), line, col, sym, prev;
+    gs_srcpos at = {p->c->file, 0, 0};
+    long double v;
+    gs_expr *e;
+    char *name, *origin;
+
+    gs_lex_position(&p->lx, bn->val_off, &at.line, &at.col);
+    if (gs_units_parse(&v, text, noise_units[k], key, &at, p->d) != GS_OK)
+        return;
+    /* a noise density is never below zero: each parameter is a positive
+       physical figure */
+    if (!(v > 0)) {
+        gs_lex_report(&p->lx, p->d, GS_SEV_ERROR, bn->val_off,
+                      "the noise parameters nthermal, kf, cox, w and l are "
+                      "positive figures (docs/noise.md)",
+                      "%s must be positive, got %s", key,
+                      gs_units_text(v, noise_units[k]).s);
+        return;
+    }
+    e = gs_calloc(1, sizeof *e);
+    e->kind = GS_EX_NUM;
+    gs_rat_init(&e->num);
+    gs_lex_position(&p->lx, bn->key_off, &line, &col);
+    e->line = line;
+    e->col = col;
+    if (exact_figure(&e->num, text) != GS_OK) {
+        gs_lex_report(&p->lx, p->d, GS_SEV_ERROR, bn->val_off, NULL,
+                      "%s expects a number, got %s", key, text);
+        gs_expr_free(e);
+        return;
+    }
+    name = gs_asprintf("%s_%s", key, dv->name);
+    sym = gs_symtab_intern(p->c->syms, name);
+    if ((prev = gs_circuit_find_value(p->c, sym)) >= 0) {
+        noise_dup(p, name, &p->c->values[prev], bn->key_off, line, col);
+        gs_expr_free(e);
+    } else {
+        origin = gs_asprintf("bias %s", dv->name);
+        gs_circuit_add_value(p->c, sym, e, origin, line, col);
+        free(origin);
+    }
+    free(name);
+}
+
+/* Take the noise parameters off bias line b, leaving its figures. */
+static void strip_bias_noise(gs_bias *b)
+{
+    int i, n = 0;
+    for (i = 0; i < b->nparams; i++) {
+        if (noise_key_index(b->keys[i]) >= 0) {
+            free(b->keys[i]);
+            free(b->vals[i]);
+            continue;
+        }
+        b->keys[n] = b->keys[i];
+        b->vals[n] = b->vals[i];
+        b->val_col[n] = b->val_col[i];
+        n++;
+    }
+    b->nparams = n;
+}
+
+void gs_parser_bias_noise(gs_parser *p)
+{
+    size_t i;
+    int j;
+    for (i = 0; i < p->nbias_noise; i++) {
+        const gs_bias_noise *bn = &p->bias_noise[i];
+        const gs_bias *b = &p->c->biases[bn->bias];
+        /* a bjt's line keeps them: its figures have none, and the device
+           model says so */
+        if (b->device < 0 || p->c->devices[b->device].is_bjt)
+            continue;
+        for (j = 0; j < b->nparams; j++)
+            if (strcmp(b->keys[j], noise_keys[bn->key]) == 0)
+                bind_bias_noise(p, bn, &p->c->devices[b->device],
+                                b->keys[j], b->vals[j]);
+    }
+    for (i = 0; i < p->nbias_noise; i++) {
+        gs_bias *b = &p->c->biases[p->bias_noise[i].bias];
+        if (b->device >= 0 && !p->c->devices[b->device].is_bjt)
+            strip_bias_noise(b);        /* a second time does nothing */
+    }
 }

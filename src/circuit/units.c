@@ -47,7 +47,10 @@ static const unit_entry units[] = {
     {"ohms", GS_Q_RESISTANCE, 0},
     {"\xCE\xA9", GS_Q_RESISTANCE, 0},       /* U+03A9 GREEK CAPITAL OMEGA */
     {"\xE2\x84\xA6", GS_Q_RESISTANCE, 0},   /* U+2126 OHM SIGN */
+    {"F/m^2", GS_Q_CAP_AREA, 0},
+    {"F/m2", GS_Q_CAP_AREA, 0},
     {"F", GS_Q_CAPACITANCE, 0},
+    {"m", GS_Q_LENGTH, 0},              /* after a prefix: see scan_suffix */
     {"Hz", GS_Q_FREQUENCY, 0},
     {"K", GS_Q_TEMPERATURE, 0},
     {"C", GS_Q_TEMPERATURE, 1},
@@ -134,7 +137,8 @@ static const unit_entry *match_unit(const char *s)
 
 /* What follows the number: nothing, a unit, a prefix, or a prefix and a
    unit.  A whole-word unit wins over a prefix ("10F" is ten farads,
-   "10f" ten femto), and a lone prefix letter is a prefix ("1m"). */
+   "10f" ten femto), and a lone prefix letter is a prefix ("1m"): so the
+   metre, spelt like milli, is a unit only after a prefix ("20um"). */
 static int scan_suffix(const char *s, int *exp, const unit_entry **unit)
 {
     size_t plen;
@@ -146,7 +150,7 @@ static int scan_suffix(const char *s, int *exp, const unit_entry **unit)
     *unit = NULL;
     if (*s == '\0')
         return SCAN_OK;
-    if ((u = match_unit(s)) != NULL) {
+    if ((u = match_unit(s)) != NULL && u->q != GS_Q_LENGTH) {
         *unit = u;
         return SCAN_OK;
     }
@@ -222,6 +226,8 @@ const char *gs_quantity_name(gs_quantity q)
     case GS_Q_KPARAM:      return "A/V^2";
     case GS_Q_INV_VOLTAGE: return "1/V";
     case GS_Q_SQRT_VOLTAGE: return "V^0.5";
+    case GS_Q_LENGTH:      return "metres";
+    case GS_Q_CAP_AREA:    return "F/m^2";
     default:               return "a plain number";
     }
 }
@@ -239,6 +245,8 @@ const char *gs_quantity_unit(gs_quantity q)
     case GS_Q_KPARAM:      return "A/V^2";
     case GS_Q_INV_VOLTAGE: return "1/V";
     case GS_Q_SQRT_VOLTAGE: return "V^0.5";
+    case GS_Q_LENGTH:      return "m";
+    case GS_Q_CAP_AREA:    return "F/m^2";
     default:               return "";
     }
 }
@@ -256,6 +264,8 @@ static const char *example(gs_quantity q)
     case GS_Q_KPARAM:      return "4.5mA/V^2";
     case GS_Q_INV_VOLTAGE: return "0.04/V";
     case GS_Q_SQRT_VOLTAGE: return "0.4V^0.5";
+    case GS_Q_LENGTH:      return "0.5um";
+    case GS_Q_CAP_AREA:    return "8mF/m^2";
     default:               return "100";
     }
 }
@@ -355,6 +365,11 @@ static char *format_prefixed(long double v, const char *unit)
     if (fabsl(strtold(buf, NULL)) >= 1000 && e3 < 4) {
         e3++;                   /* 999.9999 rounded up to 1000 */
         m = v / powl(10, 3 * e3);
+        snprintf(buf, sizeof buf, "%.6Lg", m);
+    }
+    if (e3 == 0 && strcmp(unit, "m") == 0) {
+        e3 = -1;                /* "1.5 m" would read back as milli */
+        m = v * 1000;
         snprintf(buf, sizeof buf, "%.6Lg", m);
     }
     if (e3 == 0)

@@ -31,7 +31,10 @@ typedef enum gs_quantity {
     GS_Q_TEMPERATURE,   /* K, or C / degC / °C (Celsius, no prefix)    */
     GS_Q_KPARAM,        /* A/V^2: the MOSFET K = µCox·W/L              */
     GS_Q_INV_VOLTAGE,   /* 1/V, /V, V^-1: the MOSFET lambda            */
-    GS_Q_SQRT_VOLTAGE   /* V^0.5, V^1/2: the body-effect gamma         */
+    GS_Q_SQRT_VOLTAGE,  /* V^0.5, V^1/2: the body-effect gamma         */
+    GS_Q_LENGTH,        /* m, after a prefix only (a lone m is milli):
+                           a MOSFET's W and L                          */
+    GS_Q_CAP_AREA       /* F/m^2, F/m2: a MOSFET's Cox                 */
 } gs_quantity;
 
 /* Where a figure was written, for messages (file may be NULL; line 0
@@ -64,7 +67,9 @@ const char *gs_quantity_unit(gs_quantity q);
 
 /* v in engineering notation with an SI prefix and q's unit, six
    significant digits, ASCII only: "25.852 mV", "4.5 mA/V^2", "25 kOhm",
-   "0.04 1/V" (inverse units and temperatures take no prefix).  Infinity
+   "0.04 1/V" (inverse units and temperatures take no prefix; a length
+   of metres is said in millimetres, "1500 mm", as a lone m reads as
+   milli).  Infinity
    prints as "inf".  A new string the caller frees. */
 char *gs_units_format(long double v, gs_quantity q);
 
