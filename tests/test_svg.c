@@ -7,6 +7,7 @@
 
 #include "check.h"
 #include "testlib.h"
+#include "analysis/job.h"
 #include "numeric/freq.h"
 #include "gainsmith.h"
 #include "numeric/roots.h"
@@ -601,7 +602,7 @@ static void test_labels_apart(void)
 {
     const long double w0 = 2 * PI_L * 1e6L;
     gs_tfn h[3];
-    int labels;
+    int labels = 0;
     char *doc;
 
     /* K / (1 + s/w0) with K = 1.5: -3 dB at w0, |H| = 1 at
@@ -708,7 +709,7 @@ static void test_labels_random(void)
         int small = n <= 2 && test_below(&r, 2);
         char *doc = bode_of(h, n, loop, f0 / 1e3L, f0 * 1e3L,
                             small ? 480 : 0, small ? 360 : 0);
-        int labels, bad = doc != NULL ? overlaps(doc, "random", &labels) : 1;
+        int labels = 0, bad = doc != NULL ? overlaps(doc, "random", &labels) : 1;
         CHECK_MSG(bad == 0, "seed %llu case %d", (unsigned long long)seed,
                   c);
         free(doc);
@@ -789,6 +790,75 @@ static void test_rhp_zero(void)
     gs_tfn_clear(&h[1]);
 }
 
+
+/* The same stage as a circuit, derived exactly and bound (RD = 6k in
+   parallel with ro = 30k is the closed form's 5k): the plot of the
+   derived transfer function names the same right-half-plane zero, and
+   agrees with the closed form's plot label for label. */
+static void test_rhp_zero_derived(void)
+{
+    static const char circuit[] =
+        "vsource    vin   a    gnd\n"
+        "resistor   RS    a    g\n"
+        "mosfet     M1    d    g    gnd  gm=gm1 rds=ro1\n"
+        "capacitor  Cgs   g    gnd\n"
+        "capacitor  Cgd   g    d\n"
+        "resistor   RD    d    gnd\n"
+        "capacitor  CL    d    gnd\n"
+        "value      RS  = 1k\n"
+        "value      gm1 = 5m\n"
+        "value      Cgs = 200f\n"
+        "value      Cgd = 100f\n"
+        "value      RD  = 6k\n"
+        "value      ro1 = 30k\n"
+        "value      CL  = 50f\n"
+        "transfer   Av  = v(d) / vin\n";
+    gs_job j;
+    gs_derive_opts o;
+    gs_diag d;
+    gs_tfn h[2];
+    int rc, dn, dd;
+    gs_job_init(&j);
+    gs_derive_opts_default(&o);
+    gs_diag_init(&d);
+    rc = gs_job_load_string(&j, "cs.gsc", circuit, &d);
+    if (rc == GS_OK)
+        rc = gs_job_derive(&j, NULL, &o, &d);
+    if (rc == GS_OK)
+        rc = gs_job_bind(&j, NULL, 0, &d);
+    if (rc != GS_OK)
+        gs_diag_print(stderr, &d);
+    CHECK(rc == GS_OK && j.ntf == 1);
+    if (rc == GS_OK && j.ntf == 1) {
+        long double *cn = gs_job_coeffs(&j, &j.tf[0].num, &dn);
+        long double *cd = gs_job_coeffs(&j, &j.tf[0].den, &dd);
+        CHECK(gs_tfn_init(&h[0], cn, dn, cd, dd) == GS_OK);
+        free(cn);
+        free(cd);
+        /* the zero at +gm/Cgd = 5e10 rad/s */
+        CHECK(h[0].nzeros == 1
+              && cabsl(h[0].zeros[0] - 5e10L) < 1e-9L * 5e10L);
+        cs_stage(&h[1], 1);
+        char *a = bode_of(&h[0], 1, 0, 1e6L, 1e12L, 0, 0);
+        char *b = bode_of(&h[1], 1, 0, 1e6L, 1e12L, 0, 0);
+        CHECK(a != NULL && find_label(a, "RHP zero 7.96 GHz") != NULL);
+        if (a != NULL && b != NULL) {
+            static text_el ta[64], tb[64];
+            int na = texts(a, ta, 64), nb = texts(b, tb, 64);
+            CHECK(na == nb);
+            for (int i = 0; i < na && i < nb; i++)
+                if (ta[i].halo)
+                    CHECK_MSG(strcmp(ta[i].s, tb[i].s) == 0, "%s / %s",
+                              ta[i].s, tb[i].s);
+        }
+        free(a);
+        free(b);
+        gs_tfn_clear(&h[0]);
+        gs_tfn_clear(&h[1]);
+    }
+    gs_diag_clear(&d);
+    gs_job_clear(&j);
+}
 
 /* The x of the last point of the first trace's path */
 static double path_end_x(const char *doc)
@@ -872,7 +942,7 @@ static void test_step_labels_apart(void)
     gs_step s[2];
     gs_step_metrics m[2];
     gs_plot_trace tr[2];
-    int rc, labels;
+    int rc, labels = 0;
     for (int i = 0; i < 2; i++) {
         long double z = 0.5L + 0.02L * i;
         const long double num[1] = {w * w}, den[3] = {w * w, 2 * z * w, 1};
@@ -906,6 +976,7 @@ int main(void)
     test_labels_apart();
     test_labels_random();
     test_rhp_zero();
+    test_rhp_zero_derived();
     test_step_axis_end();
     test_step_labels_apart();
     return check_report("svg");
