@@ -709,7 +709,8 @@ static void test_labels_random(void)
         int small = n <= 2 && test_below(&r, 2);
         char *doc = bode_of(h, n, loop, f0 / 1e3L, f0 * 1e3L,
                             small ? 480 : 0, small ? 360 : 0);
-        int labels = 0, bad = doc != NULL ? overlaps(doc, "random", &labels) : 1;
+        int labels = 0;
+        int bad = doc != NULL ? overlaps(doc, "random", &labels) : 1;
         CHECK_MSG(bad == 0, "seed %llu case %d", (unsigned long long)seed,
                   c);
         free(doc);

@@ -7,8 +7,9 @@
  * between them a strip marks the poles (x) and zeros (o) of each trace at
  * |p| / 2 pi, those in the right half plane in an open square and named
  * on the magnitude panel ("RHP zero 1.59 GHz").  Annotation labels are
- * placed so that no two of them, nor a label and the legend, overlap.  Tick labels use SI prefixes (100 m, 1, 10 k, 2 G) and the
- * unit is in the axis title.  Numbers are written without the C library's
+ * placed so that no two of them, nor a label and the legend, overlap.
+ * Tick labels use SI prefixes (100 m, 1, 10 k, 2 G) and the unit is in
+ * the axis title.  Numbers are written without the C library's
  * locale, so the file is the same whatever LC_NUMERIC says.
  */
 #ifndef GS_SVG_H
