@@ -362,7 +362,11 @@ static int step_one(const gs_job *j, size_t i, const gs_tfn *h,
         long double *y = gs_calloc(points, sizeof *y);
         gs_plot_trace tr;
         gs_plot p;
-        gs_step_table(t, y, NULL, points, &st, t_end);
+        /* the automatic span is carried to the axis's next grid step,
+           so the trace reaches the axis end; a span the user gave is
+           kept, and the axis ends at it */
+        gs_step_table(t, y, NULL, points, &st,
+                      until > 0 ? t_end : gs_svg_step_axis_end(t_end));
         memset(&tr, 0, sizeof tr);
         memset(&p, 0, sizeof p);
         tr.label = j->tf[i].name;

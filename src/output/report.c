@@ -346,7 +346,8 @@ static void sec_step(rctx *r)
     if (gs_step_init(&st, &r->h) == GS_OK) {
         memset(&m, 0, sizeof m);
         gs_step_measure(&m, &st);
-        gs_step_table(t, y, NULL, NPTS, &st, gs_step_span(&st));
+        gs_step_table(t, y, NULL, NPTS, &st,
+                      gs_svg_step_axis_end(gs_step_span(&st)));
         memset(&tr, 0, sizeof tr);
         memset(&p, 0, sizeof p);
         tr.label = gs_tf_name(&r->j->tf[r->i]);

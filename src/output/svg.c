@@ -98,6 +98,182 @@ static void label(FILE *f, double x, double y, const char *anchor,
     text(f, x, y, anchor, attrs, s);
 }
 
+/* --- Placing annotation labels ------------------------------------------ */
+
+/* A label's box is estimated from its text as the legend sizes its
+   column: CHAR_W per character (a code point of UTF-8) at 11 px, plus
+   LABEL_PAD on each side for the white halo; from LABEL_ASC above the
+   baseline to LABEL_DESC below it. */
+#define LABEL_ASC 9.0
+#define LABEL_DESC 3.0
+#define LABEL_PAD 1.5
+#define LABEL_GAP 1.0           /* between a label and one it moved past */
+#define MAX_BOXES 96
+
+typedef struct box {
+    double x0, y0, x1, y1;
+} box;
+
+/* The boxes already taken on one page, in drawing order.  Each plot
+   starts empty, so the placement depends only on the plot's data. */
+typedef struct placer {
+    box b[MAX_BOXES];
+    int n;
+} placer;
+
+static size_t utf8_chars(const char *s)
+{
+    size_t n = 0;
+    for (; *s; s++)
+        n += ((unsigned char)*s & 0xC0) != 0x80;
+    return n;
+}
+
+static box label_box(double x, double y, const char *anchor, const char *s)
+{
+    double w = CHAR_W * (double)utf8_chars(s) + 2 * LABEL_PAD;
+    double x0 = strcmp(anchor, "start") == 0 ? x - LABEL_PAD
+                : strcmp(anchor, "middle") == 0 ? x - w / 2
+                : x + LABEL_PAD - w;
+    return (box){x0, y - LABEL_ASC, x0 + w, y + LABEL_DESC};
+}
+
+static int boxes_meet(const box *a, const box *b)
+{
+    return a->x0 < b->x1 && b->x0 < a->x1 && a->y0 < b->y1 && b->y0 < a->y1;
+}
+
+static int box_free(const placer *pl, const box *b)
+{
+    for (int i = 0; i < pl->n; i++)
+        if (boxes_meet(&pl->b[i], b))
+            return 0;
+    return 1;
+}
+
+static void take_box(placer *pl, box b)
+{
+    if (pl->n < MAX_BOXES)
+        pl->b[pl->n++] = b;
+}
+
+/* Baselines to try for a label wanted at y, nearest first (downwards
+   first at equal distance): y itself, and just below and just above each
+   box already placed, LABEL_GAP clear of it.  Returns how
+   many went into c (room for 2 MAX_BOXES + 1). */
+static int baselines(double *c, const placer *pl, double y)
+{
+    int n = 0;
+    c[n++] = y;
+    for (int i = 0; i < pl->n; i++) {
+        c[n++] = pl->b[i].y1 + LABEL_GAP + LABEL_ASC;
+        c[n++] = pl->b[i].y0 - LABEL_GAP - LABEL_DESC;
+    }
+    /* insertion sort: stable, so the order is the same on every run */
+    for (int i = 1; i < n; i++) {
+        double v = c[i], dv = fabs(v - y);
+        int k = i;
+        while (k > 0) {
+            double du = fabs(c[k - 1] - y);
+            if (du < dv || (du == dv && (c[k - 1] >= y || v < y)))
+                break;
+            c[k] = c[k - 1];
+            k--;
+        }
+        c[k] = v;
+    }
+    return n;
+}
+
+/* Where a label with its box from bx0 to bx1 (bx0 <= x <= bx1 for the
+   anchor x) may slide sideways to: just clear of the left or the right
+   side of each box placed, or against the panel's sides x0 and x1,
+   nearest the wanted x first.  Returns how many anchor positions went
+   into c (room for 2 MAX_BOXES + 2). */
+static int slides(double *c, const placer *pl, double x, double bx0,
+                  double bx1, double x0, double x1)
+{
+    int n = 0;
+    c[n++] = x0 + (x - bx0);
+    c[n++] = x1 - (bx1 - x);
+    for (int i = 0; i < pl->n; i++) {
+        c[n++] = pl->b[i].x1 + LABEL_GAP + (x - bx0);
+        c[n++] = pl->b[i].x0 - LABEL_GAP - (bx1 - x);
+    }
+    for (int i = 1; i < n; i++) {
+        double v = c[i], dv = fabs(v - x);
+        int k = i;
+        while (k > 0 && fabs(c[k - 1] - x) > dv) {
+            c[k] = c[k - 1];
+            k--;
+        }
+        c[k] = v;
+    }
+    return n;
+}
+
+/* b within [x0, x1] x [y0, y1], give or take rounding (a box slid
+   against a side may come out a few ulps past it) */
+static int inside(const box *b, double x0, double y0, double x1, double y1)
+{
+    const double e = 1e-6;
+    return b->x0 >= x0 - e && b->x1 <= x1 + e && b->y0 >= y0 - e
+           && b->y1 <= y1 + e;
+}
+
+/* A label for a mark at pixel x, the baseline wanted at y: beside the
+   mark, gap pixels to its right (start) or, with prefer_end, to its left.
+   Where that box would meet one already placed, or leave the panel
+   [x0, x1] x [y0, y1], it goes to the other side of the mark, or moves
+   down (or up) just past the box in its way, nearest place first, until
+   a free place is found.  When no row beside the mark is free, the label
+   slides sideways along the rows, nearest first, until it clears the
+   boxes in its way; a page too crowded for any of that keeps the first
+   place inside the panel. */
+static void place_label(FILE *f, placer *pl, double x0, double y0, double x1,
+                        double y1, double x, double y, double gap,
+                        int prefer_end, const char *colour, const char *s)
+{
+    double c[2 * MAX_BOXES + 1], sx[2 * MAX_BOXES + 2];
+    int n = baselines(c, pl, y), have_first = 0;
+    double fx = x + gap, fy = y;
+    const char *fa = prefer_end ? "end" : "start";
+    for (int k = 0; k < n; k++) {
+        for (int side = 0; side < 2; side++) {
+            int end = side ? !prefer_end : prefer_end;
+            double xk = end ? x - gap : x + gap;
+            const char *a = end ? "end" : "start";
+            box b = label_box(xk, c[k], a, s);
+            if (!inside(&b, x0, y0, x1, y1))
+                continue;
+            if (!have_first) {
+                have_first = 1;
+                fx = xk;
+                fy = c[k];
+                fa = a;
+            }
+            if (box_free(pl, &b)) {
+                take_box(pl, b);
+                label(f, xk, c[k], a, colour, s);
+                return;
+            }
+        }
+    }
+    box b0 = label_box(fx, fy, fa, s);
+    int m = slides(sx, pl, fx, b0.x0, b0.x1, x0, x1);
+    for (int k = 0; k < n; k++)
+        for (int j = 0; j < m; j++) {
+            box b = label_box(sx[j], c[k], fa, s);
+            if (inside(&b, x0, y0, x1, y1) && box_free(pl, &b)) {
+                take_box(pl, b);
+                label(f, sx[j], c[k], fa, colour, s);
+                return;
+            }
+        }
+    take_box(pl, b0);
+    label(f, fx, fy, fa, colour, s);
+}
+
 static void circle(FILE *f, double x, double y, double r, const char *stroke,
                    const char *fill)
 {
@@ -266,6 +442,15 @@ static void y_title(FILE *f, const panel *p, const char *s)
     text(f, (int)lround(x), (int)lround(y), "middle", attrs, s);
 }
 
+/* place_label inside a panel */
+static void panel_label(FILE *f, placer *pl, const panel *pn, double x,
+                        double y, double gap, int prefer_end,
+                        const char *colour, const char *s)
+{
+    place_label(f, pl, pn->x, pn->y, pn->x + pn->w, pn->y + pn->h, x, y,
+                gap, prefer_end, colour, s);
+}
+
 /* --- Traces ------------------------------------------------------------- */
 
 /* One trace as a path; a point that is not finite (or not positive on a
@@ -310,9 +495,14 @@ static long double interp(const long double *x, const long double *y,
     return NAN;
 }
 
-/* Legend box at the top right of p: one line sample per labelled trace,
-   then the pole key (pz & 1) and the zero key (pz & 2). */
-static void legend(FILE *f, const panel *p, const gs_plot *pl, int pz)
+/* Keys of the legend after the traces' lines: which root markers the
+   plot draws */
+enum { KEY_POLE = 1, KEY_ZERO = 2, KEY_RHP_POLE = 4, KEY_RHP_ZERO = 8 };
+
+/* The legend's rectangle at the top right of p: one row per labelled
+   trace, then one per key of pz.  Returns the number of rows (0: no
+   legend). */
+static size_t legend_rect(box *r, const panel *p, const gs_plot *pl, int pz)
 {
     size_t rows = 0, wide = 8;
     for (size_t i = 0; i < pl->ntraces; i++)
@@ -321,22 +511,54 @@ static void legend(FILE *f, const panel *p, const gs_plot *pl, int pz)
             wide = strlen(pl->traces[i].label) > wide
                    ? strlen(pl->traces[i].label) : wide;
         }
-    size_t keys = (size_t)((pz & 1) + ((pz >> 1) & 1));
-    if (rows + keys == 0)
-        return;
+    for (int k = 0; k < 4; k++)
+        rows += (size_t)((pz >> k) & 1);
     double w = 44 + CHAR_W * (double)(wide < 40 ? wide : 40);
-    double h = 8 + 16 * (double)(rows + keys), x = p->x + p->w - w - 8;
-    double y = p->y + 8;
+    double h = 8 + 16 * (double)rows, x = p->x + p->w - w - 8;
+    *r = (box){x, p->y + 8, x + w, p->y + 8 + h};
+    return rows;
+}
+
+/* A root's marker: x for a pole, o for a zero; a root in the right half
+   plane has its marker in an open square as well, so it stands out in
+   black and white too. */
+static void root_marker(FILE *f, double x, double y, int zero, int rhp,
+                        const char *c)
+{
+    if (rhp) {
+        fputs("<rect x=\"", f);
+        put(f, x - 4.5);
+        fputs("\" y=\"", f);
+        put(f, y - 4.5);
+        fprintf(f, "\" width=\"9\" height=\"9\" fill=\"#ffffff\" "
+                "stroke=\"%s\" stroke-width=\"1.2\"/>\n", c);
+    }
+    if (zero)
+        circle(f, x, y, rhp ? 2.5 : 3.5, c, "#ffffff");
+    else
+        cross(f, x, y, rhp ? 2.5 : 3.5, c);
+}
+
+/* Legend box at the top right of p: one line sample per labelled trace,
+   then the keys of the root markers in pz (KEY_*). */
+static void legend(FILE *f, const panel *p, const gs_plot *pl, int pz)
+{
+    static const char *const keys[4] = {"pole", "zero", "RHP pole",
+                                        "RHP zero"};
+    box r;
+    if (legend_rect(&r, p, pl, pz) == 0)
+        return;
+    double x = r.x0;
     fputs("<rect x=\"", f);
     put(f, x);
     fputs("\" y=\"", f);
-    put(f, y);
+    put(f, r.y0);
     fputs("\" width=\"", f);
-    put(f, w);
+    put(f, r.x1 - r.x0);
     fputs("\" height=\"", f);
-    put(f, h);
+    put(f, r.y1 - r.y0);
     fputs("\" fill=\"#ffffff\" stroke=\"#808080\" stroke-width=\"0.8\"/>\n", f);
-    double ry = y + 14;
+    double ry = r.y0 + 14;
     for (size_t i = 0; i < pl->ntraces; i++) {
         if (pl->traces[i].label == NULL)
             continue;
@@ -346,15 +568,23 @@ static void legend(FILE *f, const panel *p, const gs_plot *pl, int pz)
              pl->traces[i].label);
         ry += 16;
     }
-    if (pz & 1) {
-        cross(f, x + 22, ry - 4, 3.5, "#000000");
-        text(f, x + 42, ry, "start", "font-size=\"11\"", "pole");
+    for (int k = 0; k < 4; k++) {
+        if (!((pz >> k) & 1))
+            continue;
+        root_marker(f, x + 22, ry - 4, k & 1, k >= 2, "#000000");
+        text(f, x + 42, ry, "start", "font-size=\"11\"", keys[k]);
         ry += 16;
     }
-    if (pz & 2) {
-        circle(f, x + 22, ry - 4, 3.5, "#000000", "#ffffff");
-        text(f, x + 42, ry, "start", "font-size=\"11\"", "zero");
-    }
+}
+
+/* The legend's rectangle is taken before any label is placed, so no
+   label hides under it */
+static void legend_reserve(placer *pc, const panel *p, const gs_plot *pl,
+                           int pz)
+{
+    box r;
+    if (legend_rect(&r, p, pl, pz) > 0)
+        take_box(pc, r);
 }
 
 /* --- Document ----------------------------------------------------------- */
@@ -427,7 +657,17 @@ static void widen(long double *lo, long double *hi, long double by)
 
 /* --- Bode plot ---------------------------------------------------------- */
 
-enum { NEED_0DB = 1, NEED_180 = 2, NEED_POLES = 4, NEED_ZEROS = 8 };
+/* The legend's keys (KEY_*) shifted up by NEED_KEYS */
+enum { NEED_0DB = 1, NEED_180 = 2, NEED_KEYS = 2 };
+
+/* A root in the right half plane.  A pair on the imaginary axis comes out
+   of the root finder with a real part of round-off size, either sign; the
+   margin of 1e-6 of |r| keeps it with the left half plane (a real RHP pair
+   that close to the axis would have Q above 5e5). */
+static int is_rhp(long double complex r)
+{
+    return creall(r) > 1e-6L * cabsl(r);
+}
 
 static int marks_need(const gs_plot *p)
 {
@@ -440,10 +680,12 @@ static int marks_need(const gs_plot *p)
             need |= NEED_0DB;
         if (m->has_pm)
             need |= NEED_180;
-        if (m->npoles > 0)
-            need |= NEED_POLES;
-        if (m->nzeros > 0)
-            need |= NEED_ZEROS;
+        for (int k = 0; k < m->npoles; k++)
+            need |= (is_rhp(m->poles[k]) ? KEY_RHP_POLE : KEY_POLE)
+                    << NEED_KEYS;
+        for (int k = 0; k < m->nzeros; k++)
+            need |= (is_rhp(m->zeros[k]) ? KEY_RHP_ZERO : KEY_ZERO)
+                    << NEED_KEYS;
     }
     return need;
 }
@@ -521,7 +763,23 @@ static void bode_layout(panel *mag, panel *ph, double *strip_y,
     set_axes(ph);
 }
 
-/* x and o for each trace's poles and zeros at |p| / 2 pi, one row each */
+/* A root's frequency |r| / 2 pi, or 0 when the marker is not drawn: the
+   twin of a pair (the one after a root of the same magnitude), or off
+   the axis */
+static long double root_hz(const panel *pn, const long double complex *r,
+                           int k)
+{
+    long double fr = cabsl(r[k]) / (2 * 3.14159265358979323846L);
+    long double lf = fr > 0 ? log10l(fr) : -INFINITY;
+    if ((k > 0 && cabsl(r[k]) == cabsl(r[k - 1])
+         && is_rhp(r[k]) == is_rhp(r[k - 1]))
+        || lf < pn->ax.lo || lf > pn->ax.hi)
+        return 0;
+    return fr;
+}
+
+/* x and o for each trace's poles and zeros at |p| / 2 pi, one row each;
+   those in the right half plane boxed */
 static void pz_strip(FILE *f, const panel *pn, double y0, const gs_plot *p)
 {
     int row = 0;
@@ -535,16 +793,10 @@ static void pz_strip(FILE *f, const panel *pn, double y0, const gs_plot *p)
             const long double complex *r = pass ? m->zeros : m->poles;
             int n = pass ? m->nzeros : m->npoles;
             for (int k = 0; k < n; k++) {
-                long double fr = cabsl(r[k]) / (2 * 3.14159265358979323846L);
-                long double lf = fr > 0 ? log10l(fr) : -INFINITY;
-                if ((k > 0 && cabsl(r[k]) == cabsl(r[k - 1]))
-                    || lf < pn->ax.lo || lf > pn->ax.hi)
-                    continue;       /* a pair's twin, or off the axis */
-                double x = amap(&pn->ax, fr);
-                if (pass)
-                    circle(f, x, y, 3.5, c, "#ffffff");
-                else
-                    cross(f, x, y, 3.5, c);
+                long double fr = root_hz(pn, r, k);
+                if (fr > 0)
+                    root_marker(f, amap(&pn->ax, fr), y, pass,
+                                is_rhp(r[k]), c);
             }
         }
     }
@@ -563,19 +815,18 @@ static double clampy(const panel *pn, double y)
     return y < pn->y ? pn->y : y > pn->y + pn->h ? pn->y + pn->h : y;
 }
 
-/* Baseline of a label for a point at pixel y: above it, one row higher
-   per trace, or below it when that would leave the panel */
-static double label_y(const panel *pn, double y, int row)
+/* Baseline wanted for a label of a point at pixel y: above it, or below
+   it when that would leave the panel */
+static double label_y(const panel *pn, double y)
 {
-    double above = y - 6 - 13.0 * row;
-    return above >= pn->y + 12 ? above : y + 15 + 13.0 * row;
+    double above = y - 6;
+    return above - LABEL_ASC >= pn->y ? above : y + 6 + LABEL_ASC;
 }
 
 /* A dot at (f, v) on pn with a dashed drop line to the panel's bottom and
    a label "what VALUE Hz" */
-static void freq_point(FILE *f, const panel *pn, long double fr,
-                       long double v, const char *what, const char *c,
-                       int row)
+static void freq_point(FILE *f, placer *pl, const panel *pn, long double fr,
+                       long double v, const char *what, const char *c)
 {
     char b[96], num[48];
     double x = x_at(pn, fr);
@@ -586,14 +837,13 @@ static void freq_point(FILE *f, const panel *pn, long double fr,
     circle(f, x, y, 3, c, "#ffffff");
     snprintf(b, sizeof b, "%s %s", what,
              gs_si_format(num, sizeof num, fr, 3, "Hz"));
-    int right = x > pn->x + pn->w - 130;
-    label(f, right ? x - 6 : x + 6, label_y(pn, y, row), right ? "end"
-          : "start", c, b);
+    panel_label(f, pl, pn, x, label_y(pn, y), 6, 0, c, b);
 }
 
 /* A bar at f from v0 to v1 with end ticks, labelled */
-static void freq_bar(FILE *f, const panel *pn, long double fr, long double v0,
-                     long double v1, const char *s, const char *c, int row)
+static void freq_bar(FILE *f, placer *pl, const panel *pn, long double fr,
+                     long double v0, long double v1, const char *s,
+                     const char *c)
 {
     double x = x_at(pn, fr);
     if (x < 0 || !isfinite(v0) || !isfinite(v1))
@@ -603,33 +853,55 @@ static void freq_bar(FILE *f, const panel *pn, long double fr, long double v0,
     line(f, x, y0, x, y1, c, 1.4, NULL);
     line(f, x - 4, y0, x + 4, y0, c, 1.4, NULL);
     line(f, x - 4, y1, x + 4, y1, c, 1.4, NULL);
-    int right = x > pn->x + pn->w - 100;
-    label(f, right ? x - 7 : x + 7, (y0 + y1) / 2 + 4 + 13.0 * row,
-          right ? "end" : "start", c, s);
+    panel_label(f, pl, pn, x, (y0 + y1) / 2 + 4, 7, 0, c, s);
 }
 
-static void bode_marks(FILE *f, const panel *mag, const panel *ph,
-                       const gs_plot_trace *t, int i)
+/* Each root of the right half plane named with its frequency ("RHP zero
+   1.59 GHz") at the bottom of the magnitude panel, above its marker in
+   the strip: such a root adds phase lag where a left-half-plane one of
+   the same magnitude would add lead, which a designer must not miss */
+static void rhp_labels(FILE *f, placer *pl, const panel *mag,
+                       const gs_plot_marks *m, const char *c)
+{
+    char b[96], num[48];
+    for (int pass = 0; pass < 2; pass++) {
+        const long double complex *r = pass ? m->zeros : m->poles;
+        int n = pass ? m->nzeros : m->npoles;
+        for (int k = 0; k < n; k++) {
+            long double fr = root_hz(mag, r, k);
+            if (!(fr > 0) || !is_rhp(r[k]))
+                continue;
+            snprintf(b, sizeof b, "RHP %s %s", pass ? "zero" : "pole",
+                     gs_si_format(num, sizeof num, fr, 3, "Hz"));
+            panel_label(f, pl, mag, amap(&mag->ax, fr),
+                        mag->y + mag->h - LABEL_DESC - 2, 5, 0, c, b);
+        }
+    }
+}
+
+static void bode_marks(FILE *f, placer *pl, const panel *mag,
+                       const panel *ph, const gs_plot_trace *t, int i)
 {
     const gs_plot_marks *m = t->marks;
     const char *c = colours[i % NSTYLES];
     char b[64], num[48];
 
     if (m->has_bw)
-        freq_point(f, mag, m->bw_hz, interp(t->x, t->y, t->n, m->bw_hz, 1),
-                   "-3 dB", c, i);
+        freq_point(f, pl, mag, m->bw_hz,
+                   interp(t->x, t->y, t->n, m->bw_hz, 1), "-3 dB", c);
     if (m->has_unity)
-        freq_point(f, mag, m->unity_hz, 0, "0 dB", c, i);
+        freq_point(f, pl, mag, m->unity_hz, 0, "0 dB", c);
     if (m->has_gm) {
         snprintf(b, sizeof b, "GM %s dB",
                  gs_fixed_format(num, sizeof num, m->gm_db, 1));
-        freq_bar(f, mag, m->gm_hz, -m->gm_db, 0, b, c, i);
+        freq_bar(f, pl, mag, m->gm_hz, -m->gm_db, 0, b, c);
     }
     if (m->has_pm) {
         snprintf(b, sizeof b, "PM %s\xc2\xb0",
                  gs_fixed_format(num, sizeof num, m->pm_deg, 1));
-        freq_bar(f, ph, m->pm_hz, m->pm_deg - 180, -180, b, c, i);
+        freq_bar(f, pl, ph, m->pm_hz, m->pm_deg - 180, -180, b, c);
     }
+    rhp_labels(f, pl, mag, m, c);
 }
 
 static void ref_line(FILE *f, const panel *pn, long double v,
@@ -665,11 +937,13 @@ static void bode_body(FILE *out, const panel *mag, const panel *ph,
     frame(out, mag);
     frame(out, ph);
     pz_strip(out, mag, strip_y, p);
+    placer pl;
+    pl.n = 0;
+    legend_reserve(&pl, mag, p, need >> NEED_KEYS);
     for (size_t i = 0; i < p->ntraces; i++)
         if (p->traces[i].marks != NULL)
-            bode_marks(out, mag, ph, &p->traces[i], (int)i);
-    legend(out, mag, p, ((need & NEED_POLES) ? 1 : 0)
-                        | ((need & NEED_ZEROS) ? 2 : 0));
+            bode_marks(out, &pl, mag, ph, &p->traces[i], (int)i);
+    legend(out, mag, p, need >> NEED_KEYS);
     {
         /* the units of the traces, each once, in trace order: an
            impedance drawn with a gain makes "Magnitude (dB, dBΩ)" */
@@ -722,6 +996,42 @@ int gs_svg_bode(FILE *out, const gs_plot *p)
 }
 /* --- Step plot ---------------------------------------------------------- */
 
+/* The time axis over [lo, hi]: snapped out to its grid step, except that
+   it ends at the last sample when the step would carry it past, so every
+   trace that reaches the last sample reaches the axis end.  Sampling to
+   gs_svg_step_axis_end makes the two the same. */
+static void time_axis(axis *a, long double *step, long double lo,
+                      long double hi)
+{
+    long double dhi = hi;
+    int spread = hi > lo;
+    widen(&lo, &hi, 1);
+    *a = (axis){lo, hi, 0, 0, 0};
+    *step = nice_step(hi - lo, 8);
+    snap(a, *step);
+    if (spread && a->hi > dhi)
+        a->hi = dhi;
+}
+
+long double gs_svg_step_axis_end(long double t_end)
+{
+    long double end = t_end, step;
+    axis a;
+    if (!(t_end > 0) || !isfinite(t_end))
+        return t_end;
+    /* the snapped end of [0, end] is a grid step of a span that grew by
+       less than one step; a second round settles it (a third at most,
+       when the longer span picks a coarser step) */
+    for (int k = 0; k < 4; k++) {
+        time_axis(&a, &step, 0, end);
+        long double up = ceill(end / step - 1e-9L) * step;
+        if (up <= end)
+            break;
+        end = up;
+    }
+    return end;
+}
+
 static int step_ranges(panel *pn, const gs_plot *p)
 {
     long double xlo, xhi, ylo, yhi;
@@ -738,11 +1048,8 @@ static int step_ranges(panel *pn, const gs_plot *p)
             yhi = fmaxl(yhi, m->final_value);
         }
     }
-    widen(&xlo, &xhi, 1);
+    time_axis(&pn->ax, &pn->xstep, xlo, xhi);
     widen(&ylo, &yhi, 1);
-    pn->ax = (axis){xlo, xhi, 0, 0, 0};
-    pn->xstep = nice_step(xhi - xlo, 8);
-    snap(&pn->ax, pn->xstep);
     pn->ay = (axis){ylo, yhi, 0, 0, 0};
     pn->ystep = nice_step(yhi - ylo, 8);
     snap(&pn->ay, pn->ystep);
@@ -750,22 +1057,19 @@ static int step_ranges(panel *pn, const gs_plot *p)
 }
 
 /* A dot at (t, v), labelled */
-static void time_point(FILE *f, const panel *pn, long double t, long double v,
-                       const char *s, const char *c, int row)
+static void time_point(FILE *f, placer *pl, const panel *pn, long double t,
+                       long double v, const char *s, const char *c)
 {
     if (t < pn->ax.lo || t > pn->ax.hi || !isfinite(v))
         return;
     double x = amap(&pn->ax, t), y = clampy(pn, amap(&pn->ay, v));
     circle(f, x, y, 3, c, "#ffffff");
-    if (s != NULL) {
-        int right = x > pn->x + pn->w - 140;
-        label(f, right ? x - 7 : x + 7, label_y(pn, y, row),
-              right ? "end" : "start", c, s);
-    }
+    if (s != NULL)
+        panel_label(f, pl, pn, x, label_y(pn, y), 7, 0, c, s);
 }
 
-static void step_marks(FILE *f, const panel *pn, const gs_step_metrics *m,
-                       int i)
+static void step_marks(FILE *f, placer *pl, const panel *pn,
+                       const gs_step_metrics *m, int i)
 {
     const char *c = colours[i % NSTYLES];
     char b[96], num[48];
@@ -777,17 +1081,17 @@ static void step_marks(FILE *f, const panel *pn, const gs_step_metrics *m,
     line(f, pn->x, y, pn->x + pn->w, y, c, 0.9, "6 3");
     snprintf(b, sizeof b, "final %s", gs_si_format(num, sizeof num, yf, 4,
                                                    NULL));
-    label(f, pn->x + pn->w - 6, y - 5 - 13.0 * i, "end", c, b);
+    panel_label(f, pl, pn, pn->x + pn->w, label_y(pn, y), 6, 1, c, b);
     if (m->has_rise) {
-        time_point(f, pn, m->t10, 0.1L * yf, NULL, c, i);
+        time_point(f, pl, pn, m->t10, 0.1L * yf, NULL, c);
         snprintf(b, sizeof b, "rise %s", gs_si_format(num, sizeof num,
                                                       m->rise_time, 3, "s"));
-        time_point(f, pn, m->t90, 0.9L * yf, b, c, i);
+        time_point(f, pl, pn, m->t90, 0.9L * yf, b, c);
     }
     if (m->has_overshoot && m->overshoot_pct > 0) {
         snprintf(b, sizeof b, "overshoot %s %%",
                  gs_fixed_format(num, sizeof num, m->overshoot_pct, 1));
-        time_point(f, pn, m->peak_time, m->peak_value, b, c, i);
+        time_point(f, pl, pn, m->peak_time, m->peak_value, b, c);
     }
     if (m->has_settling && m->settling_time > 0
         && m->settling_time <= pn->ax.hi) {
@@ -795,7 +1099,7 @@ static void step_marks(FILE *f, const panel *pn, const gs_step_metrics *m,
         line(f, x, pn->y, x, pn->y + pn->h, c, 0.9, "3 3");
         snprintf(b, sizeof b, "settled (1 %%) %s",
                  gs_si_format(num, sizeof num, m->settling_time, 3, "s"));
-        label(f, x + 5, pn->y + pn->h - 8 - 13.0 * i, "start", c, b);
+        panel_label(f, pl, pn, x, pn->y + pn->h - 8, 5, 0, c, b);
     }
 }
 
@@ -828,9 +1132,12 @@ int gs_svg_step(FILE *out, const gs_plot *p)
         trace_path(out, &pn, p->traces[i].x, p->traces[i].y, p->traces[i].n,
                    (int)i);
     frame(out, &pn);
+    placer pl;
+    pl.n = 0;
+    legend_reserve(&pl, &pn, p, 0);
     for (size_t i = 0; i < p->ntraces; i++)
         if (p->traces[i].metrics != NULL)
-            step_marks(out, &pn, p->traces[i].metrics, (int)i);
+            step_marks(out, &pl, &pn, p->traces[i].metrics, (int)i);
     legend(out, &pn, p, 0);
     y_title(out, &pn, p->ylabel != NULL ? p->ylabel : "Output");
     text(out, pn.x + pn.w / 2, pn.y + pn.h + 36, "middle", "", "Time (s)");

@@ -5,8 +5,11 @@
  * on white.  A Bode plot has a magnitude panel over a phase panel on one
  * logarithmic frequency axis with decade and 2..9 sub-decade grid lines;
  * between them a strip marks the poles (x) and zeros (o) of each trace at
- * |p| / 2 pi.  Tick labels use SI prefixes (100 m, 1, 10 k, 2 G) and the
- * unit is in the axis title.  Numbers are written without the C library's
+ * |p| / 2 pi, those in the right half plane in an open square and named
+ * on the magnitude panel ("RHP zero 1.59 GHz").  Annotation labels are
+ * placed so that no two of them, nor a label and the legend, overlap.
+ * Tick labels use SI prefixes (100 m, 1, 10 k, 2 G) and the unit is in
+ * the axis title.  Numbers are written without the C library's
  * locale, so the file is the same whatever LC_NUMERIC says.
  */
 #ifndef GS_SVG_H
@@ -72,8 +75,17 @@ int gs_svg_bode(FILE *out, const gs_plot *p);
 
 /* Write a step-response plot: one panel, linear time axis in seconds.
  * With metrics: the final value, the 10 % and 90 % points, the overshoot
- * peak and the 1 % settling time are marked.  Returns as gs_svg_bode. */
+ * peak and the 1 % settling time are marked.  The time axis ends at a
+ * grid step, or at the last sample when the step would pass it, so a
+ * trace always runs to the axis end.  Returns as gs_svg_bode. */
 int gs_svg_step(FILE *out, const gs_plot *p);
+
+/* The end of the time axis gs_svg_step gives samples over [0, t_end]
+ * once they are taken over [0, the returned end]: t_end rounded up to a
+ * grid step.  Sampling to it makes the axis end on a labelled tick with
+ * the trace reaching it.  A t_end that is not finite and positive comes
+ * back unchanged. */
+long double gs_svg_step_axis_end(long double t_end);
 
 /* Write a noise spectrum: one panel, logarithmic frequency axis in Hz,
  * each trace's y a density in dB (20 log10 of unit/sqrt(Hz)), the axis
