@@ -43,10 +43,15 @@ int gs_cmd_budget(struct gs_derive_opts *o, const struct gs_cli *cl,
    argument and the derive options of cl, parse and derive into j.
    Returns an exit status; messages go to err prefixed by cmd.  Status 1
    with j->partial set: outputs with no finite limit were left out and j
-   holds the others, which derive and eval print before returning 1; the
-   other commands fail as a whole. */
+   holds the others (use gs_cmd_derive_some). */
 int gs_cmd_load_and_derive(struct gs_job *j, const struct gs_cli *cl,
                            const char *cmd, FILE *err);
+/* gs_cmd_load_and_derive for a command that goes on with the outputs it
+   has: status 0 with *partial = 1 when outputs with no finite limit were
+   left out (their errors already on err); the command runs on the
+   others and returns 1 at the end. */
+int gs_cmd_derive_some(struct gs_job *j, const struct gs_cli *cl,
+                       const char *cmd, int *partial, FILE *err);
 
 /* Bind the numbers of j from its value lines and the --set options of cl;
    prints diagnostics to err; returns an exit status. */

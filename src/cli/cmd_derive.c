@@ -154,6 +154,14 @@ int gs_cmd_budget(gs_derive_opts *o, const gs_cli *cl, const char *cmd,
     return 0;
 }
 
+int gs_cmd_derive_some(gs_job *j, const gs_cli *cl, const char *cmd,
+                       int *partial, FILE *err)
+{
+    int status = gs_cmd_load_and_derive(j, cl, cmd, err);
+    *partial = status == 1 && j->partial;
+    return *partial ? 0 : status;
+}
+
 int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
                            FILE *err)
 {
@@ -292,12 +300,9 @@ int gs_cmd_derive(int argc, char **argv, FILE *out, FILE *err)
         fputs(gs_cmd_help_text("derive"), out);
     } else if (status == 0) {
         format = gs_cli_get(&cl, "format", 0);
-        status = gs_cmd_load_and_derive(&j, &cl, "derive", err);
         /* outputs left out for an infinite limit: the others are printed,
            and the status stays 1 */
-        partial = status == 1 && j.partial;
-        if (partial)
-            status = 0;
+        status = gs_cmd_derive_some(&j, &cl, "derive", &partial, err);
         if (status == 0)
             status = collect_var(&var, &cl, &j, err);
         if (status == 0)
@@ -470,10 +475,7 @@ int gs_cmd_eval(int argc, char **argv, FILE *out, FILE *err)
     if (status == 0 && gs_cli_has(&cl, "help")) {
         fputs(gs_cmd_help_text("eval"), out);
     } else if (status == 0) {
-        status = gs_cmd_load_and_derive(&j, &cl, "eval", err);
-        partial = status == 1 && j.partial;     /* as for derive */
-        if (partial)
-            status = 0;
+        status = gs_cmd_derive_some(&j, &cl, "eval", &partial, err);
         if (status == 0)
             status = gs_cmd_bind(&j, &cl, err);
         if (status == 0)

@@ -130,6 +130,13 @@ static int parse_sweep(sweep_opts *o, const gs_cli *cl, FILE *err)
     return 0;
 }
 
+/* -0 (a delay of a flat response, computed as minus a zero slope)
+   printed as 0 */
+static long double unsigned_zero(long double v)
+{
+    return v == 0 ? 0 : v;
+}
+
 /* One CSV for every output: freq_Hz, then per output its three columns. */
 static void write_bode_csv(FILE *f, const gs_job *j, const gs_sweep *sw)
 {
@@ -147,8 +154,9 @@ static void write_bode_csv(FILE *f, const gs_job *j, const gs_sweep *sw)
     for (k = 0; k < sw[0].n; k++) {
         fprintf(f, "%.10Lg", sw[0].freq[k]);
         for (i = 0; i < j->ntf; i++)
-            fprintf(f, ",%.10Lg,%.10Lg,%.10Lg", sw[i].mag_db[k],
-                    sw[i].phase_deg[k], sw[i].delay_s[k]);
+            fprintf(f, ",%.10Lg,%.10Lg,%.10Lg", unsigned_zero(sw[i].mag_db[k]),
+                    unsigned_zero(sw[i].phase_deg[k]),
+                    unsigned_zero(sw[i].delay_s[k]));
         fputc('\n', f);
     }
 }
@@ -260,11 +268,12 @@ static int bode_outputs(const gs_job *j, const gs_tfn *h, const gs_cli *cl,
     return status;
 }
 
-/* Front half shared by bode and step: options, derive, bind, numbers. */
+/* Front half shared by bode and step: options, derive, bind, numbers;
+   *partial as gs_cmd_derive_some sets it. */
 static int prepare(gs_job *j, gs_tfn **h, const gs_cli *cl, const char *cmd,
-                   FILE *err)
+                   int *partial, FILE *err)
 {
-    int status = gs_cmd_load_and_derive(j, cl, cmd, err);
+    int status = gs_cmd_derive_some(j, cl, cmd, partial, err);
     if (status == 0)
         status = gs_cmd_bind(j, cl, err);
     if (status == 0)
@@ -278,7 +287,7 @@ int gs_cmd_bode(int argc, char **argv, FILE *out, FILE *err)
     gs_job j;
     gs_tfn *h = NULL;
     sweep_opts so;
-    int status;
+    int status, partial = 0;
 
     gs_job_init(&j);
     status = gs_cli_parse(&cl, argc, argv, bode_spec, err);
@@ -288,9 +297,11 @@ int gs_cmd_bode(int argc, char **argv, FILE *out, FILE *err)
         if (status == 0)
             status = parse_sweep(&so, &cl, err);
         if (status == 0)
-            status = prepare(&j, &h, &cl, "bode", err);
+            status = prepare(&j, &h, &cl, "bode", &partial, err);
         if (status == 0)
             status = bode_outputs(&j, h, &cl, &so, out, err);
+        if (status == 0 && partial)
+            status = 1;
     }
     if (h)
         free_tfns(h, j.ntf);
@@ -396,7 +407,7 @@ int gs_cmd_step(int argc, char **argv, FILE *out, FILE *err)
     long double until = 0;
     size_t points = 1001, i;
     const char *t;
-    int status;
+    int status, partial = 0;
 
     gs_job_init(&j);
     status = gs_cli_parse(&cl, argc, argv, step_spec, err);
@@ -420,7 +431,7 @@ int gs_cmd_step(int argc, char **argv, FILE *out, FILE *err)
         status = 2;
     }
     if (status == 0)
-        status = prepare(&j, &h, &cl, "step", err);
+        status = prepare(&j, &h, &cl, "step", &partial, err);
     if (status == 0 && j.ntf > 1
         && (gs_cli_has(&cl, "csv") || gs_cli_has(&cl, "svg"))) {
         fprintf(err, "gainsmith step: error: the file has %zu outputs; "
@@ -430,6 +441,8 @@ int gs_cmd_step(int argc, char **argv, FILE *out, FILE *err)
     }
     for (i = 0; status == 0 && i < j.ntf; i++)
         status = step_one(&j, i, &h[i], &cl, until, points, out, err);
+    if (status == 0 && partial)
+        status = 1;
 done:
     if (h)
         free_tfns(h, j.ntf);

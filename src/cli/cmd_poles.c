@@ -245,7 +245,7 @@ int gs_cmd_poles(int argc, char **argv, FILE *out, FILE *err)
     gs_job j;
     size_t i;
     long double tol = 1e-3L;
-    int status, json = 0;
+    int status, json = 0, partial = 0;
     const char *fmt, *t;
 
     gs_job_init(&j);
@@ -264,7 +264,7 @@ int gs_cmd_poles(int argc, char **argv, FILE *out, FILE *err)
     if (status == 0 && (t = gs_cli_get(&cl, "cancel-tol", 0)))
         status = gs_cli_real(&tol, t, NULL, "poles", "cancel-tol", err);
     if (status == 0)
-        status = gs_cmd_load_and_derive(&j, &cl, "poles", err);
+        status = gs_cmd_derive_some(&j, &cl, "poles", &partial, err);
     if (status == 0)
         status = gs_cmd_bind(&j, &cl, err);
     if (json && status == 0)
@@ -276,6 +276,8 @@ int gs_cmd_poles(int argc, char **argv, FILE *out, FILE *err)
     }
     if (json && status == 0)
         fputs("]\n", out);
+    if (status == 0 && partial)
+        status = 1;
 done:
     gs_cli_clear(&cl);
     gs_job_clear(&j);

@@ -165,7 +165,7 @@ int gs_cmd_report(int argc, char **argv, FILE *out, FILE *err)
     gs_cli cl;
     gs_job j;
     report_noise rn;
-    int status, i;
+    int status, i, partial = 0;
     const char *path = NULL;
     char **args = gs_malloc((size_t)(argc + 1) * sizeof *args);
 
@@ -192,7 +192,7 @@ int gs_cmd_report(int argc, char **argv, FILE *out, FILE *err)
         status = 2;
     }
     if (status == 0)
-        status = gs_cmd_load_and_derive(&j, &cl, "report", err);
+        status = gs_cmd_derive_some(&j, &cl, "report", &partial, err);
     if (status == 0)
         status = gs_cmd_bind(&j, &cl, err);
     if (status == 0)        /* for the check section, as check does */
@@ -201,6 +201,8 @@ int gs_cmd_report(int argc, char **argv, FILE *out, FILE *err)
         status = write_report(&j, path,
                               noise_make(&rn, &cl, cl.pos[0], err),
                               out, err);
+    if (status == 0 && partial)
+        status = 1;
 done:
     report_noise_clear(&rn);
     free(args);

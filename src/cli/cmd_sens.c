@@ -265,7 +265,7 @@ int gs_cmd_sens(int argc, char **argv, FILE *out, FILE *err)
     gs_job j;
     long double *at = NULL;
     size_t i, nat = 0, nloop = 0;
-    int status, json = 0, loop = 0;
+    int status, json = 0, loop = 0, partial = 0;
     const char *fmt;
 
     gs_job_init(&j);
@@ -284,7 +284,7 @@ int gs_cmd_sens(int argc, char **argv, FILE *out, FILE *err)
     if (status == 0)
         status = read_at(&at, &nat, &cl, err);
     if (status == 0)
-        status = gs_cmd_load_and_derive(&j, &cl, "sens", err);
+        status = gs_cmd_derive_some(&j, &cl, "sens", &partial, err);
     if (status == 0)
         status = gs_cmd_bind(&j, &cl, err);
     loop = status == 0 && gs_cli_has(&cl, "loop");
@@ -307,6 +307,8 @@ int gs_cmd_sens(int argc, char **argv, FILE *out, FILE *err)
     }
     if (json && status == 0)
         fputs("]\n", out);
+    if (status == 0 && partial)
+        status = 1;
 done:
     free(at);
     gs_cli_clear(&cl);
