@@ -100,6 +100,16 @@ void gs_poly_fit(gs_poly *r, size_t n, const gs_polyctx *ctx)
     r->alloc = na;
 }
 
+void gs_poly_shrink(gs_poly *r, const gs_polyctx *ctx)
+{
+    size_t na = r->length < 4 ? 4 : r->length;
+    if (r->alloc <= na + na / 4)
+        return;
+    r->coeffs = gs_reallocarray(r->coeffs, na, sizeof *r->coeffs);
+    r->exps = gs_reallocarray(r->exps, na, (size_t)ctx->nwords * 8);
+    r->alloc = na;
+}
+
 static void truncate_to(gs_poly *r, size_t n)
 {
     while (r->length > n)
@@ -251,10 +261,61 @@ static void sort_perm(size_t *perm, size_t *tmp, size_t n, const gs_poly *r,
     memcpy(perm, tmp, n * sizeof *perm);
 }
 
+/* Put the terms in the order of perm in place (term perm[i] to slot i),
+   cycle by cycle, perm[i] = i marking a slot done: no second copy of a
+   polynomial that may hold millions of terms.  A gs_int moves by struct
+   assignment: its slot is overwritten before it is read again. */
+static void apply_perm(gs_poly *r, size_t *perm, const gs_polyctx *ctx)
+{
+    size_t n = r->length, nw = (size_t)ctx->nwords, i, j, k;
+    uint64_t *save = gs_malloc(nw * 8);
+    gs_int c;
+    for (i = 0; i < n; i++) {
+        if (perm[i] == i)
+            continue;
+        memcpy(save, r->exps + i * nw, nw * 8);
+        c = r->coeffs[i];
+        for (j = i; perm[j] != i; j = k) {
+            k = perm[j];
+            memcpy(r->exps + j * nw, r->exps + k * nw, nw * 8);
+            r->coeffs[j] = r->coeffs[k];
+            perm[j] = j;
+        }
+        memcpy(r->exps + j * nw, save, nw * 8);
+        r->coeffs[j] = c;
+        perm[j] = j;
+    }
+    free(save);
+}
+
+/* Sorted terms: equal monomials merged and zero coefficients dropped,
+   in place. */
+static void merge_sorted(gs_poly *r, const gs_polyctx *ctx)
+{
+    size_t n = r->length, nw = (size_t)ctx->nwords, i, w = 0;
+    for (i = 0; i < n; i++) {
+        if (w > 0 && exps_cmp(term_exps(r, w - 1, ctx), term_exps(r, i, ctx),
+                              ctx->nwords) == 0) {
+            gs_int_add(&r->coeffs[w - 1], &r->coeffs[w - 1], &r->coeffs[i]);
+            gs_int_clear(&r->coeffs[i]);
+            continue;
+        }
+        if (w > 0 && gs_int_is_zero(&r->coeffs[w - 1]))
+            gs_int_clear(&r->coeffs[--w]);
+        if (w != i) {
+            memcpy(r->exps + w * nw, r->exps + i * nw, nw * 8);
+            r->coeffs[w] = r->coeffs[i];
+        }
+        w++;
+    }
+    if (w > 0 && gs_int_is_zero(&r->coeffs[w - 1]))
+        gs_int_clear(&r->coeffs[--w]);
+    r->length = w;
+}
+
 void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
 {
     size_t n = r->length, i, *perm, *tmp;
-    gs_poly t;
     if (is_canonical(r, ctx))
         return;
     perm = gs_malloc((n + 1) * sizeof *perm);
@@ -262,24 +323,10 @@ void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
     for (i = 0; i < n; i++)
         perm[i] = i;
     sort_perm(perm, tmp, n, r, ctx);
-    gs_poly_init(&t);
-    gs_poly_fit(&t, n, ctx);
-    for (i = 0; i < n; i++) {
-        const uint64_t *e = term_exps(r, perm[i], ctx);
-        gs_int *c = &r->coeffs[perm[i]];
-        if (t.length > 0 && exps_cmp(term_exps(&t, t.length - 1, ctx), e,
-                                     ctx->nwords) == 0) {
-            gs_int_add(&t.coeffs[t.length - 1], &t.coeffs[t.length - 1], c);
-        } else {
-            drop_last_if_zero(&t);
-            gs_int_swap(append_term(&t, e, ctx), c);
-        }
-    }
-    drop_last_if_zero(&t);
-    gs_poly_swap(r, &t);
-    gs_poly_clear(&t);
-    free(perm);
     free(tmp);
+    apply_perm(r, perm, ctx);
+    free(perm);
+    merge_sorted(r, ctx);
 }
 
 static void put_exp(uint64_t *e, int var, unsigned x)
@@ -567,10 +614,31 @@ int gs_poly_divexact_int(gs_poly *q, const gs_poly *a, const gs_int *c,
                          const gs_polyctx *ctx)
 {
     gs_poly t;
+    gs_int t0;
     size_t i;
     if (gs_int_is_zero(c)) {
         gs_poly_zero(q);
         return GS_EDIVZERO;
+    }
+    if (q == a) {
+        /* in place, with no second copy of the terms; on a remainder q is
+           zeroed all the same */
+        int one = gs_int_cmp_si(c, 1) == 0, minus = gs_int_cmp_si(c, -1) == 0;
+        gs_int_init(&t0);
+        for (i = 0; i < q->length && !one; i++) {
+            if (minus) {
+                gs_int_neg(&q->coeffs[i], &q->coeffs[i]);
+                continue;
+            }
+            if (gs_int_divexact(&t0, &q->coeffs[i], c) != GS_OK) {
+                gs_int_clear(&t0);
+                gs_poly_zero(q);
+                return GS_EINEXACT;
+            }
+            gs_int_swap(&t0, &q->coeffs[i]);
+        }
+        gs_int_clear(&t0);
+        return GS_OK;
     }
     gs_poly_init(&t);
     gs_poly_fit(&t, a->length, ctx);

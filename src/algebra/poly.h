@@ -132,6 +132,9 @@ void gs_poly_push_term(gs_poly *r, const gs_int *c, const unsigned *exps,
 void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx);
 /* Reserve room for n terms; the value of r is unchanged. */
 void gs_poly_fit(gs_poly *r, size_t n, const gs_polyctx *ctx);
+/* Give back the room past r's terms when it is over a quarter of them
+   (a result grown by doubling holds up to twice what it needs). */
+void gs_poly_shrink(gs_poly *r, const gs_polyctx *ctx);
 /* degs[v] = degree of a in variable v for v < nvars (all 0 for a = 0). */
 void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx);
 

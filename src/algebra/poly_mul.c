@@ -484,6 +484,7 @@ void gs_poly_sum_of_products(gs_poly *r, const gs_poly *const *a,
     gs_pheap_clear(&h);
     free(keys);
     free(st);
+    gs_poly_shrink(r, ctx);
 }
 
 int gs_poly_mul_fits(int *var, const gs_poly *a, const gs_poly *b,

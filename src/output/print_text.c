@@ -256,31 +256,57 @@ static void put_sign(sbuf *b, int negative, int first)
     sb_puts(b, negative ? " - " : " + ");
 }
 
-/* The terms of a, one after the other; flip negates each sign. */
-static void put_terms(sbuf *b, style *st, const gs_poly *a, int first,
+/* Some terms of a polynomial, in its order: a's terms idx[0 .. n), with
+   the exponent of drop (-1: none) read as 0.  The coefficients of the
+   powers of s are printed through such views, so that a result of
+   millions of terms is not copied to be printed. */
+typedef struct view {
+    const gs_poly *a;
+    const size_t *idx;      /* NULL: the terms 0 .. n-1 */
+    size_t n;
+    int drop;
+} view;
+
+static size_t view_at(const view *v, size_t i)
+{
+    return v->idx ? v->idx[i] : i;
+}
+
+static void view_exps(unsigned *exps, const view *v, size_t i,
+                      const gs_polyctx *ctx)
+{
+    gs_poly_get_term_exps(exps, v->a, view_at(v, i), ctx);
+    if (v->drop >= 0)
+        exps[v->drop] = 0;
+}
+
+/* The terms of v, one after the other; flip negates each sign. */
+static void put_terms(sbuf *b, style *st, const view *v, int first,
                       int flip, unsigned *exps)
 {
     size_t i;
-    for (i = 0; i < a->length; i++) {
-        int neg = (gs_int_sgn(&a->coeffs[i]) < 0) != (flip != 0);
-        gs_poly_get_term_exps(exps, a, i, st->ctx);
+    for (i = 0; i < v->n; i++) {
+        const gs_int *c = &v->a->coeffs[view_at(v, i)];
+        int neg = (gs_int_sgn(c) < 0) != (flip != 0);
+        view_exps(exps, v, i, st->ctx);
         put_sign(b, neg, first && i == 0);
-        put_term(b, st, &a->coeffs[i], exps);
+        put_term(b, st, c, exps);
     }
 }
 
-/* c * x_var^k for k >= 1, c free of x_var and nonzero.  A coefficient of
-   several terms goes in parentheses, its leading sign outside. */
-static void put_group(sbuf *b, style *st, const gs_poly *c, int var,
+/* c * x_var^k for k >= 1, c (the view, its terms free of x_var once
+   dropped) nonzero.  A coefficient of several terms goes in parentheses,
+   its leading sign outside. */
+static void put_group(sbuf *b, style *st, const view *c, int var,
                       unsigned k, int first, unsigned *exps)
 {
-    int neg = gs_int_sgn(&c->coeffs[0]) < 0;
+    const gs_int *c0 = &c->a->coeffs[view_at(c, 0)];
+    int neg = gs_int_sgn(c0) < 0;
     put_sign(b, neg, first);
-    if (c->length == 1) {
-        gs_poly_get_term_exps(exps, c, 0, st->ctx);
-        if (!monomial_is_one(exps, st->ctx->nvars)
-            || !is_unit(&c->coeffs[0])) {
-            put_term(b, st, &c->coeffs[0], exps);
+    if (c->n == 1) {
+        view_exps(exps, c, 0, st->ctx);
+        if (!monomial_is_one(exps, st->ctx->nvars) || !is_unit(c0)) {
+            put_term(b, st, c0, exps);
             sb_puts(b, mul_sign(st));
         }
     } else {
@@ -292,36 +318,57 @@ static void put_group(sbuf *b, style *st, const gs_poly *c, int var,
     put_power(b, st, var, k);
 }
 
-/* a written as a sum over the powers of x_var (var < 0: as it is). */
+/* a written as a sum over the powers of x_var (var < 0: as it is), the
+   powers highest first: a's terms sorted by their power of x_var,
+   stably, so each power's terms keep a's order (which is the order of
+   the coefficient polynomial once x_var is dropped). */
 static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
 {
     const gs_polyctx *ctx = st->ctx;
     unsigned *exps = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *exps);
+    view v;
     long k;
     int first = 1;
 
+    v.a = a;
+    v.idx = NULL;
+    v.n = a->length;
+    v.drop = -1;
     if (gs_poly_is_zero(a)) {
         sb_puts(b, "0");
     } else if (var < 0 || var >= ctx->nvars) {
-        put_terms(b, st, a, 1, 0, exps);
+        put_terms(b, st, &v, 1, 0, exps);
     } else {
         size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i;
-        gs_poly *c = gs_malloc(n * sizeof *c);
-        for (i = 0; i < n; i++)
-            gs_poly_init(&c[i]);
-        gs_poly_coeffs_var(c, n, a, var, ctx);
-        for (k = (long)n - 1; k >= 0; k--) {
-            if (gs_poly_is_zero(&c[k]))
-                continue;
-            if (k == 0)
-                put_terms(b, st, &c[k], first, 0, exps);
-            else
-                put_group(b, st, &c[k], var, (unsigned)k, first, exps);
-            first = 0;
+        size_t *start = gs_calloc(n + 1, sizeof *start);
+        size_t *idx = gs_malloc(a->length * sizeof *idx);
+        for (i = 0; i < a->length; i++) {
+            gs_poly_get_term_exps(exps, a, i, ctx);
+            start[exps[var] + 1]++;
         }
         for (i = 0; i < n; i++)
-            gs_poly_clear(&c[i]);
-        free(c);
+            start[i + 1] += start[i];
+        for (i = 0; i < a->length; i++) {
+            gs_poly_get_term_exps(exps, a, i, ctx);
+            idx[start[exps[var]]++] = i;
+        }
+        /* start[k] is now the end of power k's run, start[k - 1] its
+           beginning */
+        v.drop = var;
+        for (k = (long)n - 1; k >= 0; k--) {
+            size_t lo = k ? start[k - 1] : 0, hi = start[k];
+            if (lo == hi)
+                continue;
+            v.idx = idx + lo;
+            v.n = hi - lo;
+            if (k == 0)
+                put_terms(b, st, &v, first, 0, exps);
+            else
+                put_group(b, st, &v, var, (unsigned)k, first, exps);
+            first = 0;
+        }
+        free(idx);
+        free(start);
     }
     free(exps);
 }
