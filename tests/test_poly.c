@@ -332,6 +332,20 @@ static void test_small_identities(const env *e)
         CHECK(gs_poly_is_zero(&q));
         gs_int_set_si(&c, 0);
         CHECK(gs_poly_divexact_int(&q, &a, &c, e->c4) == GS_EDIVZERO);
+        /* in place: by -2, by 1, by -1, and by 4, which leaves a
+           remainder and zeroes the polynomial */
+        gs_int_set_si(&c, -2);
+        CHECK(gs_poly_divexact_int(&a, &a, &c, e->c4) == GS_OK
+              && equal_str(&a, "-3*x + 2*y - 1", e->c4));
+        gs_int_set_si(&c, 1);
+        CHECK(gs_poly_divexact_int(&a, &a, &c, e->c4) == GS_OK
+              && equal_str(&a, "-3*x + 2*y - 1", e->c4));
+        gs_int_set_si(&c, -1);
+        CHECK(gs_poly_divexact_int(&a, &a, &c, e->c4) == GS_OK
+              && equal_str(&a, "3*x - 2*y + 1", e->c4));
+        gs_int_set_si(&c, 4);
+        CHECK(gs_poly_divexact_int(&a, &a, &c, e->c4) == GS_EINEXACT
+              && gs_poly_is_zero(&a));
         gs_int_clear(&c);
     }
     gs_poly_clear(&a);
