@@ -181,6 +181,16 @@ static void test_text(const env *e)
     s = gs_poly_get_str(&p, e->c4);
     CHECK_MSG(strcmp(s, "0") == 0, "%s", s);
     free(s);
+    /* a lone 0 and a sum that starts with one, into a fresh polynomial
+       (no storage yet) */
+    renew(&p);
+    parse(&p, "0", e->c4);
+    CHECK(gs_poly_is_zero(&p));
+    renew(&p);
+    parse(&p, "0 + x - 0", e->c4);
+    s = gs_poly_get_str(&p, e->c4);
+    CHECK_MSG(strcmp(s, "x") == 0, "%s", s);
+    free(s);
     renew(&p);
     parse(&p, "gm*(1/R)^2 - (1/R)*s**3 - 12345678901234567890123", e->c11);
     s = gs_poly_get_str(&p, e->c11);

@@ -280,6 +280,8 @@ static void append_terms(gs_poly *r, gs_poly *t, int neg,
                          const gs_polyctx *ctx)
 {
     size_t i, nw = (size_t)ctx->nwords;
+    if (t->length == 0)
+        return;         /* "0": r may have no storage yet to copy into */
     gs_poly_fit(r, r->length + t->length, ctx);
     memcpy(r->exps + r->length * nw, t->exps, t->length * nw * 8);
     for (i = 0; i < t->length; i++) {
