@@ -1170,6 +1170,19 @@ static void loop_flip_remap(const env *e, uint64_t seed0, int n)
     gs_poly_zero(&a);                   /* zero maps to zero */
     gs_poly_remap(&m, &a, (const int[]){0, 1, 3, 5}, c4, c11);
     CHECK(gs_poly_is_zero(&m));
+    /* remap_take on (1 + x + y + z + t)^45, C(49, 4) = 211876 terms (the
+       count of monomials of degree <= 45 in four variables), enough to
+       give its storage back in pieces: the same as remap, a left zero */
+    parse(&f, "1 + x + y + z + t", c4);
+    gs_poly_set_si(&a, 1, c4);
+    for (k = 0; k < 45; k++)
+        gs_poly_mul(&a, &a, &f, c4);
+    CHECK(a.length == 211876);
+    gs_poly_remap(&m, &a, (const int[]){0, 1, 3, 5}, c4, c11);
+    gs_poly_remap_take(&f, &a, (const int[]){0, 1, 3, 5}, c4, c11);
+    CHECK(gs_poly_is_zero(&a) && gs_poly_equal(&f, &m, c11));
+    gs_poly_remap_take(&f, &a, (const int[]){0, 1, 3, 5}, c4, c11);
+    CHECK(gs_poly_is_zero(&f));
     gs_poly_clear(&a);
     gs_poly_clear(&f);
     gs_poly_clear(&m);

@@ -382,6 +382,38 @@ void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
     r->length = a->length;
 }
 
+void gs_poly_remap_take(gs_poly *r, gs_poly *a, const int *map,
+                        const gs_polyctx *from, const gs_polyctx *to)
+{
+    size_t n = a->length, i, nf = (size_t)from->nwords;
+    size_t nt = (size_t)to->nwords, step = n / 16 > 65536 ? n / 16 : 65536;
+    int v;
+    assert(r != a);
+    gs_poly_zero(r);
+    if (n == 0)
+        return;
+    gs_poly_fit(r, n, to);
+    for (i = n; i-- > 0;) {
+        const uint64_t *e = a->exps + i * nf;
+        uint64_t *f = r->exps + i * nt;
+        memset(f, 0, nt * sizeof *f);
+        for (v = 0; v < from->nvars; v++) {
+            unsigned x = gs_poly_exp_get(e, v);
+            if (x)
+                put_exp(f, map[v], x);
+        }
+        r->coeffs[i] = a->coeffs[i];        /* moved, not copied */
+        if (i % step == 0 && i > 0) {
+            a->length = i;                  /* the moved ones are r's */
+            gs_poly_shrink(a, from);
+        }
+    }
+    r->length = n;
+    a->length = 0;
+    gs_poly_clear(a);
+    gs_poly_init(a);
+}
+
 void gs_poly_get_term_exps(unsigned *exps, const gs_poly *a, size_t i,
                            const gs_polyctx *ctx)
 {

@@ -150,6 +150,11 @@ void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
    is kept.  r must not alias a. */
 void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
                    const gs_polyctx *from, const gs_polyctx *to);
+/* The same, taking a's terms (a is left zero): the terms move from the
+   last, and a's storage is given back a sixteenth at a time, so that the
+   two copies of a large polynomial are never resident at once. */
+void gs_poly_remap_take(gs_poly *r, gs_poly *a, const int *map,
+                        const gs_polyctx *from, const gs_polyctx *to);
 
 /* Unpack term i's exponents into exps[0 .. nvars-1]. */
 void gs_poly_get_term_exps(unsigned *exps, const gs_poly *a, size_t i,

@@ -397,8 +397,8 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
         gs_poly_init(&sm);
         rc = determinants_in(&sa, &sm, &ms, small, o, stats, d);
         if (rc == GS_OK) {
-            gs_poly_remap(det_a, &sa, back, small, ctx);
-            gs_poly_remap(det_m, &sm, back, small, ctx);
+            gs_poly_remap_take(det_a, &sa, back, small, ctx);
+            gs_poly_remap_take(det_m, &sm, back, small, ctx);
         }
         gs_poly_clear(&sa);
         gs_poly_clear(&sm);
