@@ -25,6 +25,7 @@
  * equations give them.
  */
 #include "circuit/checker.h"
+#include "circuit/lex.h"
 #include "gainsmith.h"
 #include "base/mem.h"
 
@@ -259,7 +260,8 @@ void gs_check_single(const gs_checker *k)
     }
     for (v = 1; v < c->nnodes; v++) {
         const gs_element *e = &c->elems[last[v]];
-        char *msg;
+        const char *near;
+        char *msg, *hint;
         if (count[v] != 1 || k->flagged[v] || driven[v])
             continue;
         /* a node the file did not name (a sense line's vo.dm) cannot be
@@ -269,9 +271,16 @@ void gs_check_single(const gs_checker *k)
         msg = gs_asprintf("node '%s' has only one connection (%s '%s')",
                           c->node_name[v], gs_elem_kind_name(e->kind),
                           e->name);
+        near = gs_suggest(c->node_name[v], (const char *const *)c->node_name,
+                          (size_t)c->nnodes);
+        hint = near ? gs_asprintf("an element joined at one end only "
+                                  "carries no current; did you mean '%s'?",
+                                  near)
+                    : gs_strdup("an element joined at one end only carries "
+                                "no current; is the node name misspelt?");
         gs_check_report(k, GS_SEV_WARNING, c->node_line[v], c->node_col[v],
-                        "an element joined at one end only carries no "
-                        "current; is the node name misspelt?", msg);
+                        hint, msg);
+        free(hint);
         free(msg);
     }
     free(driven);
