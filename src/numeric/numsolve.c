@@ -218,6 +218,29 @@ static int is_voltage_defined(gs_elem_kind k)
         || k == GS_CCVS || k == GS_OPAMP;
 }
 
+/* The system of c at s with the values vals: one unknown per node but
+   ground and one per element with a defined voltage (its current), the
+   matrix and right side zero, input the source left on (-1: none).
+   Returns the number of unknowns. */
+static int numsys_init(numsys *sy, const gs_circuit *c,
+                       const long double *vals, cplx s, int input)
+{
+    int n = c->nnodes - 1;
+    size_t k;
+    sy->branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy->branch);
+    for (k = 0; k < c->nelems; k++)
+        sy->branch[k] = is_voltage_defined(c->elems[k].kind) ? n++ : -1;
+    sy->n = n;
+    sy->c = c;
+    sy->vals = vals;
+    sy->s = s;
+    sy->absmode = 0;
+    sy->input = input;
+    sy->a = gs_calloc((size_t)n * (size_t)n + 1, sizeof *sy->a);
+    sy->rhs = gs_calloc((size_t)n + 1, sizeof *sy->rhs);
+    return n;
+}
+
 /* The output: v(a) - v(b), or an element's current, from the solution. */
 static cplx probe_value(const numsys *sy, const gs_output *o, const cplx *x,
                         cplx *row)
@@ -349,17 +372,8 @@ int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
     if (o->kind == GS_OUT_LOOP)
         return loop_value(h, c, out, vals, s, d);
 
-    sy.branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy.branch);
-    for (k = 0; k < c->nelems; k++)
-        sy.branch[k] = is_voltage_defined(c->elems[k].kind) ? n++ : -1;
-    sy.n = n;
-    sy.c = c;
-    sy.vals = vals;
-    sy.s = s;
-    sy.absmode = 0;
-    sy.input = o->kind == GS_OUT_TRANSFER ? o->in : -1;
-    sy.a = gs_calloc((size_t)n * (size_t)n + 1, sizeof *sy.a);
-    sy.rhs = gs_calloc((size_t)n + 1, sizeof *sy.rhs);
+    n = numsys_init(&sy, c, vals, s,
+                    o->kind == GS_OUT_TRANSFER ? o->in : -1);
     row = gs_calloc((size_t)n + 1, sizeof *row);
     for (k = 0; k < c->nelems; k++)
         stamp(&sy, (int)k, row);
@@ -397,17 +411,7 @@ int gs_numsolve_adjoint(long double complex *h, const gs_circuit *c,
 
     if (o->kind != GS_OUT_TRANSFER)
         return GS_EINVAL;
-    sy.branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy.branch);
-    for (k = 0; k < c->nelems; k++)
-        sy.branch[k] = is_voltage_defined(c->elems[k].kind) ? nu++ : -1;
-    sy.n = nu;
-    sy.c = c;
-    sy.vals = vals;
-    sy.s = s;
-    sy.absmode = 0;
-    sy.input = -1;              /* every source nulled */
-    sy.a = gs_calloc((size_t)nu * (size_t)nu + 1, sizeof *sy.a);
-    sy.rhs = gs_calloc((size_t)nu + 1, sizeof *sy.rhs);
+    nu = numsys_init(&sy, c, vals, s, -1);     /* every source nulled */
     row = gs_calloc((size_t)nu + 1, sizeof *row);
     y = gs_calloc((size_t)nu + 1, sizeof *y);
     for (k = 0; k < c->nelems; k++)
@@ -631,19 +635,10 @@ int gs_numsolve_bounded(long double complex *h, long double *bound,
     *bound = INFINITY;
     if (o->kind != GS_OUT_TRANSFER && o->kind != GS_OUT_IMPEDANCE)
         return GS_EINVAL;
-    sy.branch = gs_malloc((c->nelems ? c->nelems : 1) * sizeof *sy.branch);
-    for (k = 0; k < c->nelems; k++)
-        sy.branch[k] = is_voltage_defined(c->elems[k].kind) ? n++ : -1;
-    sy.n = n;
-    sy.c = c;
-    sy.vals = vals;
-    sy.s = s;
-    sy.absmode = 0;
-    sy.input = o->kind == GS_OUT_TRANSFER ? o->in : -1;
+    n = numsys_init(&sy, c, vals, s,
+                    o->kind == GS_OUT_TRANSFER ? o->in : -1);
     ab = sy;
     ab.absmode = 1;
-    sy.a = gs_calloc((size_t)n * (size_t)n + 1, sizeof *sy.a);
-    sy.rhs = gs_calloc((size_t)n + 1, sizeof *sy.rhs);
     ab.a = gs_calloc((size_t)n * (size_t)n + 1, sizeof *ab.a);
     ab.rhs = gs_calloc((size_t)n + 1, sizeof *ab.rhs);
     lu = gs_calloc((size_t)n * (size_t)n + 1, sizeof *lu);
