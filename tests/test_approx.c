@@ -1,5 +1,6 @@
 /* test_approx.c - short forms and their measured errors. See LICENSE. */
 #include "check.h"
+#include "testjob.h"
 #include "analysis/approx.h"
 #include "analysis/job.h"
 #include "analysis/mgraph.h"
@@ -65,19 +66,7 @@ static void test_forms(void)
 
 static int load(gs_job *j, const char *path)
 {
-    gs_diag d;
-    gs_derive_opts o;
-    int rc;
-    gs_diag_init(&d);
-    gs_derive_opts_default(&o);
-    rc = gs_job_load(j, path, &d);
-    if (rc == GS_OK)
-        rc = gs_job_derive(j, NULL, &o, &d);
-    if (rc == GS_OK)
-        rc = gs_job_bind(j, NULL, 0, &d);
-    gs_diag_print(stderr, &d);
-    gs_diag_clear(&d);
-    return rc;
+    return test_job_load(j, path);
 }
 
 /* The nominal error of r recomputed on a grid three times as dense,

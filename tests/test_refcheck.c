@@ -12,6 +12,7 @@
 #include "numeric/numsolve.h"
 #include "base/rng.h"
 #include "check.h"
+#include "testjob.h"
 #include "testlib.h"
 
 #include <math.h>
@@ -28,20 +29,7 @@ static const char *const textbook[] = {
 
 static int load(gs_job *j, const char *path)
 {
-    gs_derive_opts o;
-    gs_diag d;
-    int rc;
-    gs_derive_opts_default(&o);
-    gs_diag_init(&d);
-    rc = gs_job_load(j, path, &d);
-    if (rc == GS_OK)
-        rc = gs_job_derive(j, NULL, &o, &d);
-    if (rc == GS_OK)
-        rc = gs_job_bind(j, NULL, 0, &d);
-    if (rc != GS_OK)
-        gs_diag_print(stderr, &d);
-    gs_diag_clear(&d);
-    return rc;
+    return test_job_load(j, path);
 }
 
 /* Verdicts of output i over 13 log-spaced points, 10 mHz to 10 GHz. */

@@ -7,26 +7,14 @@
 #include <unistd.h>
 
 #include "check.h"
+#include "testjob.h"
 #include "gainsmith.h"
 #include "analysis/job.h"
 #include "analysis/sens.h"
 
 static int load(gs_job *j, const char *path)
 {
-    gs_derive_opts o;
-    gs_diag d;
-    int rc;
-    gs_derive_opts_default(&o);
-    gs_diag_init(&d);
-    rc = gs_job_load(j, path, &d);
-    if (rc == GS_OK)
-        rc = gs_job_derive(j, NULL, &o, &d);
-    if (rc == GS_OK)
-        rc = gs_job_bind(j, NULL, 0, &d);
-    if (rc != GS_OK)
-        gs_diag_print(stderr, &d);
-    gs_diag_clear(&d);
-    return rc;
+    return test_job_load(j, path);
 }
 
 static int load_text(gs_job *j, const char *text)
