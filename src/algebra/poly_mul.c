@@ -18,8 +18,10 @@
  * very sparse operands.  Small m gives few large blocks: a dense product
  * whose inner loop is a multiply-add into an array, right for products
  * with many coinciding monomials (Fateman's benchmark).  mul_plan picks m
- * by a cost estimate.  Coefficients accumulate in a signed 128-bit word
- * when a bound proves it cannot overflow, else in gs_ints.
+ * by a cost estimate.  Coefficients accumulate in the narrowest of three
+ * kinds of cell that a bound proves cannot overflow: a signed 128-bit
+ * word, three words (192 bits, for 64-bit inputs whose sums pass 128
+ * bits, as in Fateman's benchmark at n = 30), else a gs_int.
  */
 #include "algebra/poly.h"
 #include "algebra/poly_impl.h"
@@ -41,6 +43,9 @@ typedef struct mulstate {
     gs_int tmp;
     size_t cap;             /* stop once out holds more terms; 0: none */
 } mulstate;
+
+/* The kinds of accumulator cell (acc_kind picks one). */
+enum { ACC_BIG, ACC_I128, ACC_MID };
 
 static double log2_approx(double x)
 {
@@ -155,6 +160,75 @@ static void flush_small(mulstate *st, gs_i128 *acc, size_t lo, size_t hi)
             acc[k] = 0;
         }
 }
+
+/* A three-word cell: the value hi * 2^128 + lo, a 192-bit two's
+   complement number.  Sums of products of 64-bit coefficients stay
+   exact in it while they stay below 2^190 (acc_kind), at a cost of one
+   carry and one sign word per product instead of a multi-precision
+   multiply-add. */
+typedef struct acc3 {
+    gs_u128 lo;
+    int64_t hi;
+} acc3;
+
+/* r = the value of x */
+static void set_acc3(gs_int *r, const acc3 *x, gs_int *tmp)
+{
+    gs_u128 lo = x->lo;
+    uint64_t hi = (uint64_t)x->hi;
+    int neg = x->hi < 0;
+    /* hi is the sign extension of lo: the value is lo read as signed */
+    if ((x->hi == 0 && !(lo >> 127)) || (x->hi == -1 && (lo >> 127))) {
+        set_i128(r, (gs_i128)lo, tmp);
+        return;
+    }
+    if (neg) {              /* the magnitude: negate all three words */
+        lo = ~lo + 1;
+        hi = ~hi + (lo == 0);
+    }
+    gs_int_set_ui(r, hi);
+    gs_int_mul_2exp(r, r, 64);
+    gs_int_set_ui(tmp, (uint64_t)(lo >> 64));
+    gs_int_add(r, r, tmp);
+    gs_int_mul_2exp(r, r, 64);
+    gs_int_set_ui(tmp, (uint64_t)lo);
+    gs_int_add(r, r, tmp);
+    if (neg)
+        gs_int_neg(r, r);
+}
+
+/* pair_small with three-word cells.  The product p (|p| < 2^126) is
+   sign-extended to three words: its low word adds with a carry out, its
+   high word is 0 or -1. */
+static void pair_mid(acc3 *acc, const gs_pside *a, size_t i,
+                     const gs_pside *b, size_t j)
+{
+    size_t s, t, b0 = b->start[j], nb = b->start[j + 1] - b0;
+    const uint32_t *ib = b->idx + b0;
+    const int64_t *cb = b->small + b0;
+    for (s = a->start[i]; s < a->start[i + 1]; s++) {
+        acc3 *row = acc + a->idx[s];
+        int64_t c = a->small[s];
+        for (t = 0; t < nb; t++) {
+            acc3 *x = row + ib[t];
+            gs_i128 p = (gs_i128)c * cb[t];
+            gs_u128 lo = x->lo + (gs_u128)p;
+            x->hi += (int64_t)(lo < x->lo) - (int64_t)(p < 0);
+            x->lo = lo;
+        }
+    }
+}
+
+static void flush_mid(mulstate *st, acc3 *acc, size_t lo, size_t hi)
+{
+    size_t k;
+    for (k = hi + 1; k-- > lo;)
+        if (acc[k].lo != 0 || acc[k].hi != 0) {
+            set_acc3(emit(st, k), &acc[k], &st->tmp);
+            acc[k].lo = 0;
+            acc[k].hi = 0;
+        }
+}
 #endif
 
 static void pair_big(gs_int *acc, const gs_pside *a, size_t i,
@@ -200,7 +274,7 @@ static void pair_std(mulstate *st, size_t i, size_t j)
    its range, and queue its successors (i, j+1) and, from (i, 0), the
    pair (i+1, 0). */
 static void take_pair(mulstate *st, gs_pheap *h, uint64_t *keys, void *acc,
-                      int small, size_t *lo, size_t *hi)
+                      int kind, size_t *lo, size_t *hi)
 {
     const gs_pside *a = &st->a, *b = &st->b;
     uint64_t pl = h->v[0].pl;
@@ -208,12 +282,14 @@ static void take_pair(mulstate *st, gs_pheap *h, uint64_t *keys, void *acc,
     size_t l = a->idx[a->start[i + 1] - 1] + b->idx[b->start[j + 1] - 1];
     size_t u = a->idx[a->start[i]] + b->idx[b->start[j]];
 #if GS_HAVE_I128
-    if (small)
+    if (kind == ACC_I128)
         pair_small(acc, a, i, b, j);
+    else if (kind == ACC_MID)
+        pair_mid(acc, a, i, b, j);
     else
 #endif
         pair_big(acc, a, i, b, j);
-    (void)small;
+    (void)kind;
     *lo = l < *lo ? l : *lo;
     *hi = u > *hi ? u : *hi;
     if (j + 1 < b->nblocks) {
@@ -229,8 +305,8 @@ static void take_pair(mulstate *st, gs_pheap *h, uint64_t *keys, void *acc,
 }
 
 /* Take every block pair of the top prefix, then write out that output
-   block.  acc is the dense accumulator of the chosen kind. */
-static void mul_loop(mulstate *st, void *acc, int small)
+   block.  acc is the dense accumulator of the chosen kind (ACC_*). */
+static void mul_loop(mulstate *st, void *acc, int kind)
 {
     gs_pheap h;
     size_t kw = (size_t)st->lay.kw;
@@ -245,11 +321,13 @@ static void mul_loop(mulstate *st, void *acc, int small)
         memcpy(st->cur, gs_pheap_key(&h, top), kw * 8);
         pair_std(st, (size_t)(top >> 32), (size_t)(top & 0xFFFFFFFFu));
         do
-            take_pair(st, &h, keys, acc, small, &lo, &hi);
+            take_pair(st, &h, keys, acc, kind, &lo, &hi);
         while (h.n > 0 && gs_pheap_cmp_top(&h, st->cur) == 0);
 #if GS_HAVE_I128
-        if (small)
+        if (kind == ACC_I128)
             flush_small(st, acc, lo, hi);
+        else if (kind == ACC_MID)
+            flush_mid(st, acc, lo, hi);
         else
 #endif
             flush_big(st, acc, lo, hi);
@@ -258,33 +336,38 @@ static void mul_loop(mulstate *st, void *acc, int small)
     free(keys);
 }
 
-/* Can a 128-bit accumulator hold every coefficient sum?  |a_i| < 2^ba,
-   |b_j| < 2^bb and at most min(len a, len b) products meet in one
-   coefficient, so the sums stay below 2^(ba + bb + ceil log2 min). */
-static int small_ok(const gs_poly *a, const gs_poly *b)
+/* Which cell holds every coefficient sum?  |a_i| < 2^ba, |b_j| < 2^bb
+   and at most min(len a, len b) products meet in one coefficient, so the
+   sums stay below 2^(ba + bb + ceil log2 min): within 126 bits a signed
+   128-bit word, within 190 bits three words (both keep a bit spare).
+   Either needs every coefficient to fit int64, for the pside's small
+   copies.  mid_first takes three words even when 128 bits would do. */
+static int acc_kind(const gs_poly *a, const gs_poly *b, int mid_first)
 {
     size_t i, n = a->length < b->length ? a->length : b->length;
     size_t ba = 0, bb = 0, lg = 0;
     for (i = 0; i < a->length; i++) {
         if (!gs_int_is_small(&a->coeffs[i]))
-            return 0;
+            return ACC_BIG;
         if (gs_int_bits(&a->coeffs[i]) > ba)
             ba = gs_int_bits(&a->coeffs[i]);
     }
     for (i = 0; i < b->length; i++) {
         if (!gs_int_is_small(&b->coeffs[i]))
-            return 0;
+            return ACC_BIG;
         if (gs_int_bits(&b->coeffs[i]) > bb)
             bb = gs_int_bits(&b->coeffs[i]);
     }
     while (((size_t)1 << lg) < n)
         lg++;
-    return GS_HAVE_I128 && ba + bb + lg <= 126;
+    if (!GS_HAVE_I128 || ba + bb + lg > 190)
+        return ACC_BIG;
+    return ba + bb + lg <= 126 && !mid_first ? ACC_I128 : ACC_MID;
 }
 
 /* r = a * b with prefix length m; the blocks of a go in the heap. */
 static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
-                       const unsigned *radix, int small, size_t cap,
+                       const unsigned *radix, int kind, size_t cap,
                        const gs_polyctx *ctx)
 {
     mulstate st;
@@ -292,8 +375,8 @@ static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
     st.ctx = ctx;
     st.cap = cap;
     gs_playout_init(&st.lay, ctx, m, radix);
-    gs_pside_build(&st.a, a, &st.lay, small);
-    gs_pside_build(&st.b, b, &st.lay, small);
+    gs_pside_build(&st.a, a, &st.lay, kind != ACC_BIG);
+    gs_pside_build(&st.b, b, &st.lay, kind != ACC_BIG);
     st.cur = gs_malloc((size_t)st.lay.kw * 8);
     st.cur_std = gs_malloc((size_t)st.lay.nw * 8);
     gs_poly_init(&st.out);
@@ -301,9 +384,13 @@ static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
     gs_poly_fit(&st.out, a->length + b->length, ctx);
     dsize = st.lay.dsize;
 #if GS_HAVE_I128
-    if (small) {
+    if (kind == ACC_I128) {
         gs_i128 *acc = gs_calloc(dsize, sizeof *acc);
-        mul_loop(&st, acc, 1);
+        mul_loop(&st, acc, ACC_I128);
+        free(acc);
+    } else if (kind == ACC_MID) {
+        acc3 *acc = gs_calloc(dsize, sizeof *acc);
+        mul_loop(&st, acc, ACC_MID);
         free(acc);
     } else
 #endif
@@ -311,7 +398,7 @@ static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
         gs_int *acc = gs_malloc(dsize * sizeof *acc);
         for (k = 0; k < dsize; k++)
             gs_int_init(&acc[k]);
-        mul_loop(&st, acc, 0);
+        mul_loop(&st, acc, ACC_BIG);
         for (k = 0; k < dsize; k++)
             gs_int_clear(&acc[k]);
         free(acc);
@@ -368,7 +455,9 @@ static void mul_capped(gs_poly *r, const gs_poly *a, const gs_poly *b,
     }
     m = mul_plan(a, b, radix, alg, ctx);
     mul_blocks(r, a, b, m, radix,
-               !(method & GS_POLY_MUL_BIGACC) && small_ok(a, b), cap, ctx);
+               method & GS_POLY_MUL_BIGACC
+                   ? ACC_BIG : acc_kind(a, b, method & GS_POLY_MUL_MIDACC),
+               cap, ctx);
     free(da);
     free(db);
     free(radix);
