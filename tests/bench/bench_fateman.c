@@ -92,6 +92,41 @@ static size_t term_count(unsigned n)
     return (m + 4) * (m + 3) * (m + 2) * (m + 1) / 24;
 }
 
+/* p at x = sx, y = z = t = 1 (sx = +-1) against f = (sx + 4)^n there:
+   p = f (f + 1), 5^n (5^n + 1) or 3^n (3^n + 1).  Every coefficient
+   enters, so one wrong coefficient anywhere shows. */
+static int check_sum(const gs_poly *p, unsigned n, int sx,
+                     const gs_polyctx *ctx)
+{
+    gs_int want, sum, one;
+    unsigned e[4];
+    size_t i;
+    int ok;
+    gs_int_init(&want);
+    gs_int_init(&sum);
+    gs_int_init(&one);
+    gs_int_set_si(&want, sx + 4);
+    gs_int_pow_ui(&want, &want, n);
+    gs_int_set_si(&one, 1);
+    gs_int_add(&one, &want, &one);
+    gs_int_mul(&want, &want, &one);
+    for (i = 0; i < p->length; i++) {
+        gs_poly_get_term_exps(e, p, i, ctx);
+        if (sx < 0 && (e[0] & 1))
+            gs_int_sub(&sum, &sum, &p->coeffs[i]);
+        else
+            gs_int_add(&sum, &sum, &p->coeffs[i]);
+    }
+    ok = gs_int_equal(&want, &sum);
+    if (!ok)
+        fprintf(stderr, "bench_fateman: sum of coefficients at x = %d\n",
+                sx);
+    gs_int_clear(&want);
+    gs_int_clear(&sum);
+    gs_int_clear(&one);
+    return ok;
+}
+
 static int check(const gs_poly *p, unsigned n, const gs_polyctx *ctx)
 {
     /* degree 7n/4 > n, so only f^2 contributes; then x^2n and the
@@ -101,7 +136,8 @@ static int check(const gs_poly *p, unsigned n, const gs_polyctx *ctx)
         { 0, 0, 0, 0 }
     };
     gs_int want, got;
-    int ok = p->length == term_count(n) && sorted_desc(p, ctx), k;
+    int ok = p->length == term_count(n) && sorted_desc(p, ctx)
+             && check_sum(p, n, 1, ctx) && check_sum(p, n, -1, ctx), k;
     gs_int_init(&want);
     gs_int_init(&got);
     for (k = 0; k < 3; k++) {
