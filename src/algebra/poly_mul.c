@@ -161,31 +161,33 @@ static void flush_small(mulstate *st, gs_i128 *acc, size_t lo, size_t hi)
         }
 }
 
-/* A three-word cell: the value hi * 2^128 + lo.  lo is a signed 128-bit
-   sum that wraps; hi counts its wraps, +1 for each past 2^127, -1 for
-   each below -2^127.  Sums of products of 64-bit coefficients stay exact
-   in it while they stay below 2^190 (acc_kind; then |hi| < 2^63).  On
-   Fateman's benchmark at n = 30 a sum passes 2^128 only after many
-   products, so the wrap test is a branch the processor predicts, and a
-   product costs an add with carry and that branch instead of a
-   multi-precision multiply-add. */
+/* A three-word cell k: the value hi[k] * 2^128 + lo[k].  lo[k] is a
+   signed 128-bit sum that wraps; hi[k] counts its wraps, +1 for each
+   past 2^127, -1 for each below -2^127.  Sums of products of 64-bit
+   coefficients stay exact in it while they stay below 2^190 (acc_kind;
+   then |hi| < 2^63).  On Fateman's benchmark at n = 30 a sum passes
+   2^128 only after many products, so the wrap test is a branch the
+   processor predicts, and a product costs an add with carry and that
+   branch instead of a multi-precision multiply-add.  The high words
+   live in an array of their own, so the hot loop streams through no
+   more memory than the 128-bit one does. */
 typedef struct acc3 {
-    gs_i128 lo;
-    int64_t hi;
+    gs_i128 *lo;
+    int64_t *hi;
 } acc3;
 
-/* r = the value of x */
-static void set_acc3(gs_int *r, const acc3 *x, gs_int *tmp)
+/* r = hi * 2^128 + lo */
+static void set_acc3(gs_int *r, gs_i128 lo_s, int64_t hi_s, gs_int *tmp)
 {
-    gs_u128 lo = (gs_u128)x->lo;
+    gs_u128 lo = (gs_u128)lo_s;
     uint64_t hi;
     int neg;
-    if (x->hi == 0) {
-        set_i128(r, x->lo, tmp);
+    if (hi_s == 0) {
+        set_i128(r, lo_s, tmp);
         return;
     }
     /* as 192-bit two's complement: lo's sign moves into the top word */
-    hi = (uint64_t)(x->hi - (x->lo < 0));
+    hi = (uint64_t)(hi_s - (lo_s < 0));
     neg = (int64_t)hi < 0;
     if (neg) {              /* the magnitude: negate all three words */
         lo = ~lo + 1;
@@ -204,32 +206,32 @@ static void set_acc3(gs_int *r, const acc3 *x, gs_int *tmp)
 
 /* pair_small with three-word cells.  __builtin_add_overflow (GCC and
    clang, as __int128 itself) says when the signed sum wrapped. */
-static void pair_mid(acc3 *acc, const gs_pside *a, size_t i,
+static void pair_mid(const acc3 *acc, const gs_pside *a, size_t i,
                      const gs_pside *b, size_t j)
 {
     size_t s, t, b0 = b->start[j], nb = b->start[j + 1] - b0;
     const uint32_t *ib = b->idx + b0;
     const int64_t *cb = b->small + b0;
     for (s = a->start[i]; s < a->start[i + 1]; s++) {
-        acc3 *row = acc + a->idx[s];
+        gs_i128 *row = acc->lo + a->idx[s];
+        int64_t *rowhi = acc->hi + a->idx[s];
         int64_t c = a->small[s];
         for (t = 0; t < nb; t++) {
-            acc3 *x = row + ib[t];
             gs_i128 p = (gs_i128)c * cb[t];
-            if (__builtin_add_overflow(x->lo, p, &x->lo))
-                x->hi += p < 0 ? -1 : 1;
+            if (__builtin_add_overflow(row[ib[t]], p, &row[ib[t]]))
+                rowhi[ib[t]] += p < 0 ? -1 : 1;
         }
     }
 }
 
-static void flush_mid(mulstate *st, acc3 *acc, size_t lo, size_t hi)
+static void flush_mid(mulstate *st, const acc3 *acc, size_t lo, size_t hi)
 {
     size_t k;
     for (k = hi + 1; k-- > lo;)
-        if (acc[k].lo != 0 || acc[k].hi != 0) {
-            set_acc3(emit(st, k), &acc[k], &st->tmp);
-            acc[k].lo = 0;
-            acc[k].hi = 0;
+        if (acc->lo[k] != 0 || acc->hi[k] != 0) {
+            set_acc3(emit(st, k), acc->lo[k], acc->hi[k], &st->tmp);
+            acc->lo[k] = 0;
+            acc->hi[k] = 0;
         }
 }
 #endif
@@ -392,9 +394,12 @@ static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
         mul_loop(&st, acc, ACC_I128);
         free(acc);
     } else if (kind == ACC_MID) {
-        acc3 *acc = gs_calloc(dsize, sizeof *acc);
-        mul_loop(&st, acc, ACC_MID);
-        free(acc);
+        acc3 acc;
+        acc.lo = gs_calloc(dsize, sizeof *acc.lo);
+        acc.hi = gs_calloc(dsize, sizeof *acc.hi);
+        mul_loop(&st, &acc, ACC_MID);
+        free(acc.lo);
+        free(acc.hi);
     } else
 #endif
     {
