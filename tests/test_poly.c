@@ -678,6 +678,9 @@ static void test_big_coeffs(const env *e)
             gs_poly_mul_method(&q, &a, &b, m, e->c4);
             CHECK_MSG(gs_poly_equal(&p, &q, e->c4), "bits %u method %d",
                       bits[k], m);
+            gs_poly_mul_method(&q, &a, &b, m | GS_POLY_MUL_MIDACC, e->c4);
+            CHECK_MSG(gs_poly_equal(&p, &q, e->c4), "bits %u method %d mid",
+                      bits[k], m);
         }
         for (m = 0; m < 3; m++)
             CHECK_MSG(gs_poly_divexact_method(&q, &p, &b, m, e->c4) == GS_OK
@@ -688,6 +691,126 @@ static void test_big_coeffs(const env *e)
     gs_poly_clear(&b);
     gs_poly_clear(&p);
     gs_poly_clear(&q);
+}
+
+/* r = c * sum_{i<n} s^i x^i, s = -1 when alt, else 1 */
+static void geometric(gs_poly *r, const gs_int *c, unsigned n, int alt,
+                      const gs_polyctx *ctx)
+{
+    unsigned e[4] = { 0, 0, 0, 0 };
+    gs_int m;
+    gs_int_init(&m);
+    gs_poly_zero(r);
+    for (e[0] = 0; e[0] < n; e[0]++) {
+        if (alt && (e[0] & 1))
+            gs_int_neg(&m, c);
+        else
+            gs_int_set(&m, c);
+        gs_poly_push_term(r, &m, e, ctx);
+    }
+    gs_poly_canonicalise(r, ctx);
+    gs_int_clear(&m);
+}
+
+/* Sums past 128 bits in the three-word accumulator (poly_mul.c).  For
+   a = c sum_{i<n} sa^i x^i and b = d sum_{j<n} sb^j x^j (sa, sb = +-1)
+   the coefficient of x^k in a b is c d times the sum of sa^i sb^j over
+   the pairs i + j = k with 0 <= i, j < n, j from max(0, k-n+1) to
+   min(k, n-1) (the Cauchy product of two finite geometric sums); with
+   sa = sb = 1 that is c d min(k + 1, 2n - 1 - k), the number of pairs.
+   The expected product is built from that count, term by term, and every
+   method must agree with it and with multi-precision accumulation. */
+static void check_geometric(const gs_int *c, const gs_int *d, unsigned n,
+                            int alta, int altb, const gs_polyctx *ctx)
+{
+    static const int methods[] = {
+        GS_POLY_MUL_AUTO, GS_POLY_MUL_HEAP, GS_POLY_MUL_DENSE,
+        GS_POLY_MUL_DENSE | GS_POLY_MUL_MIDACC,
+        GS_POLY_MUL_DENSE | GS_POLY_MUL_BIGACC
+    };
+    gs_poly a, b, p, want;
+    gs_int cd, w;
+    unsigned e[4] = { 0, 0, 0, 0 }, k, m;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&p);
+    gs_poly_init(&want);
+    gs_int_init(&cd);
+    gs_int_init(&w);
+    geometric(&a, c, n, alta, ctx);
+    geometric(&b, d, n, altb, ctx);
+    gs_int_mul(&cd, c, d);
+    for (k = 0; k <= 2 * n - 2; k++) {
+        int64_t sum = 0;
+        unsigned j = k >= n ? k - n + 1 : 0;
+        for (; j <= k && j < n; j++) {
+            int sa = alta && ((k - j) & 1) ? -1 : 1;
+            int sb = altb && (j & 1) ? -1 : 1;
+            sum += sa * sb;
+        }
+        gs_int_mul_si(&w, &cd, sum);
+        e[0] = k;
+        gs_poly_push_term(&want, &w, e, ctx);
+    }
+    gs_poly_canonicalise(&want, ctx);
+    for (m = 0; m < sizeof methods / sizeof methods[0]; m++) {
+        gs_poly_mul_method(&p, &a, &b, methods[m], ctx);
+        CHECK_MSG(canonical(&p, ctx) && gs_poly_equal(&p, &want, ctx),
+                  "n %u alt %d%d method %d", n, alta, altb, methods[m]);
+    }
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&p);
+    gs_poly_clear(&want);
+    gs_int_clear(&cd);
+    gs_int_clear(&w);
+}
+
+static void test_mid_acc(const env *e)
+{
+    gs_poly a, b, p;
+    gs_int c, d, w;
+    gs_poly_init(&a);
+    gs_poly_init(&b);
+    gs_poly_init(&p);
+    gs_int_init(&c);
+    gs_int_init(&d);
+    gs_int_init(&w);
+    /* c = 2^62: the coefficient of x^(n-1) is n 2^124, exactly 2^127
+       (the edge of a signed 128-bit word) for n = 8 and 2^128 (low word
+       0, high word 1) for n = 16; with d = -c, -2^127 and -2^128 */
+    gs_int_set_si(&c, (int64_t)1 << 62);
+    gs_int_neg(&d, &c);
+    geometric(&a, &c, 16, 0, e->c4);
+    gs_poly_mul(&p, &a, &a, e->c4);
+    gs_poly_coeff_var(&b, &p, 0, 15, e->c4);
+    gs_int_set_si(&w, 1);
+    gs_int_mul_2exp(&w, &w, 128);                   /* 2^128 */
+    CHECK(b.length == 1 && gs_int_equal(&b.coeffs[0], &w));
+    geometric(&b, &d, 16, 0, e->c4);
+    gs_poly_mul(&p, &a, &b, e->c4);
+    gs_poly_coeff_var(&b, &p, 0, 15, e->c4);
+    gs_int_neg(&w, &w);                             /* -2^128 */
+    CHECK(b.length == 1 && gs_int_equal(&b.coeffs[0], &w));
+    check_geometric(&c, &c, 8, 0, 0, e->c4);
+    check_geometric(&c, &d, 8, 0, 0, e->c4);
+    check_geometric(&c, &c, 16, 0, 0, e->c4);
+    check_geometric(&c, &d, 16, 0, 0, e->c4);
+    /* c = d = 2^63 - 1, n = 1024: sums up to 1024 c^2 ~ 2^136, signs
+       alternating with k when both alternate; with one alternating the
+       partial sums swing by c^2 ~ 2^126 and end at 0 or +-c d */
+    gs_int_set_si(&c, INT64_MAX);
+    gs_int_set_si(&d, -INT64_MAX);
+    check_geometric(&c, &c, 1024, 1, 1, e->c4);
+    check_geometric(&c, &d, 1024, 0, 0, e->c4);
+    check_geometric(&c, &d, 1024, 0, 1, e->c4);
+    check_geometric(&d, &d, 300, 1, 0, e->c4);
+    gs_poly_clear(&a);
+    gs_poly_clear(&b);
+    gs_poly_clear(&p);
+    gs_int_clear(&c);
+    gs_int_clear(&d);
+    gs_int_clear(&w);
 }
 
 /* A random pair for the loops: shape varies with the seed. */
@@ -731,6 +854,8 @@ static void loop_ring(const gs_polyctx *ctx, uint64_t seed0, int n)
             gs_poly_mul_method(&t, &a, &b, m, ctx);
             ok &= gs_poly_equal(&s, &t, ctx);
             gs_poly_mul_method(&t, &a, &b, m | GS_POLY_MUL_BIGACC, ctx);
+            ok &= gs_poly_equal(&s, &t, ctx);
+            gs_poly_mul_method(&t, &a, &b, m | GS_POLY_MUL_MIDACC, ctx);
             ok &= gs_poly_equal(&s, &t, ctx);
         }
         gs_poly_add(&t, &b, &c, ctx);                 /* a(b+c) = ab+ac */
@@ -1287,6 +1412,7 @@ int main(int argc, char **argv)
     test_build(&e);
     test_fateman_small(&e);
     test_big_coeffs(&e);
+    test_mid_acc(&e);
     loop_ring(e.c4, seed, 150);
     loop_ring(e.c11, seed + 1000, 150);
     loop_alias(e.c4, seed + 2000, 100);

@@ -7,8 +7,9 @@
  *   vars x y 1/R             symbols of the context (1/R: a reciprocal)
  *   print P                  P in canonical form
  *   add P ; Q    sub P ; Q   sum and difference
- *   mul P ; Q                product (also mulheap, muldense, mulbig:
- *                            a forced method, see gs_poly_mul_method)
+ *   mul P ; Q                product (also mulheap, muldense, mulbig,
+ *                            mulmid: a forced method or accumulator, see
+ *                            gs_poly_mul_method)
  *   pow P ; n                P^n
  *   div P ; Q                exact quotient, or "inexact" (also divheap,
  *                            divdense, divbig: gs_poly_divexact_method)
@@ -198,7 +199,7 @@ static void do_limit(tool *t, int x)
 
 enum {
     OP_PRINT, OP_ADD, OP_SUB, OP_MUL, OP_MULHEAP, OP_MULDENSE, OP_MULBIG,
-    OP_POW, OP_DIV, OP_DIVHEAP, OP_DIVDENSE, OP_DIVBIG, OP_CONTENT, OP_PRIM,
+    OP_MULMID, OP_POW, OP_DIV, OP_DIVHEAP, OP_DIVDENSE, OP_DIVBIG, OP_CONTENT, OP_PRIM,
     OP_DIFF, OP_COEFF, OP_SUBST, OP_SUBSTRAT, OP_LIMIT, OP_GCD, OP_DEGREE,
     NOPS
 };
@@ -213,7 +214,8 @@ static const struct opdef {
     { "print", 1, 1, -1 },     { "add", 3, 2, -1 },
     { "sub", 3, 2, -1 },       { "mul", 3, 2, -1 },
     { "mulheap", 3, 2, -1 },   { "muldense", 3, 2, -1 },
-    { "mulbig", 3, 2, -1 },    { "pow", 1, 2, -1 },
+    { "mulbig", 3, 2, -1 },    { "mulmid", 3, 2, -1 },
+    { "pow", 1, 2, -1 },
     { "div", 3, 2, -1 },       { "divheap", 3, 2, -1 },
     { "divdense", 3, 2, -1 },  { "divbig", 3, 2, -1 },
     { "content", 1, 1, -1 },
@@ -239,6 +241,9 @@ static void run_op(tool *t, int op, int x)
         break;
     case OP_MULBIG:
         gs_poly_mul_method(r, a, b, GS_POLY_MUL_BIGACC, c);
+        break;
+    case OP_MULMID:
+        gs_poly_mul_method(r, a, b, GS_POLY_MUL_DENSE | GS_POLY_MUL_MIDACC, c);
         break;
     case OP_POW:
         gs_poly_pow_ui(r, a, strtoul(t->word[1], NULL, 10), c);

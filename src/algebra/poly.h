@@ -214,12 +214,16 @@ int gs_poly_mul_fits(int *var, const gs_poly *a, const gs_poly *b,
    GS_POLY_MUL_HEAP merges term products with a heap; GS_POLY_MUL_DENSE
    accumulates blocks of terms in dense arrays (poly_mul.c).  Or-ing in
    GS_POLY_MUL_BIGACC forces multi-precision accumulation even when the
-   coefficients would allow a 128-bit accumulator.  Same result always. */
+   coefficients would allow a 128-bit accumulator; GS_POLY_MUL_MIDACC
+   takes the three-word (192-bit) accumulator whenever it is safe, even
+   where 128 bits would do (products only; divisions ignore it).  Same
+   result always. */
 enum {
     GS_POLY_MUL_AUTO = 0,
     GS_POLY_MUL_HEAP = 1,
     GS_POLY_MUL_DENSE = 2,
-    GS_POLY_MUL_BIGACC = 8
+    GS_POLY_MUL_BIGACC = 8,
+    GS_POLY_MUL_MIDACC = 16
 };
 void gs_poly_mul_method(gs_poly *r, const gs_poly *a, const gs_poly *b,
                         int method, const gs_polyctx *ctx);

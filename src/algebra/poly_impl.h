@@ -19,7 +19,10 @@
 #include "base/mem.h"
 #include "algebra/poly.h"
 
-#if defined(__SIZEOF_INT128__)
+/* GS_PORTABLE_INT (the plain C build of int.c, for tests) also leaves
+   out the 128-bit and three-word accumulators: the paths a compiler
+   without __int128 takes. */
+#if defined(__SIZEOF_INT128__) && !defined(GS_PORTABLE_INT)
 __extension__ typedef __int128 gs_i128;
 __extension__ typedef unsigned __int128 gs_u128;
 #define GS_HAVE_I128 1

@@ -18,8 +18,10 @@
  * very sparse operands.  Small m gives few large blocks: a dense product
  * whose inner loop is a multiply-add into an array, right for products
  * with many coinciding monomials (Fateman's benchmark).  mul_plan picks m
- * by a cost estimate.  Coefficients accumulate in a signed 128-bit word
- * when a bound proves it cannot overflow, else in gs_ints.
+ * by a cost estimate.  Coefficients accumulate in the narrowest of three
+ * kinds of cell that a bound proves cannot overflow: a signed 128-bit
+ * word, three words (192 bits, for 64-bit inputs whose sums pass 128
+ * bits, as in Fateman's benchmark at n = 30), else a gs_int.
  */
 #include "algebra/poly.h"
 #include "algebra/poly_impl.h"
@@ -41,6 +43,9 @@ typedef struct mulstate {
     gs_int tmp;
     size_t cap;             /* stop once out holds more terms; 0: none */
 } mulstate;
+
+/* The kinds of accumulator cell (acc_kind picks one). */
+enum { ACC_BIG, ACC_I128, ACC_MID };
 
 static double log2_approx(double x)
 {
@@ -155,6 +160,80 @@ static void flush_small(mulstate *st, gs_i128 *acc, size_t lo, size_t hi)
             acc[k] = 0;
         }
 }
+
+/* A three-word cell k: the value hi[k] * 2^128 + lo[k].  lo[k] is a
+   signed 128-bit sum that wraps; hi[k] counts its wraps, +1 for each
+   past 2^127, -1 for each below -2^127.  Sums of products of 64-bit
+   coefficients stay exact in it while they stay below 2^190 (acc_kind;
+   then |hi| < 2^63).  On Fateman's benchmark at n = 30 a sum passes
+   2^128 only after many products, so the wrap test is a branch the
+   processor predicts, and a product costs an add with carry and that
+   branch instead of a multi-precision multiply-add.  The high words
+   live in an array of their own, so the hot loop streams through no
+   more memory than the 128-bit one does. */
+typedef struct acc3 {
+    gs_i128 *lo;
+    int64_t *hi;
+} acc3;
+
+/* r = hi * 2^128 + lo */
+static void set_acc3(gs_int *r, gs_i128 lo_s, int64_t hi_s, gs_int *tmp)
+{
+    gs_u128 lo = (gs_u128)lo_s;
+    uint64_t hi;
+    int neg;
+    if (hi_s == 0) {
+        set_i128(r, lo_s, tmp);
+        return;
+    }
+    /* as 192-bit two's complement: lo's sign moves into the top word */
+    hi = (uint64_t)(hi_s - (lo_s < 0));
+    neg = (int64_t)hi < 0;
+    if (neg) {              /* the magnitude: negate all three words */
+        lo = ~lo + 1;
+        hi = ~hi + (lo == 0);
+    }
+    gs_int_set_ui(r, hi);
+    gs_int_mul_2exp(r, r, 64);
+    gs_int_set_ui(tmp, (uint64_t)(lo >> 64));
+    gs_int_add(r, r, tmp);
+    gs_int_mul_2exp(r, r, 64);
+    gs_int_set_ui(tmp, (uint64_t)lo);
+    gs_int_add(r, r, tmp);
+    if (neg)
+        gs_int_neg(r, r);
+}
+
+/* pair_small with three-word cells.  __builtin_add_overflow (GCC and
+   clang, as __int128 itself) says when the signed sum wrapped. */
+static void pair_mid(const acc3 *acc, const gs_pside *a, size_t i,
+                     const gs_pside *b, size_t j)
+{
+    size_t s, t, b0 = b->start[j], nb = b->start[j + 1] - b0;
+    const uint32_t *ib = b->idx + b0;
+    const int64_t *cb = b->small + b0;
+    for (s = a->start[i]; s < a->start[i + 1]; s++) {
+        gs_i128 *row = acc->lo + a->idx[s];
+        int64_t *rowhi = acc->hi + a->idx[s];
+        int64_t c = a->small[s];
+        for (t = 0; t < nb; t++) {
+            gs_i128 p = (gs_i128)c * cb[t];
+            if (__builtin_add_overflow(row[ib[t]], p, &row[ib[t]]))
+                rowhi[ib[t]] += p < 0 ? -1 : 1;
+        }
+    }
+}
+
+static void flush_mid(mulstate *st, const acc3 *acc, size_t lo, size_t hi)
+{
+    size_t k;
+    for (k = hi + 1; k-- > lo;)
+        if (acc->lo[k] != 0 || acc->hi[k] != 0) {
+            set_acc3(emit(st, k), acc->lo[k], acc->hi[k], &st->tmp);
+            acc->lo[k] = 0;
+            acc->hi[k] = 0;
+        }
+}
 #endif
 
 static void pair_big(gs_int *acc, const gs_pside *a, size_t i,
@@ -200,7 +279,7 @@ static void pair_std(mulstate *st, size_t i, size_t j)
    its range, and queue its successors (i, j+1) and, from (i, 0), the
    pair (i+1, 0). */
 static void take_pair(mulstate *st, gs_pheap *h, uint64_t *keys, void *acc,
-                      int small, size_t *lo, size_t *hi)
+                      int kind, size_t *lo, size_t *hi)
 {
     const gs_pside *a = &st->a, *b = &st->b;
     uint64_t pl = h->v[0].pl;
@@ -208,12 +287,14 @@ static void take_pair(mulstate *st, gs_pheap *h, uint64_t *keys, void *acc,
     size_t l = a->idx[a->start[i + 1] - 1] + b->idx[b->start[j + 1] - 1];
     size_t u = a->idx[a->start[i]] + b->idx[b->start[j]];
 #if GS_HAVE_I128
-    if (small)
+    if (kind == ACC_I128)
         pair_small(acc, a, i, b, j);
+    else if (kind == ACC_MID)
+        pair_mid(acc, a, i, b, j);
     else
 #endif
         pair_big(acc, a, i, b, j);
-    (void)small;
+    (void)kind;
     *lo = l < *lo ? l : *lo;
     *hi = u > *hi ? u : *hi;
     if (j + 1 < b->nblocks) {
@@ -229,8 +310,8 @@ static void take_pair(mulstate *st, gs_pheap *h, uint64_t *keys, void *acc,
 }
 
 /* Take every block pair of the top prefix, then write out that output
-   block.  acc is the dense accumulator of the chosen kind. */
-static void mul_loop(mulstate *st, void *acc, int small)
+   block.  acc is the dense accumulator of the chosen kind (ACC_*). */
+static void mul_loop(mulstate *st, void *acc, int kind)
 {
     gs_pheap h;
     size_t kw = (size_t)st->lay.kw;
@@ -245,11 +326,13 @@ static void mul_loop(mulstate *st, void *acc, int small)
         memcpy(st->cur, gs_pheap_key(&h, top), kw * 8);
         pair_std(st, (size_t)(top >> 32), (size_t)(top & 0xFFFFFFFFu));
         do
-            take_pair(st, &h, keys, acc, small, &lo, &hi);
+            take_pair(st, &h, keys, acc, kind, &lo, &hi);
         while (h.n > 0 && gs_pheap_cmp_top(&h, st->cur) == 0);
 #if GS_HAVE_I128
-        if (small)
+        if (kind == ACC_I128)
             flush_small(st, acc, lo, hi);
+        else if (kind == ACC_MID)
+            flush_mid(st, acc, lo, hi);
         else
 #endif
             flush_big(st, acc, lo, hi);
@@ -258,33 +341,38 @@ static void mul_loop(mulstate *st, void *acc, int small)
     free(keys);
 }
 
-/* Can a 128-bit accumulator hold every coefficient sum?  |a_i| < 2^ba,
-   |b_j| < 2^bb and at most min(len a, len b) products meet in one
-   coefficient, so the sums stay below 2^(ba + bb + ceil log2 min). */
-static int small_ok(const gs_poly *a, const gs_poly *b)
+/* Which cell holds every coefficient sum?  |a_i| < 2^ba, |b_j| < 2^bb
+   and at most min(len a, len b) products meet in one coefficient, so the
+   sums stay below 2^(ba + bb + ceil log2 min): within 126 bits a signed
+   128-bit word, within 190 bits three words (both keep a bit spare).
+   Either needs every coefficient to fit int64, for the pside's small
+   copies.  mid_first takes three words even when 128 bits would do. */
+static int acc_kind(const gs_poly *a, const gs_poly *b, int mid_first)
 {
     size_t i, n = a->length < b->length ? a->length : b->length;
     size_t ba = 0, bb = 0, lg = 0;
     for (i = 0; i < a->length; i++) {
         if (!gs_int_is_small(&a->coeffs[i]))
-            return 0;
+            return ACC_BIG;
         if (gs_int_bits(&a->coeffs[i]) > ba)
             ba = gs_int_bits(&a->coeffs[i]);
     }
     for (i = 0; i < b->length; i++) {
         if (!gs_int_is_small(&b->coeffs[i]))
-            return 0;
+            return ACC_BIG;
         if (gs_int_bits(&b->coeffs[i]) > bb)
             bb = gs_int_bits(&b->coeffs[i]);
     }
     while (((size_t)1 << lg) < n)
         lg++;
-    return GS_HAVE_I128 && ba + bb + lg <= 126;
+    if (!GS_HAVE_I128 || ba + bb + lg > 190)
+        return ACC_BIG;
+    return ba + bb + lg <= 126 && !mid_first ? ACC_I128 : ACC_MID;
 }
 
 /* r = a * b with prefix length m; the blocks of a go in the heap. */
 static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
-                       const unsigned *radix, int small, size_t cap,
+                       const unsigned *radix, int kind, size_t cap,
                        const gs_polyctx *ctx)
 {
     mulstate st;
@@ -292,8 +380,8 @@ static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
     st.ctx = ctx;
     st.cap = cap;
     gs_playout_init(&st.lay, ctx, m, radix);
-    gs_pside_build(&st.a, a, &st.lay, small);
-    gs_pside_build(&st.b, b, &st.lay, small);
+    gs_pside_build(&st.a, a, &st.lay, kind != ACC_BIG);
+    gs_pside_build(&st.b, b, &st.lay, kind != ACC_BIG);
     st.cur = gs_malloc((size_t)st.lay.kw * 8);
     st.cur_std = gs_malloc((size_t)st.lay.nw * 8);
     gs_poly_init(&st.out);
@@ -301,17 +389,24 @@ static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
     gs_poly_fit(&st.out, a->length + b->length, ctx);
     dsize = st.lay.dsize;
 #if GS_HAVE_I128
-    if (small) {
+    if (kind == ACC_I128) {
         gs_i128 *acc = gs_calloc(dsize, sizeof *acc);
-        mul_loop(&st, acc, 1);
+        mul_loop(&st, acc, ACC_I128);
         free(acc);
+    } else if (kind == ACC_MID) {
+        acc3 acc;
+        acc.lo = gs_calloc(dsize, sizeof *acc.lo);
+        acc.hi = gs_calloc(dsize, sizeof *acc.hi);
+        mul_loop(&st, &acc, ACC_MID);
+        free(acc.lo);
+        free(acc.hi);
     } else
 #endif
     {
         gs_int *acc = gs_malloc(dsize * sizeof *acc);
         for (k = 0; k < dsize; k++)
             gs_int_init(&acc[k]);
-        mul_loop(&st, acc, 0);
+        mul_loop(&st, acc, ACC_BIG);
         for (k = 0; k < dsize; k++)
             gs_int_clear(&acc[k]);
         free(acc);
@@ -368,7 +463,9 @@ static void mul_capped(gs_poly *r, const gs_poly *a, const gs_poly *b,
     }
     m = mul_plan(a, b, radix, alg, ctx);
     mul_blocks(r, a, b, m, radix,
-               !(method & GS_POLY_MUL_BIGACC) && small_ok(a, b), cap, ctx);
+               method & GS_POLY_MUL_BIGACC
+                   ? ACC_BIG : acc_kind(a, b, method & GS_POLY_MUL_MIDACC),
+               cap, ctx);
     free(da);
     free(db);
     free(radix);

@@ -113,7 +113,22 @@ def cases():
         out.append(make_case("limit", BASE_SEED + 5000 + j))
     for j in range(12):         # dense enough for the block method
         out.append(make_case("mul-dense", BASE_SEED + 6000 + j))
+    for j in range(12):         # sums past 128 bits of 64-bit products
+        out.append(make_case("mul-wide", BASE_SEED + 7000 + j))
     return out
+
+
+def rand_wide(rng, nterms, nvars, maxexp):
+    """rand_poly with every coefficient of 63 bits, below 2^63 in size:
+    the largest that the three-word accumulator takes."""
+    terms = {}
+    for _ in range(nterms):
+        mono = [0] * NV
+        for v in range(nvars):
+            mono[v] = rng.randint(0, maxexp)
+        terms[tuple(mono)] = (rng.randint(2 ** 62, 2 ** 63 - 1)
+                              * rng.choice((1, -1)))
+    return RING.from_dict(terms)
 
 
 def expect_poly(want):
@@ -139,6 +154,11 @@ def make_case(op, seed):
             return (seed, "%s %s ; %s" % (rng.choice(("div", "divdense")),
                                           fmt(a * b), fmt(b)),
                     expect_poly(a))
+    if op == "mul-wide":
+        nvars, e = rng.choice(((1, 60), (2, 8), (3, 4)))
+        a, b = (rand_wide(rng, rng.randint(30, 90), nvars, e)
+                for _ in range(2))
+        op = rng.choice(("mul", "mulheap", "muldense", "mulmid"))
     if op.startswith("mul"):
         return seed, "%s %s ; %s" % (op, fmt(a), fmt(b)), expect_poly(a * b)
     if op in ("add", "sub"):
