@@ -539,21 +539,29 @@ static void test_bode_edges(void)
     }
 }
 
+/* The step of w^2/(s^2 + 2 z w s + w^2), w = 2 pi 1 MHz, z = 0.5, into
+   h and s with its metrics in m: the second-order response the step
+   tests plot. */
+static void second_order_step(gs_tfn *h, gs_step *s, gs_step_metrics *m)
+{
+    long double w = 2 * PI_L * 1e6L, z = 0.5L;
+    const long double num[1] = {w * w}, den[3] = {w * w, 2 * z * w, 1};
+    CHECK(gs_tfn_init(h, num, 0, den, 2) == GS_OK);
+    CHECK(gs_step_init(s, h) == GS_OK);
+    CHECK(gs_step_measure(m, s) == GS_OK);
+}
+
 /* Step plot of w^2/(s^2 + 2 z w s + w^2), z = 0.5: overshoot
    exp(-pi z / sqrt(1 - z^2)) = 16.3 % (Ogata, "Modern Control
    Engineering", ch. 5), time axis in SI-prefixed seconds. */
 static void test_step_plot(void)
 {
-    long double w = 2 * PI_L * 1e6L, z = 0.5L;
-    const long double num[1] = {w * w}, den[3] = {w * w, 2 * z * w, 1};
     long double t[400], y[400];
     gs_tfn h;
     gs_step s;
     gs_step_metrics m;
     int rc;
-    CHECK(gs_tfn_init(&h, num, 0, den, 2) == GS_OK);
-    CHECK(gs_step_init(&s, &h) == GS_OK);
-    CHECK(gs_step_measure(&m, &s) == GS_OK);
+    second_order_step(&h, &s, &m);
     CHECK(gs_step_table(t, y, NULL, 400, &s, gs_step_span(&s)) == GS_OK);
     gs_plot_trace tr = {"2nd order, zeta = 0.5", 400, t, y, NULL, NULL, &m, NULL};
     gs_plot p = {"Step response", "v(out) (V)", 0, 0, &tr, 1};
@@ -891,16 +899,12 @@ static double frame_right(const char *doc)
    on the tick 4 us. */
 static void test_step_axis_end(void)
 {
-    long double w = 2 * PI_L * 1e6L, z = 0.5L;
-    const long double num[1] = {w * w}, den[3] = {w * w, 2 * z * w, 1};
     long double t[300], y[300];
     gs_tfn h;
     gs_step s;
     gs_step_metrics m;
     int rc;
-    CHECK(gs_tfn_init(&h, num, 0, den, 2) == GS_OK);
-    CHECK(gs_step_init(&s, &h) == GS_OK);
-    CHECK(gs_step_measure(&m, &s) == GS_OK);
+    second_order_step(&h, &s, &m);
     /* ticks by the 1-2-5 rule, at most 8 intervals (common practice):
        3.7 us / 8 = 0.46 us -> 0.5 us, so the axis ends at 4 us */
     long double end = gs_svg_step_axis_end(3.7e-6L);
