@@ -44,8 +44,8 @@ extern "C" {
 /* "0.1.0": the version of the library linked in; static storage. */
 GS_API const char *gs_version(void);
 
-/* Status codes.  Every function that reads user input or can fail for a
-   reason other than memory exhaustion returns one of these. */
+/* Status codes.  Every function that reads user input or can fail
+   returns one of these. */
 enum {
     GS_OK = 0,
     GS_ESYNTAX,     /* malformed text (a number, a statement, a file) */
@@ -56,7 +56,8 @@ enum {
     GS_ESINGULAR,   /* the circuit's equations have no unique solution */
     GS_EIO,         /* a file could not be read or written */
     GS_EINVAL,      /* an argument or a circuit that makes no sense */
-    GS_EUNBOUND     /* a symbol has no numeric value */
+    GS_EUNBOUND,    /* a symbol has no numeric value */
+    GS_ENOMEM       /* memory ran out (or the allocation hook refused) */
 };
 
 /* A short English phrase for a status code ("syntax error"); never NULL. */
@@ -83,8 +84,10 @@ GS_API const char *gs_strerror(int code);
  * gs_result_free frees it (NULL is fine).  Every char * returned is the
  * caller's to free(); every const char * and const struct pointer is
  * owned by the result and lives until gs_result_free.  The library never
- * prints and never exits, except on memory exhaustion (one message on
- * stderr, exit status 1).  Every call that takes a result and an index
+ * prints and never exits.  When memory runs out in a call, everything the
+ * call allocated is freed and it fails as its comment says (GS_ENOMEM,
+ * or NULL where it returns a pointer); what existed before the call is
+ * unchanged, and a result stays usable.  Every call that takes a result and an index
  * checks both: a NULL pointer or an index out of range gives NULL, 0 or
  * GS_EINVAL as its comment says, never a crash.
  */
@@ -125,6 +128,15 @@ typedef struct gs_options {
                                polynomials the determinant method keeps at
                                once would take more bytes; 0: no limit;
                                default GS_DEFAULT_MAX_BYTES */
+    int (*alloc_hook)(void *arg, size_t bytes);
+                            /* asked before each allocation the derivation
+                               makes, with its size: a nonzero return makes
+                               that allocation fail as if memory had run
+                               out, so the call frees what it had and
+                               returns GS_ENOMEM (for hard caps of one's
+                               own, and for testing); the memory itself
+                               always comes from malloc; default NULL */
+    void *alloc_hook_arg;   /* passed to alloc_hook; default NULL */
 } gs_options;
 
 /* The default budgets, the same as the command line's. */
@@ -132,8 +144,7 @@ typedef struct gs_options {
 #define GS_DEFAULT_MAX_BYTES ((size_t)1 << (sizeof(size_t) > 4 ? 32 : 30))
 
 /* o = the defaults: only NULL, the default budgets, GS_METHOD_AUTO, no
-   limits.
-   NULL is ignored. */
+   limits, no allocation hook.  NULL is ignored. */
 GS_API void gs_options_init(gs_options *o);
 
 /* Parse the circuit file at path ("-" is standard input) and derive every
@@ -142,8 +153,8 @@ GS_API void gs_options_init(gs_options *o);
  * Whatever the outcome, *messages (if messages is not NULL) gets the
  * diagnostics as text, "FILE:LINE:COL: error: ..." lines, or NULL when
  * there were none.  Returns GS_OK, GS_ESYNTAX or GS_EINVAL (bad input),
- * GS_EIO, GS_ESINGULAR or GS_EBUDGET; *out is NULL on failure.  The same
- * as gs_derive_file_opts with the default options and `only`. */
+ * GS_EIO, GS_ESINGULAR, GS_EBUDGET or GS_ENOMEM; *out is NULL on
+ * failure.  The same as gs_derive_file_opts with the default options and `only`. */
 GS_API int gs_derive_file(gs_result **out, const char *path,
                           const char *only, char **messages);
 
@@ -166,9 +177,11 @@ GS_API size_t gs_result_count(const gs_result *r);
    of range. */
 GS_API const char *gs_result_name(const gs_result *r, size_t i);
 /* "Av = (N)/(D)" grouped by powers of s, as `gainsmith derive` prints
-   it (docs/output.md); a new string; NULL on a bad argument. */
+   it (docs/output.md); a new string; NULL on a bad argument or when
+   memory runs out. */
 GS_API char *gs_result_text(const gs_result *r, size_t i);
-/* One JSON object (docs/json.md); a new string; NULL on a bad argument. */
+/* One JSON object (docs/json.md); a new string; NULL on a bad argument
+   or when memory runs out. */
 GS_API char *gs_result_json(const gs_result *r, size_t i);
 GS_API void gs_result_free(gs_result *r);
 
@@ -208,7 +221,8 @@ typedef struct gs_polynomial {
 enum { GS_NUMERATOR = 0, GS_DENOMINATOR = 1 };
 
 /* N (part GS_NUMERATOR) or D (GS_DENOMINATOR) of output i; owned by r.
-   NULL when r is NULL, i out of range or part neither. */
+   NULL when r is NULL, i out of range or part neither, or when memory
+   runs out making it (the first request for it makes it). */
 GS_API const gs_polynomial *gs_result_poly(const gs_result *r, size_t i,
                                           int part);
 
@@ -229,7 +243,8 @@ GS_API const char *gs_result_symbol(const gs_result *r, size_t i,
  * (if not NULL) gets the diagnostics or NULL.  Returns GS_OK; GS_EINVAL
  * for a NULL pointer, an index out of range or a name the circuit does
  * not have; GS_EUNBOUND (with the missing symbols named) when a symbol
- * of H has no number; GS_EDIVZERO when D is zero there.  Computed in
+ * of H has no number; GS_EDIVZERO when D is zero there; GS_ENOMEM when
+ * memory runs out.  Computed in
  * long double from the exact N and D; r is not changed. */
 /* The number the circuit's value or bias lines give symbol: GS_OK;
    GS_EUNBOUND when they give it none; GS_EINVAL for a NULL pointer or a

@@ -58,32 +58,83 @@ void gs_options_init(gs_options *o)
     o->max_bytes = GS_DEFAULT_MAX_BYTES;
 }
 
+/* A stream into memory whose stream and buffer are dropped if the call
+   runs out of memory while it is open; a block of its own, since the
+   drop runs after the frames that opened it are gone. */
+typedef struct memtext {
+    FILE *f;
+    char *buf;
+    size_t len;
+    int closed;
+    gs_mem_cleanup *drop;
+} memtext;
+
+static void memtext_drop(void *arg)
+{
+    memtext *m = arg;
+    if (!m->closed)
+        fclose(m->f);
+    free(m->buf);       /* libc's, not a gs_ block */
+}
+
+static memtext *memtext_open(void)
+{
+    memtext *m = gs_calloc(1, sizeof *m);
+    m->f = open_memstream(&m->buf, &m->len);
+    if (m->f == NULL)
+        gs_mem_exhausted(0);
+    m->drop = gs_mem_defer(memtext_drop, m);
+    return m;
+}
+
+/* The text written, as a block of the call's own (so that a failure
+   later in the call frees it too). */
+static char *memtext_close(memtext *m)
+{
+    char *text;
+    fclose(m->f);
+    m->closed = 1;      /* the buffer is still dropped if the copy fails */
+    text = gs_strndup(m->buf ? m->buf : "", m->len);
+    gs_mem_undefer(m->drop);
+    free(m->buf);
+    gs_free(m);
+    return text;
+}
+
 /* Diagnostics as one string, or NULL when there are none. */
 static char *diag_text(const gs_diag *d)
 {
-    char *buf = NULL;
-    size_t len = 0;
-    FILE *f;
+    memtext *m;
     if (d->n == 0)
         return NULL;
-    f = open_memstream(&buf, &len);
-    if (f == NULL)
-        return NULL;
-    gs_diag_print(f, d);
-    fclose(f);
-    return buf;
+    m = memtext_open();
+    gs_diag_print(m->f, d);
+    return memtext_close(m);
+}
+
+/* What a call that ran out of memory says, in memory of the caller's;
+   NULL if even that cannot be had. */
+static char *nomem_text(size_t bytes)
+{
+    const char *fmt = "error: out of memory (asked for %zu bytes); the call "
+                      "freed what it had allocated\n";
+    int n = snprintf(NULL, 0, fmt, bytes);
+    char *p = n > 0 ? malloc((size_t)n + 1) : NULL;
+    if (p != NULL)
+        snprintf(p, (size_t)n + 1, fmt, bytes);
+    return p;
 }
 
 static void view_clear(view *v)
 {
     size_t k;
     for (k = 0; k < v->nterms; k++)
-        free(v->nums[k]);
-    free(v->nums);
-    free(v->syms);
-    free(v->exps);
-    free(v->terms);
-    free(v->coeffs);
+        gs_free(v->nums[k]);
+    gs_free(v->nums);
+    gs_free(v->syms);
+    gs_free(v->exps);
+    gs_free(v->terms);
+    gs_free(v->coeffs);
 }
 
 /* v = p grouped by powers of s: the terms of each power keep the
@@ -145,9 +196,9 @@ static void view_make(view *v, const gs_poly *p, const gs_job *j)
     }
     v->poly.ncoeffs = nc;
     v->poly.coeffs = v->coeffs;
-    free(start);
-    free(count);
-    free(e);
+    gs_free(start);
+    gs_free(count);
+    gs_free(e);
 }
 
 /* The options in the engine's terms; the limits' symbols looked up. */
@@ -218,8 +269,8 @@ static void find_symbols(gs_result *r, size_t i)
     for (v = 0; v < nv; v++)
         if ((used[v] | tmp[v]) && v != j->c->s_sym)
             r->syms[i][r->nsyms[i]++] = v;
-    free(tmp);
-    free(used);
+    gs_free(tmp);
+    gs_free(used);
 }
 
 /* What the accessors read, made once at the end of the derivation. */
@@ -243,15 +294,56 @@ static void finish_result(gs_result *r)
     gs_diag_clear(&d);
 }
 
-/* Load (from path or from text), derive, finish. */
-static int derive(gs_result **out, const char *path, const char *text,
-                  const char *name, const gs_options *opts,
-                  char **messages)
+/* One derivation's arguments and what it hands back. */
+typedef struct derive_call {
+    const char *path, *text, *name;
+    const gs_options *opts;
+    gs_result *result;      /* on GS_OK */
+    char *messages;         /* the diagnostics, or NULL */
+} derive_call;
+
+/* Load (from path or from text), derive, finish; run under a guard, so
+   nothing is published until the end. */
+static int derive_guarded(void *arg)
 {
+    derive_call *call = arg;
     gs_result *r;
     gs_derive_opts o;
     gs_limit *limits = NULL;
     gs_diag d;
+    int rc;
+    r = gs_calloc(1, sizeof *r);
+    gs_diag_init(&d);
+    gs_job_init(&r->job);
+    if (call->path)
+        rc = gs_job_load(&r->job, call->path, &d);
+    else
+        rc = gs_job_load_string(&r->job, call->name ? call->name
+                                                    : "<string>",
+                                call->text, &d);
+    if (rc == GS_OK)
+        rc = engine_opts(&o, &limits, call->opts, &r->job, &d);
+    if (rc == GS_OK)
+        rc = gs_job_derive(&r->job, call->opts ? call->opts->only : NULL,
+                           &o, &d);
+    gs_free(limits);
+    if (rc == GS_OK)
+        finish_result(r);
+    call->messages = diag_text(&d);
+    gs_diag_clear(&d);
+    if (rc != GS_OK)
+        gs_result_free(r);
+    else
+        call->result = r;
+    return rc;
+}
+
+static int derive(gs_result **out, const char *path, const char *text,
+                  const char *name, const gs_options *opts,
+                  char **messages)
+{
+    derive_call call = {path, text, name, opts, NULL, NULL};
+    size_t failed = 0;
     int rc;
     if (messages)
         *messages = NULL;
@@ -260,28 +352,19 @@ static int derive(gs_result **out, const char *path, const char *text,
     *out = NULL;
     if (path == NULL && text == NULL)
         return GS_EINVAL;
-    r = gs_calloc(1, sizeof *r);
-    gs_diag_init(&d);
-    gs_job_init(&r->job);
-    if (path)
-        rc = gs_job_load(&r->job, path, &d);
-    else
-        rc = gs_job_load_string(&r->job, name ? name : "<string>", text, &d);
-    if (rc == GS_OK)
-        rc = engine_opts(&o, &limits, opts, &r->job, &d);
-    if (rc == GS_OK)
-        rc = gs_job_derive(&r->job, opts ? opts->only : NULL, &o, &d);
-    free(limits);
-    if (messages)
-        *messages = diag_text(&d);
-    gs_diag_clear(&d);
-    if (rc != GS_OK) {
-        gs_result_free(r);
+    rc = gs_mem_run(derive_guarded, &call, opts ? opts->alloc_hook : NULL,
+                    opts ? opts->alloc_hook_arg : NULL, &failed);
+    if (rc == GS_ENOMEM) {
+        if (messages)
+            *messages = nomem_text(failed);
         return rc;
     }
-    finish_result(r);
-    *out = r;
-    return GS_OK;
+    if (messages)
+        *messages = call.messages;
+    else
+        gs_free(call.messages);
+    *out = call.result;
+    return rc;
 }
 
 int gs_derive_file(gs_result **out, const char *path, const char *only,
@@ -334,47 +417,87 @@ const char *gs_result_name(const gs_result *r, size_t i)
     return in_range(r, i) ? gs_tf_name(&r->job.tf[i]) : NULL;
 }
 
+/* A call on a result that makes one thing, and its arguments. */
+typedef struct result_call {
+    const gs_result *r;
+    size_t i;
+    int part;
+    void *made;
+} result_call;
+
+static int text_guarded(void *arg)
+{
+    result_call *call = arg;
+    const gs_job *j = &call->r->job;
+    call->made = gs_tf_get_str(&j->tf[call->i], j->c->s_sym);
+    return GS_OK;
+}
+
+static int json_guarded(void *arg)
+{
+    result_call *call = arg;
+    const gs_job *j = &call->r->job;
+    memtext *m = memtext_open();
+    gs_print_json(m->f, &j->tf[call->i], j->c->s_sym);
+    call->made = memtext_close(m);
+    return GS_OK;
+}
+
+/* call->made = the view, made and published unless another thread was
+   first; publishing is the last step, so a failure before it leaves the
+   result as it was. */
+static int view_guarded(void *arg)
+{
+    result_call *call = arg;
+    const gs_result *r = call->r;
+    _Atomic(view *) *slot = &r->views[2 * call->i + (size_t)call->part];
+    view *v = atomic_load(slot), *expected = NULL;
+    if (v == NULL) {
+        v = gs_malloc(sizeof *v);
+        view_make(v, call->part == GS_NUMERATOR ? &r->job.tf[call->i].num
+                                                : &r->job.tf[call->i].den,
+                  &r->job);
+        if (!atomic_compare_exchange_strong(slot, &expected, v)) {
+            view_clear(v);      /* another thread was first */
+            gs_free(v);
+            v = expected;
+        }
+    }
+    call->made = v;
+    return GS_OK;
+}
+
+/* fn on output i of r under a guard: what it made, or NULL. */
+static void *result_run(int (*fn)(void *), const gs_result *r, size_t i,
+                        int part)
+{
+    result_call call = {r, i, part, NULL};
+    if (gs_mem_run(fn, &call, NULL, NULL, NULL) != GS_OK)
+        return NULL;
+    return call.made;
+}
+
 char *gs_result_text(const gs_result *r, size_t i)
 {
     if (!in_range(r, i))
         return NULL;
-    return gs_tf_get_str(&r->job.tf[i], r->job.c->s_sym);
+    return result_run(text_guarded, r, i, 0);
 }
 
 char *gs_result_json(const gs_result *r, size_t i)
 {
-    char *buf = NULL;
-    size_t len = 0;
-    FILE *f;
     if (!in_range(r, i))
         return NULL;
-    f = open_memstream(&buf, &len);
-    if (f == NULL)
-        return gs_strdup("");
-    gs_print_json(f, &r->job.tf[i], r->job.c->s_sym);
-    fclose(f);
-    return buf;
+    return result_run(json_guarded, r, i, 0);
 }
 
 const gs_polynomial *gs_result_poly(const gs_result *r, size_t i, int part)
 {
-    _Atomic(view *) *slot;
-    view *v, *expected = NULL;
+    view *v;
     if (!in_range(r, i) || (part != GS_NUMERATOR && part != GS_DENOMINATOR))
         return NULL;
-    slot = &r->views[2 * i + (size_t)part];
-    v = atomic_load(slot);
-    if (v != NULL)
-        return &v->poly;
-    v = gs_malloc(sizeof *v);
-    view_make(v, part == GS_NUMERATOR ? &r->job.tf[i].num
-                                      : &r->job.tf[i].den, &r->job);
-    if (!atomic_compare_exchange_strong(slot, &expected, v)) {
-        view_clear(v);          /* another thread was first */
-        free(v);
-        v = expected;
-    }
-    return &v->poly;
+    v = result_run(view_guarded, r, i, part);
+    return v ? &v->poly : NULL;
 }
 
 size_t gs_result_nsymbols(const gs_result *r, size_t i)
@@ -418,7 +541,7 @@ static int check_unbound(const gs_result *r, size_t i,
             continue;
         next = gs_asprintf("%s%s%s", list, nmissing ? ", " : "",
                            gs_symtab_name(j->c->syms, v));
-        free(list);
+        gs_free(list);
         list = next;
         nmissing++;
     }
@@ -428,7 +551,7 @@ static int check_unbound(const gs_result *r, size_t i,
                     "NAME and its value to gs_result_eval",
                     "no value for %s %s", nmissing > 1 ? "symbols" : "symbol",
                     list);
-    free(list);
+    gs_free(list);
     return nmissing ? GS_EUNBOUND : GS_OK;
 }
 
@@ -474,7 +597,7 @@ static int eval_at(double *re, double *im, const gs_result *r, size_t i,
     cv[j->c->s_sym] = s;
     n = gs_poly_eval_lc(&j->tf[i].num, cv, j->ctx);
     den = gs_poly_eval_lc(&j->tf[i].den, cv, j->ctx);
-    free(cv);
+    gs_free(cv);
     if (den == 0) {
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
                     "%s: the denominator is zero at s = %Lg%+Lgj",
@@ -487,41 +610,83 @@ static int eval_at(double *re, double *im, const gs_result *r, size_t i,
     return GS_OK;
 }
 
+typedef struct eval_call {
+    const gs_result *r;
+    size_t i;
+    long double complex s;
+    const char *const *names;
+    const double *values;
+    size_t nbind;
+    int want_messages;
+    double re, im;
+    char *messages;
+} eval_call;
+
+static int eval_guarded(void *arg)
+{
+    eval_call *call = arg;
+    const gs_result *r = call->r;
+    size_t nv = (size_t)r->job.ctx->nvars;
+    long double *vals = gs_calloc(nv, sizeof *vals);
+    unsigned char *set = gs_calloc(nv, 1);
+    gs_diag d;
+    int rc;
+    memcpy(vals, r->job.vals, nv * sizeof *vals);
+    memcpy(set, r->job.set, nv);
+    gs_diag_init(&d);
+    rc = apply_overrides(vals, set, r, call->names, call->values,
+                         call->nbind, &d);
+    if (rc == GS_OK)
+        rc = check_unbound(r, call->i, set, &d);
+    if (rc == GS_OK)
+        rc = eval_at(&call->re, &call->im, r, call->i, vals, call->s, &d);
+    if (call->want_messages)
+        call->messages = diag_text(&d);
+    gs_diag_clear(&d);
+    gs_free(set);
+    gs_free(vals);
+    return rc;
+}
+
 int gs_result_eval(double *re, double *im, const gs_result *r, size_t i,
                    double s_re, double s_im, const char *const *names,
                    const double *values, size_t nbind, char **messages)
 {
-    long double *vals;
-    unsigned char *set;
-    size_t nv;
-    gs_diag d;
+    eval_call call;
+    size_t failed = 0;
     int rc;
     if (messages)
         *messages = NULL;
     if (re == NULL || im == NULL || !in_range(r, i))
         return GS_EINVAL;
     if (r->bind_rc != GS_OK && r->bind_rc != GS_EUNBOUND) {
-        if (messages && r->bind_messages)
-            *messages = gs_strdup(r->bind_messages);
+        if (messages && r->bind_messages) {
+            *messages = strdup(r->bind_messages);
+            if (*messages == NULL)
+                return GS_ENOMEM;
+        }
         return r->bind_rc;
     }
-    nv = (size_t)r->job.ctx->nvars;
-    vals = gs_calloc(nv, sizeof *vals);
-    set = gs_calloc(nv, 1);
-    memcpy(vals, r->job.vals, nv * sizeof *vals);
-    memcpy(set, r->job.set, nv);
-    gs_diag_init(&d);
-    rc = apply_overrides(vals, set, r, names, values, nbind, &d);
-    if (rc == GS_OK)
-        rc = check_unbound(r, i, set, &d);
-    if (rc == GS_OK)
-        rc = eval_at(re, im, r, i, vals,
-                     (long double)s_re + (long double)s_im * I, &d);
+    memset(&call, 0, sizeof call);
+    call.r = r;
+    call.i = i;
+    call.s = (long double)s_re + (long double)s_im * I;
+    call.names = names;
+    call.values = values;
+    call.nbind = nbind;
+    call.want_messages = messages != NULL;
+    rc = gs_mem_run(eval_guarded, &call, NULL, NULL, &failed);
+    if (rc == GS_ENOMEM) {
+        if (messages)
+            *messages = nomem_text(failed);
+        return rc;
+    }
     if (messages)
-        *messages = diag_text(&d);
-    gs_diag_clear(&d);
-    free(set);
-    free(vals);
+        *messages = call.messages;
+    if (rc == GS_OK) {
+        *re = call.re;
+        *im = call.im;
+    }
     return rc;
 }
 
@@ -535,16 +700,16 @@ void gs_result_free(gs_result *r)
             view *v = atomic_load(&r->views[i]);
             if (v) {
                 view_clear(v);
-                free(v);
+                gs_free(v);
             }
         }
-    free((void *)r->views);
+    gs_free((void *)r->views);
     if (r->syms)
         for (i = 0; i < r->job.ntf; i++)
-            free(r->syms[i]);
-    free(r->syms);
-    free(r->nsyms);
-    free(r->bind_messages);
+            gs_free(r->syms[i]);
+    gs_free(r->syms);
+    gs_free(r->nsyms);
+    gs_free(r->bind_messages);
     gs_job_clear(&r->job);
-    free(r);
+    gs_free(r);
 }

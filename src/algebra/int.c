@@ -200,7 +200,7 @@ static void mag_mul_kara(limb *r, const limb *a, const limb *b, size_t n)
     pn = gs_int_mag_sub(p, p, pn, r, mag_norm(r, 2 * h));
     pn = gs_int_mag_sub(p, p, pn, r + 2 * h, mag_norm(r + 2 * h, 2 * hi));
     mag_add_into(r + h, 2 * n - h, p, pn);
-    free(s);
+    gs_free(s);
 }
 
 /* r[0..an+bn) = a * b; r overlaps neither; an, bn > 0.  Unbalanced
@@ -238,7 +238,7 @@ static void mag_mul(limb *r, const limb *a, size_t an, const limb *b,
         mag_mul(t, a + k, pn, b, bn);
         mag_add_into(r + k, an + bn - k, t, mag_norm(t, pn + bn));
     }
-    free(t);
+    gs_free(t);
 }
 
 /* q = a / d, returns a mod d; q may be a. */
@@ -341,7 +341,7 @@ void gs_int_mag_divrem_knuth(limb *q, limb *r, const limb *u, size_t un,
     for (j = un - n + 1; j-- > 0;)             /* D2..D7 */
         q[j] = knuth_step(w + j, vn, n);
     mag_shr_small(r, w, n, s);                 /* D8: unnormalize */
-    free(vn);
+    gs_free(vn);
 }
 
 /* a mod m for 0 < m < 2^63. */
@@ -392,13 +392,13 @@ void gs_int_set_mag(gs_int *r, limb *buf, size_t n, size_t cap, int neg)
                    : buf[0] | (uint64_t)buf[1] << LIMB_BITS;
         if (m <= INT64_MAX) {
             if (r->alloc == 0 || r->u.d != buf)
-                free(buf);
+                gs_free(buf);
             set_small(r, neg ? -(int64_t)m : (int64_t)m);
             return;
         }
     }
     if (r->alloc != 0 && r->u.d != buf)
-        free(r->u.d);
+        gs_free(r->u.d);
     r->u.d = buf;
     r->alloc = (int32_t)cap;
     r->size = neg ? -(int32_t)n : (int32_t)n;
@@ -530,7 +530,7 @@ static void addmul_views(gs_int *r, const mview *a, const mview *b, int neg)
         addsub(r, &vr, &vp, neg);
     }
     if (t != stack)
-        free(t);
+        gs_free(t);
 }
 
 /* ---- basics ------------------------------------------------------------- */
@@ -545,7 +545,7 @@ void gs_int_init(gs_int *a)
 void gs_int_clear(gs_int *a)
 {
     if (a->alloc != 0)
-        free(a->u.d);
+        gs_free(a->u.d);
     gs_int_init(a);
 }
 
@@ -1088,7 +1088,7 @@ char *gs_int_get_str(const gs_int *a)
         sprintf(p, "%09" PRIu32, chunks[nc]);
         p += 9;
     }
-    free(chunks);
-    free(t);
+    gs_free(chunks);
+    gs_free(t);
     return s;
 }

@@ -41,7 +41,7 @@ void gs_int_swap(gs_int *a, gs_int *b);      /* O(1) */
 /* Decimal text, optional leading '-' or '+', digits only, no spaces.
    Returns GS_OK or GS_ESYNTAX (r unchanged then). */
 int gs_int_set_str(gs_int *r, const char *s);
-/* Decimal text ("-123"); a new string the caller must free(). */
+/* Decimal text ("-123"); a new string the caller must gs_free(). */
 char *gs_int_get_str(const gs_int *a);
 
 int gs_int_fits_si(const gs_int *a);         /* fits in int64_t? */

@@ -49,7 +49,7 @@ static void install(gs_int *r, limb *buf, size_t n, size_t cap, int neg)
     if (r != NULL)
         gs_int_set_mag(r, buf, n, cap, neg);
     else
-        free(buf);
+        gs_free(buf);
 }
 
 static void divide_small(gs_int *q, gs_int *r, int64_t x, int64_t y,
@@ -118,9 +118,9 @@ int gs_int_divexact(gs_int *q, const gs_int *a, const gs_int *b)
     view_of(&va, a);
     view_of(&vb, b);
     mag_divmod(&d, &va, &vb);
-    free(d.r);
+    gs_free(d.r);
     if (d.rn != 0) {
-        free(d.q);
+        gs_free(d.q);
         return GS_EINEXACT;
     }
     gs_int_set_mag(q, d.q, d.qn, d.qcap, va.neg != vb.neg);
@@ -300,7 +300,7 @@ static void gcd_big(gs_int *r, const mview *va, const mview *vb)
         uint64_t y = b[0] | (nb > 1 ? (uint64_t)b[1] << LIMB_BITS : 0);
         gs_int_set_u64(r, gcd_u64(x, y), 0);
     }
-    free(buf);
+    gs_free(buf);
 }
 
 void gs_int_gcd(gs_int *r, const gs_int *a, const gs_int *b)

@@ -15,6 +15,7 @@
 #include <stdlib.h>
 
 #include "algebra/int.h"
+#include "base/mem.h"
 
 typedef uint32_t limb;
 typedef uint64_t dlimb;
@@ -112,7 +113,7 @@ static void view_of(mview *w, const gs_int *a)
 static void set_small(gs_int *r, int64_t v)
 {
     if (r->alloc != 0)
-        free(r->u.d);
+        gs_free(r->u.d);
     r->size = 0;
     r->alloc = 0;
     r->u.v = v;

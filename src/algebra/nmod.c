@@ -106,7 +106,7 @@ void gs_nmod_poly_init(gs_nmod_poly *a)
 
 void gs_nmod_poly_clear(gs_nmod_poly *a)
 {
-    free(a->c);
+    gs_free(a->c);
     gs_nmod_poly_init(a);
 }
 
@@ -310,7 +310,7 @@ void gs_nmod_poly_interpolate(gs_nmod_poly *r, const uint64_t *xs,
                               d[i], p);
     }
     gs_nmod_poly_normalise(r);
-    free(d);
+    gs_free(d);
 }
 
 int gs_nmod_vandermonde_solve(uint64_t *c, const uint64_t *v,
@@ -343,7 +343,7 @@ int gs_nmod_vandermonde_solve(uint64_t *c, const uint64_t *v,
         else
             c[j] = gs_nmod_mul(s, gs_nmod_inv(den, p), p);
     }
-    free(m);
-    free(q);
+    gs_free(m);
+    gs_free(q);
     return rc;
 }

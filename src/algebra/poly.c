@@ -57,7 +57,7 @@ gs_polyctx *gs_polyctx_new(const gs_symtab *st, int nvars)
 
 void gs_polyctx_free(gs_polyctx *ctx)
 {
-    free(ctx);
+    gs_free(ctx);
 }
 
 void gs_poly_init(gs_poly *p)
@@ -73,8 +73,8 @@ void gs_poly_clear(gs_poly *p)
     size_t i;
     for (i = 0; i < p->length; i++)
         gs_int_clear(&p->coeffs[i]);
-    free(p->coeffs);
-    free(p->exps);
+    gs_free(p->coeffs);
+    gs_free(p->exps);
     gs_poly_init(p);
 }
 
@@ -285,7 +285,7 @@ static void apply_perm(gs_poly *r, size_t *perm, const gs_polyctx *ctx)
         r->coeffs[j] = c;
         perm[j] = j;
     }
-    free(save);
+    gs_free(save);
 }
 
 /* Sorted terms: equal monomials merged and zero coefficients dropped,
@@ -323,9 +323,9 @@ void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
     for (i = 0; i < n; i++)
         perm[i] = i;
     sort_perm(perm, tmp, n, r, ctx);
-    free(tmp);
+    gs_free(tmp);
     apply_perm(r, perm, ctx);
-    free(perm);
+    gs_free(perm);
     merge_sorted(r, ctx);
 }
 
@@ -619,7 +619,7 @@ void gs_poly_mul_monomial(gs_poly *r, const gs_poly *a, const uint64_t *exps,
             assert((s & GS_POLY_GUARD) == 0);   /* precondition: no overflow */
             r->exps[i * nw + w] = s;
         }
-    free(m);
+    gs_free(m);
 }
 
 int gs_poly_div_monomial(gs_poly *r, const gs_poly *a, const uint64_t *exps,
@@ -630,7 +630,7 @@ int gs_poly_div_monomial(gs_poly *r, const gs_poly *a, const uint64_t *exps,
     memcpy(m, exps, nw * 8);
     for (i = 0; i < a->length; i++)
         if (!exps_divides(m, term_exps(a, i, ctx), ctx->nwords)) {
-            free(m);
+            gs_free(m);
             gs_poly_zero(r);
             return GS_EINEXACT;
         }
@@ -638,7 +638,7 @@ int gs_poly_div_monomial(gs_poly *r, const gs_poly *a, const uint64_t *exps,
     for (i = 0; i < r->length; i++)
         for (w = 0; w < nw; w++)
             r->exps[i * nw + w] -= m[w];
-    free(m);
+    gs_free(m);
     return GS_OK;
 }
 
@@ -738,7 +738,7 @@ void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx)
             m[w] = gs_poly_fields_max(m[w], a->exps[i * nw + w]);
     for (v = 0; v < ctx->nvars; v++)
         degs[v] = gs_poly_exp_get(m, v);
-    free(m);
+    gs_free(m);
 }
 
 long gs_poly_degree(const gs_poly *a, int var, const gs_polyctx *ctx)
@@ -806,7 +806,7 @@ void gs_poly_used_vars(unsigned char *used, const gs_poly *a,
             m[w] |= a->exps[i * nw + w];
     for (v = 0; v < ctx->nvars; v++)
         used[v] = gs_poly_exp_get(m, v) != 0;
-    free(m);
+    gs_free(m);
 }
 
 /* Terms with equal exponent of var keep their relative order when that
@@ -855,7 +855,7 @@ void gs_poly_coeffs_var(gs_poly *out, size_t n, const gs_poly *a, int var,
         gs_int_set(append_term(c, e, ctx), &a->coeffs[i]);
         c->exps[(c->length - 1) * nw + (size_t)w] &= clear;
     }
-    free(count);
+    gs_free(count);
 }
 
 /* Subtracting one from the exponent of var in every term that has it is
@@ -948,9 +948,9 @@ int gs_poly_limit_ratio(gs_poly *rn, gs_poly *rd, const gs_poly *n,
         }                                                                 \
         sum += m;                                                         \
     }                                                                     \
-    free(pw);                                                             \
-    free(off);                                                            \
-    free(deg);                                                            \
+    gs_free(pw);                                                             \
+    gs_free(off);                                                            \
+    gs_free(deg);                                                            \
     return sum
 
 double gs_poly_eval_d(const gs_poly *a, const double *vals,

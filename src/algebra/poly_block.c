@@ -2,6 +2,7 @@
  * products and quotients of poly_mul.c and poly_div.c.  See LICENSE.
  */
 #include "algebra/poly_impl.h"
+#include "base/mem.h"
 
 #include <assert.h>
 #include <string.h>
@@ -38,15 +39,15 @@ void gs_playout_init(gs_playout *lay, const gs_polyctx *ctx, int m,
     }
     gs_ppack_init(&lay->pk, maxv, n);
     lay->kw = lay->pk.nw;
-    free(maxv);
+    gs_free(maxv);
 }
 
 void gs_playout_clear(gs_playout *lay)
 {
-    free(lay->radix);
-    free(lay->stride);
-    free(lay->premask);
-    free(lay->inv);
+    gs_free(lay->radix);
+    gs_free(lay->stride);
+    gs_free(lay->premask);
+    gs_free(lay->inv);
     gs_ppack_clear(&lay->pk);
 }
 
@@ -98,11 +99,11 @@ void gs_pside_build(gs_pside *s, const gs_poly *p, const gs_playout *lay,
 
 void gs_pside_clear(gs_pside *s)
 {
-    free(s->start);
-    free(s->skey);
-    free(s->key);
-    free(s->idx);
-    free(s->small);
+    gs_free(s->start);
+    gs_free(s->skey);
+    gs_free(s->key);
+    gs_free(s->idx);
+    gs_free(s->small);
 }
 
 /* Consecutive terms start a new block of prefix length m exactly when
@@ -128,5 +129,5 @@ void gs_poly_block_counts(size_t *blocks, const gs_poly *a,
     blocks[0] = a->length > 0;
     for (m = 0; m < n; m++)
         blocks[m + 1] = blocks[m] + hist[m];
-    free(hist);
+    gs_free(hist);
 }

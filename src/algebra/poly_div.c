@@ -101,7 +101,7 @@ static int set_bounds(divstate *s, uint64_t *amax)
         s->qmin[w] = amin[w] - bmin[w];
     }
     ok = ok && le_fields(s->qmin, s->qmax, nw);
-    free(amin);
+    gs_free(amin);
     return ok;
 }
 
@@ -132,7 +132,7 @@ static int div_plan(const gs_poly *a, const unsigned *radix, int method,
             || (double)blocks[m] * dsize <= budget)
             best = m;
     }
-    free(blocks);
+    gs_free(blocks);
     return best;
 }
 
@@ -532,17 +532,17 @@ static void state_clear(divstate *s)
     gs_pside_clear(&s->sb);
     gs_playout_clear(&s->lay);
 #if GS_HAVE_I128
-    free(s->ac);
+    gs_free(s->ac);
 #endif
-    free(s->lmb_pre);
-    free(s->dlmb);
+    gs_free(s->lmb_pre);
+    gs_free(s->dlmb);
     gs_poly_clear(&s->q);
-    free(s->qstart);
-    free(s->qskey);
-    free(s->qkey);
-    free(s->keys);
-    free(s->qidx);
-    free(s->qsmall);
+    gs_free(s->qstart);
+    gs_free(s->qskey);
+    gs_free(s->qkey);
+    gs_free(s->keys);
+    gs_free(s->qidx);
+    gs_free(s->qsmall);
     gs_pheap_clear(&s->h);
     gs_int_clear(&s->qq);
 }
@@ -559,7 +559,7 @@ static int divide(divstate *s, int m, const unsigned *radix, int small)
     if (small) {
         gs_i128 *R = gs_calloc(d, sizeof *R);
         rc = div_loop(s, R);
-        free(R);
+        gs_free(R);
         return rc;
     }
 #endif
@@ -570,7 +570,7 @@ static int divide(divstate *s, int m, const unsigned *radix, int small)
         rc = div_loop(s, R);
         for (k = 0; k < d; k++)
             gs_int_clear(&R[k]);
-        free(R);
+        gs_free(R);
     }
     return rc;
 }
@@ -613,8 +613,8 @@ int gs_poly_divexact_method(gs_poly *q, const gs_poly *a, const gs_poly *b,
     }
     if (rc != 1)
         gs_poly_zero(q);
-    free(radix);
-    free(s.qmax);
+    gs_free(radix);
+    gs_free(s.qmax);
     return rc == 1 ? GS_OK : GS_EINEXACT;
 }
 

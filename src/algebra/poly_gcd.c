@@ -203,7 +203,7 @@ static void smallest_coeff(gs_poly *r, const gs_poly *a,
         gs_int_set(&r->coeffs[i], &a->coeffs[t]);
     }
     r->length = best_len;
-    free(rec);
+    gs_free(rec);
 }
 
 /* When the degree bounds leave out variables that a or b contain, the
@@ -228,7 +228,7 @@ static int gcd_by_support(gs_poly *g, const gs_poly *a, const gs_poly *b,
             any = 1;
         }
     if (!any) {
-        free(ymask);
+        gs_free(ymask);
         return 0;
     }
     gs_poly_init(&ca);
@@ -250,7 +250,7 @@ static int gcd_by_support(gs_poly *g, const gs_poly *a, const gs_poly *b,
     gs_poly_clear(&cb);
     gs_poly_clear(&h);
     gs_poly_clear(&q);
-    free(ymask);
+    gs_free(ymask);
     return ok;
 }
 
@@ -287,7 +287,7 @@ static void gcd_core(gs_poly *g, const gs_poly *a, const gs_poly *b,
     gs_pgcd_tab_clear(&ta);
     gs_pgcd_tab_clear(&tb);
     gs_pgcd_pts_clear(&pt);
-    free(bd);
+    gs_free(bd);
 }
 
 /* gcd of nonzero a and b, primitive with positive leading coefficient;
@@ -320,7 +320,7 @@ void gs_pgcd_nonzero(gs_poly *g, const gs_poly *a, const gs_poly *b,
         gs_poly_neg(g, g, ctx);
     gs_poly_clear(&A);
     gs_poly_clear(&B);
-    free(ma);
+    gs_free(ma);
 }
 
 /* One of a, b is a single term: the (primitive) gcd is the common
@@ -336,7 +336,7 @@ static void gcd_with_term(gs_poly *g, const gs_poly *a, const gs_poly *b,
     mono_min(ma, ma, mb, ctx->nwords);
     gs_poly_set_si(g, 1, ctx);
     gs_poly_mul_monomial(g, g, ma, ctx);
-    free(ma);
+    gs_free(ma);
 }
 
 int gs_poly_gcd(gs_poly *g, const gs_poly *a, const gs_poly *b,

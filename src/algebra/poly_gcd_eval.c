@@ -88,13 +88,13 @@ void gs_pgcd_tab_init(tab *t, const gs_poly *a, const gs_polyctx *ctx)
 
 void gs_pgcd_tab_clear(tab *t)
 {
-    free(t->off);
-    free(t->var);
-    free(t->exp);
-    free(t->xd);
-    free(t->cm);
-    free(t->deg);
-    free(t->nlead);
+    gs_free(t->off);
+    gs_free(t->var);
+    gs_free(t->exp);
+    gs_free(t->xd);
+    gs_free(t->cm);
+    gs_free(t->deg);
+    gs_free(t->nlead);
 }
 
 /* Record each term's exponent in x (x < 0: no main variable). */
@@ -141,11 +141,11 @@ void gs_pgcd_pts_init(pts *pt, const tab *ta, const tab *tb, int nvars)
 
 void gs_pgcd_pts_clear(pts *pt)
 {
-    free(pt->maxe);
-    free(pt->base);
-    free(pt->val);
-    free(pt->pw);
-    free(pt->pwinv);
+    gs_free(pt->maxe);
+    gs_free(pt->base);
+    gs_free(pt->val);
+    gs_free(pt->pw);
+    gs_free(pt->pwinv);
 }
 
 static void pow_row(uint64_t *row, uint64_t v, unsigned maxe, uint64_t p)
@@ -274,8 +274,8 @@ static void bounds_round(long *bd, unsigned char *want, tab *ta, tab *tb,
         gs_nmod_poly_clear(&ib[v]);
     }
     gs_nmod_poly_clear(&g);
-    free(ia);
-    free(ib);
+    gs_free(ia);
+    gs_free(ib);
 }
 
 /* bd[v] >= deg_v gcd(a, b) for every variable; returns how many are
@@ -300,6 +300,6 @@ int gs_pgcd_degree_bounds(long *bd, tab *ta, tab *tb, pts *pt, gs_rng *rng)
             bd[v] = ta->deg[v] < tb->deg[v] ? ta->deg[v] : tb->deg[v];
         pos += bd[v] > 0;
     }
-    free(want);
+    gs_free(want);
     return pos;
 }

@@ -51,8 +51,8 @@ static void sp_init(spoly *s, int w)
 
 static void sp_clear(spoly *s)
 {
-    free(s->ex);
-    free(s->c);
+    gs_free(s->ex);
+    gs_free(s->c);
     sp_init(s, s->w);
 }
 
@@ -133,9 +133,9 @@ static void zctx_init(zctx *z, const gs_poly *a, const gs_poly *b,
 
 static void zctx_clear(zctx *z)
 {
-    free(z->y);
-    free(z->dy);
-    free(z->isy);
+    gs_free(z->y);
+    gs_free(z->dy);
+    gs_free(z->isy);
     gs_pgcd_tab_clear(&z->ta);
     gs_pgcd_tab_clear(&z->tb);
     gs_pgcd_tab_clear(&z->tg);
@@ -265,10 +265,10 @@ static int zip_first(spoly *G, zctx *z)
     for (i = 0; i < n; i++)
         gs_nmod_poly_clear(&H[i]);
     gs_nmod_poly_clear(&q);
-    free(H);
-    free(xs);
-    free(ys);
-    free(row);
+    gs_free(H);
+    gs_free(xs);
+    gs_free(ys);
+    gs_free(row);
     return r;
 }
 
@@ -341,7 +341,7 @@ static int solve_groups(uint64_t *c, const spoly *G, const size_t *start,
         r = solve_group(c + s, v + s, start[g + 1] - s,
                         (long)G->ex[s * (size_t)G->w], H, nt, p, w);
     }
-    free(w);
+    gs_free(w);
     return r;
 }
 
@@ -411,7 +411,7 @@ static void runs_init(run *rs, tab **ts, int nts, const uint64_t *zeta,
             rs[k].pre[i] = gs_nmod_shoup_pre(rs[k].rat[i], z->p);
         }
     memcpy(z->pt.val, save, (size_t)nv * sizeof *save);
-    free(save);
+    gs_free(save);
 }
 
 static void run_step(gs_nmod_poly *r, run *rs, const tab *t, uint64_t p)
@@ -444,9 +444,9 @@ static int power_images(gs_nmod_poly *H, long nt, const uint64_t *zeta,
         r = zimage_finish(&H[t], z);
     }
     for (k = 0; k < 3; k++) {
-        free(rs[k].cur);
-        free(rs[k].rat);
-        free(rs[k].pre);
+        gs_free(rs[k].cur);
+        gs_free(rs[k].rat);
+        gs_free(rs[k].pre);
     }
     return r;
 }
@@ -488,10 +488,10 @@ static int zip_solve_at(uint64_t *c, const spoly *G, zctx *z, int nz)
         r = R_FAIL;
     for (t = 0; t < nt; t++)
         gs_nmod_poly_clear(&H[t]);
-    free(H);
-    free(start);
-    free(zeta);
-    free(v);
+    gs_free(H);
+    gs_free(start);
+    gs_free(zeta);
+    gs_free(v);
     return r;
 }
 
@@ -522,8 +522,8 @@ static void extend_support(spoly *G, const uint64_t *bx, const uint64_t *cv,
     sp_clear(G);
     *G = N;
     gs_nmod_poly_clear(&q);
-    free(ys);
-    free(row);
+    gs_free(ys);
+    gs_free(row);
 }
 
 /* Stage k >= 1: from G(x, y_0..y_{k-1}, alpha_k, ...) to G(x, y_0..y_k,
@@ -551,8 +551,8 @@ static int zip_extend(spoly *G, zctx *z, int k)
     z->pt.val[z->y[k]] = alpha;
     if (r == R_OK)
         extend_support(G, bx, cv, nb, k, z->p);
-    free(bx);
-    free(cv);
+    gs_free(bx);
+    gs_free(cv);
     return r;
 }
 
@@ -638,7 +638,7 @@ static void sp_to_poly(gs_poly *r, const spoly *G, const gs_int *X,
         gs_poly_push_term(r, &X[j], e, ctx);
     }
     gs_poly_canonicalise(r, ctx);
-    free(e);
+    gs_free(e);
 }
 
 /* A cheap necessary condition for c | a: degrees, then c(x, point) |
@@ -707,7 +707,7 @@ static int certify(gs_poly *c, gs_poly *qa, gs_poly *qb, const gs_poly *G,
         }
     }
     gs_poly_clear(&k);
-    free(mono);
+    gs_free(mono);
     return ok ? R_OK : R_BADSKEL;
 }
 
@@ -746,8 +746,8 @@ static int lift(gs_poly *c, gs_poly *qa, gs_poly *qb, const spoly *G,
         gs_int_clear(&X[j]);
     gs_int_clear(&M);
     gs_poly_clear(&P);
-    free(X);
-    free(res);
+    gs_free(X);
+    gs_free(res);
     return r;
 }
 

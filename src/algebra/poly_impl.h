@@ -54,7 +54,7 @@ static inline void gs_pheap_init(gs_pheap *h, int nw, size_t hint)
 
 static inline void gs_pheap_clear(gs_pheap *h)
 {
-    free(h->v);
+    gs_free(h->v);
     h->v = NULL;
     h->n = h->alloc = 0;
 }
@@ -225,7 +225,7 @@ static inline void gs_ppack_init(gs_ppack *p, const unsigned *maxv,
 
 static inline void gs_ppack_clear(gs_ppack *p)
 {
-    free(p->from);
+    gs_free(p->from);
 }
 
 /* out = compact form of the packed exponent vector e (poly.h layout) */

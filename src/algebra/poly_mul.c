@@ -98,8 +98,8 @@ static int mul_plan(const gs_poly *a, const gs_poly *b, const unsigned *radix,
             bestcost = cost;
         }
     }
-    free(ba);
-    free(bb);
+    gs_free(ba);
+    gs_free(bb);
     return best;
 }
 
@@ -338,7 +338,7 @@ static void mul_loop(mulstate *st, void *acc, int kind)
             flush_big(st, acc, lo, hi);
     }
     gs_pheap_clear(&h);
-    free(keys);
+    gs_free(keys);
 }
 
 /* Which cell holds every coefficient sum?  |a_i| < 2^ba, |b_j| < 2^bb
@@ -392,14 +392,14 @@ static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
     if (kind == ACC_I128) {
         gs_i128 *acc = gs_calloc(dsize, sizeof *acc);
         mul_loop(&st, acc, ACC_I128);
-        free(acc);
+        gs_free(acc);
     } else if (kind == ACC_MID) {
         acc3 acc;
         acc.lo = gs_calloc(dsize, sizeof *acc.lo);
         acc.hi = gs_calloc(dsize, sizeof *acc.hi);
         mul_loop(&st, &acc, ACC_MID);
-        free(acc.lo);
-        free(acc.hi);
+        gs_free(acc.lo);
+        gs_free(acc.hi);
     } else
 #endif
     {
@@ -409,13 +409,13 @@ static void mul_blocks(gs_poly *r, const gs_poly *a, const gs_poly *b, int m,
         mul_loop(&st, acc, ACC_BIG);
         for (k = 0; k < dsize; k++)
             gs_int_clear(&acc[k]);
-        free(acc);
+        gs_free(acc);
     }
     gs_poly_swap(r, &st.out);
     gs_poly_clear(&st.out);
     gs_int_clear(&st.tmp);
-    free(st.cur);
-    free(st.cur_std);
+    gs_free(st.cur);
+    gs_free(st.cur_std);
     gs_pside_clear(&st.a);
     gs_pside_clear(&st.b);
     gs_playout_clear(&st.lay);
@@ -433,7 +433,7 @@ static void mul_term(gs_poly *r, const gs_poly *a, const gs_poly *b,
     gs_poly_mul_monomial(r, a, e, ctx);
     gs_poly_mul_int(r, r, &c, ctx);
     gs_int_clear(&c);
-    free(e);
+    gs_free(e);
 }
 
 static void mul_capped(gs_poly *r, const gs_poly *a, const gs_poly *b,
@@ -466,9 +466,9 @@ static void mul_capped(gs_poly *r, const gs_poly *a, const gs_poly *b,
                method & GS_POLY_MUL_BIGACC
                    ? ACC_BIG : acc_kind(a, b, method & GS_POLY_MUL_MIDACC),
                cap, ctx);
-    free(da);
-    free(db);
-    free(radix);
+    gs_free(da);
+    gs_free(db);
+    gs_free(radix);
 }
 
 void gs_poly_mul_method(gs_poly *r, const gs_poly *a, const gs_poly *b,
@@ -579,8 +579,8 @@ void gs_poly_sum_of_products(gs_poly *r, const gs_poly *const *a,
     }
     gs_int_clear(&acc);
     gs_pheap_clear(&h);
-    free(keys);
-    free(st);
+    gs_free(keys);
+    gs_free(st);
     gs_poly_shrink(r, ctx);
 }
 
@@ -601,8 +601,8 @@ int gs_poly_mul_fits(int *var, const gs_poly *a, const gs_poly *b,
             if (var)
                 *var = v;
         }
-    free(da);
-    free(db);
+    gs_free(da);
+    gs_free(db);
     return ok;
 }
 
@@ -664,7 +664,7 @@ static void pow_binomial(gs_poly *r, const gs_poly *a, unsigned long e,
     gs_poly_clear(&t);
     for (k = 0; k <= e; k++)
         gs_int_clear(&up[k]);
-    free(up);
+    gs_free(up);
     gs_int_clear(&binom);
     gs_int_clear(&vk);
     gs_int_clear(&kk);

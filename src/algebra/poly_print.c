@@ -68,7 +68,7 @@ char *gs_poly_get_str(const gs_poly *a, const gs_polyctx *ctx)
         if (!mono || !(gs_int_is_one(c) || gs_int_cmp_si(c, -1) == 0)) {
             char *digits = gs_int_get_str(c);
             gs_strbuf_add(&b, digits + (digits[0] == '-'));
-            free(digits);
+            gs_free(digits);
             if (mono)
                 gs_strbuf_add(&b, "*");
         }
@@ -82,7 +82,7 @@ void gs_poly_print(FILE *out, const gs_poly *a, const gs_polyctx *ctx)
 {
     char *s = gs_poly_get_str(a, ctx);
     fputs(s, out);
-    free(s);
+    gs_free(s);
 }
 
 /* Recursive descent over
@@ -146,7 +146,7 @@ static int parse_number(parser *p, gs_poly *r)
     if (rc == GS_OK)
         gs_poly_set_int(r, &c, p->ctx);
     gs_int_clear(&c);
-    free(digits);
+    gs_free(digits);
     return rc;
 }
 
@@ -156,7 +156,7 @@ static int lookup(parser *p, const char *pre, const char *s, size_t n,
 {
     char *name = gs_asprintf("%s%.*s", pre, (int)n, s);
     int id = gs_symtab_find(p->ctx->syms, name);
-    free(name);
+    gs_free(name);
     if (id < 0 || id >= p->ctx->nvars)
         return GS_EINVAL;
     gs_poly_set_var(r, id, 1, p->ctx);
@@ -342,7 +342,7 @@ int gs_poly_set_str(gs_poly *r, const char *s, const gs_polyctx *ctx)
     if (rc == GS_OK)
         gs_poly_swap(r, &t);
     gs_poly_clear(&t);
-    free(p.da);
-    free(p.db);
+    gs_free(p.da);
+    gs_free(p.db);
     return rc;
 }

@@ -30,7 +30,7 @@ static void free_split(gs_poly *c, long n)
     long k;
     for (k = 0; k <= n; k++)
         gs_poly_clear(&c[k]);
-    free(c);
+    gs_free(c);
 }
 
 /* Horner's rule in x_var: r = (..(c_n b + c_{n-1}) b + ..) b + c_0. */

@@ -194,7 +194,7 @@ int gs_rat_parse(gs_rat *r, const char *s, const char **end)
     memcpy(dig + il, fp, fl);
     dig[n] = '\0';
     set_decimal(r, dig, neg, e);
-    free(dig);
+    gs_free(dig);
     if (end != NULL)
         *end = p;
     return GS_OK;
@@ -208,8 +208,8 @@ char *gs_rat_get_str(const gs_rat *a)
         return n;
     d = gs_int_get_str(&a->den);
     s = gs_asprintf("%s/%s", n, d);
-    free(n);
-    free(d);
+    gs_free(n);
+    gs_free(d);
     return s;
 }
 

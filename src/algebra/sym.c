@@ -43,10 +43,10 @@ void gs_symtab_free(gs_symtab *st)
     if (st == NULL)
         return;
     for (i = 0; i < st->n; i++)
-        free(st->v[i].name);
-    free(st->v);
-    free(st->slots);
-    free(st);
+        gs_free(st->v[i].name);
+    gs_free(st->v);
+    gs_free(st->slots);
+    gs_free(st);
 }
 
 static size_t find_slot(const gs_symtab *st, const char *name)
@@ -62,7 +62,7 @@ static void grow_slots(gs_symtab *st)
 {
     size_t i;
     int k;
-    free(st->slots);
+    gs_free(st->slots);
     st->nslots *= 2;
     st->slots = gs_malloc(st->nslots * sizeof *st->slots);
     for (i = 0; i < st->nslots; i++)
@@ -110,7 +110,7 @@ int gs_symtab_recip(gs_symtab *st, int base)
         return st->v[base].recip;
     name = gs_asprintf("1/%s", st->v[base].name);
     id = add_symbol(st, name, base);
-    free(name);
+    gs_free(name);
     st->v[base].recip = id;
     return id;
 }
@@ -208,6 +208,6 @@ char *gs_symtab_latex(const gs_symtab *st, int id)
         return gs_sym_latex_name(st->v[id].name);
     inner = gs_sym_latex_name(st->v[st->v[id].base].name);
     out = gs_asprintf("\\frac{1}{%s}", inner);
-    free(inner);
+    gs_free(inner);
     return out;
 }

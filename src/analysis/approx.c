@@ -47,15 +47,15 @@ void gs_approx_terms_clear(gs_approx_terms *t)
     int w, k;
     size_t i;
     if (t->coefs == graph_coefs)
-        free(t->coefs_arg);     /* the graph producer's, owned */
+        gs_free(t->coefs_arg);     /* the graph producer's, owned */
     for (w = 0; w < 2; w++) {
         for (k = 0; t->c[w] && k < t->ncoef[w]; k++) {
             for (i = 0; i < t->c[w][k].nterms; i++)
                 gs_poly_clear(&t->c[w][k].terms[i]);
-            free(t->c[w][k].terms);
-            free(t->c[w][k].mag);
+            gs_free(t->c[w][k].terms);
+            gs_free(t->c[w][k].mag);
         }
-        free(t->c[w]);
+        gs_free(t->c[w]);
     }
     gs_approx_terms_init(t);
 }
@@ -99,8 +99,8 @@ static void fill_coeff(gs_approx_coeff *c, const gs_poly *p,
         gs_poly_set_term(&c->terms[i], &p->coeffs[r[i].idx], e, ctx);
         c->mag[i] = r[i].mag;
     }
-    free(e);
-    free(r);
+    gs_free(e);
+    gs_free(r);
 }
 
 void gs_approx_terms_from_tf(gs_approx_terms *t, const gs_tf *tf,
@@ -125,7 +125,7 @@ void gs_approx_terms_from_tf(gs_approx_terms *t, const gs_tf *tf,
             fill_coeff(&t->c[w][k], &co[k], vals, tf->ctx);
             gs_poly_clear(&co[k]);
         }
-        free(co);
+        gs_free(co);
     }
     t->complete = 1;
     t->path = "exact expansion";
@@ -188,7 +188,7 @@ static int fill_from_graph(gs_approx_coeff *c, const gs_mgraph *g,
     complete = mt.complete;
     gs_int_clear(&cf);
     gs_mgraph_terms_clear(&mt);
-    free(e);
+    gs_free(e);
     return complete;
 }
 
@@ -233,8 +233,8 @@ void gs_approx_terms_from_graph(gs_approx_terms *t, const gs_mgraph *g,
     }
     gs_int_clear(&mul[0]);
     gs_int_clear(&mul[1]);
-    free(cn);
-    free(cd);
+    gs_free(cn);
+    gs_free(cd);
     t->complete = complete;
     t->path = "graph of minors";
     t->coefs = graph_coefs;
@@ -267,8 +267,8 @@ void gs_approx_result_clear(gs_approx_result *r)
     } else {
         /* a run that stopped before its form (an error): only the
            labels that gs_approx_run set after it are held */
-        free(r->h.name);
-        free(r->h.description);
+        gs_free(r->h.name);
+        gs_free(r->h.description);
     }
     gs_poly_clear(&r->dcn);
     gs_poly_clear(&r->dcd);
@@ -279,14 +279,14 @@ void gs_approx_result_clear(gs_approx_result *r)
         gs_poly_clear(&r->roots[i].a1);
         gs_poly_clear(&r->roots[i].a2);
     }
-    free(r->roots);
+    gs_free(r->roots);
     for (i = 0; i < r->ncond; i++) {
-        free(r->cond[i].lhs);
-        free(r->cond[i].rhs);
+        gs_free(r->cond[i].lhs);
+        gs_free(r->cond[i].rhs);
         gs_poly_clear(&r->cond[i].pl);
         gs_poly_clear(&r->cond[i].pr);
     }
-    free(r->cond);
+    gs_free(r->cond);
     memset(r, 0, sizeof *r);
     gs_poly_init(&r->dcn);
     gs_poly_init(&r->dcd);
@@ -349,7 +349,7 @@ static void make_points(work *wk, gs_approx_result *r,
         if (wk->t->coefs)
             gs_mgraph_fill_recips(x, wk->ctx->syms, nv);
     }
-    free(sym);
+    gs_free(sym);
 }
 
 static void make_cum(work *wk)
@@ -416,7 +416,7 @@ static void make_exact(work *wk)
             for (k = 0; k <= d[w] && k < wk->t->ncoef[w]; k++)
                 wk->ex[w][(size_t)p * (size_t)wk->t->ncoef[w] + (size_t)k] =
                     c[w][k];
-            free(c[w]);
+            gs_free(c[w]);
         }
     }
 }
@@ -664,8 +664,8 @@ static void conditions(gs_approx_result *r, const gs_approx_terms *t,
     qsort(cd, n, sizeof *cd, cmp_cond);
     r->ncond_total = n;
     for (i = MAX_COND; i < n; i++) {
-        free(cd[i].lhs);
-        free(cd[i].rhs);
+        gs_free(cd[i].lhs);
+        gs_free(cd[i].rhs);
         gs_poly_clear(&cd[i].pl);
         gs_poly_clear(&cd[i].pr);
     }
@@ -754,7 +754,7 @@ static size_t s_factors(sfactor **out, const work *wk, int w, int s_var,
     int k;
     *out = NULL;
     if (!t->complete || t->ref) {
-        free(all);
+        gs_free(all);
         return 0;
     }
     for (k = 0; k < t->ncoef[w]; k++)
@@ -790,8 +790,8 @@ static size_t s_factors(sfactor **out, const work *wk, int w, int s_var,
         }
         gs_poly_clear(&f[i]);
     }
-    free(f);
-    free(all);
+    gs_free(f);
+    gs_free(all);
     gs_poly_clear(&p);
     return n;
 }
@@ -864,8 +864,8 @@ static void roots_of(gs_approx_result *r, const work *wk, int w,
     while (deg > 0 && a[deg] == 0)
         deg--;
     if (deg < 1 || gs_roots(rt, NULL, a, deg, &info) == GS_EINVAL) {
-        free(a);
-        free(rt);
+        gs_free(a);
+        gs_free(rt);
         return;
     }
     nr = info.nroots;
@@ -938,8 +938,8 @@ static void roots_of(gs_approx_result *r, const work *wk, int w,
     }
     (void)vals;
     r->nroots += (size_t)nr;
-    free(a);
-    free(rt);
+    gs_free(a);
+    gs_free(rt);
 }
 
 /* ---- the run -------------------------------------------------------- */
@@ -1003,7 +1003,7 @@ int gs_approx_run_terms(gs_approx_result *r, const gs_approx_terms *t,
             deg--;
         if (deg >= 1 && gs_roots(rt + nrt, NULL, a, deg, &info) != GS_EINVAL)
             nrt += info.nroots;
-        free(a);
+        gs_free(a);
     }
     for (p = 0; p < wk.np; p++) {
         long double d0 = 0;
@@ -1109,23 +1109,23 @@ int gs_approx_run_terms(gs_approx_result *r, const gs_approx_terms *t,
             gs_poly_clear(&sf[k].c[1]);
             gs_poly_clear(&sf[k].c[2]);
         }
-        free(sf);
+        gs_free(sf);
     }
 out:
     for (w = 0; w < 2; w++) {
-        free(full[w]);
-        free(keep[w]);
-        free(prev[w]);
-        free(best[w]);
-        free(shortk[w]);
-        free(wk.cum[w]);
-        free(wk.off[w]);
-        free(wk.ex[w]);
+        gs_free(full[w]);
+        gs_free(keep[w]);
+        gs_free(prev[w]);
+        gs_free(best[w]);
+        gs_free(shortk[w]);
+        gs_free(wk.cum[w]);
+        gs_free(wk.off[w]);
+        gs_free(wk.ex[w]);
     }
-    free(rt);
-    free(wk.pts);
-    free(wk.w);
-    free(wk.ref);
+    gs_free(rt);
+    gs_free(wk.pts);
+    gs_free(wk.w);
+    gs_free(wk.ref);
     return rc;
 }
 
@@ -1210,7 +1210,7 @@ static int run_graph(gs_approx_result *r, const gs_job *j, size_t i,
         t.coefs(&c[0], &deg[0], &c[1], &deg[1], vals, t.coefs_arg);
         for (w = 0; w < 2; w++) {
             share[w] = shares(c[w], deg[w], r->f_lo, r->f_hi);
-            free(c[w]);
+            gs_free(c[w]);
         }
         gen_tol = (powl(10, o->tol_db / 20) - 1) / 4;
         if (gen_tol < GRAPH_MIN_TOL)
@@ -1230,9 +1230,9 @@ static int run_graph(gs_approx_result *r, const gs_job *j, size_t i,
         }
     }
     gs_approx_terms_clear(&t);
-    free(share[0]);
-    free(share[1]);
-    free(vals);
+    gs_free(share[0]);
+    gs_free(share[1]);
+    gs_free(vals);
     return rc;
 }
 
@@ -1254,6 +1254,6 @@ int gs_approx_run(gs_approx_result *r, const gs_job *j, size_t i,
     gs_tf_set_description(&r->h, j->tf[i].description);
     r->h.kind = j->tf[i].kind;
     gs_approx_terms_clear(&t);
-    free(used);
+    gs_free(used);
     return rc;
 }

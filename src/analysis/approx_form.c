@@ -90,7 +90,7 @@ static void decompose(parts *pt, const gs_poly *p, const gs_polyctx *ctx)
     gs_poly_init(&q);
     gs_poly_content(&pt->c, p);
     if (gs_poly_is_zero(p)) {
-        free(m);
+        gs_free(m);
         return;
     }
     gs_poly_primitive(&q, p, ctx);
@@ -112,7 +112,7 @@ static void decompose(parts *pt, const gs_poly *p, const gs_polyctx *ctx)
         split(&pt->f, &pt->nf, &q, ctx);
     (void)v;
     gs_poly_clear(&q);
-    free(m);
+    gs_free(m);
 }
 
 size_t gs_approx_factors(gs_poly **f, const gs_poly *p,
@@ -123,7 +123,7 @@ size_t gs_approx_factors(gs_poly **f, const gs_poly *p,
     *f = pt.f;
     pt.f = NULL;
     gs_int_clear(&pt.c);
-    free(pt.mono);
+    gs_free(pt.mono);
     return pt.nf;
 }
 
@@ -131,10 +131,10 @@ static void parts_clear(parts *pt)
 {
     size_t i;
     gs_int_clear(&pt->c);
-    free(pt->mono);
+    gs_free(pt->mono);
     for (i = 0; i < pt->nf; i++)
         gs_poly_clear(&pt->f[i]);
-    free(pt->f);
+    gs_free(pt->f);
 }
 
 static char *poly_str(const gs_poly *p, int style, const gs_polyctx *ctx)
@@ -166,11 +166,11 @@ static char *poly_str(const gs_poly *p, int style, const gs_polyctx *ctx)
                     snprintf(num, sizeof num, "^{%u}", e[v]);
                     put(&b, num);
                 }
-                free(l);
+                gs_free(l);
             }
-        free(c);
+        gs_free(c);
     }
-    free(e);
+    gs_free(e);
     return b.s;
 }
 
@@ -187,7 +187,7 @@ static void put_mono(sbuf *b, const unsigned *e, int style, int *first,
             if (style == GS_FORM_LATEX) {
                 char *l = gs_symtab_latex(ctx->syms, v);
                 put(b, l);
-                free(l);
+                gs_free(l);
                 if (e[v] > 1) {
                     snprintf(num, sizeof num, "^{%u}", e[v]);
                     put(b, num);
@@ -226,7 +226,7 @@ static void put_product(sbuf *b, const parts *pt, char **pars, size_t npar,
     if (!gs_int_is_one(&a)) {
         c = gs_int_get_str(&a);
         put(b, c);
-        free(c);
+        gs_free(c);
         first = 0;
     }
     gs_int_clear(&a);
@@ -245,7 +245,7 @@ static void put_product(sbuf *b, const parts *pt, char **pars, size_t npar,
         put(b, style == GS_FORM_LATEX ? "\\left(" : "(");
         put(b, s);
         put(b, style == GS_FORM_LATEX ? "\\right)" : ")");
-        free(s);
+        gs_free(s);
     }
     if (first)
         put(b, "1");
@@ -264,8 +264,8 @@ char *gs_approx_form(const gs_poly *num, const gs_poly *den, int style,
     put(&b, "");
     if (gs_poly_is_zero(num)) {
         put(&b, "0");
-        free(e1);
-        free(e2);
+        gs_free(e1);
+        gs_free(e2);
         return b.s;
     }
     decompose(&pn, num, ctx);
@@ -290,8 +290,8 @@ char *gs_approx_form(const gs_poly *num, const gs_poly *den, int style,
             char *t = style == GS_FORM_TEXT ? gs_asprintf("par(%s, %s)", a, c)
                 : style == GS_FORM_PRETTY ? gs_asprintf("(%s||%s)", a, c)
                 : gs_asprintf("\\left(%s \\parallel %s\\right)", a, c);
-            free(a);
-            free(c);
+            gs_free(a);
+            gs_free(c);
             pars = gs_reallocarray(pars, npar + 1, sizeof *pars);
             pars[npar++] = t;
         }
@@ -327,11 +327,11 @@ char *gs_approx_form(const gs_poly *num, const gs_poly *den, int style,
         }
     }
     for (i = 0; i < npar; i++)
-        free(pars[i]);
-    free(pars);
+        gs_free(pars[i]);
+    gs_free(pars);
     parts_clear(&pn);
     parts_clear(&pd);
-    free(e1);
-    free(e2);
+    gs_free(e1);
+    gs_free(e2);
     return b.s;
 }

@@ -49,9 +49,9 @@ static void clear_reciprocals(gs_poly *a, gs_poly *b, const gs_symtab *st,
         gs_poly_flip_vars(a, a, to, top, ctx);
         gs_poly_flip_vars(b, b, to, top, ctx);
     }
-    free(top);
-    free(db);
-    free(to);
+    gs_free(top);
+    gs_free(db);
+    gs_free(to);
 }
 
 static void remove_monomial_content(gs_poly *a, gs_poly *b,
@@ -71,8 +71,8 @@ static void remove_monomial_content(gs_poly *a, gs_poly *b,
         gs_poly_div_monomial(a, a, ea, ctx);
         gs_poly_div_monomial(b, b, ea, ctx);
     }
-    free(ea);
-    free(eb);
+    gs_free(ea);
+    gs_free(eb);
 }
 
 /* Put num/den in lowest terms in place: reciprocal symbols cleared,
@@ -184,7 +184,7 @@ static char *describe(const gs_circuit *c, const gs_output *o)
         probe = gs_asprintf("v(%s, %s)", c->node_name[o->out.a],
                             c->node_name[o->out.b]);
     text = gs_asprintf("%s / %s", probe, c->elems[o->in].name);
-    free(probe);
+    gs_free(probe);
     return text;
 }
 
@@ -237,11 +237,11 @@ static double degree_bound(const gs_mna *m, int k, const gs_polyctx *ctx)
             sum_c[v] += col[(size_t)j * (size_t)nv + (size_t)v];
     for (v = 0; v < nv; v++)
         bound *= (double)(sum_r[v] < sum_c[v] ? sum_r[v] : sum_c[v]) + 1;
-    free(row);
-    free(col);
-    free(degs);
-    free(sum_r);
-    free(sum_c);
+    gs_free(row);
+    gs_free(col);
+    gs_free(degs);
+    gs_free(sum_r);
+    gs_free(sum_c);
     return bound;
 }
 
@@ -381,8 +381,8 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
         fwd[v] = nsmall;
         back[nsmall++] = v;
     }
-    free(used);
-    free(here);
+    gs_free(used);
+    gs_free(here);
     small = gs_polyctx_new(st, nsmall);
     if (small->nwords >= ctx->nwords) {
         rc = determinants_in(det_a, det_m, m, ctx, o, stats, d);
@@ -404,12 +404,12 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
         gs_poly_clear(&sm);
         for (k = 0; k < cells; k++)
             gs_poly_clear(&ms.m[k]);
-        free(ms.m);
+        gs_free(ms.m);
     }
     gs_polyctx_free(small);
     gs_symtab_free(st);
-    free(fwd);
-    free(back);
+    gs_free(fwd);
+    gs_free(back);
     return rc;
 }
 
@@ -434,7 +434,7 @@ static char *expr_text(const gs_circuit *c, const gs_expr *e, int prec)
     case GS_EX_NEG:
         l = expr_text(c, e->lhs, 3);
         t = gs_asprintf(prec > 1 ? "(-%s)" : "-%s", l);
-        free(l);
+        gs_free(l);
         return t;
     default:
         break;
@@ -449,8 +449,8 @@ static char *expr_text(const gs_circuit *c, const gs_expr *e, int prec)
     l = expr_text(c, e->lhs, mine);
     r = expr_text(c, e->rhs, mine + 1);
     t = gs_asprintf(mine < prec ? "(%s%s%s)" : "%s%s%s", l, op, r);
-    free(l);
-    free(r);
+    gs_free(l);
+    gs_free(r);
     return t;
 }
 
@@ -674,7 +674,7 @@ static int derive_loop_part(gs_tf *tf, gs_circuit *c, size_t out,
                        : "direct feed-through of %s, %s set to zero",
                        c->outputs[op->loop_of].name, c->elems[op->in].name);
     gs_tf_set_description(tf, desc);
-    free(desc);
+    gs_free(desc);
     tf->kind = GS_TF_TRANSFER;
     if (rc == GS_OK)
         rc = apply_limits(tf, c, op, o, stats, d);
@@ -737,7 +737,7 @@ static int derive_loop(gs_tf *tf, const gs_circuit *cc, size_t out,
     gs_tf_set_name(tf, op->name);
     desc = gs_asprintf("return ratio of %s", x->name);
     gs_tf_set_description(tf, desc);
-    free(desc);
+    gs_free(desc);
     return apply_limits(tf, c, op, o, stats, d);
 }
 
@@ -761,7 +761,7 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
         desc = expr_text(c, op->figure, 0);
         gs_tf_set_name(tf, op->name);
         gs_tf_set_description(tf, desc);
-        free(desc);
+        gs_free(desc);
         tf->kind = GS_TF_TRANSFER;
         rc = gs_derive_figure_part(tf, c, out, ctx, o, d, 0);
         if (rc == GS_OK)
@@ -771,7 +771,7 @@ int gs_derive(gs_tf *tf, const gs_circuit *c, size_t out,
     desc = describe(c, op);
     gs_tf_set_name(tf, op->name);
     gs_tf_set_description(tf, desc);
-    free(desc);
+    gs_free(desc);
     tf->kind = op->kind == GS_OUT_IMPEDANCE ? GS_TF_IMPEDANCE
                                             : GS_TF_TRANSFER;
     memset(&m, 0, sizeof m);

@@ -294,12 +294,12 @@ static void elim_clear(elim *e)
     int i;
     for (i = 0; i <= e->n; i++)
         gs_poly_clear(&e->dets[i]);
-    free(e->dets);
-    free(e->row_on);
-    free(e->col_on);
-    free(e->last);
-    free(e->rowcount);
-    free(e->colcount);
+    gs_free(e->dets);
+    gs_free(e->row_on);
+    gs_free(e->col_on);
+    gs_free(e->last);
+    gs_free(e->rowcount);
+    gs_free(e->colcount);
     gs_poly_clear(&e->t1);
     gs_poly_clear(&e->t2);
 }

@@ -21,8 +21,8 @@ static void free_origins(gs_job *j)
     if (j->origin == NULL)
         return;
     for (i = 0; i < gs_symtab_count(j->c->syms); i++)
-        free(j->origin[i]);
-    free(j->origin);
+        gs_free(j->origin[i]);
+    gs_free(j->origin);
     j->origin = NULL;
 }
 
@@ -33,16 +33,16 @@ void gs_job_clear(gs_job *j)
         gs_tf_clear(&j->tf[i]);
         if (j->graph && j->graph[i]) {
             gs_mgraph_clear(j->graph[i]);
-            free(j->graph[i]);
+            gs_free(j->graph[i]);
         }
     }
-    free(j->graph);
-    free(j->tf);
-    free(j->out_index);
-    free(j->stats);
+    gs_free(j->graph);
+    gs_free(j->tf);
+    gs_free(j->out_index);
+    gs_free(j->stats);
     free_origins(j);
-    free(j->vals);
-    free(j->set);
+    gs_free(j->vals);
+    gs_free(j->set);
     gs_polyctx_free(j->ctx);
     gs_circuit_free(j->c);
     gs_job_init(j);
@@ -216,7 +216,7 @@ static int keep_graph(gs_job *j, size_t k, gs_diag *d)
     }
     if (rc == GS_ESINGULAR)
         gs_mgraph_clear(g);
-    free(g);
+    gs_free(g);
     return rc;
 }
 
@@ -248,7 +248,7 @@ static void drop_last(gs_job *j)
     gs_tf_clear(&j->tf[i]);
     if (j->graph[i]) {
         gs_mgraph_clear(j->graph[i]);
-        free(j->graph[i]);
+        gs_free(j->graph[i]);
         j->graph[i] = NULL;
     }
 }
@@ -343,7 +343,7 @@ static void override_value(gs_circuit *c, int sym, gs_expr *expr)
         if (c->values[i].sym == sym) {
             gs_expr_free(c->values[i].expr);
             c->values[i].expr = expr;
-            free(c->values[i].origin);
+            gs_free(c->values[i].origin);
             c->values[i].origin = gs_strdup("--set");
             return;
         }
@@ -375,10 +375,10 @@ static int apply_set(gs_job *j, const char *text, gs_diag *d)
     if (sym < 0 || sym == j->c->s_sym) {
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL,
                     "--set %s: the circuit has no symbol '%s'", name, name);
-        free(name);
+        gs_free(name);
         return GS_EINVAL;
     }
-    free(name);
+    gs_free(name);
     rc = gs_expr_parse_string(&e, j->c, eq + 1, "--set", d);
     if (rc != GS_OK)
         return rc;
@@ -410,7 +410,7 @@ unsigned char *gs_job_used_symbols(const gs_job *j)
         for (v = 0; v < nv; v++)
             used[v] |= tmp[v];
     }
-    free(tmp);
+    gs_free(tmp);
     return used;
 }
 
@@ -436,8 +436,8 @@ static int check_bound(gs_job *j, gs_diag *d)
                     "NAME=VALUE",
                     "no value for %s %s", nmissing > 1 ? "symbols" : "symbol",
                     list);
-    free(list);
-    free(used);
+    gs_free(list);
+    gs_free(used);
     return nmissing ? GS_EUNBOUND : GS_OK;
 }
 
@@ -484,10 +484,10 @@ static int apply_biases(gs_job *j, gs_diag *d)
         bo[v] = NULL;
     }
     for (v = 0; v < n; v++)
-        free(bo[v]);
-    free(bo);
-    free(bs);
-    free(bv);
+        gs_free(bo[v]);
+    gs_free(bo);
+    gs_free(bs);
+    gs_free(bv);
     return rc;
 }
 
@@ -500,8 +500,8 @@ int gs_job_bind(gs_job *j, char *const *sets, size_t nsets, gs_diag *d)
     if (rc != GS_OK)
         return rc;
     free_origins(j);
-    free(j->vals);
-    free(j->set);
+    gs_free(j->vals);
+    gs_free(j->set);
     j->vals = gs_calloc(n, sizeof *j->vals);
     j->set = gs_calloc(n, 1);
     j->origin = gs_calloc(n, sizeof *j->origin);
@@ -540,8 +540,8 @@ static long double *graph_coeffs(const gs_job *j, const gs_mgraph *g,
             out[k - low] = out[k];
         *deg -= low;
     }
-    free(want_num ? cd : cn);
-    free(vals);
+    gs_free(want_num ? cd : cn);
+    gs_free(vals);
     return out;
 }
 

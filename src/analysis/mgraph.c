@@ -54,19 +54,19 @@ static void level_init(level *l)
 
 static void level_clear(level *l)
 {
-    free(l->keys);
-    free(l->slot);
-    free(l->e_parent);
-    free(l->e_child);
-    free(l->e_cell);
-    free(l->e_neg);
+    gs_free(l->keys);
+    gs_free(l->slot);
+    gs_free(l->e_parent);
+    gs_free(l->e_child);
+    gs_free(l->e_cell);
+    gs_free(l->e_neg);
     level_init(l);
 }
 
 static void level_rehash(level *l, int w)
 {
     size_t cap = l->cap ? 2 * l->cap : 64, i;
-    free(l->slot);
+    gs_free(l->slot);
     l->cap = cap;
     l->slot = gs_malloc(cap * sizeof *l->slot);
     for (i = 0; i < cap; i++)
@@ -223,9 +223,9 @@ static void view_init(view *v, const gs_mna *m, int transposed)
 
 static void view_clear(view *v)
 {
-    free(v->x);
-    free(v->top);
-    free(v->nz);
+    gs_free(v->x);
+    gs_free(v->top);
+    gs_free(v->nz);
 }
 
 /* Work allowed for trying every row at one level before the cheaper
@@ -302,11 +302,11 @@ static level *plan_levels(const view *v, gs_mgraph_order order)
             expand(&lv[k + 1], &lv[k], v, r, rows, nrows, 1, NONE, tmp);
         }
     }
-    free(rows);
-    free(rest);
-    free(tmp);
-    free(full);
-    free(live);
+    gs_free(rows);
+    gs_free(rest);
+    gs_free(tmp);
+    gs_free(full);
+    gs_free(live);
     return lv;
 }
 
@@ -438,9 +438,9 @@ static void assemble(gs_mgraph *g, level *lv, const view *v,
         gs_poly_set(&g->entries[i], src, g->ctx);
     }
     for (k = 0; k <= n; k++)
-        free(id[k]);
-    free(id);
-    free(top_node);
+        gs_free(id[k]);
+    gs_free(id);
+    gs_free(top_node);
 }
 
 int gs_mgraph_build(gs_mgraph *g, const gs_mna *m, gs_mgraph_order order,
@@ -463,7 +463,7 @@ int gs_mgraph_build(gs_mgraph *g, const gs_mna *m, gs_mgraph_order order,
         assemble(&cand[t], lv, &v, m);
         for (k = 0; k <= n; k++)
             level_clear(&lv[k]);
-        free(lv);
+        gs_free(lv);
         view_clear(&v);
     }
     pick = cand[1].nedges < cand[0].nedges;
@@ -477,12 +477,12 @@ void gs_mgraph_clear(gs_mgraph *g)
     size_t i;
     for (i = 0; g->entries && i < g->nentries; i++)
         gs_poly_clear(&g->entries[i]);
-    free(g->entries);
-    free(g->first);
-    free(g->child);
-    free(g->entry);
-    free(g->neg);
-    free(g->level);
+    gs_free(g->entries);
+    gs_free(g->first);
+    gs_free(g->child);
+    gs_free(g->entry);
+    gs_free(g->neg);
+    gs_free(g->level);
     gs_rat_clear(&g->scale);
     memset(g, 0, sizeof *g);
 }
@@ -509,7 +509,7 @@ void gs_mgraph_count_paths(gs_int *r, const gs_mgraph *g, size_t root)
     gs_int_set(r, &c[root]);
     for (v = 0; v <= root; v++)
         gs_int_clear(&c[v]);
-    free(c);
+    gs_free(c);
     gs_int_clear(&t);
 }
 
@@ -533,8 +533,8 @@ void gs_mgraph_eval_lc(long double complex *num, long double complex *den,
     }
     *num = sc * val[g->root_n];
     *den = val[g->root_d];
-    free(x);
-    free(val);
+    gs_free(x);
+    gs_free(val);
 }
 
 static void poly_eval_rat(gs_rat *r, const gs_poly *a, const gs_rat *vals,
@@ -559,7 +559,7 @@ static void poly_eval_rat(gs_rat *r, const gs_poly *a, const gs_rat *vals,
     }
     gs_rat_clear(&t);
     gs_rat_clear(&p);
-    free(ex);
+    gs_free(ex);
 }
 
 void gs_mgraph_eval_rat(gs_rat *num, gs_rat *den, const gs_mgraph *g,
@@ -592,8 +592,8 @@ void gs_mgraph_eval_rat(gs_rat *num, gs_rat *den, const gs_mgraph *g,
         gs_rat_clear(&x[v]);
     for (v = 0; v < g->nnodes; v++)
         gs_rat_clear(&val[v]);
-    free(x);
-    free(val);
+    gs_free(x);
+    gs_free(val);
     gs_rat_clear(&p);
 }
 
@@ -676,8 +676,8 @@ long double *gs_mgraph_node_coeffs(size_t **off_out, const gs_mgraph *g,
                     acc[i + k] += g->neg[e] ? -a[i] * b[k] : a[i] * b[k];
         }
     }
-    free(ec);
-    free(eoff);
+    gs_free(ec);
+    gs_free(eoff);
     *off_out = off;
     return c;
 }
@@ -693,8 +693,8 @@ void gs_mgraph_coeffs_ld(long double **cn, int *dn, long double **cd,
     for (v = 0; (int)v <= *dn; v++)
         (*cn)[v] *= sc;
     *cd = take(c + off[g->root_d], off[g->root_d + 1] - off[g->root_d], dd);
-    free(c);
-    free(off);
+    gs_free(c);
+    gs_free(off);
 }
 
 int gs_mgraph_expand(gs_poly *r, const gs_mgraph *g, size_t root,
@@ -745,11 +745,11 @@ int gs_mgraph_expand(gs_poly *r, const gs_mgraph *g, size_t root,
     for (v = 0; v <= root; v++)
         if (last[v] != NONE)
             gs_poly_clear(&val[v]);
-    free(val);
-    free(last);
-    free(ea);
-    free(mb);
-    free(neg);
+    gs_free(val);
+    gs_free(last);
+    gs_free(ea);
+    gs_free(mb);
+    gs_free(neg);
     return rc;
 }
 

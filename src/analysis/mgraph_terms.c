@@ -233,9 +233,9 @@ void gs_mgraph_linear_vars(unsigned char *lin, const gs_mgraph *g,
         while (m)
             gs_poly_clear(&x1[--m]);
     }
-    free(deg);
-    free(x1);
-    free(cell);
+    gs_free(deg);
+    gs_free(x1);
+    gs_free(cell);
 }
 
 /* The incidence edges of the degree-one variables in the cells of a
@@ -364,7 +364,7 @@ static size_t index_find(size_t *at, const index *x, const kept *k,
 static void index_grow(index *x, const kept *k, size_t nk, int nv)
 {
     size_t i, h;
-    free(x->slot);
+    gs_free(x->slot);
     x->cap = x->cap ? 2 * x->cap : 64;
     x->slot = gs_malloc(x->cap * sizeof *x->slot);
     for (i = 0; i < x->cap; i++)
@@ -652,7 +652,7 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
     for (i = 0, v = 0; i < nk; i++) {
         if (gs_int_is_zero(&k[i].coef)) {
             gs_int_clear(&k[i].coef);
-            free(k[i].exps);
+            gs_free(k[i].exps);
             continue;
         }
         k[v++] = k[i];
@@ -670,32 +670,32 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
         t->value[i] = gs_int_get_ld(&k[i].coef) * k[i].unit;
         sum += t->value[i];
         gs_int_clear(&k[i].coef);
-        free(k[i].exps);
+        gs_free(k[i].exps);
     }
     t->rest = t->total - sum;
-    free(k);
+    gs_free(k);
     gs_int_clear(&c);
-    free(q.st);
-    free(q.heap);
-    free(q.used);
-    free(ix.slot);
-    free(inc[0]);
-    free(uf);
-    free(uf2);
-    free(tl);
-    free(tloff);
-    free(nu);
-    free(tmask);
-    free(bit);
-    free(lin);
-    free(best);
-    free(coef);
-    free(off);
-    free(tv);
-    free(tdeg);
-    free(eoff);
-    free(ex);
-    free(acc);
+    gs_free(q.st);
+    gs_free(q.heap);
+    gs_free(q.used);
+    gs_free(ix.slot);
+    gs_free(inc[0]);
+    gs_free(uf);
+    gs_free(uf2);
+    gs_free(tl);
+    gs_free(tloff);
+    gs_free(nu);
+    gs_free(tmask);
+    gs_free(bit);
+    gs_free(lin);
+    gs_free(best);
+    gs_free(coef);
+    gs_free(off);
+    gs_free(tv);
+    gs_free(tdeg);
+    gs_free(eoff);
+    gs_free(ex);
+    gs_free(acc);
 }
 
 void gs_mgraph_terms_clear(gs_mgraph_terms *t)
@@ -703,7 +703,7 @@ void gs_mgraph_terms_clear(gs_mgraph_terms *t)
     size_t i;
     for (i = 0; t->term && i < t->count; i++)
         gs_poly_clear(&t->term[i]);
-    free(t->term);
-    free(t->value);
+    gs_free(t->term);
+    gs_free(t->value);
     memset(t, 0, sizeof *t);
 }

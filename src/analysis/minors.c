@@ -53,9 +53,9 @@ static void maskset_init(maskset *s)
 
 static void maskset_clear(maskset *s)
 {
-    free(s->slot_key);
-    free(s->slot_pos);
-    free(s->list);
+    gs_free(s->slot_key);
+    gs_free(s->slot_pos);
+    gs_free(s->list);
     maskset_init(s);
 }
 
@@ -67,8 +67,8 @@ static size_t slot_of(uint64_t key, size_t cap)
 static void maskset_grow(maskset *s)
 {
     size_t cap = s->cap ? s->cap * 2 : 64, i;
-    free(s->slot_key);
-    free(s->slot_pos);
+    gs_free(s->slot_key);
+    gs_free(s->slot_pos);
     s->cap = cap;
     s->slot_key = gs_malloc(cap * sizeof *s->slot_key);
     s->slot_pos = gs_malloc(cap * sizeof *s->slot_pos);
@@ -258,8 +258,8 @@ static void view_init(view *v, const gs_mna *m, int transposed)
 
 static void view_clear(view *v)
 {
-    free(v->x);
-    free(v->top);
+    gs_free(v->x);
+    gs_free(v->top);
 }
 
 static void free_values(gs_poly *vals, size_t count)
@@ -267,7 +267,7 @@ static void free_values(gs_poly *vals, size_t count)
     size_t i;
     for (i = 0; vals && i < count; i++)
         gs_poly_clear(&vals[i]);
-    free(vals);
+    gs_free(vals);
 }
 
 /* Sizes watched during an evaluation: the largest minor, and the terms
@@ -327,9 +327,9 @@ static int level_fits(const view *v, int r, const gs_poly *next,
     }
     for (var = 0; var < ctx->nvars && ok; var++)
         ok = top[var] + row[var] <= GS_POLY_MAX_EXP;
-    free(top);
-    free(deg);
-    free(row);
+    gs_free(top);
+    gs_free(deg);
+    gs_free(row);
     return ok;
 }
 
@@ -634,11 +634,11 @@ static int expand_graph(gs_poly *det_a, gs_poly *det_m, const gs_mgraph *g,
             gs_poly_zero(det_m);
     }
     free_values(vals, top + 1);
-    free(last);
-    free(reach);
-    free(ea);
-    free(mb);
-    free(neg);
+    gs_free(last);
+    gs_free(reach);
+    gs_free(ea);
+    gs_free(mb);
+    gs_free(neg);
     return rc;
 }
 

@@ -53,7 +53,7 @@ static void qterm_init(qterm *t, int nvars)
 static void qterm_clear(qterm *t)
 {
     gs_rat_clear(&t->c);
-    free(t->e);
+    gs_free(t->e);
 }
 
 static void lin_init(lin *l)
@@ -68,8 +68,8 @@ static void lin_clear(lin *l)
     size_t i;
     for (i = 0; i < l->n; i++)
         qterm_clear(&l->t[i]);
-    free(l->idx);
-    free(l->t);
+    gs_free(l->idx);
+    gs_free(l->t);
     lin_init(l);
 }
 
@@ -460,10 +460,10 @@ static void builder_clear(builder *b)
         gs_poly_clear(&b->q[k].p);
         gs_int_clear(&b->q[k].den);
     }
-    free(b->q);
+    gs_free(b->q);
     gs_poly_clear(&b->c0.p);
     gs_int_clear(&b->c0.den);
-    free(b->branch);
+    gs_free(b->branch);
 }
 
 /* The input column b: a unit source at the transfer's input, or a unit
@@ -520,11 +520,11 @@ void gs_mna_clear(gs_mna *m)
     cells = (size_t)(m->n + 1) * (size_t)(m->n + 1);
     for (k = 0; k < cells; k++)
         gs_poly_clear(&m->m[k]);
-    free(m->m);
+    gs_free(m->m);
     m->m = NULL;
     for (k = 0; k < (size_t)m->n; k++)
-        free(m->unknown_name[k]);
-    free(m->unknown_name);
+        gs_free(m->unknown_name[k]);
+    gs_free(m->unknown_name);
     m->unknown_name = NULL;
     gs_poly_clear(&m->c0);
     gs_rat_clear(&m->scale);

@@ -18,12 +18,12 @@ void gs_noise_clear(gs_noise *n)
 {
     size_t i;
     for (i = 0; i < n->nsrc; i++) {
-        free(n->src[i].name);
-        free(n->src[i].density);
-        free(n->src[i].unit);
+        gs_free(n->src[i].name);
+        gs_free(n->src[i].density);
+        gs_free(n->src[i].unit);
     }
-    free(n->src);
-    free(n->target);
+    gs_free(n->src);
+    gs_free(n->target);
     memset(n, 0, sizeof *n);
 }
 
@@ -46,7 +46,7 @@ static int has_value_line(const gs_circuit *c, const char *key,
 {
     char *name = gs_asprintf("%s_%s", key, dev);
     int sym = gs_symtab_find(c->syms, name);
-    free(name);
+    gs_free(name);
     return sym >= 0 && gs_circuit_find_value(c, sym) >= 0;
 }
 
@@ -74,7 +74,7 @@ static char *wrapped(const gs_monomial *m, const gs_symtab *st)
     if (strpbrk(t, "*/^") == NULL && t[0] != '-')
         return t;
     r = gs_asprintf("(%s)", t);
-    free(t);
+    gs_free(t);
     return r;
 }
 
@@ -102,27 +102,27 @@ static void collect(gs_noise *n, const gs_circuit *c)
             name = gs_asprintf("%s.channel", dev);
             add_src(n, GS_NZ_CHANNEL, name, ek, e->device, e->node[0],
                     e->node[1], gs_asprintf("4*k*T*nthermal_%s*%s", dev, v));
-            free(name);
+            gs_free(name);
             if (has_value_line(c, "kf", dev)) {
                 name = gs_asprintf("%s.flicker", dev);
                 add_src(n, GS_NZ_FLICKER, name, ek, e->device, e->node[0],
                         e->node[1], gs_asprintf("%s^2*kf_%s/(cox_%s*w_%s*"
                                                 "l_%s*f)", v, dev, dev, dev,
                                                 dev));
-                free(name);
+                gs_free(name);
             }
         } else if (part && strcmp(part, "gm") == 0) {
             name = gs_asprintf("%s.collector", dev);
             add_src(n, GS_NZ_COLLECTOR, name, ek, e->device, e->node[0],
                     e->node[1], gs_asprintf("2*k*T*%s", v));
-            free(name);
+            gs_free(name);
         } else if (part && strcmp(part, "rpi") == 0) {
             name = gs_asprintf("%s.base", dev);
             add_src(n, GS_NZ_BASE, name, ek, e->device, e->node[0],
                     e->node[1], gs_asprintf("2*k*T/%s", v));
-            free(name);
+            gs_free(name);
         }
-        free(v);
+        gs_free(v);
     }
 }
 
@@ -178,7 +178,7 @@ int gs_noise_setup(gs_noise *n, gs_circuit *c, const char *only,
                     c->outputs[pick[0]].col, "noise is analysed at the "
                     "output of a transfer line", "'%s' is an impedance, "
                     "not a transfer", only);
-        free(pick);
+        gs_free(pick);
         return GS_EINVAL;
     }
     if (npick == 0) {
@@ -190,7 +190,7 @@ int gs_noise_setup(gs_noise *n, gs_circuit *c, const char *only,
                         "as 'transfer Av = v(out) / vin': noise is found "
                         "at its output and referred to its input",
                         "the file asks for no transfer");
-        free(pick);
+        gs_free(pick);
         return GS_EINVAL;
     }
     collect(n, c);
@@ -199,7 +199,7 @@ int gs_noise_setup(gs_noise *n, gs_circuit *c, const char *only,
                     "conductances, mosfets and bjts make noise; sources "
                     "and ideal controlled sources do not",
                     "the circuit has no noise source");
-        free(pick);
+        gs_free(pick);
         return GS_EINVAL;
     }
     for (k = 0; k < n->nsrc; k++)
@@ -212,7 +212,7 @@ int gs_noise_setup(gs_noise *n, gs_circuit *c, const char *only,
         for (k = 0; k < n->nsrc; k++)
             add_transfer(c, pick[i], &n->src[k]);
     }
-    free(pick);
+    gs_free(pick);
     return GS_OK;
 }
 
@@ -284,7 +284,7 @@ static int param(long double *v, const char *key, const gs_noise_src *s,
                     dv->name, name, *v);
         rc = GS_ERANGE;
     }
-    free(name);
+    gs_free(name);
     return rc;
 }
 
@@ -396,8 +396,8 @@ int gs_noise_num_make(gs_noise_num *nn, const gs_noise *n, const gs_job *j,
             t->flicker = flick[k];
         }
     }
-    free(white);
-    free(flick);
+    gs_free(white);
+    gs_free(flick);
     return rc;
 }
 
@@ -405,10 +405,10 @@ void gs_noise_num_clear(gs_noise_num *nn)
 {
     size_t i;
     for (i = 0; i < nn->ncoef; i++)
-        free(nn->coef[i]);
-    free(nn->coef);
-    free(nn->term);
-    free(nn->in);
+        gs_free(nn->coef[i]);
+    gs_free(nn->coef);
+    gs_free(nn->term);
+    gs_free(nn->in);
     memset(nn, 0, sizeof *nn);
 }
 
@@ -503,6 +503,6 @@ size_t *gs_noise_ranked(const long double *part, size_t n)
     qsort(e, n, sizeof *e, by_size);
     for (k = 0; k < n; k++)
         r[k] = e[k].k;
-    free(e);
+    gs_free(e);
     return r;
 }

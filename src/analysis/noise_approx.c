@@ -20,9 +20,9 @@ void gs_noise_short_clear(gs_noise_short *s)
     size_t k;
     for (k = 0; s->h && k < s->nsrc; k++)
         gs_approx_result_clear(&s->h[k]);
-    free(s->h);
-    free(s->kept);
-    free(s->max_share);
+    gs_free(s->h);
+    gs_free(s->kept);
+    gs_free(s->max_share);
     gs_approx_result_clear(&s->target);
     gs_noise_short_init(s);
 }
@@ -65,9 +65,9 @@ static void terms_clear(short_terms *st, size_t nsrc)
 {
     size_t k;
     for (k = 0; k < 2 * (nsrc + 1); k++)
-        free(st->coef[k]);
-    free(st->coef);
-    free(st->t);
+        gs_free(st->coef[k]);
+    gs_free(st->coef);
+    gs_free(st->t);
 }
 
 /* The grid of the band: npoints frequencies, log spaced, ends included. */
@@ -133,8 +133,8 @@ static void drop_small(gs_noise_short *s, const long double *share,
         s->kept[src] = 0;
         s->dropped_share = worst;
     }
-    free(order);
-    free(out);
+    gs_free(order);
+    gs_free(out);
 }
 
 static long double db_ratio(long double a, long double b)
@@ -206,7 +206,7 @@ int gs_noise_short_make(gs_noise_short *s, const gs_noise *n,
         return rc;
     share = shares(s, nn, i);
     drop_small(s, share, 1 - powl(10, -third.tol_db / 10));
-    free(share);
+    gs_free(share);
     measure(s, nn, j, i);
     return GS_OK;
 }

@@ -61,9 +61,9 @@ static long double *coeff_bounds(const gs_job *j, const gs_poly *p, int deg)
     }
     for (k = 0; k < len; k++)       /* doubled: the magnitudes round too */
         e[k] = gam(2 * (work[k] + e[k]) + 4) * mag[k];
-    free(mag);
-    free(work);
-    free(ex);
+    gs_free(mag);
+    gs_free(work);
+    gs_free(ex);
     return e;
 }
 
@@ -89,10 +89,10 @@ void gs_refcheck_init(gs_refcheck *r, const gs_job *j, size_t i)
 
 void gs_refcheck_clear(gs_refcheck *r)
 {
-    free(r->cn);
-    free(r->cd);
-    free(r->en);
-    free(r->ed);
+    gs_free(r->cn);
+    gs_free(r->cd);
+    gs_free(r->en);
+    gs_free(r->ed);
     memset(r, 0, sizeof *r);
 }
 
@@ -193,11 +193,11 @@ size_t gs_refcheck_generic_values(gs_job *j, int **syms)
             out[count++] = v;
         }
     }
-    free(used);
-    free(seen);
+    gs_free(used);
+    gs_free(seen);
     if (syms)
         *syms = out;
     else
-        free(out);
+        gs_free(out);
     return count;
 }

@@ -36,9 +36,9 @@ void gs_sens_clear(gs_sens *r)
 {
     size_t i;
     for (i = 0; i < r->n; i++)
-        free(r->fig[i].s);
-    free(r->fig);
-    free(r->used);
+        gs_free(r->fig[i].s);
+    gs_free(r->fig);
+    gs_free(r->used);
     gs_sens_init(r);
 }
 
@@ -318,7 +318,7 @@ static void work_init(work *w, gs_sens *r, const gs_tf *tf,
             gs_poly_derivative(&w->dd[v], &tf->den, v, w->pc);
         }
     }
-    free(u2);
+    gs_free(u2);
     w->used = r->used;
     gs_poly_init(&w->ns);
     gs_poly_init(&w->ds);
@@ -335,9 +335,9 @@ static void work_clear(work *w)
     }
     gs_poly_clear(&w->ns);
     gs_poly_clear(&w->ds);
-    free(w->dn);
-    free(w->dd);
-    free(w->pt);
+    gs_free(w->dn);
+    gs_free(w->dd);
+    gs_free(w->pt);
 }
 
 int gs_sens_compute(gs_sens *r, const gs_tf *tf, const long double *vals,
@@ -373,10 +373,10 @@ int gs_sens_compute_loop(gs_sens *r, const gs_tf *tf,
         if (loop)
             fig_loop(r, &w, &h, sh);
     }
-    free(sh);
+    gs_free(sh);
     gs_tfn_clear(&h);
-    free(cn);
-    free(cd);
+    gs_free(cn);
+    gs_free(cd);
     work_clear(&w);
     return rc;
 }
@@ -400,7 +400,7 @@ void gs_sens_bias_links(gs_bias_link **out, size_t *n, const gs_job *j)
                 && strcmp(o + 5, l[k].device) == 0)
                 all[nall++] = l[k];
         }
-        free(l);
+        gs_free(l);
     }
     done = gs_calloc(nall ? nall : 1, 1);
     *out = gs_malloc((nall ? nall : 1) * sizeof **out);
@@ -414,8 +414,8 @@ void gs_sens_bias_links(gs_bias_link **out, size_t *n, const gs_job *j)
                 done[m] = 1;
             }
     }
-    free(done);
-    free(all);
+    gs_free(done);
+    gs_free(all);
 }
 
 long double gs_sens_chain(const gs_sens *r, const gs_sens_fig *f,

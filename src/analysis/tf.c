@@ -17,8 +17,8 @@ void gs_tf_init(gs_tf *tf, const gs_polyctx *ctx, int s_var)
 
 void gs_tf_clear(gs_tf *tf)
 {
-    free(tf->name);
-    free(tf->description);
+    gs_free(tf->name);
+    gs_free(tf->description);
     gs_poly_clear(&tf->num);
     gs_poly_clear(&tf->den);
     tf->name = NULL;
@@ -28,14 +28,14 @@ void gs_tf_clear(gs_tf *tf)
 void gs_tf_set_name(gs_tf *tf, const char *name)
 {
     char *copy = name != NULL ? gs_strdup(name) : NULL;
-    free(tf->name);
+    gs_free(tf->name);
     tf->name = copy;
 }
 
 void gs_tf_set_description(gs_tf *tf, const char *description)
 {
     char *copy = description != NULL ? gs_strdup(description) : NULL;
-    free(tf->description);
+    gs_free(tf->description);
     tf->description = copy;
 }
 

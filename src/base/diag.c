@@ -19,12 +19,12 @@ void gs_diag_clear(gs_diag *d)
 {
     size_t i;
     for (i = 0; i < d->n; i++) {
-        free(d->v[i].file);
-        free(d->v[i].message);
-        free(d->v[i].hint);
-        free(d->v[i].subject);
+        gs_free(d->v[i].file);
+        gs_free(d->v[i].message);
+        gs_free(d->v[i].hint);
+        gs_free(d->v[i].subject);
     }
-    free(d->v);
+    gs_free(d->v);
     gs_diag_init(d);
 }
 
@@ -138,7 +138,7 @@ void gs_diag_add(gs_diag *d, int severity, const char *file, int line,
     va_end(ap);
     {
         char *shown = escape_message(e.message);
-        free(e.message);
+        gs_free(e.message);
         e.message = shown;
     }
     e.hint = hint ? escape_message(hint) : NULL;
@@ -192,7 +192,7 @@ void gs_diag_append(gs_diag *dst, gs_diag *src)
         push(dst, src->v[i]);
     dst->nerrors += src->nerrors;
     dst->nwarnings += src->nwarnings;
-    free(src->v);
+    gs_free(src->v);
     gs_diag_init(src);
 }
 
@@ -252,9 +252,9 @@ int gs_osa_distance(const char *a, const char *b, int cap, int fold_case)
         cur = tmp;
     }
     result = prev[lb] > cap ? cap + 1 : prev[lb];
-    free(prev2);
-    free(prev);
-    free(cur);
+    gs_free(prev2);
+    gs_free(prev);
+    gs_free(cur);
     return result;
 }
 

@@ -14,6 +14,7 @@ const char *gs_strerror(int code)
     case GS_EIO:       return "input/output error";
     case GS_EINVAL:    return "invalid argument";
     case GS_EUNBOUND:  return "symbol has no value";
+    case GS_ENOMEM:    return "out of memory";
     default:           return "unknown error";
     }
 }

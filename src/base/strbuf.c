@@ -33,7 +33,7 @@ void gs_strbuf_flush(gs_strbuf *b)
 
 void gs_strbuf_clear(gs_strbuf *b)
 {
-    free(b->p);
+    gs_free(b->p);
     b->p = NULL;
     b->n = b->cap = 0;
     b->sink = NULL;

@@ -10,7 +10,7 @@
 
 /* p[0 .. n) is the text, p[n] is NUL, cap bytes are allocated.  The
    caller owns the struct; gs_strbuf_clear frees p, or the caller takes p
-   (free it with free()) and drops the struct.  With a sink the text is
+   (free it with gs_free()) and drops the struct.  With a sink the text is
    written out whenever the buffer fills, so p holds only what came since
    (a printer streams a result of any size through 64 KiB). */
 typedef struct gs_strbuf {

@@ -63,7 +63,7 @@ static void check_outputs(const gs_checker *k)
             gs_check_report(k, GS_SEV_ERROR, o->line, o->col, o->kind ==
                             GS_OUT_TRANSFER ? "the input of a transfer is a "
                             "vsource or an isource" : NULL, msg);
-        free(msg);
+        gs_free(msg);
     }
 }
 
@@ -111,8 +111,8 @@ static size_t forest_path(const gs_circuit *c, const edge *tree,
         path[n] = via[v];
         v = t->a == v ? t->b : t->a;
     }
-    free(queue);
-    free(via);
+    gs_free(queue);
+    gs_free(via);
     return n;
 }
 
@@ -142,9 +142,9 @@ static char *loop_names(const gs_circuit *c, const edge *tree,
                                c->elems[v[i].elem].name);
     list = gs_check_list((const char *const *)names, m, 1);
     for (i = 0; i < m; i++)
-        free(names[i]);
-    free(names);
-    free(v);
+        gs_free(names[i]);
+    gs_free(names);
+    gs_free(v);
     return list;
 }
 
@@ -167,8 +167,8 @@ static void report_loop(const gs_checker *k, const edge *tree,
                         "voltage sources (vsource, vcvs, ccvs, opamp "
                         "outputs) sets one voltage twice", msg);
     }
-    free(msg);
-    free(list);
+    gs_free(msg);
+    gs_free(list);
 }
 
 /* A voltage-defined branch across a single node. */
@@ -180,7 +180,7 @@ static void report_shorted(const gs_checker *k, const gs_element *e)
         char *list = gs_check_list((const char *const *)c->ref_alias,
                                    c->nref_alias, 1);
         hint = gs_asprintf("the ground line merges %s into gnd", list);
-        free(list);
+        gs_free(list);
     }
     if (e->kind == GS_OPAMP)
         msg = gs_asprintf("the output of opamp '%s' is the reference node",
@@ -190,8 +190,8 @@ static void report_shorted(const gs_checker *k, const gs_element *e)
                           gs_elem_kind_name(e->kind), e->name,
                           c->node_name[e->node[0]]);
     gs_check_report(k, GS_SEV_ERROR, e->line, e->col, hint, msg);
-    free(msg);
-    free(hint);
+    gs_free(msg);
+    gs_free(hint);
 }
 
 /* An opamp whose inputs are one node: v(+) = v(-) says nothing, and the
@@ -203,7 +203,7 @@ static void report_inputs_shorted(const gs_checker *k, const gs_element *e)
     gs_check_report(k, GS_SEV_ERROR, e->line, e->col, "an ideal opamp sets "
                     "v(in+) = v(in-); with one node there it sets nothing",
                     msg);
-    free(msg);
+    gs_free(msg);
 }
 
 /* Is the loop (path and e) certainly singular?  A loop of independent
@@ -312,9 +312,9 @@ static void check_loops(gs_checker *k)
         if (pass == 1)
             nullator_edges(k, tree, &ntree, path, sensed);
     }
-    free(sensed);
-    free(path);
-    free(tree);
+    gs_free(sensed);
+    gs_free(path);
+    gs_free(tree);
 }
 
 /* ---- loops of current-controlled current sources ---- */
@@ -326,15 +326,15 @@ static void report_cccs_loop(const gs_checker *k, const int *stack,
     char *msg = gs_strdup("loop of current-controlled sources:"), *t;
     for (; from < n; from++) {
         t = gs_asprintf("%s %s ->", msg, c->elems[stack[from]].name);
-        free(msg);
+        gs_free(msg);
         msg = t;
     }
     t = gs_asprintf("%s %s", msg, c->elems[j].name);
     gs_check_report(k, GS_SEV_ERROR, c->elems[j].line, c->elems[j].col,
                     "sense one of the currents through a vsource of value "
                     "0 in series instead", t);
-    free(t);
-    free(msg);
+    gs_free(t);
+    gs_free(msg);
 }
 
 /* Each cccs has one successor (its control): a walk that meets itself
@@ -361,8 +361,8 @@ static void check_cccs_loops(const gs_checker *k)
         while (n > 0)
             state[stack[--n]] = 2;
     }
-    free(stack);
-    free(state);
+    gs_free(stack);
+    gs_free(state);
 }
 
 int gs_circuit_check(const gs_circuit *c, gs_diag *d)
@@ -381,7 +381,7 @@ int gs_circuit_check(const gs_circuit *c, gs_diag *d)
         gs_check_rank(&k);              /* more specific was found */
     gs_check_single(&k);
     gs_values_check_cycles(c, d);
-    free(k.flagged);
-    free(k.parent);
+    gs_free(k.flagged);
+    gs_free(k.parent);
     return d->nerrors == before ? GS_OK : GS_EINVAL;
 }

@@ -90,7 +90,7 @@ static char *group_nodes(const gs_checker *k, int r, size_t *n)
         }
     }
     list = gs_check_list(v, *n, 1);
-    free(v);
+    gs_free(v);
     return list;
 }
 
@@ -115,7 +115,7 @@ static char *group_exits(const gs_checker *k, int r, size_t *n, int *opamps)
         }
     }
     list = gs_check_list(v, *n, 0);
-    free(v);
+    gs_free(v);
     return list;
 }
 
@@ -168,9 +168,9 @@ static void report_group(const gs_checker *k, int r, int first, int by_rows)
     }
     gs_check_report(k, GS_SEV_ERROR, c->node_line[first], c->node_col[first],
                     hint, msg);
-    free(msg);
-    free(exits);
-    free(nodes);
+    gs_free(msg);
+    gs_free(exits);
+    gs_free(nodes);
 }
 
 /* Report each group of nodes the union-find leaves apart from gnd, once,
@@ -190,7 +190,7 @@ static void report_groups(const gs_checker *k, int by_rows)
         seen[r] = 1;
         report_group(k, r, v, by_rows);
     }
-    free(seen);
+    gs_free(seen);
 }
 
 void gs_check_parts(gs_checker *k)
@@ -225,7 +225,7 @@ static void warn_senses_nothing(const gs_checker *k, const gs_element *e)
                             gs_elem_kind_name(e->kind), e->name,
                             k->c->node_name[e->node[2]]);
     gs_check_report(k, GS_SEV_WARNING, e->line, e->col, NULL, msg);
-    free(msg);
+    gs_free(msg);
 }
 
 /* A node with a single terminal on it is legal but a sign of a slip (a
@@ -280,10 +280,10 @@ void gs_check_single(const gs_checker *k)
                                 "no current; is the node name misspelt?");
         gs_check_report(k, GS_SEV_WARNING, c->node_line[v], c->node_col[v],
                         hint, msg);
-        free(hint);
-        free(msg);
+        gs_free(hint);
+        gs_free(msg);
     }
-    free(driven);
-    free(last);
-    free(count);
+    gs_free(driven);
+    gs_free(last);
+    gs_free(count);
 }

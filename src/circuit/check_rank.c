@@ -130,7 +130,7 @@ static void finish(pattern *p)
         int row = p->pr[i];
         p->col[(size_t)p->start[row] + fill[row]++] = p->pc[i];
     }
-    free(fill);
+    gs_free(fill);
 }
 
 static void build(pattern *p, const gs_circuit *c)
@@ -148,11 +148,11 @@ static void build(pattern *p, const gs_circuit *c)
 
 static void pattern_clear(pattern *p)
 {
-    free(p->start);
-    free(p->col);
-    free(p->branch);
-    free(p->pr);
-    free(p->pc);
+    gs_free(p->start);
+    gs_free(p->col);
+    gs_free(p->branch);
+    gs_free(p->pr);
+    gs_free(p->pc);
 }
 
 /* Look for an augmenting path from unmatched row r0 (depth-first, with
@@ -239,7 +239,7 @@ static int *hall_set(const pattern *p, int u0, const int *mrow, int *count)
             }
         }
     }
-    free(in);
+    gs_free(in);
     *count = n;
     return set;
 }
@@ -270,12 +270,12 @@ static void report_free(const gs_checker *k, const pattern *p, int u,
     gs_check_report(k, GS_SEV_ERROR, line, col, opamp ? "an ideal opamp "
                     "needs feedback, a path from its output back to its "
                     "inputs" : NULL, msg);
-    free(msg);
-    free(list);
+    gs_free(msg);
+    gs_free(list);
     for (i = 0; i < n; i++)
-        free(names[i]);
-    free(names);
-    free(set);
+        gs_free(names[i]);
+    gs_free(names);
+    gs_free(set);
 }
 
 void gs_check_rank(const gs_checker *k)
@@ -302,10 +302,10 @@ void gs_check_rank(const gs_checker *k)
             break;
         }
     }
-    free(seen);
-    free(pos);
-    free(stack);
-    free(mcol);
-    free(mrow);
+    gs_free(seen);
+    gs_free(pos);
+    gs_free(stack);
+    gs_free(mcol);
+    gs_free(mrow);
     pattern_clear(&p);
 }

@@ -52,12 +52,12 @@ char *gs_check_list(const char *const *names, size_t n, int quote)
     for (i = 0; i < n && i < MAX_LISTED; i++) {
         next = gs_asprintf(quote ? "%s%s'%s'" : "%s%s%s", out,
                            i ? ", " : "", names[i]);
-        free(out);
+        gs_free(out);
         out = next;
     }
     if (n > MAX_LISTED) {
         next = gs_asprintf("%s, ...", out);
-        free(out);
+        gs_free(out);
         out = next;
     }
     return out;

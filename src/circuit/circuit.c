@@ -47,63 +47,63 @@ static void free_strings(char **v, size_t n)
 {
     size_t i;
     for (i = 0; i < n; i++)
-        free(v[i]);
-    free(v);
+        gs_free(v[i]);
+    gs_free(v);
 }
 
 static void free_elements(gs_circuit *c)
 {
     size_t i;
     for (i = 0; i < c->nelems; i++) {
-        free(c->elems[i].name);
+        gs_free(c->elems[i].name);
         gs_monomial_clear(&c->elems[i].value);
     }
-    free(c->elems);
+    gs_free(c->elems);
 }
 
 static void free_lines(gs_circuit *c)
 {
     size_t i;
     for (i = 0; i < c->noutputs; i++) {
-        free(c->outputs[i].name);
+        gs_free(c->outputs[i].name);
         gs_expr_free(c->outputs[i].figure);
-        free(c->outputs[i].loop_for);
+        gs_free(c->outputs[i].loop_for);
     }
-    free(c->outputs);
+    gs_free(c->outputs);
     for (i = 0; i < c->nvalues; i++) {
         gs_expr_free(c->values[i].expr);
-        free(c->values[i].origin);
+        gs_free(c->values[i].origin);
     }
-    free(c->values);
+    gs_free(c->values);
     for (i = 0; i < c->ndevices; i++) {
-        free(c->devices[i].name);
+        gs_free(c->devices[i].name);
         free_strings(c->devices[i].keys, (size_t)c->devices[i].nparams);
         free_strings(c->devices[i].vals, (size_t)c->devices[i].nparams);
     }
-    free(c->devices);
+    gs_free(c->devices);
     for (i = 0; i < c->nbiases; i++) {
         free_strings(c->biases[i].keys, (size_t)c->biases[i].nparams);
         free_strings(c->biases[i].vals, (size_t)c->biases[i].nparams);
-        free(c->biases[i].val_col);
+        gs_free(c->biases[i].val_col);
     }
-    free(c->biases);
+    gs_free(c->biases);
 }
 
 void gs_circuit_free(gs_circuit *c)
 {
     if (c == NULL)
         return;
-    free(c->file);
-    free(c->title);
+    gs_free(c->file);
+    gs_free(c->title);
     gs_symtab_free(c->syms);
     free_strings(c->node_name, (size_t)c->nnodes);
-    free(c->node_line);
-    free(c->node_col);
+    gs_free(c->node_line);
+    gs_free(c->node_col);
     free_strings(c->ref_alias, c->nref_alias);
     free_elements(c);
     free_lines(c);
     gs_expr_free(c->temperature);
-    free(c);
+    gs_free(c);
 }
 
 int gs_circuit_find_element(const gs_circuit *c, const char *name)
@@ -152,7 +152,7 @@ void gs_circuit_clear_outputs(gs_circuit *c)
 {
     size_t i;
     for (i = 0; i < c->noutputs; i++)
-        free(c->outputs[i].name);
+        gs_free(c->outputs[i].name);
     c->noutputs = 0;
 }
 

@@ -29,7 +29,7 @@ static void vadd(gs_diag *d, int sev, const gs_srcpos *at, const char *hint,
     char *msg = gs_vasprintf(f, ap);
     gs_diag_add(d, sev, at ? at->file : NULL, at ? at->line : 0,
                 at ? at->col : 0, hint, "%s", msg);
-    free(msg);
+    gs_free(msg);
 }
 
 /* Add an error and return code. */
@@ -537,7 +537,7 @@ static void unknown_key(const figure_spec *spec, size_t n, const char *key,
     hint = near ? gs_asprintf("did you mean '%s'?", near)
                 : gs_asprintf("a %s bias takes %s", kind, list);
     fail(d, GS_ESYNTAX, at, hint, "unknown %s bias figure '%s'", kind, key);
-    free(hint);
+    gs_free(hint);
 }
 
 static int read_word(figure *f, const figure_spec *s, gs_diag *d)
@@ -628,7 +628,7 @@ static int device_sym(const gs_circuit *c, const gs_device *dv,
         return SYM_FIXED;
     name = v ? gs_strdup(v) : gs_asprintf("%s_%s", key, dv->name);
     id = gs_symtab_find(c->syms, name);
-    free(name);
+    gs_free(name);
     return id >= 0 ? id : SYM_NONE;
 }
 
@@ -669,7 +669,7 @@ static void commit(const assignments *as, const gs_circuit *c,
         vals[s] = as->a[i].v;
         set[s] = 1;
         if (origin) {
-            free(origin[s]);
+            gs_free(origin[s]);
             origin[s] = gs_asprintf("bias %s", dv->name);
         }
     }
@@ -1156,7 +1156,7 @@ int gs_device_bias_links(gs_bias_link **out, size_t *n, const gs_circuit *c,
     }
     gs_diag_clear(&d);
     if (rc != GS_OK) {
-        free(ls.l);
+        gs_free(ls.l);
         return rc;
     }
     *out = ls.l;

@@ -158,9 +158,9 @@ static int eval_rec(long double *out, const evaluator *ev, const gs_expr *e)
             char *msg = gs_asprintf("'%s' has no value",
                                     gs_symtab_name(ev->c->syms, e->sym));
             fail(ev, e, GS_EUNBOUND, hint, msg);
-            free(msg);
+            gs_free(msg);
         }
-        free(hint);
+        gs_free(hint);
         return GS_EUNBOUND;
     case GS_EX_NEG:
         if ((rc = eval_rec(out, ev, e->lhs)) == GS_OK)
@@ -238,8 +238,8 @@ static void graph_build(vgraph *g, const gs_circuit *c, const int *def_of)
 
 static void graph_clear(vgraph *g)
 {
-    free(g->start);
-    free(g->dep);
+    gs_free(g->start);
+    gs_free(g->dep);
 }
 
 /* "value cycle: a -> b -> a" for the stack entries from `from` up. */
@@ -252,14 +252,14 @@ static void report_cycle(const gs_circuit *c, gs_diag *d, const int *stack,
     for (i = from; i <= top; i++) {
         next = gs_asprintf("%s %s ->", msg,
                            gs_symtab_name(c->syms, c->values[stack[i]].sym));
-        free(msg);
+        gs_free(msg);
         msg = next;
     }
     next = gs_asprintf("%s %s", msg, gs_symtab_name(c->syms, v0->sym));
-    free(msg);
+    gs_free(msg);
     gs_diag_add(d, GS_SEV_ERROR, v0->line > 0 ? c->file : NULL, v0->line,
                 v0->col, NULL, "%s", next);
-    free(next);
+    gs_free(next);
 }
 
 /* Post-order of the definitions into order[] (count returned); every def
@@ -306,9 +306,9 @@ static size_t graph_order(const vgraph *g, const gs_circuit *c, gs_diag *d,
                 bad[stack[top]] = 1;
         }
     }
-    free(next);
-    free(stack);
-    free(state);
+    gs_free(next);
+    gs_free(stack);
+    gs_free(state);
     return n;
 }
 
@@ -322,9 +322,9 @@ int gs_values_check_cycles(const gs_circuit *c, gs_diag *d)
     graph_build(&g, c, def_of);
     graph_order(&g, c, d, order, bad);
     graph_clear(&g);
-    free(bad);
-    free(order);
-    free(def_of);
+    gs_free(bad);
+    gs_free(order);
+    gs_free(def_of);
     return d->nerrors == before ? GS_OK : GS_EINVAL;
 }
 
@@ -362,8 +362,8 @@ int gs_circuit_eval_values(const gs_circuit *c, long double *vals,
         set[v->sym] = 1;
     }
     graph_clear(&g);
-    free(bad);
-    free(order);
-    free(def_of);
+    gs_free(bad);
+    gs_free(order);
+    gs_free(def_of);
     return d->nerrors == before ? GS_OK : GS_EINVAL;
 }

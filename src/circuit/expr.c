@@ -289,7 +289,7 @@ static int ex_call(gs_expr **out, gs_cursor *cur, gs_circuit *c,
         gs_cur_error(cur, name, hint ? hint : "the functions are sqrt, exp, "
                      "log, log10 and abs", "unknown function '%s'",
                      name->text);
-        free(hint);
+        gs_free(hint);
         return GS_ESYNTAX;
     }
     *out = new_node(GS_EX_CALL, cur, name);

@@ -23,12 +23,12 @@ void gs_lex_clear(gs_lexer *lx)
 {
     size_t i;
     for (i = 0; i < lx->ntok; i++)
-        free(lx->tok[i].text);
+        gs_free(lx->tok[i].text);
     for (i = 0; i < lx->nstmt; i++)
-        free(lx->stmt[i].err);
-    free(lx->tok);
-    free(lx->stmt);
-    free(lx->line_start);
+        gs_free(lx->stmt[i].err);
+    gs_free(lx->tok);
+    gs_free(lx->stmt);
+    gs_free(lx->line_start);
     memset(lx, 0, sizeof *lx);
 }
 
@@ -61,7 +61,7 @@ static void vreport(const gs_lexer *lx, gs_diag *d, int severity, size_t off,
         gs_diag_add(d, severity, NULL, 0, 0, hint, "%s: %s", lx->what, msg);
     else
         gs_diag_add(d, severity, lx->file, line, col, hint, "%s", msg);
-    free(msg);
+    gs_free(msg);
 }
 
 void gs_lex_report(const gs_lexer *lx, gs_diag *d, int severity, size_t off,

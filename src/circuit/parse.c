@@ -35,7 +35,7 @@ void gs_parser_expected(gs_parser *p, const gs_token *t, const char *what,
 {
     char *hint = form ? gs_asprintf("the form is: %s", form) : NULL;
     gs_cur_expected(&p->cur, t, what, hint);
-    free(hint);
+    gs_free(hint);
 }
 
 /* "unexpected 'x' at the end of the statement", unless t is the end. */
@@ -48,7 +48,7 @@ static int expect_end(gs_parser *p, const char *form)
     hint = form ? gs_asprintf("the form is: %s", form) : NULL;
     gs_cur_error(&p->cur, t, hint, "unexpected '%s' at the end of the "
                  "statement", t->text);
-    free(hint);
+    gs_free(hint);
     return GS_ESYNTAX;
 }
 
@@ -221,7 +221,7 @@ static int element_nodes(gs_parser *p, const stmt_kind *k, const char *name,
             gs_parser_expected(p, t, what, k->form);
         else
             node[i] = gs_parser_node(p, t, what);
-        free(what);
+        gs_free(what);
         if (t->kind == GS_TK_END || node[i] < 0)
             return GS_ESYNTAX;
     }
@@ -231,7 +231,7 @@ static int element_nodes(gs_parser *p, const stmt_kind *k, const char *name,
             char *what = gs_asprintf("the controlling element of %s '%s'",
                                      k->word, name);
             gs_parser_expected(p, t, what, k->form);
-            free(what);
+            gs_free(what);
             return GS_ESYNTAX;
         }
         *ctrl = t;
@@ -274,7 +274,7 @@ static int parse_element(gs_parser *p, const stmt_kind *k)
     if (name->kind != GS_TK_IDENT) {
         what = gs_asprintf("%s name", k->word);
         gs_parser_expected(p, name, what, k->form);
-        free(what);
+        gs_free(what);
         return GS_ESYNTAX;
     }
     if ((id = gs_parser_new_name(p, name)) < 0)
@@ -482,8 +482,8 @@ static void check_figure_expr(gs_parser *p, const gs_output *o,
                         hint ? hint : "a figure combines transfer, "
                         "impedance and figure lines of the file",
                         "figure '%s': '%s' is not an output", o->name, nm);
-            free(hint);
-            free(names);
+            gs_free(hint);
+            gs_free(names);
         } else if (c->outputs[k].kind == GS_OUT_FIGURE) {
             if (&c->outputs[k] == o || depth > (int)c->noutputs)
                 gs_diag_add(p->d, GS_SEV_ERROR, c->file, e->line, e->col,
@@ -576,7 +576,7 @@ static int parse_loopgain(gs_parser *p, const stmt_kind *k)
             o->loop_part = part;
             o->loop_of = -1;
             gs_parser_add_ref(p, GS_REF_SOURCE, p->c->noutputs - 1, 0, t);
-            free(nm);
+            gs_free(nm);
         }
         for (part = 0; part < 3; part++) {
             gs_output *q = &p->c->outputs[src + (size_t)part];
@@ -639,7 +639,7 @@ static gs_element *pair_part(gs_parser *p, gs_elem_kind kind,
         gs_rat_set_si(&e->value.coeff, 1, 2);
     gs_parser_set_name(p, gs_symtab_intern(p->names, nm), GS_NAME_ELEM,
                        (int)p->c->nelems - 1, name->off);
-    free(nm);
+    gs_free(nm);
     return e;
 }
 
@@ -653,7 +653,7 @@ static int pair_node(gs_parser *p, const gs_token *name, const char *suffix)
     t.off = name->off;
     t.text = nm;
     id = gs_parser_node(p, &t, "node");
-    free(nm);
+    gs_free(nm);
     return id;
 }
 
@@ -759,7 +759,7 @@ static const gs_token *output_head(gs_parser *p, const stmt_kind *k)
     if (t->kind != GS_TK_IDENT || t->dotted) {
         char *what = gs_asprintf("%s name", k->word);
         gs_parser_expected(p, t, what, k->form);
-        free(what);
+        gs_free(what);
         return NULL;
     }
     if ((prev = gs_circuit_find_output(p->c, t->text)) >= 0) {
@@ -968,7 +968,7 @@ static int parse_statement(gs_parser *p)
         words[i] = kinds[i].word;
     hint = gs_suggest_hint(kw->text, words, NKINDS);
     gs_cur_error(&p->cur, kw, hint, "unknown statement '%s'", kw->text);
-    free(hint);
+    gs_free(hint);
     return GS_ESYNTAX;
 }
 
@@ -1015,15 +1015,15 @@ static void parser_clear(gs_parser *p)
 {
     size_t i;
     for (i = 0; i < p->nrefs; i++)
-        free(p->refs[i].name);
-    free(p->refs);
+        gs_free(p->refs[i].name);
+    gs_free(p->refs);
     for (i = 0; i < p->c->ndevices; i++)
-        free(p->dev_body[i]);
-    free(p->dev_body);
-    free(p->bias_noise);
-    free(p->name_kind);
-    free(p->name_index);
-    free(p->name_off);
+        gs_free(p->dev_body[i]);
+    gs_free(p->dev_body);
+    gs_free(p->bias_noise);
+    gs_free(p->name_kind);
+    gs_free(p->name_index);
+    gs_free(p->name_off);
     gs_symtab_free(p->names);
     gs_symtab_free(p->nodes);
     gs_lex_clear(&p->lx);
@@ -1040,7 +1040,7 @@ int gs_parse_text(gs_circuit *c, const char *name, const char *text,
 {
     gs_parser p;
     size_t before = d->nerrors, i;
-    free(c->file);
+    gs_free(c->file);
     c->file = gs_strdup(name ? name : "<input>");
     parser_init(&p, c, d);
     gs_lex_init(&p.lx, c->file, NULL, text, len);
@@ -1082,28 +1082,38 @@ static char *read_all(FILE *f, size_t *len)
     return buf;
 }
 
+static void close_file(void *f)
+{
+    fclose(f);
+}
+
 int gs_parse_file(gs_circuit *c, const char *path, gs_diag *d)
 {
     int is_stdin = strcmp(path, "-") == 0, rc, err;
     FILE *f = is_stdin ? stdin : fopen(path, "rb");
     size_t len;
     char *text;
+    gs_mem_cleanup *close_f = NULL;
     if (f == NULL) {
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL, "cannot read '%s': %s",
                     path, strerror(errno));
         return GS_EIO;
     }
+    if (!is_stdin)     /* read_all allocates; a failure must close f */
+        close_f = gs_mem_defer(close_file, f);
     text = read_all(f, &len);
     err = ferror(f) ? errno : 0;
-    if (!is_stdin)
+    if (!is_stdin) {
+        gs_mem_undefer(close_f);
         fclose(f);
+    }
     if (err != 0) {
         gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, NULL, "cannot read '%s': %s",
                     is_stdin ? "<stdin>" : path, strerror(err));
-        free(text);
+        gs_free(text);
         return GS_EIO;
     }
     rc = gs_parse_text(c, is_stdin ? "<stdin>" : path, text, len, d);
-    free(text);
+    gs_free(text);
     return rc;
 }

@@ -122,7 +122,7 @@ static void dev_line_clear(dev_line *L)
 {
     size_t i;
     for (i = 0; i < MAX_PARAMS; i++) {
-        free(L->raw[i]);
+        gs_free(L->raw[i]);
         gs_monomial_clear(&L->val[i]);
     }
     for (i = 0; i < NOISE_KEYS; i++)
@@ -172,8 +172,8 @@ static int param_index(gs_parser *p, dev_line *L, const gs_token *key)
                        : "gm, rpi, ro, cpi, cmu and rb");
     gs_cur_error(&p->cur, key, hint ? hint : list, "unknown %s parameter "
                  "'%s'", L->word, key->text);
-    free(list);
-    free(hint);
+    gs_free(list);
+    gs_free(hint);
     return -1;
 }
 
@@ -225,15 +225,15 @@ static int add_noise_values(gs_parser *p, dev_line *L)
             gs_cur_error(&p->cur, L->nz_key[k], NULL, "duplicate value for "
                          "'%s' (first at %d:%d)", name,
                          p->c->values[prev].line, p->c->values[prev].col);
-            free(name);
+            gs_free(name);
             return GS_ESYNTAX;
         }
-        free(name);
+        gs_free(name);
         origin = gs_asprintf("mosfet %s", L->name->text);
         gs_lex_position(&p->lx, L->nz_key[k]->off, &line, &col);
         gs_circuit_add_value(p->c, sym, L->nz_expr[k], origin, line, col);
         L->nz_expr[k] = NULL;           /* the circuit owns it now */
-        free(origin);
+        gs_free(origin);
     }
     return GS_OK;
 }
@@ -282,7 +282,7 @@ static int parse_dev_nodes(gs_parser *p, dev_line *L, int is_bjt)
             L->node[i] = gs_parser_node(p, t, what);
         else if (gs_parser_check_node(p, t, what) == GS_OK)
             L->node[i] = 0;     /* made later, if a part needs it */
-        free(what);
+        gs_free(what);
         if (t->kind == GS_TK_END || L->node[i] < 0)
             return GS_ESYNTAX;
         L->node_tok[i] = t;
@@ -319,7 +319,7 @@ static int check_params(gs_parser *p, dev_line *L, int *want)
         if (gs_rat_is_zero(&L->val[k].coeff)) {
             char *part = gs_asprintf("%s.%s", L->name->text, dp->key);
             gs_parser_zero_value(p, dp->kind, part, L->val_off[k]);
-            free(part);
+            gs_free(part);
             rc = GS_ESYNTAX;
         }
         if (dp->needs_body && body_node(p, L, (int)k) < 0)
@@ -343,11 +343,11 @@ static void add_part(gs_parser *p, dev_line *L, size_t k, int dev,
     } else {
         char *sym = gs_asprintf("%s_%s", dp->key, L->name->text);
         gs_monomial_mul_sym(&e->value, gs_symtab_intern(p->c->syms, sym), 1);
-        free(sym);
+        gs_free(sym);
     }
     gs_parser_set_name(p, gs_symtab_intern(p->names, name), GS_NAME_ELEM,
                        (int)p->c->nelems - 1, L->name->off);
-    free(name);
+    gs_free(name);
 }
 
 /* The device record: nodes and parameters as written. */
@@ -398,7 +398,7 @@ static void expand(gs_parser *p, dev_line *L, int is_bjt, int dev,
             t.off = L->name->off;
             t.text = bi;
             node[3] = gs_parser_node(p, &t, "node");
-            free(bi);
+            gs_free(bi);
         }
     } else if (want[2] || want[5] || want[6]) {
         node[3] = gs_parser_node(p, L->node_tok[3], "node b");
@@ -422,7 +422,7 @@ int gs_parse_device(gs_parser *p, int is_bjt)
     if (L.name->kind != GS_TK_IDENT) {
         char *what = gs_asprintf("%s name", L.word);
         gs_parser_expected(p, L.name, what, L.form);
-        free(what);
+        gs_free(what);
     } else if ((id = gs_parser_new_name(p, L.name)) >= 0
                && parse_dev_nodes(p, &L, is_bjt) == GS_OK) {
         rc = GS_OK;
@@ -510,12 +510,12 @@ static void bias_clear(gs_bias *b)
 {
     int i;
     for (i = 0; i < b->nparams; i++) {
-        free(b->keys[i]);
-        free(b->vals[i]);
+        gs_free(b->keys[i]);
+        gs_free(b->vals[i]);
     }
-    free(b->keys);
-    free(b->vals);
-    free(b->val_col);
+    gs_free(b->keys);
+    gs_free(b->vals);
+    gs_free(b->val_col);
 }
 
 int gs_parse_bias(gs_parser *p)
@@ -636,9 +636,9 @@ static void bind_bias_noise(gs_parser *p, const gs_bias_noise *bn,
     } else {
         origin = gs_asprintf("bias %s", dv->name);
         gs_circuit_add_value(p->c, sym, e, origin, line, col);
-        free(origin);
+        gs_free(origin);
     }
-    free(name);
+    gs_free(name);
 }
 
 /* Take the noise parameters off bias line b, leaving its figures. */
@@ -647,8 +647,8 @@ static void strip_bias_noise(gs_bias *b)
     int i, n = 0;
     for (i = 0; i < b->nparams; i++) {
         if (noise_key_index(b->keys[i]) >= 0) {
-            free(b->keys[i]);
-            free(b->vals[i]);
+            gs_free(b->keys[i]);
+            gs_free(b->vals[i]);
             continue;
         }
         b->keys[n] = b->keys[i];

@@ -46,7 +46,7 @@ static char *element_hint(gs_parser *p, const char *name, int sources_only)
     }
     cand = element_names(p->c, sources_only, &n);
     hint = gs_suggest_hint(name, cand, n);
-    free(cand);
+    gs_free(cand);
     return hint;
 }
 
@@ -64,7 +64,7 @@ static int find_element(gs_parser *p, const gs_ref *r, const char *what)
                   "'%s' %s", r->kind == GS_REF_CTRL ? "controlling element"
                   : r->kind == GS_REF_SOURCE ? "source" : "element",
                   r->name, what);
-    free(hint);
+    gs_free(hint);
     return -1;
 }
 
@@ -78,7 +78,7 @@ static int find_node(gs_parser *p, const gs_ref *r)
                            (size_t)p->c->nnodes);
     gs_lex_report(&p->lx, p->d, GS_SEV_ERROR, r->off, hint,
                   "unknown node '%s'", r->name);
-    free(hint);
+    gs_free(hint);
     return -1;
 }
 
@@ -115,8 +115,8 @@ static void resolve_bias(gs_parser *p, const gs_ref *r)
         hint = gs_suggest_hint(r->name, cand, p->c->ndevices);
         gs_lex_report(&p->lx, p->d, GS_SEV_ERROR, r->off, hint,
                       "unknown device '%s'", r->name);
-        free(hint);
-        free(cand);
+        gs_free(hint);
+        gs_free(cand);
         return;
     }
     for (i = 0; i < r->index; i++) {
@@ -152,7 +152,7 @@ static void resolve_one(gs_parser *p, const gs_ref *r)
     else
         what = gs_asprintf("in transfer '%s'", c->outputs[r->index].name);
     k = find_element(p, r, what);
-    free(what);
+    gs_free(what);
     if (r->kind == GS_REF_CTRL)
         c->elems[r->index].ctrl = k;
     else if (r->kind == GS_REF_SOURCE)

@@ -119,7 +119,7 @@ static int decimal_value(long double *v, const decimal *x, long shift)
     buf = gs_asprintf("%.*se%ld", (int)x->len, x->start, x->exp + shift);
     errno = 0;
     r = strtold(buf, &end);
-    free(buf);
+    gs_free(buf);
     if (errno == ERANGE || !isfinite(r) || (r == 0 && has_nonzero_digit(x)))
         return SCAN_RANGE;
     *v = r;
@@ -310,7 +310,7 @@ static void report(gs_diag *d, const gs_srcpos *at, int why,
                     "%s: %s is out of range", what, text);
         break;
     }
-    free(hint);
+    gs_free(hint);
 }
 
 static void report_mismatch(gs_diag *d, const gs_srcpos *at,
@@ -397,6 +397,6 @@ gs_numtext gs_units_text(long double v, gs_quantity q)
     gs_numtext t;
     char *s = gs_units_format(v, q);
     snprintf(t.s, sizeof t.s, "%s", s);
-    free(s);
+    gs_free(s);
     return t;
 }

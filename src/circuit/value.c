@@ -23,8 +23,8 @@ void gs_monomial_init(gs_monomial *m)
 void gs_monomial_clear(gs_monomial *m)
 {
     gs_rat_clear(&m->coeff);
-    free(m->sym);
-    free(m->exp);
+    gs_free(m->sym);
+    gs_free(m->exp);
     m->n = 0;
     m->sym = m->exp = NULL;
 }
@@ -34,8 +34,8 @@ void gs_monomial_set(gs_monomial *r, const gs_monomial *a)
     if (r == a)
         return;
     gs_rat_set(&r->coeff, &a->coeff);
-    free(r->sym);
-    free(r->exp);
+    gs_free(r->sym);
+    gs_free(r->exp);
     r->n = a->n;
     r->sym = gs_malloc((size_t)a->n * sizeof *r->sym);
     r->exp = gs_malloc((size_t)a->n * sizeof *r->exp);
@@ -125,14 +125,14 @@ char *gs_monomial_get_str(const gs_monomial *m, const gs_symtab *st)
     gs_rat_clear(&unit);
     cf = gs_rat_get_str(&m->coeff);
     out = gs_strdup(one && m->n > 0 ? "" : cf);
-    free(cf);
+    gs_free(cf);
     for (i = 0; i < m->n; i++) {
         const char *name = gs_symtab_name(st, m->sym[i]);
         const char *sep = (i == 0 && one) ? "" : "*";
         char *next = m->exp[i] == 1
                      ? gs_asprintf("%s%s%s", out, sep, name)
                      : gs_asprintf("%s%s%s^%d", out, sep, name, m->exp[i]);
-        free(out);
+        gs_free(out);
         out = next;
     }
     return out;
@@ -147,6 +147,6 @@ void gs_expr_free(gs_expr *e)
     gs_expr_free(e->lhs);
     gs_expr_free(e->rhs);
     gs_rat_clear(&e->num);
-    free(e->func);
-    free(e);
+    gs_free(e->func);
+    gs_free(e);
 }

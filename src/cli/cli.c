@@ -38,8 +38,8 @@ static void unknown_option(const gs_cli *cl, const char *cmd,
     else
         fprintf(err, "gainsmith %s: hint: 'gainsmith help %s' lists the "
                 "options\n", cmd, cmd);
-    free(word);
-    free(names);
+    gs_free(word);
+    gs_free(names);
 }
 
 static void add_value(gs_cli *cl, int k, char *val)
@@ -123,10 +123,10 @@ void gs_cli_clear(gs_cli *cl)
 {
     size_t i;
     for (i = 0; i < cl->nspec; i++)
-        free(cl->vals[i]);
-    free(cl->vals);
-    free(cl->count);
-    free(cl->pos);
+        gs_free(cl->vals[i]);
+    gs_free(cl->vals);
+    gs_free(cl->count);
+    gs_free(cl->pos);
     memset(cl, 0, sizeof *cl);
 }
 

@@ -2,6 +2,7 @@
  * See LICENSE; docs/approx.md.
  */
 #include "cli/cli.h"
+#include "base/mem.h"
 #include "cli/cmd.h"
 #include "analysis/approx.h"
 #include "analysis/job.h"
@@ -158,7 +159,7 @@ int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
         fclose(doc);
         if (status == 0 || unmet)
             fwrite(doc_buf, 1, doc_len, out);
-        free(doc_buf);
+        gs_free(doc_buf);
     }
     if (status == 0 && unmet)
         status = 1;

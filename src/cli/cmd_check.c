@@ -170,9 +170,9 @@ static int check_one(const gs_job *j, size_t i, const check_opts *o,
     if (rc == GS_OK && ninc > SHOW_INCONCLUSIVE && nagree + nmis)
         fprintf(out, "%s: inconclusive at %zu more points\n", tf->name,
                 ninc - SHOW_INCONCLUSIVE);
-    free(incf);
-    free(incb);
-    free(ince);
+    gs_free(incf);
+    gs_free(incb);
+    gs_free(ince);
     if (rc != GS_OK)
         return rc;
     return nmis || nagree == 0 ? GS_ERANGE : GS_OK;
@@ -238,7 +238,7 @@ int gs_cmd_check(int argc, char **argv, FILE *out, FILE *err)
     /* a reference that cannot be computed is a failed analysis */
     status = rc != GS_OK || worst_rc != GS_OK;
 done:
-    free(generic);
+    gs_free(generic);
     gs_diag_clear(&d);
     gs_cli_clear(&cl);
     gs_job_clear(&j);

@@ -50,20 +50,20 @@ static int parse_limits(gs_limit **out, const gs_cli *cl, const gs_job *j,
         if (eq == NULL || (strcmp(eq + 1, "inf") && strcmp(eq + 1, "0"))) {
             fprintf(err, "gainsmith %s: error: --limit '%s' is not "
                     "SYM=inf or SYM=0\n", cmd, t);
-            free(name);
-            free(l);
+            gs_free(name);
+            gs_free(l);
             return 2;
         }
         if (sym < 0 || gs_symtab_is_recip(j->c->syms, sym)) {
             fprintf(err, "gainsmith %s: error: --limit: the circuit has no "
                     "symbol '%s'\n", cmd, name);
-            free(name);
-            free(l);
+            gs_free(name);
+            gs_free(l);
             return 2;
         }
         l[i].sym = sym;
         l[i].to_inf = strcmp(eq + 1, "inf") == 0;
-        free(name);
+        gs_free(name);
     }
     *out = l;
     return 0;
@@ -202,7 +202,7 @@ int gs_cmd_load_and_derive(gs_job *j, const gs_cli *cl, const char *cmd,
     }
     gs_diag_print(err, &d);
     gs_diag_clear(&d);
-    free(limits);
+    gs_free(limits);
     if (status)
         return status;
     return gs_job_exit_status(rc);
@@ -398,8 +398,8 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
                          "the result undetermined)" : "");
         fprintf(err, "gainsmith eval: hint: check the value lines and "
                 "--set for values that cancel (R2 = -R1, a zero R)\n");
-        free(cn);
-        free(cd);
+        gs_free(cn);
+        gs_free(cd);
         return 1;
     }
     fprintf(out, "%s\n", tf->name);
@@ -423,8 +423,8 @@ static int eval_one(const gs_job *j, size_t i, const gs_cli *cl, FILE *out,
     }
     print_coeffs(out, "numerator", cn, dn);
     print_coeffs(out, "denominator", cd, dd);
-    free(cn);
-    free(cd);
+    gs_free(cn);
+    gs_free(cd);
     return status;
 }
 
@@ -444,7 +444,7 @@ static void print_values(FILE *out, const gs_job *j)
             fprintf(out, "  (%s)", j->origin[v]);
         fputc('\n', out);
     }
-    free(used);
+    gs_free(used);
 }
 
 int gs_cmd_bind(gs_job *j, const gs_cli *cl, FILE *err)
@@ -459,7 +459,7 @@ int gs_cmd_bind(gs_job *j, const gs_cli *cl, FILE *err)
     rc = gs_job_bind(j, sets, nset, &d);
     gs_diag_print(err, &d);
     gs_diag_clear(&d);
-    free(sets);
+    gs_free(sets);
     return gs_job_exit_status(rc);
 }
 

@@ -258,7 +258,7 @@ static void print_item(FILE *out, const item *it)
         fprintf(out, "  %-8s = %-18s %s\n", it->label, v, it->how);
     else
         fprintf(out, "  %-8s = %s\n", it->label, v);
-    free(v);
+    gs_free(v);
 }
 
 static void print_text(FILE *out, const report *r)
@@ -326,7 +326,7 @@ static void print_json(FILE *out, const report *r, const gs_diag *d)
     json_strings(out, "notes", notes, (size_t)r->nnote, 0);
     json_strings(out, "warnings", warns, nw, 1);
     fputs("}\n", out);
-    free(warns);
+    gs_free(warns);
 }
 
 static void print_diag(FILE *err, const gs_diag *d)
@@ -355,7 +355,7 @@ static int usage(gs_diag *d, const char *hint, const char *f, ...)
     msg = gs_vasprintf(f, ap);
     va_end(ap);
     gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0, hint, "%s", msg);
-    free(msg);
+    gs_free(msg);
     return GS_ESYNTAX;
 }
 

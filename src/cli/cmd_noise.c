@@ -77,7 +77,7 @@ static int parse_opts(nopts *o, const gs_cli *cl, FILE *err)
         int r = colon == NULL
              || gs_cli_real(&o->f1, lo, "Hz", "noise", "band", err)
              || gs_cli_real(&o->f2, colon + 1, "Hz", "noise", "band", err);
-        free(lo);
+        gs_free(lo);
         if (r || !(o->f1 > 0 && o->f2 > o->f1))
             return bad(err, "--band needs F1:F2 with 0 < F1 < F2",
                        "e.g. --band 10:100k (hertz)");
@@ -200,8 +200,8 @@ static void print_latex_densities(FILE *out, const gs_job *j,
                 : m % 3 == 0 ? "\\\\\n+ " : "+ ", tex);
         latex_s(out, n->src[k].name);
         fputc(' ', out);
-        free(tex);
-        free(h);
+        gs_free(tex);
+        gs_free(h);
         m++;
     }
     fprintf(out, "\\quad \\mathrm{%s^2/Hz}\n", gs_noise_unit(j->c, t->out, 0));
@@ -210,7 +210,7 @@ static void print_latex_densities(FILE *out, const gs_job *j,
     fprintf(out, "\\begin{equation}\nS_{\\mathrm{in}} %s \\frac{S_{\\mathrm"
             "{out}}}{\\left|%s\\right|^{2}} \\quad \\mathrm{%s^2/Hz}\n"
             "\\end{equation}\n", eq, tex, gs_noise_unit(j->c, t->out, 1));
-    free(tex);
+    gs_free(tex);
     for (k = 0; k < n->nsrc; k++) {
         if (!shown(sh, k))
             continue;
@@ -219,7 +219,7 @@ static void print_latex_densities(FILE *out, const gs_job *j,
         latex_s(out, n->src[k].name);
         fprintf(out, " = %s \\quad \\mathrm{%s}\n\\end{equation}\n",
                 tex ? tex : "?", n->src[k].unit);
-        free(tex);
+        gs_free(tex);
     }
 }
 
@@ -284,7 +284,7 @@ static void print_symbolic(FILE *out, const gs_job *j, const gs_noise *n,
             h = h_name(n->src[k].name);
             fprintf(out, "%s|%s|^2*S_%s", m++ ? " + " : "", h,
                     n->src[k].name);
-            free(h);
+            gs_free(h);
         }
         fprintf(out, "   (%s^2/Hz)\n", gs_noise_unit(j->c, t->out, 0));
         fprintf(out, "S_in %s S_out/|%s|^2   (%s^2/Hz)\n", eq,
@@ -348,8 +348,8 @@ static void print_spot(FILE *out, const gs_job *j, const gs_noise *n,
         print_share(out, n->src[r[k]].name, sqrtl(part[r[k]]), tot, u);
     if (o->rs_src >= 0)
         print_nf(out, tot, part[o->rs_src], "(spot)");
-    free(r);
-    free(part);
+    gs_free(r);
+    gs_free(part);
 }
 
 static void print_band(FILE *out, const gs_job *j, const gs_noise *n,
@@ -375,7 +375,7 @@ static void print_band(FILE *out, const gs_job *j, const gs_noise *n,
         print_share(out, n->src[r[k]].name, sqrtl(part[r[k]]), tot, u);
     if (o->rs_src >= 0)
         print_nf(out, tot, part[o->rs_src], "(band)");
-    free(r);
+    gs_free(r);
 }
 
 static void json_num(FILE *out, long double v)
@@ -473,16 +473,16 @@ static void print_json(FILE *out, const gs_job *j, const gs_noise *n,
             gs_print_json(out, tf_for(j, n->target[i].first + r[k]),
                           tf->s_var);
             fputc('}', out);
-            free(h);
+            gs_free(h);
         }
         fputc(']', out);
         if (sh)
             json_short(out, n, &sh[i]);
         fputc('}', out);
-        free(r);
+        gs_free(r);
     }
     fputs("]\n", out);
-    free(part);
+    gs_free(part);
 }
 
 static FILE *open_file(const char *path, const char *input, FILE *err)
@@ -592,17 +592,17 @@ static int spectrum(const gs_job *j, const gs_noise *n,
         if (fclose(f) != 0)
             status = bad(err, "writing the SVG file failed", NULL);
         for (i = 0; i < 2 * nt; i++)
-            free(labels[i]);
-        free(labels);
-        free(y);
-        free(tr);
+            gs_free(labels[i]);
+        gs_free(labels);
+        gs_free(y);
+        gs_free(tr);
     } else if (o->svg && status == 0) {
         status = 2;
     }
-    free(freq);
-    free(outd);
-    free(ind);
-    free(part);
+    gs_free(freq);
+    gs_free(outd);
+    gs_free(ind);
+    gs_free(part);
     return status;
 }
 
@@ -653,7 +653,7 @@ static int load(gs_job *j, gs_noise *n, const gs_cli *cl, nopts *o,
                                &d);
             if (rc == GS_OK)
                 gs_tf_set_name(&j->tf[j->ntf - 1], h);
-            free(h);
+            gs_free(h);
         }
     }
     gs_diag_print(err, &d);
@@ -733,7 +733,7 @@ int gs_cmd_noise(int argc, char **argv, FILE *out, FILE *err)
             long double *part = gs_calloc(n.nsrc, sizeof *part), tot, in;
             gs_noise_band(&tot, &in, part, &nn, i, o.f1, o.f2);
             print_band(out, &j, &n, part, tot, in, i, &o, nn.t);
-            free(part);
+            gs_free(part);
         }
     }
     if (status == 0 && !json && (o.nat || o.has_band))
@@ -751,9 +751,9 @@ int gs_cmd_noise(int argc, char **argv, FILE *out, FILE *err)
         }
         gs_noise_short_clear(&sh[i]);
     }
-    free(sh);
+    gs_free(sh);
 done:
-    free(o.at);
+    gs_free(o.at);
     gs_noise_num_clear(&nn);
     gs_noise_clear(&n);
     gs_cli_clear(&cl);

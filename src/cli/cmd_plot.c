@@ -44,8 +44,8 @@ static int make_tfns(gs_tfn **out, const gs_job *j, const char *cmd,
                     j->tf[i].name);
             status = 1;
         }
-        free(cn);
-        free(cd);
+        gs_free(cn);
+        gs_free(cd);
     }
     *out = h;
     return status;
@@ -56,7 +56,7 @@ static void free_tfns(gs_tfn *h, size_t n)
     size_t i;
     for (i = 0; i < n; i++)
         gs_tfn_clear(&h[i]);
-    free(h);
+    gs_free(h);
 }
 
 /* Open an output file, refusing to write over the circuit file. */
@@ -259,12 +259,12 @@ static int bode_outputs(const gs_job *j, const gs_tfn *h, const gs_cli *cl,
         write_bode_csv(out, j, sw);
     for (i = 0; i < n; i++) {
         gs_sweep_clear(&sw[i]);
-        free(labels[i]);
+        gs_free(labels[i]);
     }
-    free(labels);
-    free(sw);
-    free(marks);
-    free(tr);
+    gs_free(labels);
+    gs_free(sw);
+    gs_free(marks);
+    gs_free(tr);
     return status;
 }
 
@@ -390,8 +390,8 @@ static int step_one(const gs_job *j, size_t i, const gs_tfn *h,
         p.ntraces = 1;
         gs_svg_step(f, &p);
         status = close_output(f, svg, "step", err);
-        free(t);
-        free(y);
+        gs_free(t);
+        gs_free(y);
     } else if (svg && status == 0) {
         status = 2;
     }

@@ -101,7 +101,7 @@ static void print_root_rows(FILE *out, const char *what,
                    : "  numeric cluster (no repeated factor)";
         print_root_row(out, sum / got, got, worst, note);
     }
-    free(used);
+    gs_free(used);
 }
 
 enum { MAX_MULT = 32 };
@@ -234,8 +234,8 @@ static int poles_one(const gs_job *j, size_t i, int json, long double tol,
             print_text(out, j->tf[i].name, &h, tol, &u, &j->tf[i]);
     }
     gs_tfn_clear(&h);
-    free(cn);
-    free(cd);
+    gs_free(cn);
+    gs_free(cd);
     return rc == GS_EINVAL ? 1 : 0;
 }
 

@@ -50,7 +50,7 @@ static void report_noise_clear(report_noise *rn)
     gs_noise_num_clear(&rn->nn);
     gs_noise_clear(&rn->n);
     gs_job_clear(&rn->j);
-    free(rn->why);
+    gs_free(rn->why);
 }
 
 /* Derive every target and the transfer from each source to it. */
@@ -81,7 +81,7 @@ static int noise_bind(report_noise *rn, const gs_cli *cl)
         return 1;
     status = gs_cmd_bind(&rn->j, cl, quiet);
     fclose(quiet);
-    free(buf);
+    gs_free(buf);
     return status;
 }
 
@@ -205,7 +205,7 @@ int gs_cmd_report(int argc, char **argv, FILE *out, FILE *err)
         status = 1;
 done:
     report_noise_clear(&rn);
-    free(args);
+    gs_free(args);
     gs_cli_clear(&cl);
     gs_job_clear(&j);
     return status;

@@ -122,7 +122,7 @@ static void print_fig(FILE *out, const gs_sens *r, const gs_sens_fig *f,
     }
     if (folded)
         fprintf(out, "    (%zu more with |S| < 0.001)\n", folded);
-    free(rows);
+    gs_free(rows);
 }
 
 static void json_num(FILE *out, long double v)
@@ -235,7 +235,7 @@ static int sens_one(const gs_job *j, size_t i, const long double *at,
         }
         print_chains(out, l, nl, j->c->syms);
     }
-    free(l);
+    gs_free(l);
     gs_sens_clear(&r);
     return rc == GS_EINVAL ? 1 : 0;
 }
@@ -310,7 +310,7 @@ int gs_cmd_sens(int argc, char **argv, FILE *out, FILE *err)
     if (status == 0 && partial)
         status = 1;
 done:
-    free(at);
+    gs_free(at);
     gs_cli_clear(&cl);
     gs_job_clear(&j);
     return status;

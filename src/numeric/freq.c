@@ -178,10 +178,10 @@ void gs_sweep_init(gs_sweep *sw)
 
 void gs_sweep_clear(gs_sweep *sw)
 {
-    free(sw->freq);
-    free(sw->mag_db);
-    free(sw->phase_deg);
-    free(sw->delay_s);
+    gs_free(sw->freq);
+    gs_free(sw->mag_db);
+    gs_free(sw->phase_deg);
+    gs_free(sw->delay_s);
     gs_sweep_init(sw);
 }
 
@@ -292,14 +292,14 @@ static int positive_roots(long double *w, const long double *r, int n)
     while (top >= 0 && r[top] == 0)
         top--;
     if (top <= 0) {
-        free(z);
+        gs_free(z);
         return 0;
     }
     int rc = gs_roots(z, NULL, r, top, &info);
     for (int i = 0; i < info.nroots; i++)
         if (creall(z[i]) > 0 && fabsl(cimagl(z[i])) <= 1e-6L * cabsl(z[i]))
             w[cnt++] = sqrtl(creall(z[i]));
-    free(z);
+    gs_free(z);
     return rc == GS_OK ? cnt : -1;
 }
 
@@ -373,8 +373,8 @@ static int mag_crossings(long double *w, const gs_tfn *h, long double lnlev)
                 -lev2);
     drop_noise(r, size, n);
     cnt = positive_roots(w, r, n);
-    free(size);
-    free(r);
+    gs_free(size);
+    gs_free(r);
     for (int i = 0; i < cnt; i++) {
         long double x = refine(h, w[i], BY_MAG, lnlev, 1e-9L);
         if (x > 0)
@@ -396,7 +396,7 @@ int gs_freq_crossings(long double *f_hz, int max, int *count,
     int cnt = mag_crossings(w, h, level_db * (LN10_L / 20));
     for (int i = 0; i < cnt && i < max; i++)
         f_hz[i] = w[i] / (2 * PI_L);
-    free(w);
+    gs_free(w);
     if (cnt < 0)
         return GS_ERANGE;
     *count = cnt;
@@ -444,7 +444,7 @@ int gs_freq_unity_gain(long double *f_hz, const gs_tfn *h)
             break;
         }
     }
-    free(w);
+    gs_free(w);
     return rc;
 }
 
@@ -459,7 +459,7 @@ static long double phase_crossover(const gs_tfn *h)
 
     cross_terms(r, size, n, h->num, h->num_deg, h->den, h->den_deg, 1, 1);
     drop_noise(r, size, n);
-    free(size);
+    gs_free(size);
     cnt = positive_roots(w, r, n);
     for (int i = 0; i < cnt; i++) {
         resp q = response(h, w[i]);
@@ -469,8 +469,8 @@ static long double phase_crossover(const gs_tfn *h)
         if (x > 0 && (best == 0 || x < best))
             best = x;
     }
-    free(w);
-    free(r);
+    gs_free(w);
+    gs_free(r);
     return cnt < 0 ? -1 : best;
 }
 
@@ -489,7 +489,7 @@ int gs_freq_margins(gs_margins *m, const gs_tfn *loop)
         }
     }
     m->ncross = cnt > 0 ? cnt : 0;
-    free(w);
+    gs_free(w);
     long double wp = loop->num_deg < 0 ? 0 : phase_crossover(loop);
     if (wp > 0) {
         m->has_gm = 1;

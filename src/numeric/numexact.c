@@ -641,7 +641,7 @@ static int solve_linear(crat *h, xctx *x, const gs_output *o)
             read_off(h, &da, &dm, &lc, &sy.known);
         for (k = 0; k < nn2; k++)
             gi_clear(&z[k]);
-        free(z);
+        gs_free(z);
         gi_clear(&da);
         gi_clear(&dm);
         gs_int_clear(&lc);
@@ -653,9 +653,9 @@ static int solve_linear(crat *h, xctx *x, const gs_output *o)
     cr_clear(&sy.known);
     cr_clear(&g);
     cr_clear(&known);
-    free(row);
-    free(sy.m);
-    free(sy.branch);
+    gs_free(row);
+    gs_free(sy.m);
+    gs_free(sy.branch);
     return rc;
 }
 
@@ -842,8 +842,8 @@ int gs_numsolve_exact(long double complex *h, const gs_circuit *c,
         *h = gs_cmplxl(gs_rat_get_ld(&r.re), gs_rat_get_ld(&r.im));
     for (k = 0; k < nsym; k++)
         gs_rat_clear(&x.v[k]);
-    free(x.v);
-    free(x.have);
+    gs_free(x.v);
+    gs_free(x.have);
     cr_clear(&x.s);
     cr_clear(&r);
     return rc;

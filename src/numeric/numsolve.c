@@ -391,10 +391,10 @@ int gs_numsolve(long double complex *h, const gs_circuit *c, size_t out,
                     "%s: the circuit's equations have no unique solution "
                     "at s = %Lg%+Lgj",
                     o->name, creall(s), cimagl(s));
-    free(row);
-    free(sy.a);
-    free(sy.rhs);
-    free(sy.branch);
+    gs_free(row);
+    gs_free(sy.a);
+    gs_free(sy.rhs);
+    gs_free(sy.branch);
     return rc;
 }
 
@@ -440,11 +440,11 @@ int gs_numsolve_adjoint(long double complex *h, const gs_circuit *c,
         gs_diag_add(d, GS_SEV_ERROR, c->file, o->line, o->col, NULL,
                     "%s: the adjoint system is singular at s = %Lg%+Lgj",
                     o->name, creall(s), cimagl(s));
-    free(row);
-    free(y);
-    free(sy.a);
-    free(sy.rhs);
-    free(sy.branch);
+    gs_free(row);
+    gs_free(y);
+    gs_free(sy.a);
+    gs_free(sy.rhs);
+    gs_free(sy.branch);
     return rc;
 }
 
@@ -703,19 +703,19 @@ int gs_numsolve_bounded(long double complex *h, long double *bound,
         if (conv && isfinite(sum) && isfinite(cabsl(*h)))
             *bound = 2 * sum + 4 * (LDBL_EPSILON / 2) * cabsl(*h);
     }
-    free(sy.a);
-    free(sy.rhs);
-    free(ab.a);
-    free(ab.rhs);
-    free(lu);
-    free(piv);
-    free(x);
-    free(r);
-    free(y);
-    free(ry);
-    free(cv);
-    free(cabs);
-    free(row);
-    free(sy.branch);
+    gs_free(sy.a);
+    gs_free(sy.rhs);
+    gs_free(ab.a);
+    gs_free(ab.rhs);
+    gs_free(lu);
+    gs_free(piv);
+    gs_free(x);
+    gs_free(r);
+    gs_free(y);
+    gs_free(ry);
+    gs_free(cv);
+    gs_free(cabs);
+    gs_free(row);
+    gs_free(sy.branch);
     return rc;
 }

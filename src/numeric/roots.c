@@ -173,8 +173,8 @@ static void initial_guesses(ldc *z, const long double *b, int n)
             z[idx++] = gs_cmplxl(u * cosl(ang), u * sinl(ang));
         }
     }
-    free(hull);
-    free(lg);
+    gs_free(hull);
+    gs_free(lg);
 }
 
 /* Run Aberth sweeps on b[0..n] (b[0], b[n] nonzero).  Returns the number
@@ -210,8 +210,8 @@ static int aberth(ldc *z, const long double *b, int n)
             }
         }
     }
-    free(last);
-    free(done);
+    gs_free(last);
+    gs_free(done);
     return ndone == n ? sweep : -1;
 }
 
@@ -351,7 +351,7 @@ static int polish(ldc *z, const long double *q, int n)
             }
         }
     }
-    free(stuck);
+    gs_free(stuck);
     return steps;
 }
 
@@ -475,9 +475,9 @@ static void analyse(int *mult, long double *rad, const ldc *z,
         size[find(parent, i)]++;
     for (int i = 0; mult != NULL && i < n; i++)
         mult[i] = size[find(parent, i)];
-    free(size);
-    free(parent);
-    free(near);
+    gs_free(size);
+    gs_free(parent);
+    gs_free(near);
 }
 
 static long double backward_error(const long double *q, int n, ldc z)
@@ -527,7 +527,7 @@ static void symmetrize(ldc *z, const long double *rad, const long double *q,
     for (int j = 0; j < n; j++)
         if (cimagl(z[j]) < 0 && !used[j])
             z[j] = gs_cmplxl(creall(z[j]), 0);
-    free(used);
+    gs_free(used);
 }
 
 static int cmp_roots(const void *pa, const void *pb)
@@ -597,8 +597,8 @@ static int nonzero_roots(ldc *z, const long double *q, int n,
     info->polish_steps = polish(z, q, n);
     analyse(NULL, rad, z, q, n);
     symmetrize(z, rad, q, n);
-    free(rad);
-    free(b);
+    gs_free(rad);
+    gs_free(b);
     return info->converged ? 0 : -1;
 }
 
@@ -652,9 +652,9 @@ int gs_roots_mult(int *mult, long double *relerr, const ldc *roots,
         if (roots[i] != 0 && k < n)
             z[k++] = roots[i];
     if (k != n) {
-        free(m);
-        free(rad);
-        free(z);
+        gs_free(m);
+        gs_free(rad);
+        gs_free(z);
         return GS_EINVAL;
     }
     analyse(m, rad, z, a + low, n);
@@ -666,9 +666,9 @@ int gs_roots_mult(int *mult, long double *relerr, const ldc *roots,
             relerr[i] = zero ? 0 : rad[k] / cabsl(z[k]);
         k += !zero;
     }
-    free(m);
-    free(rad);
-    free(z);
+    gs_free(m);
+    gs_free(rad);
+    gs_free(z);
     return GS_OK;
 }
 
@@ -760,16 +760,16 @@ int gs_tfn_init(gs_tfn *h, const long double *num, int num_deg,
 
 void gs_tfn_clear(gs_tfn *h)
 {
-    free(h->num);
-    free(h->den);
-    free(h->zeros);
-    free(h->poles);
-    free(h->zero_mult);
-    free(h->pole_mult);
-    free(h->zero_err);
-    free(h->pole_err);
-    free(h->zero_res);
-    free(h->pole_res);
+    gs_free(h->num);
+    gs_free(h->den);
+    gs_free(h->zeros);
+    gs_free(h->poles);
+    gs_free(h->zero_mult);
+    gs_free(h->pole_mult);
+    gs_free(h->zero_err);
+    gs_free(h->pole_err);
+    gs_free(h->zero_res);
+    gs_free(h->pole_res);
     memset(h, 0, sizeof *h);
 }
 
@@ -869,8 +869,8 @@ int gs_pz_cancellations(gs_pz_pair *pairs, int max, const gs_tfn *h,
             pairs[found] = all[k];
         found++;
     }
-    free(zu);
-    free(pu);
-    free(all);
+    gs_free(zu);
+    gs_free(pu);
+    gs_free(all);
     return found;
 }

@@ -118,9 +118,9 @@ static int group_poles(cluster **out, const gs_tfn *h)
     for (int r = 0; r < n; r++)
         if (parent[r] == r)
             (*out)[k++] = make_cluster(p, parent, n, r);
-    free(parent);
-    free(rad);
-    free(p);
+    gs_free(parent);
+    gs_free(rad);
+    gs_free(p);
     return k;
 }
 
@@ -136,7 +136,7 @@ static void taylor_num(ldc *g, int m, const gs_tfn *h, ldc c)
             b[k] += c * b[k + 1];
         g[r] = r <= n ? b[r] : 0;
     }
-    free(b);
+    gs_free(b);
 }
 
 /* g *= series of (d + t)^(-q), truncated to m terms */
@@ -171,8 +171,8 @@ static void residues(ldc *c, const cluster *cl, int ncl, int k,
             mul_inverse_power(g, tmp, m, cl[k].c - cl[j].c, cl[j].m);
     for (int l = 0; l < m; l++)
         c[l] = g[m - 1 - l];
-    free(tmp);
-    free(g);
+    gs_free(tmp);
+    gs_free(g);
 }
 
 static void time_scales(gs_step *s, const cluster *cl, int ncl)
@@ -219,14 +219,14 @@ int gs_step_init(gs_step *s, const gs_tfn *h)
     s->dc_gain = gs_tfn_dc_gain(h);
     s->stability = gs_tfn_stability(h);
     time_scales(s, cl, ncl);
-    free(cl);
+    gs_free(cl);
     return GS_OK;
 }
 
 void gs_step_clear(gs_step *s)
 {
-    free(s->terms);
-    free(s->coef);
+    gs_free(s->terms);
+    gs_free(s->coef);
     memset(s, 0, sizeof *s);
 }
 

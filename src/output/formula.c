@@ -33,9 +33,9 @@ static part fail(part *a, part *b)
 {
     part p = {NULL, 0, 0};
     if (a)
-        free(a->tex);
+        gs_free(a->tex);
     if (b)
-        free(b->tex);
+        gs_free(b->tex);
     return p;
 }
 
@@ -50,7 +50,7 @@ static char *name_tex(const char *from, size_t n)
     size_t len = strlen(t);
     if (len > 2 && strcmp(t + len - 2, "{}") == 0)
         t[len - 2] = '\0';
-    free(name);
+    gs_free(name);
     return t;
 }
 
@@ -80,14 +80,14 @@ static part read_atom(reader *r)
         if (!q.sum)             /* a product or a fraction needs none */
             return q;
         p.tex = gs_asprintf("\\left(%s\\right)", q.tex);
-        free(q.tex);
+        gs_free(q.tex);
     } else if (*r->s == '-') {
         r->s++;
         q = read_power(r);
         if (q.tex == NULL)
             return q;
         p.tex = gs_asprintf(q.sum ? "-\\left(%s\\right)" : "-%s", q.tex);
-        free(q.tex);
+        gs_free(q.tex);
     }
     return p;
 }
@@ -105,8 +105,8 @@ static part read_power(reader *r)
         return fail(&base, NULL);
     t = gs_asprintf(base.frac || base.sum ? "\\left(%s\\right)^{%s}"
                                           : "%s^{%s}", base.tex, ex.tex);
-    free(base.tex);
-    free(ex.tex);
+    gs_free(base.tex);
+    gs_free(ex.tex);
     base.tex = t;
     base.sum = base.frac = 0;
     return base;
@@ -119,7 +119,7 @@ static void put_factor(char **side, const part *f)
     char *t;
     const char *fmt = f->sum ? "%s%s\\left(%s\\right)" : "%s%s%s";
     t = gs_asprintf(fmt, *side ? *side : "", *side ? "\\," : "", f->tex);
-    free(*side);
+    gs_free(*side);
     *side = t;
 }
 
@@ -130,12 +130,12 @@ static part read_product(reader *r)
     int over = 0;
     for (;;) {
         if (f.tex == NULL) {
-            free(num);
-            free(den);
+            gs_free(num);
+            gs_free(den);
             return p;
         }
         put_factor(over ? &den : &num, &f);
-        free(f.tex);
+        gs_free(f.tex);
         skip_space(r);
         if (*r->s != '*' && *r->s != '/')
             break;
@@ -149,8 +149,8 @@ static part read_product(reader *r)
     }
     p.tex = gs_asprintf("\\frac{%s}{%s}", num, den);
     p.frac = 1;
-    free(num);
-    free(den);
+    gs_free(num);
+    gs_free(den);
     return p;
 }
 
@@ -168,8 +168,8 @@ static part read_sum(reader *r)
         if (q.tex == NULL)
             return fail(&p, NULL);
         t = gs_asprintf("%s %c %s", p.tex, op, q.tex);
-        free(p.tex);
-        free(q.tex);
+        gs_free(p.tex);
+        gs_free(q.tex);
         p.tex = t;
         p.sum = 1;
         p.frac = 0;
@@ -184,7 +184,7 @@ char *gs_formula_latex(const char *text)
     p = read_sum(&r);
     skip_space(&r);
     if (p.tex != NULL && *r.s != '\0') {
-        free(p.tex);
+        gs_free(p.tex);
         return NULL;
     }
     return p.tex;

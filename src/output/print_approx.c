@@ -35,7 +35,7 @@ static void pair_exprs(char **w0sq, char **q, const gs_approx_root *x,
     t = gs_approx_form(&a, &b, style, ctx);
     *q = style == GS_FORM_LATEX ? gs_asprintf("\\sqrt{%s}", t)
                                 : gs_asprintf("sqrt(%s)", t);
-    free(t);
+    gs_free(t);
     gs_poly_clear(&a);
     gs_poly_clear(&b);
 }
@@ -67,9 +67,9 @@ static char *normalised(const gs_approx_result *r, int style)
         if (x->at_origin || x->pair_of >= 0 || cabsl(x->exact) > wmax)
             continue;
         if (x->est == GS_APPROX_EST_NONE) {
-            free(k);
-            free(part[0]);
-            free(part[1]);
+            gs_free(k);
+            gs_free(part[0]);
+            gs_free(part[1]);
             return NULL;
         }
         gs_poly_init(&n);
@@ -81,26 +81,26 @@ static char *normalised(const gs_approx_result *r, int style)
                 gs_poly_set(&n, &x->wn, ctx);
             a = gs_approx_form(&n, &x->wd, style, ctx);
             f = gs_asprintf("(1 %s s/(%s))", rhp ? "-" : "+", a);
-            free(a);
+            gs_free(a);
         } else {
             a = gs_approx_form(&x->a1, &x->a0, style, ctx);
             b = gs_approx_form(&x->a2, &x->a0, style, ctx);
             f = gs_asprintf("(1 + s*(%s) + s^2*(%s))", a, b);
-            free(a);
-            free(b);
+            gs_free(a);
+            gs_free(b);
         }
         gs_poly_clear(&n);
         w = x->is_zero ? 0 : 1;
         t = gs_asprintf("%s%s%s", part[w], *part[w] ? "*" : "", f);
-        free(part[w]);
+        gs_free(part[w]);
         part[w] = t;
-        free(f);
+        gs_free(f);
         any = 1;
     }
     if (!any) {
-        free(k);
-        free(part[0]);
-        free(part[1]);
+        gs_free(k);
+        gs_free(part[0]);
+        gs_free(part[1]);
         return NULL;
     }
     {
@@ -108,19 +108,19 @@ static char *normalised(const gs_approx_result *r, int style)
                               "", *part[0] ? "*" : "", part[0],
                               *part[1] ? "/(" : "");
         char *u = gs_asprintf("%s%s%s", t, part[1], *part[1] ? ")" : "");
-        free(t);
+        gs_free(t);
         t = u;
         if (r->dc_order) {
             u = gs_asprintf("(%s)*s^%d%s%s%s%s%s", k, r->dc_order,
                             *part[0] ? "*" : "", part[0],
                             *part[1] ? "/(" : "", part[1],
                             *part[1] ? ")" : "");
-            free(t);
+            gs_free(t);
             t = u;
         }
-        free(k);
-        free(part[0]);
-        free(part[1]);
+        gs_free(k);
+        gs_free(part[0]);
+        gs_free(part[1]);
         return t;
     }
 }
@@ -158,7 +158,7 @@ void gs_print_approx(FILE *out, const gs_approx_result *r, int style)
         fprintf(out, " * s^%d", r->dc_order);
     fprintf(out, "\n%s  = %.6Lg (exact %.6Lg, error %.3Lg %%)\n", ll,
             r->dc_value, r->dc_exact, 100 * r->dc_rel_error);
-    free(s);
+    gs_free(s);
     for (i = 0; i < r->nroots; i++) {
         const gs_approx_root *x = &r->roots[i];
         size_t nth = i + 1, k;
@@ -179,13 +179,13 @@ void gs_print_approx(FILE *out, const gs_approx_result *r, int style)
         if (x->est == GS_APPROX_EST_REAL) {
             s = root_expr(x, style, ctx);
             fprintf(out, "~ %s\n", s);
-            free(s);
+            gs_free(s);
         } else if (x->est == GS_APPROX_EST_PAIR) {
             char *w, *q;
             pair_exprs(&w, &q, x, style, ctx);
             fprintf(out, "complex pair, w0^2 ~ %s, Q ~ %s\n", w, q);
-            free(w);
-            free(q);
+            gs_free(w);
+            gs_free(q);
         } else {
             fputs("no estimate (separation ", out);
             fprintf(out, "%.3Lg < %.3Lg); exact ", x->separation, 4.0L);
@@ -207,7 +207,7 @@ void gs_print_approx(FILE *out, const gs_approx_result *r, int style)
     }
     if ((s = normalised(r, style)) != NULL) {
         fprintf(out, "%snormalised: %s ~ %s\n", ll, name, s);
-        free(s);
+        gs_free(s);
     }
     if (r->ncond) {
         fprintf(out, "%sassumes", ll);
@@ -258,7 +258,7 @@ void gs_print_approx_json(FILE *out, const gs_approx_result *r)
     json_str(out, gs_tf_name(&r->h));
     fputs(", \"approx\": ", out);
     json_str(out, s);
-    free(s);
+    gs_free(s);
     fprintf(out, ", \"met\": %s, \"terms\": %zu, \"terms_exact\": %zu",
             r->met ? "true" : "false", r->terms_kept, r->terms_exact);
     fputs(", \"band_hz\": [", out);
@@ -276,7 +276,7 @@ void gs_print_approx_json(FILE *out, const gs_approx_result *r)
     fputs("}, \"dc\": {\"expr\": ", out);
     s = gs_approx_form(&r->dcn, &r->dcd, GS_FORM_TEXT, ctx);
     json_str(out, s);
-    free(s);
+    gs_free(s);
     fprintf(out, ", \"s_order\": %d, \"value\": ", r->dc_order);
     json_num(out, r->dc_value);
     fputs(", \"exact_value\": ", out);
@@ -293,15 +293,15 @@ void gs_print_approx_json(FILE *out, const gs_approx_result *r)
         } else if (x->est == GS_APPROX_EST_REAL) {
             s = root_expr(x, GS_FORM_TEXT, ctx);
             json_str(out, s);
-            free(s);
+            gs_free(s);
         } else if (x->est == GS_APPROX_EST_PAIR) {
             char *w, *q, *t;
             pair_exprs(&w, &q, x, GS_FORM_TEXT, ctx);
             t = gs_asprintf("w0^2 = %s; Q = %s", w, q);
             json_str(out, t);
-            free(t);
-            free(w);
-            free(q);
+            gs_free(t);
+            gs_free(w);
+            gs_free(q);
         } else {
             fputs("null", out);
         }
@@ -330,7 +330,7 @@ void gs_print_approx_json(FILE *out, const gs_approx_result *r)
         fputs(", \"value\": ", out);
         json_num(out, r->cond[i].value);
         fputc('}', out);
-        free(t);
+        gs_free(t);
     }
     fputs("], \"normalised\": ", out);
     s = normalised(r, GS_FORM_TEXT);
@@ -338,7 +338,7 @@ void gs_print_approx_json(FILE *out, const gs_approx_result *r)
         json_str(out, s);
     else
         fputs("null", out);
-    free(s);
+    gs_free(s);
     fprintf(out, ", \"conditions_total\": %zu, \"path\": ", r->ncond_total);
     json_str(out, r->path);
     fputc('}', out);

@@ -97,21 +97,21 @@ static void params_init(params *ps, const gs_tf *tf)
         t = c_ident(gs_symtab_name(ctx->syms, i), 0);
         for (k = 2; name_taken(ps, i, t); k++) {
             char *base = c_ident(gs_symtab_name(ctx->syms, i), 0);
-            free(t);
+            gs_free(t);
             t = gs_asprintf("%s_%d", base, k);
-            free(base);
+            gs_free(base);
         }
         ps->cname[i] = t;
     }
-    free(used);
+    gs_free(used);
 }
 
 static void params_clear(params *ps)
 {
     int i;
     for (i = 0; i < ps->nvars; i++)
-        free(ps->cname[i]);
-    free(ps->cname);
+        gs_free(ps->cname[i]);
+    gs_free(ps->cname);
 }
 
 /* Text safe inside a C comment: printable ASCII without a comment end. */
@@ -173,7 +173,7 @@ static char *term_c(const params *ps, const gs_int *c, const unsigned *exps)
                                    ps->cname[i]);
         }
     }
-    free(digits);
+    gs_free(digits);
     return t;
 }
 
@@ -202,9 +202,9 @@ static void put_sum(cout *o, const params *ps, const gs_poly *c, int first,
             cout_piece(o, neg ? "-" : "", t);
         else
             cout_piece(o, neg ? " - " : " + ", t);
-        free(t);
+        gs_free(t);
     }
-    free(exps);
+    gs_free(exps);
 }
 
 /* One Horner step: "v = C;" at the top, then "v = v*s + C;". */
@@ -248,7 +248,7 @@ static void put_horner(FILE *out, const params *ps, const gs_poly *a, char v,
         horner_step(out, ps, &c[i], v, i == n - 1, ctx);
     for (i = 0; i < n; i++)
         gs_poly_clear(&c[i]);
-    free(c);
+    gs_free(c);
 }
 
 static void put_struct(FILE *out, const params *ps, const char *fn,
@@ -330,5 +330,5 @@ void gs_print_c(FILE *out, const gs_tf *tf)
         fputs("    return n / d;\n}\n", out);
     }
     params_clear(&ps);
-    free(fn);
+    gs_free(fn);
 }

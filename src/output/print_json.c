@@ -36,7 +36,7 @@ static void put_symbols(FILE *out, const gs_tf *tf)
         first = 0;
     }
     fputc(']', out);
-    free(used);
+    gs_free(used);
 }
 
 /* {"power": k, "terms": [{"coeff": "-2", "exps": {"gm": 1}}, ...]} */
@@ -50,7 +50,7 @@ static void put_group(FILE *out, const gs_poly *c, long power,
         char *digits = gs_int_get_str(&c->coeffs[i]);
         fprintf(out, "%s{\"coeff\": \"%s\", \"exps\": {", i ? ", " : "",
                 digits);
-        free(digits);
+        gs_free(digits);
         gs_poly_get_term_exps(exps, c, i, ctx);
         for (v = 0, first = 1; v < ctx->nvars; v++) {
             if (exps[v] == 0)
@@ -90,10 +90,10 @@ static void put_poly(FILE *out, const gs_poly *a, int var,
         }
         for (i = 0; i < n; i++)
             gs_poly_clear(&c[i]);
-        free(c);
+        gs_free(c);
     }
     fputc(']', out);
-    free(exps);
+    gs_free(exps);
 }
 
 void gs_print_json(FILE *out, const gs_tf *tf, int collect_var)
@@ -120,5 +120,5 @@ void gs_print_json(FILE *out, const gs_tf *tf, int collect_var)
     fputs(", \"text\": ", out);
     gs_json_string(out, text);
     fputc('}', out);
-    free(text);
+    gs_free(text);
 }

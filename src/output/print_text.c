@@ -57,7 +57,7 @@ static void sb_init_stream(sbuf *b, FILE *out)
 static void sb_free(sbuf *b)
 {
     gs_strbuf_clear(&b->s);
-    free(b->brk);
+    gs_free(b->brk);
 }
 
 static void sb_putn(sbuf *b, const char *s, size_t n)
@@ -115,7 +115,7 @@ static char *latex_escape(const char *name)
         }
     }
     sb_puts(&b, "}");
-    free(b.brk);
+    gs_free(b.brk);
     return b.s.p;
 }
 
@@ -149,7 +149,7 @@ static char *var_name(const style *st, int id)
         return latex_plain(gs_symtab_name(syms, id));
     inner = latex_plain(gs_symtab_name(syms, base));
     out = gs_asprintf("{\\frac{1}{%s}}", inner);
-    free(inner);
+    gs_free(inner);
     return out;
 }
 
@@ -165,9 +165,9 @@ static void style_clear(style *st)
 {
     int i;
     for (i = 0; i < st->ctx->nvars; i++)
-        free(st->names[i]);
-    free(st->names);
-    free(st->lens);
+        gs_free(st->names[i]);
+    gs_free(st->names);
+    gs_free(st->lens);
 }
 
 static const char *name_of(style *st, int id)
@@ -236,7 +236,7 @@ static void put_term(sbuf *b, style *st, const gs_int *c,
     if (one || !is_unit(c)) {
         char *digits = gs_int_get_str(c);
         sb_puts(b, digits[0] == '-' ? digits + 1 : digits);
-        free(digits);
+        gs_free(digits);
         if (!one)
             sb_puts(b, mul_sign(st));
     }
@@ -367,10 +367,10 @@ static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
                 put_group(b, st, &v, var, (unsigned)k, first, exps);
             first = 0;
         }
-        free(idx);
-        free(start);
+        gs_free(idx);
+        gs_free(start);
     }
-    free(exps);
+    gs_free(exps);
 }
 
 /* a in the style latex, with its break points. */
@@ -389,7 +389,7 @@ static char *poly_str(const gs_tf *tf, const gs_poly *a, int collect_var,
 {
     sbuf b;
     poly_sbuf(&b, tf, a, collect_var, latex);
-    free(b.brk);
+    gs_free(b.brk);
     return b.s.p;
 }
 
@@ -401,8 +401,8 @@ char *gs_tf_get_str(const gs_tf *tf, int collect_var)
     char *line = gs_poly_is_one(&tf->den, tf->ctx)
                  ? gs_asprintf("%s = %s", gs_tf_name(tf), n)
                  : gs_asprintf("%s = (%s)/(%s)", gs_tf_name(tf), n, d);
-    free(n);
-    free(d);
+    gs_free(n);
+    gs_free(d);
     return line;
 }
 
@@ -470,7 +470,7 @@ static size_t text_len(const gs_tf *tf, const gs_poly *a, int collect_var)
 {
     char *t = poly_str(tf, a, collect_var, 0);
     size_t n = strlen(t);
-    free(t);
+    gs_free(t);
     return n;
 }
 
@@ -497,7 +497,7 @@ void gs_print_latex(FILE *out, const gs_tf *tf, int collect_var)
             latex_broken(out, tf, &tf->den, collect_var);
             fputs("\n\\end{multline*}\n", out);
         }
-        free(name);
+        gs_free(name);
         return;
     }
     n = poly_str(tf, &tf->num, collect_var, 1);
@@ -508,9 +508,9 @@ void gs_print_latex(FILE *out, const gs_tf *tf, int collect_var)
     else
         fprintf(out, "\\begin{equation}\n%s = \\frac{%s}{%s}\n"
                 "\\end{equation}\n", name, n, d);
-    free(name);
-    free(n);
-    free(d);
+    gs_free(name);
+    gs_free(n);
+    gs_free(d);
 }
 
 /* ---- 2-D text ---- */
@@ -557,8 +557,8 @@ static void block_wrap(block *bl, const sbuf *b, size_t width)
 
 static void block_free(block *bl)
 {
-    free(bl->start);
-    free(bl->len);
+    gs_free(bl->start);
+    gs_free(bl->len);
 }
 
 static void put_spaces(FILE *out, size_t n)

@@ -112,7 +112,7 @@ static char *folded(const gs_poly *p, const gs_polyctx *ctx, size_t *nterms)
     memcpy(out, t, cut1);
     strcpy(out + cut1, " + ...");
     strcat(out, t + cut2);
-    free(t);
+    gs_free(t);
     return out;
 }
 
@@ -145,8 +145,8 @@ static void sec_listing(rctx *r)
     fclose(in);
     r->w->listing(r->o, lines, n);
     while (n)
-        free(lines[--n]);
-    free(lines);
+        gs_free(lines[--n]);
+    gs_free(lines);
 }
 
 static void sec_values(rctx *r)
@@ -171,9 +171,9 @@ static void sec_values(rctx *r)
     r->w->heading(r->o, 2, "Values");
     r->w->table(r->o, cells, rows, 3);
     for (v = 0; v < (int)rows * 3; v++)
-        free(cells[v]);
-    free(cells);
-    free(used);
+        gs_free(cells[v]);
+    gs_free(cells);
+    gs_free(used);
 }
 
 static void sec_caution(rctx *r)
@@ -206,8 +206,8 @@ static void sec_exact(rctx *r)
                  nn, nd);
         r->w->para(r->o, buf);
     }
-    free(n);
-    free(d);
+    gs_free(n);
+    gs_free(d);
 }
 
 static void sec_dc(rctx *r)
@@ -265,8 +265,8 @@ static void sec_pz(rctx *r)
     else
         r->w->table(r->o, cells, rows, 5);
     for (k = 0; k < rows * 5; k++)
-        free(cells[k]);
-    free(cells);
+        gs_free(cells[k]);
+    gs_free(cells);
 }
 
 /* The frequency span of the Bode plot: two decades beyond the roots. */
@@ -296,12 +296,12 @@ static void emit_svg(rctx *r, int bode, const gs_plot *p, const char *alt)
         return;
     if ((bode ? gs_svg_bode(m, p) : gs_svg_step(m, p)) != GS_OK) {
         fclose(m);
-        free(buf);
+        gs_free(buf);
         return;
     }
     fclose(m);
     r->w->figure(r->o, buf, len, alt);
-    free(buf);
+    gs_free(buf);
 }
 
 static void sec_bode(rctx *r)
@@ -394,8 +394,8 @@ static void sec_sens(rctx *r)
                "each symbol x (rows); see gainsmith sens.");
     r->w->table(r->o, cells, rows, s.n + 1);
     for (k = 0; k < rows * (s.n + 1); k++)
-        free(cells[k]);
-    free(cells);
+        gs_free(cells[k]);
+    gs_free(cells);
     gs_sens_clear(&s);
 }
 
@@ -447,7 +447,7 @@ static void approx_root(rctx *r, const gs_approx_result *a, size_t i)
             gs_poly_neg(&n, &x->wn, ctx);
             f = gs_approx_form(&n, &x->wd, GS_FORM_TEXT, ctx);
             est = gs_asprintf("~ %s", f);
-            free(f);
+            gs_free(f);
             gs_poly_clear(&n);
         } else {
             gs_poly p, q;
@@ -460,15 +460,15 @@ static void approx_root(rctx *r, const gs_approx_result *a, size_t i)
             qf = gs_approx_form(&p, &q, GS_FORM_TEXT, ctx);
             est = gs_asprintf("a complex pair, w0^2 ~ %s, Q ~ sqrt(%s)", w,
                               qf);
-            free(w);
-            free(qf);
+            gs_free(w);
+            gs_free(qf);
             gs_poly_clear(&p);
             gs_poly_clear(&q);
         }
         v = root_num(x->value);
         pc = pct(x->rel_error);
         if (strlen(est) > EST_MAX) {
-            free(est);
+            gs_free(est);
             est = gs_asprintf("estimated from the coefficients of %s (a "
                               "long form: gainsmith approx prints it)",
                               x->is_zero ? "N" : "D");
@@ -477,14 +477,14 @@ static void approx_root(rctx *r, const gs_approx_result *a, size_t i)
                         what, est, v, e, pc, !x->factor ? ""
                         : x->is_zero ? " (a factor of N)"
                                      : " (a factor of D)");
-        free(pc);
-        free(v);
-        free(est);
+        gs_free(pc);
+        gs_free(v);
+        gs_free(est);
     }
     r->w->para(r->o, t);
-    free(t);
-    free(e);
-    free(what);
+    gs_free(t);
+    gs_free(e);
+    gs_free(what);
 }
 
 /* The short forms of `gainsmith approx` with its defaults: the simplified
@@ -508,7 +508,7 @@ static void sec_approx(rctx *r)
         t = gs_asprintf("No short form: %s.", d.n ? d.v[0].message
                                                   : gs_strerror(rc));
         r->w->para(r->o, t);
-        free(t);
+        gs_free(t);
         goto done;
     }
     if (!a.met) {
@@ -522,14 +522,14 @@ static void sec_approx(rctx *r)
                         100 * o.spread, a.err_db, a.err_deg, a.spread_db,
                         a.spread_deg);
         r->w->para(r->o, t);
-        free(t);
+        gs_free(t);
         goto done;
     }
     n = folded(&a.h.num, a.h.ctx, &nn);
     dn = folded(&a.h.den, a.h.ctx, &nd);
     r->w->formula(r->o, gs_tf_name(&a.h), n, dn);
-    free(n);
-    free(dn);
+    gs_free(n);
+    gs_free(dn);
     t = gs_asprintf("%zu of the %zu terms kept.  Measured from %.4Lg Hz "
                     "to %.4Lg Hz (%d points): error %.3Lg dB, %.3Lg "
                     "deg at the nominal values; %.3Lg dB, %.3Lg "
@@ -541,7 +541,7 @@ static void sec_approx(rctx *r)
                     a.spread_corners ? "corners" : "seeded points",
                     o.tol_db, o.tol_deg);
     r->w->para(r->o, t);
-    free(t);
+    gs_free(t);
     n = gs_approx_form(&a.dcn, &a.dcd, GS_FORM_TEXT, a.ctx);
     dn = pct(a.dc_rel_error);
     if (a.dc_order)
@@ -552,9 +552,9 @@ static void sec_approx(rctx *r)
         t = gs_asprintf("DC gain ~ %s = %.6Lg (exact %.6Lg, error %s).", n,
                         a.dc_value, a.dc_exact, dn);
     r->w->para(r->o, t);
-    free(t);
-    free(n);
-    free(dn);
+    gs_free(t);
+    gs_free(n);
+    gs_free(dn);
     for (k = 0; k < a.nroots; k++)
         approx_root(r, &a, k);
     if (a.ncond) {
@@ -562,7 +562,7 @@ static void sec_approx(rctx *r)
         for (k = 0; k < a.ncond; k++) {
             t = gs_asprintf("%s%s %s >> %s (here %.3Lg)", c, k ? "," : "",
                             a.cond[k].lhs, a.cond[k].rhs, a.cond[k].value);
-            free(c);
+            gs_free(c);
             c = t;
         }
         if (a.ncond_total > a.ncond)
@@ -570,9 +570,9 @@ static void sec_approx(rctx *r)
                             a.ncond_total - a.ncond);
         else
             t = gs_asprintf("%s.", c);
-        free(c);
+        gs_free(c);
         r->w->para(r->o, t);
-        free(t);
+        gs_free(t);
     } else {
         r->w->para(r->o, "Assumes nothing beyond the values above.");
     }
@@ -613,9 +613,9 @@ static void noise_table(rctx *r, const gs_noise *n, const long double *spot,
     }
     r->w->table(r->o, cells, n->nsrc + 1, 5);
     for (k = 0; k < (n->nsrc + 1) * 5; k++)
-        free(cells[k]);
-    free(cells);
-    free(rk);
+        gs_free(cells[k]);
+    gs_free(cells);
+    gs_free(rk);
 }
 
 /* The noise of this output (noise.h), when the report was given a noise
@@ -665,13 +665,13 @@ static void sec_noise(rctx *r)
                     b1, b2, gs_si_format(f1, sizeof f1, lo, 4, "Hz"),
                     gs_si_format(f2, sizeof f2, hi, 4, "Hz"), b3, b4);
     r->w->para(r->o, t);
-    free(t);
+    gs_free(t);
     noise_table(r, z->n, ps, tot, pb, btot, gs_noise_unit(c, out, 0));
     r->w->para(r->o, "Noise results are small-signal white-plus-flicker "
                "models at one operating point and one temperature, the "
                "sources taken as uncorrelated (docs/noise.md).");
-    free(ps);
-    free(pb);
+    gs_free(ps);
+    gs_free(pb);
 }
 
 /* The verdict of `gainsmith check` with its defaults: the exact result
@@ -757,8 +757,8 @@ static void sec_outputs(rctx *r)
         for (k = 0; k < sizeof out_sections / sizeof out_sections[0]; k++)
             out_sections[k](r);
         gs_tfn_clear(&r->h);
-        free(cn);
-        free(cd);
+        gs_free(cn);
+        gs_free(cd);
     }
 }
 

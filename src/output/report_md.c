@@ -4,6 +4,7 @@
  * document as PATH-N.svg and linked.
  */
 #include "output/report.h"
+#include "base/mem.h"
 
 #include <stdlib.h>
 #include <string.h>
@@ -88,7 +89,7 @@ static void tok(int kind, const char *t, size_t len, unsigned pw, void *arg)
         snprintf(name, sizeof name, "%.*s", (int)len, t);
         lx = gs_sym_latex_name(name);
         fputs(lx, f);
-        free(lx);
+        gs_free(lx);
         if (pw)
             fprintf(f, "^{%u}", pw);
         break;

@@ -6,6 +6,7 @@
  * reads no SVG: the plots are left to the HTML and Markdown documents.
  */
 #include "output/report.h"
+#include "base/mem.h"
 
 #include <stdlib.h>
 #include <string.h>
@@ -120,7 +121,7 @@ static void tok(int kind, const char *t, size_t len, unsigned pw, void *arg)
         snprintf(name, sizeof name, "%.*s", (int)len, t);
         lx = gs_sym_latex_name(name);
         fputs(lx, st->f);
-        free(lx);
+        gs_free(lx);
         if (pw)
             fprintf(st->f, "^{%u}", pw);
         break;
@@ -164,7 +165,7 @@ static void t_formula(gs_report_out *o, const char *lhs, const char *num,
     fprintf(o->f, "\\[ %s = \\frac{N}{D} \\]\nwith\n", l);
     side(o, "N", num);
     side(o, "D", den);
-    free(l);
+    gs_free(l);
 }
 
 static void t_figure(gs_report_out *o, const char *svg, size_t len,
