@@ -227,6 +227,89 @@ static void test_lone_row(void)
     gs_symtab_free(st);
 }
 
+/* The same past one word of columns, where the graph of minors holds
+   the expansion: the tridiagonal matrix T of test_chebyshev with n = 70
+   (det T_n = x det T_(n-1) - det T_(n-2), T_0 = 1, T_1 = x: the
+   continuant recurrence, Muir, A Treatise on the Theory of
+   Determinants, from memory), with a lone entry -3 y^2 put in, b = e_1
+   and the border picking the last unknown of T.  By Cramer's rule that
+   unknown is (-1)^(n+1) / det T (its minor is triangular with ones on
+   the diagonal), so det A = +-(-3 y^2) det T and
+   det M = -(that unknown) det A = +-(-1)^n (-3 y^2), one sign for both. */
+static void test_lone_row_wide(void)
+{
+    static const int at[] = {0, 1, 35, 69, 70};
+    const int nt = 70, n = nt + 1;
+    gs_symtab *st = gs_symtab_new();
+    gs_polyctx *ctx;
+    gs_poly t0, t1, t2, x, a;
+    int y, i, ri, ji;
+
+    gs_symtab_intern(st, "x");
+    y = gs_symtab_intern(st, "y");
+    ctx = gs_polyctx_new(st, 2);
+    gs_poly_init(&t0);
+    gs_poly_init(&t1);
+    gs_poly_init(&t2);
+    gs_poly_init(&x);
+    gs_poly_init(&a);
+    gs_poly_set_var(&x, 0, 1, ctx);
+    gs_poly_set_si(&t0, 1, ctx);
+    gs_poly_set(&t1, &x, ctx);
+    for (i = 2; i <= nt; i++) {
+        gs_poly_mul(&t2, &x, &t1, ctx);
+        gs_poly_sub(&t2, &t2, &t0, ctx);
+        gs_poly_swap(&t0, &t1);
+        gs_poly_swap(&t1, &t2);
+    }
+    /* t1 = det T_70 */
+    gs_poly_set_var(&a, y, 2, ctx);
+    gs_poly_mul_si(&a, &a, -3, ctx);
+    for (ri = 0; ri < 5; ri++)
+        for (ji = 0; ji < 5; ji++) {
+            int r0 = at[ri], j0 = at[ji], sign = 0;
+            gs_mna m;
+            gs_poly da, dm, want;
+
+            mna_new(&m, n);
+            for (i = 0; i < nt; i++) {
+                int r = i < r0 ? i : i + 1, c = i < j0 ? i : i + 1;
+                int cn = i + 1 < j0 ? i + 1 : i + 2;    /* column of i+1 */
+                gs_poly_set(GS_MNA_AT(&m, r, c), &x, ctx);
+                if (i + 1 < nt) {
+                    int rn = i + 1 < r0 ? i + 1 : i + 2;
+                    gs_poly_set_si(GS_MNA_AT(&m, r, cn), 1, ctx);
+                    gs_poly_set_si(GS_MNA_AT(&m, rn, c), 1, ctx);
+                }
+            }
+            gs_poly_set(GS_MNA_AT(&m, r0, j0), &a, ctx);
+            gs_poly_set_si(GS_MNA_AT(&m, r0 == 0 ? 1 : 0, n), 1, ctx);
+            gs_poly_set_si(GS_MNA_AT(&m, n, j0 == n - 1 ? n - 2 : n - 1), 1,
+                           ctx);
+            gs_poly_init(&da);
+            gs_poly_init(&dm);
+            gs_poly_init(&want);
+            gs_poly_mul(&want, &a, &t1, ctx);
+            CHECK_MSG(minors(&da, &dm, &m, ctx) == GS_OK
+                      && equal_up_to(&sign, &da, &want, ctx),
+                      "wide, lone entry at (%d, %d): det A", r0, j0);
+            gs_poly_set(&want, &a, ctx);    /* the unknown is -1 / det T */
+            CHECK_MSG(equal_up_to(&sign, &dm, &want, ctx),
+                      "wide, lone entry at (%d, %d): det M", r0, j0);
+            gs_poly_clear(&da);
+            gs_poly_clear(&dm);
+            gs_poly_clear(&want);
+            gs_mna_clear(&m);
+        }
+    gs_poly_clear(&t0);
+    gs_poly_clear(&t1);
+    gs_poly_clear(&t2);
+    gs_poly_clear(&x);
+    gs_poly_clear(&a);
+    gs_polyctx_free(ctx);
+    gs_symtab_free(st);
+}
+
 /* The n x n tridiagonal matrix with x on the diagonal and 1 beside it has
    determinant U_n(x/2) = sum_k (-1)^k C(n-k, k) x^(n-2k). */
 static void test_chebyshev(void)
@@ -659,6 +742,7 @@ int main(void)
     test_vandermonde();
     test_chebyshev();
     test_lone_row();
+    test_lone_row_wide();
     test_against_elimination();
     test_limits();
     test_more_budgets();

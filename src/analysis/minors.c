@@ -636,6 +636,41 @@ static void watch_value(watch *w, const gs_poly *p, const gs_polyctx *ctx,
     }
 }
 
+/* Node v's value when it is one product of a one-term entry and a child
+   whose last parent it is (not a root): the child's storage, scaled in
+   place (take_scaled), so that a large minor is never held twice.
+   Returns 0, with nothing done, otherwise. */
+static int take_lone_child(gs_poly *vals, const gs_mgraph *g, size_t v,
+                           const size_t *last, watch *w)
+{
+    size_t e, at = NOT_FOUND, c;
+    const gs_poly *entry = NULL;
+    int neg = 0;
+    for (e = g->first[v]; e < g->first[v + 1]; e++) {
+        if (gs_poly_is_zero(&vals[g->child[e]]))
+            continue;
+        if (at != NOT_FOUND)
+            return 0;
+        at = e;
+    }
+    if (at == NOT_FOUND)
+        return 0;
+    c = g->child[at];
+    entry = &g->entries[g->entry[at]];
+    neg = g->neg[at];
+    if (entry->length != 1 || last[c] != v || c == g->root_d
+        || c == g->root_m)
+        return 0;
+    w->work += (double)vals[c].length * g->ctx->nwords;
+    if (!gs_poly_mul_fits(&w->overflow_var, entry, &vals[c], g->ctx))
+        return 1;
+    if (over(w))
+        return 1;
+    watch_value(w, &vals[c], g->ctx, -1);
+    take_scaled(&vals[v], &vals[c], entry, neg, g->ctx);
+    return 1;
+}
+
 /* Expand the roots D and M of g children first, each value let go after
    its last parent, with the budgets of the level expansion: the terms of
    one minor and of all kept at once, their storage, the work, and the
@@ -668,7 +703,8 @@ static int expand_graph(gs_poly *det_a, gs_poly *det_m, const gs_mgraph *g,
         if (o->progress && lvl > shown)
             fprintf(o->progress, "\rexpansion level %d/%d", shown = lvl,
                     g->n);
-        eval_node(&vals[v], g, v, vals, ea, mb, neg, &w);
+        if (!take_lone_child(vals, g, v, last, &w))
+            eval_node(&vals[v], g, v, vals, ea, mb, neg, &w);
         watch_value(&w, &vals[v], g->ctx, 1);
         if (over(&w))
             rc = w.overflow_var >= 0 ? GS_ERANGE : GS_EBUDGET;
