@@ -354,8 +354,9 @@ static void count_uses(unsigned *uses, const plan *p, const view *v, int k,
 
 /* acc = (neg ? -1 : 1) e m for a one-term entry e, taking m's storage:
    a monomial times a polynomial keeps its term order, so the terms are
-   scaled where they lie.  The rows of sources and of a ladder's ends
-   have a lone entry 1, and a copy there would hold a large minor twice. */
+   scaled where they lie.  A row that meets a column set in one place (a
+   voltage source's branch row has a lone entry 1) makes a minor of one
+   product, and a copy there would hold a large minor twice. */
 static void take_scaled(gs_poly *acc, gs_poly *m, const gs_poly *e, int neg,
                         const gs_polyctx *ctx)
 {
