@@ -149,6 +149,167 @@ static void test_vandermonde(void)
     }
 }
 
+/* A row with one entry: Laplace expansion along it (Horn and Johnson,
+   Matrix Analysis, 0.3.1, from memory) gives det = (-1)^(r0+j0) a
+   minor(r0, j0).  Here a = -3 y^2 is put at (r0, j0) of an otherwise
+   Vandermonde system in x1..x4 (b_i = x_i^4, the border picking the
+   unknown of the last Vandermonde column), the other rows' entries in
+   column j0 being x_i + 1.  The lone row forces x_j0 = 0, so the picked
+   unknown is still x1 + ... + x4 (Vieta): det M = -(sum x_i) det A, and
+   det A = +-(-3 y^2) prod_{i<j} (x_j - x_i).  The ratio fixes the signs
+   of the sets that end up holding the expansion of that lone row. */
+static void test_lone_row(void)
+{
+    const int nv = 4, n = nv + 1;
+    gs_symtab *st = gs_symtab_new();
+    gs_polyctx *ctx = context(st, nv, "x");
+    int y = gs_symtab_intern(st, "y"), r0, j0;
+    gs_polyctx_free(ctx);
+    ctx = gs_polyctx_new(st, nv + 1);
+    for (r0 = 0; r0 < n; r0++)
+        for (j0 = 0; j0 < n; j0++) {
+            gs_mna m;
+            gs_poly da, dm, want, f, sum;
+            char text[32];
+            int i, j, sign = 0, last = j0 == n - 1 ? n - 2 : n - 1;
+
+            mna_new(&m, n);
+            for (i = 0; i < n; i++) {
+                int vi = i < r0 ? i : i - 1;    /* the Vandermonde row */
+                for (j = 0; j <= n; j++) {
+                    int pj = j < j0 ? j : j - 1;    /* its power */
+                    if (i == r0) {
+                        if (j == j0)
+                            set(&m, i, j, "-3*y^2", ctx);
+                        continue;
+                    }
+                    if (j == j0)
+                        snprintf(text, sizeof text, "x%d + 1", vi + 1);
+                    else if (j == n)
+                        snprintf(text, sizeof text, "x%d^%d", vi + 1, nv);
+                    else
+                        snprintf(text, sizeof text, "x%d^%d", vi + 1, pj);
+                    set(&m, i, j, text, ctx);
+                }
+            }
+            gs_poly_set_si(GS_MNA_AT(&m, n, last), 1, ctx);
+            gs_poly_init(&da);
+            gs_poly_init(&dm);
+            gs_poly_init(&want);
+            gs_poly_init(&f);
+            gs_poly_init(&sum);
+            gs_poly_set_var(&want, y, 2, ctx);
+            gs_poly_mul_si(&want, &want, -3, ctx);
+            for (i = 0; i < nv; i++) {
+                gs_poly_set_var(&f, i, 1, ctx);
+                gs_poly_add(&sum, &sum, &f, ctx);
+                for (j = i + 1; j < nv; j++) {
+                    snprintf(text, sizeof text, "x%d - x%d", j + 1, i + 1);
+                    gs_poly_set_str(&f, text, ctx);
+                    gs_poly_mul(&want, &want, &f, ctx);
+                }
+            }
+            CHECK_MSG(minors(&da, &dm, &m, ctx) == GS_OK
+                      && equal_up_to(&sign, &da, &want, ctx),
+                      "lone entry at (%d, %d): det A", r0, j0);
+            gs_poly_mul(&want, &want, &sum, ctx);
+            gs_poly_neg(&want, &want, ctx);
+            CHECK_MSG(equal_up_to(&sign, &dm, &want, ctx),
+                      "lone entry at (%d, %d): det M", r0, j0);
+            gs_poly_clear(&da);
+            gs_poly_clear(&dm);
+            gs_poly_clear(&want);
+            gs_poly_clear(&f);
+            gs_poly_clear(&sum);
+            gs_mna_clear(&m);
+        }
+    gs_polyctx_free(ctx);
+    gs_symtab_free(st);
+}
+
+/* The same past one word of columns, where the graph of minors holds
+   the expansion: the tridiagonal matrix T of test_chebyshev with n = 70
+   (det T_n = x det T_(n-1) - det T_(n-2), T_0 = 1, T_1 = x: the
+   continuant recurrence, Muir, A Treatise on the Theory of
+   Determinants, from memory), with a lone entry -3 y^2 put in, b = e_1
+   and the border picking the last unknown of T.  By Cramer's rule that
+   unknown is (-1)^(n+1) / det T (its minor is triangular with ones on
+   the diagonal), so det A = +-(-3 y^2) det T and
+   det M = -(that unknown) det A = +-(-1)^n (-3 y^2), one sign for both. */
+static void test_lone_row_wide(void)
+{
+    static const int at[] = {0, 1, 35, 69, 70};
+    const int nt = 70, n = nt + 1;
+    gs_symtab *st = gs_symtab_new();
+    gs_polyctx *ctx;
+    gs_poly t0, t1, t2, x, a;
+    int y, i, ri, ji;
+
+    gs_symtab_intern(st, "x");
+    y = gs_symtab_intern(st, "y");
+    ctx = gs_polyctx_new(st, 2);
+    gs_poly_init(&t0);
+    gs_poly_init(&t1);
+    gs_poly_init(&t2);
+    gs_poly_init(&x);
+    gs_poly_init(&a);
+    gs_poly_set_var(&x, 0, 1, ctx);
+    gs_poly_set_si(&t0, 1, ctx);
+    gs_poly_set(&t1, &x, ctx);
+    for (i = 2; i <= nt; i++) {
+        gs_poly_mul(&t2, &x, &t1, ctx);
+        gs_poly_sub(&t2, &t2, &t0, ctx);
+        gs_poly_swap(&t0, &t1);
+        gs_poly_swap(&t1, &t2);
+    }
+    /* t1 = det T_70 */
+    gs_poly_set_var(&a, y, 2, ctx);
+    gs_poly_mul_si(&a, &a, -3, ctx);
+    for (ri = 0; ri < 5; ri++)
+        for (ji = 0; ji < 5; ji++) {
+            int r0 = at[ri], j0 = at[ji], sign = 0;
+            gs_mna m;
+            gs_poly da, dm, want;
+
+            mna_new(&m, n);
+            for (i = 0; i < nt; i++) {
+                int r = i < r0 ? i : i + 1, c = i < j0 ? i : i + 1;
+                int cn = i + 1 < j0 ? i + 1 : i + 2;    /* column of i+1 */
+                gs_poly_set(GS_MNA_AT(&m, r, c), &x, ctx);
+                if (i + 1 < nt) {
+                    int rn = i + 1 < r0 ? i + 1 : i + 2;
+                    gs_poly_set_si(GS_MNA_AT(&m, r, cn), 1, ctx);
+                    gs_poly_set_si(GS_MNA_AT(&m, rn, c), 1, ctx);
+                }
+            }
+            gs_poly_set(GS_MNA_AT(&m, r0, j0), &a, ctx);
+            gs_poly_set_si(GS_MNA_AT(&m, r0 == 0 ? 1 : 0, n), 1, ctx);
+            gs_poly_set_si(GS_MNA_AT(&m, n, j0 == n - 1 ? n - 2 : n - 1), 1,
+                           ctx);
+            gs_poly_init(&da);
+            gs_poly_init(&dm);
+            gs_poly_init(&want);
+            gs_poly_mul(&want, &a, &t1, ctx);
+            CHECK_MSG(minors(&da, &dm, &m, ctx) == GS_OK
+                      && equal_up_to(&sign, &da, &want, ctx),
+                      "wide, lone entry at (%d, %d): det A", r0, j0);
+            gs_poly_set(&want, &a, ctx);    /* the unknown is -1 / det T */
+            CHECK_MSG(equal_up_to(&sign, &dm, &want, ctx),
+                      "wide, lone entry at (%d, %d): det M", r0, j0);
+            gs_poly_clear(&da);
+            gs_poly_clear(&dm);
+            gs_poly_clear(&want);
+            gs_mna_clear(&m);
+        }
+    gs_poly_clear(&t0);
+    gs_poly_clear(&t1);
+    gs_poly_clear(&t2);
+    gs_poly_clear(&x);
+    gs_poly_clear(&a);
+    gs_polyctx_free(ctx);
+    gs_symtab_free(st);
+}
+
 /* The n x n tridiagonal matrix with x on the diagonal and 1 beside it has
    determinant U_n(x/2) = sum_k (-1)^k C(n-k, k) x^(n-2k). */
 static void test_chebyshev(void)
@@ -580,6 +741,8 @@ int main(void)
     test_wide();
     test_vandermonde();
     test_chebyshev();
+    test_lone_row();
+    test_lone_row_wide();
     test_against_elimination();
     test_limits();
     test_more_budgets();

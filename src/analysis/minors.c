@@ -333,21 +333,70 @@ static int level_fits(const view *v, int r, const gs_poly *next,
     return ok;
 }
 
+/* How many products of level k take each minor of level k + 1:
+   uses[i] for next[i], the count its storage is let go after. */
+static void count_uses(unsigned *uses, const plan *p, const view *v, int k,
+                       const gs_poly *next)
+{
+    const maskset *lv = &p->lv[k], *below = &p->lv[k + 1];
+    int r = p->order[k];
+    size_t i;
+    memset(uses, 0, (below->count ? below->count : 1) * sizeof *uses);
+    for (i = 0; i < lv->count; i++) {
+        uint64_t S = lv->list[i], cand = S & v->nz[r];
+        for (; cand; cand &= cand - 1) {
+            size_t at = maskset_find(below, S & ~(cand & -cand));
+            if (at != NOT_FOUND && !gs_poly_is_zero(&next[at]))
+                uses[at]++;
+        }
+    }
+}
+
+/* acc = (neg ? -1 : 1) e m for a one-term entry e, taking m's storage:
+   a monomial times a polynomial keeps its term order, so the terms are
+   scaled where they lie.  A row that meets a column set in one place (a
+   voltage source's branch row has a lone entry 1) makes a minor of one
+   product, and a copy there would hold a large minor twice. */
+static void take_scaled(gs_poly *acc, gs_poly *m, const gs_poly *e, int neg,
+                        const gs_polyctx *ctx)
+{
+    gs_int c;
+    int w, ones = 1;
+    gs_poly_swap(acc, m);
+    for (w = 0; w < ctx->nwords; w++)
+        ones &= e->exps[w] == 0;
+    if (!ones)
+        gs_poly_mul_monomial(acc, acc, e->exps, ctx);
+    gs_int_init(&c);
+    gs_int_set(&c, &e->coeffs[0]);
+    if (neg)
+        gs_int_neg(&c, &c);
+    gs_poly_mul_int(acc, acc, &c, ctx);
+    gs_int_clear(&c);
+}
+
 /* Values of level k from those of level k + 1, vals[0 .. count-1] all
    initialised; stops early (the rest zero) once a size in w is over, or
-   a product would overflow an exponent (w->overflow_var). */
+   a product would overflow an exponent (w->overflow_var).  A minor of
+   level k + 1 is let go after its last product, and one whose only
+   product is with a one-term entry becomes the value it makes, so that
+   the two levels alive at once hold no minor twice. */
 static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
-                       const gs_poly *next, watch *w, const gs_polyctx *ctx)
+                       gs_poly *next, watch *w, const gs_polyctx *ctx)
 {
     const maskset *lv = &p->lv[k], *below = &p->lv[k + 1];
     const gs_poly *ea[GS_MINORS_MAX_UNKNOWNS + 1];
     const gs_poly *mb[GS_MINORS_MAX_UNKNOWNS + 1];
+    size_t mat[GS_MINORS_MAX_UNKNOWNS + 1];
     int neg[GS_MINORS_MAX_UNKNOWNS + 1];
     int r = p->order[k], fits;
+    unsigned *uses = gs_malloc((below->count ? below->count : 1)
+                               * sizeof *uses);
     size_t i;
     for (i = 0; i < lv->count; i++)
         gs_poly_init(&vals[i]);
     fits = level_fits(v, r, next, below->count, ctx);
+    count_uses(uses, p, v, k, next);
     for (i = 0; i < below->count; i++) {
         w->alive += next[i].length;
         if (w->max_bytes)
@@ -356,7 +405,7 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
     for (i = 0; i < lv->count && !over(w); i++) {
         uint64_t S = lv->list[i], cand = S & v->nz[r];
         gs_poly *acc = &vals[i];
-        size_t np = 0, k2;
+        size_t np = 0, k2, held = 0;
         for (; cand; cand &= cand - 1) {
             uint64_t bit = cand & -cand;
             size_t at = maskset_find(below, S & ~bit);
@@ -365,6 +414,7 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
                 continue;
             ea[np] = v->x[(size_t)r * ((size_t)v->n + 1) + (size_t)j];
             mb[np] = &next[at];
+            mat[np] = at;
             neg[np++] = __builtin_popcountll(S & (bit - 1)) & 1;
         }
         for (k2 = 0; k2 < np; k2++) {
@@ -376,13 +426,28 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
         }
         if (over(w))
             break;          /* before the work is done */
-        gs_poly_sum_of_products(acc, ea, mb, neg, np, ctx);
-        w->alive += acc->length;
+        if (np == 1 && ea[0]->length == 1 && uses[mat[0]] == 1) {
+            /* counted once already, as a minor of the level below */
+            held = next[mat[0]].length;
+            if (w->max_bytes)
+                w->bytes -= gs_poly_storage(&next[mat[0]], ctx);
+            take_scaled(acc, &next[mat[0]], ea[0], neg[0], ctx);
+            uses[mat[0]] = 0;
+        } else {
+            gs_poly_sum_of_products(acc, ea, mb, neg, np, ctx);
+        }
+        for (k2 = 0; k2 < np; k2++)
+            if (uses[mat[k2]] > 0 && --uses[mat[k2]] == 0) {
+                gs_poly_clear(&next[mat[k2]]);
+                gs_poly_init(&next[mat[k2]]);
+            }
+        w->alive += acc->length - held;
         if (w->max_bytes)
             w->bytes += gs_poly_storage(acc, ctx);
         if (acc->length > w->big)
             w->big = acc->length;
     }
+    free(uses);
 }
 
 static void report_overflow(gs_diag *d, const gs_polyctx *ctx, int var,
@@ -572,6 +637,41 @@ static void watch_value(watch *w, const gs_poly *p, const gs_polyctx *ctx,
     }
 }
 
+/* Node v's value when it is one product of a one-term entry and a child
+   whose last parent it is (not a root): the child's storage, scaled in
+   place (take_scaled), so that a large minor is never held twice.
+   Returns 0, with nothing done, otherwise. */
+static int take_lone_child(gs_poly *vals, const gs_mgraph *g, size_t v,
+                           const size_t *last, watch *w)
+{
+    size_t e, at = NOT_FOUND, c;
+    const gs_poly *entry = NULL;
+    int neg = 0;
+    for (e = g->first[v]; e < g->first[v + 1]; e++) {
+        if (gs_poly_is_zero(&vals[g->child[e]]))
+            continue;
+        if (at != NOT_FOUND)
+            return 0;
+        at = e;
+    }
+    if (at == NOT_FOUND)
+        return 0;
+    c = g->child[at];
+    entry = &g->entries[g->entry[at]];
+    neg = g->neg[at];
+    if (entry->length != 1 || last[c] != v || c == g->root_d
+        || c == g->root_m)
+        return 0;
+    w->work += (double)vals[c].length * g->ctx->nwords;
+    if (!gs_poly_mul_fits(&w->overflow_var, entry, &vals[c], g->ctx))
+        return 1;
+    if (over(w))
+        return 1;
+    watch_value(w, &vals[c], g->ctx, -1);
+    take_scaled(&vals[v], &vals[c], entry, neg, g->ctx);
+    return 1;
+}
+
 /* Expand the roots D and M of g children first, each value let go after
    its last parent, with the budgets of the level expansion: the terms of
    one minor and of all kept at once, their storage, the work, and the
@@ -604,7 +704,8 @@ static int expand_graph(gs_poly *det_a, gs_poly *det_m, const gs_mgraph *g,
         if (o->progress && lvl > shown)
             fprintf(o->progress, "\rexpansion level %d/%d", shown = lvl,
                     g->n);
-        eval_node(&vals[v], g, v, vals, ea, mb, neg, &w);
+        if (!take_lone_child(vals, g, v, last, &w))
+            eval_node(&vals[v], g, v, vals, ea, mb, neg, &w);
         watch_value(&w, &vals[v], g->ctx, 1);
         if (over(&w))
             rc = w.overflow_var >= 0 ? GS_ERANGE : GS_EBUDGET;
