@@ -74,7 +74,7 @@ static void memtext_drop(void *arg)
     memtext *m = arg;
     if (!m->closed)
         fclose(m->f);
-    free(m->buf);       /* libc's, not a gs_ block */
+    gs_free(m->buf);       /* libc's, not a gs_ block */
 }
 
 static memtext *memtext_open(void)
@@ -96,7 +96,7 @@ static char *memtext_close(memtext *m)
     m->closed = 1;      /* the buffer is still dropped if the copy fails */
     text = gs_strndup(m->buf ? m->buf : "", m->len);
     gs_mem_undefer(m->drop);
-    free(m->buf);
+    gs_free(m->buf);
     gs_free(m);
     return text;
 }

@@ -447,7 +447,7 @@ static void eval_level(gs_poly *vals, const plan *p, const view *v, int k,
         if (acc->length > w->big)
             w->big = acc->length;
     }
-    free(uses);
+    gs_free(uses);
 }
 
 static void report_overflow(gs_diag *d, const gs_polyctx *ctx, int var,
