@@ -48,6 +48,7 @@ if [ -z "$only" ]; then
         run_suite cli sh tests/run_cli.sh "$build/gainsmith"
     fi
     run_suite layers sh tests/check_layers.sh src
+    run_suite free_check sh tests/check_free.sh src
     run_suite latex_check sh tests/latex_check.sh "$build"
     run_suite render_check sh tests/render_check.sh "$build"
     run_suite report_check sh tests/report_check.sh "$build"

@@ -50,6 +50,7 @@ static void test_errors(void)
     CHECK(rc == GS_EINVAL && r == NULL);
     gs_result_free(NULL);
     CHECK(strcmp(gs_strerror(GS_ESINGULAR), "singular system") == 0);
+    CHECK(strcmp(gs_strerror(GS_ENOMEM), "out of memory") == 0);
 }
 
 /* An RC low-pass held in a string. */
