@@ -571,7 +571,7 @@ static void test_graph_same(const char *path)
     /* hand output 0 its graph, as derive does over the budget */
     memset(&m, 0, sizeof m);
     CHECK(gs_mna_build(&m, j.c, j.out_index[0], j.ctx, &d) == GS_OK);
-    CHECK(gs_mgraph_build(g, &m, GS_MGRAPH_ORDER_GREEDY, j.ctx) == GS_OK);
+    CHECK(gs_mgraph_build(g, &m, GS_MGRAPH_ORDER_GREEDY, 0, j.ctx) == GS_OK);
     gs_mna_clear(&m);
     /* derive sized j.graph with one empty slot per output */
     CHECK(j.graph != NULL && j.graph[0] == NULL);

@@ -246,15 +246,18 @@ static double degree_bound(const gs_mna *m, int k, const gs_polyctx *ctx)
 }
 
 static int size_gate(const gs_mna *m, const gs_polyctx *ctx,
-                     gs_derive_stats *stats, gs_diag *d)
+                     size_t max_bytes, gs_derive_stats *stats, gs_diag *d)
 {
     gs_mgraph g;
     gs_int c;
     double bn, bd;
-    int rc = gs_mgraph_build(&g, m, GS_MGRAPH_ORDER_GREEDY, ctx);
+    int rc = gs_mgraph_build(&g, m, GS_MGRAPH_ORDER_GREEDY, max_bytes, ctx);
     if (rc != GS_OK) {
         gs_mgraph_clear(&g);
-        return GS_OK;       /* singular: elimination says why */
+        if (rc == GS_EBUDGET)
+            gs_mgraph_refused(d, max_bytes);
+        /* singular: elimination says why */
+        return rc == GS_EBUDGET ? GS_EBUDGET : GS_OK;
     }
     gs_int_init(&c);
     stats->graph_nodes = g.nnodes;
@@ -325,7 +328,7 @@ static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
     if (o->method != GS_DET_AUTO || o->terms_given)
         return expand(det_a, det_m, m, ctx, o, stats, d);
     gs_diag_init(&gate);
-    rc = size_gate(m, ctx, stats, &gate);
+    rc = size_gate(m, ctx, o->elim.max_bytes, stats, &gate);
     if (rc != GS_EBUDGET) {
         gs_diag_append(d, &gate);
         gs_diag_clear(&gate);

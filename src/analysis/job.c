@@ -198,15 +198,18 @@ int gs_job_add_transfer(gs_job *j, const char *name, const char *out,
 }
 
 /* The graph of minors of output k, for its numbers (mgraph.h). */
-static int keep_graph(gs_job *j, size_t k, gs_diag *d)
+static int keep_graph(gs_job *j, size_t k, size_t max_bytes, gs_diag *d)
 {
     gs_mna m;
     gs_mgraph *g = gs_malloc(sizeof *g);
-    int rc;
+    int rc, built = 0;
     memset(&m, 0, sizeof m);
     rc = gs_mna_build(&m, j->c, k, j->ctx, d);
-    if (rc == GS_OK)
-        rc = gs_mgraph_build(g, &m, GS_MGRAPH_ORDER_GREEDY, j->ctx);
+    if (rc == GS_OK) {
+        rc = gs_mgraph_build(g, &m, GS_MGRAPH_ORDER_GREEDY, max_bytes,
+                             j->ctx);
+        built = 1;
+    }
     gs_mna_clear(&m);
     if (rc == GS_OK) {
         j->graph[j->ntf - 1] = g;
@@ -214,7 +217,9 @@ static int keep_graph(gs_job *j, size_t k, gs_diag *d)
         j->stats[j->ntf - 1].graph_edges = g->nedges;
         return GS_OK;
     }
-    if (rc == GS_ESINGULAR)
+    if (rc == GS_EBUDGET)
+        gs_mgraph_refused(d, max_bytes);
+    if (built)
         gs_mgraph_clear(g);
     gs_free(g);
     return rc;
@@ -292,7 +297,7 @@ static int derive_one_raw(gs_job *j, size_t k, const gs_derive_opts *o,
     if (rc == GS_EBUDGET) {
         gs_diag_clear(&here);
         gs_diag_init(&here);
-        rc = keep_graph(j, k, &here);
+        rc = keep_graph(j, k, o->elim.max_bytes, &here);
     }
     gs_diag_append(d, &here);
     gs_diag_clear(&here);

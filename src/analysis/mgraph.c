@@ -153,12 +153,22 @@ static int viable(const view *v, const int *rows, int nrows,
     return 1;
 }
 
+/* Bytes a column set of w words and an edge take while the graph is
+   built, doubling slack included: a key and its hash slots, and an
+   edge's parent, child, cell and sign. */
+#define EDGE_BYTES (2 * (2 * sizeof(size_t) + 5))
+static size_t set_bytes(int w)
+{
+    return 2 * ((size_t)w * 8 + 2 * sizeof(size_t));
+}
+
 /* Expand row r from `from` into `to` (rows[] the rows left after r);
-   with record, edges go into from.  Stops once to has more than limit
-   sets (returns 0), else 1. */
+   with record, edges go into from.  Stops (returns 0) once to has more
+   than limit sets, or once to's sets and the new edges would take more
+   than max_bytes; else 1. */
 static int expand(level *to, level *from, const view *v, int r,
                   const int *rows, int nrows, int record, size_t limit,
-                  uint64_t *tmp)
+                  size_t max_bytes, uint64_t *tmp)
 {
     int w = v->w, n = v->n;
     uint64_t *child = tmp, *reach = tmp + w;
@@ -177,7 +187,10 @@ static int expand(level *to, level *from, const view *v, int r,
                 if (!viable(v, rows, nrows, child, reach))
                     continue;
                 at = level_add(to, child, w);
-                if (to->count > limit)
+                if (to->count > limit
+                    || (max_bytes != NONE
+                        && to->count * set_bytes(w)
+                               + from->nedges * EDGE_BYTES > max_bytes))
                     return 0;
                 if (record)
                     level_edge(from, i, at,
@@ -232,9 +245,14 @@ static void view_clear(view *v)
    rule takes over (set tests, each of n words at most). */
 #define GREEDY_WORK 4000000u
 
-/* Levels 0 .. n of one orientation.  Returns the levels (n + 1). */
-static level *plan_levels(const view *v, gs_mgraph_order order)
+/* Levels 0 .. n of one orientation, taking at most max_bytes (NONE: no
+   limit) by set_bytes and EDGE_BYTES.  Returns the levels (n + 1), or
+   NULL past max_bytes. */
+static level *plan_levels(const view *v, gs_mgraph_order order,
+                          size_t max_bytes)
 {
+    size_t used;
+    int over = 0;
     int n = v->n, w = v->w, k, i, j, nrows = n;
     level *lv = gs_malloc(((size_t)n + 1) * sizeof *lv);
     int *rows = gs_malloc(((size_t)n + 1) * sizeof *rows);
@@ -258,7 +276,8 @@ static level *plan_levels(const view *v, gs_mgraph_order order)
         if (viable(v, rows, nrows, S, tmp))
             level_add(&lv[0], S, w);
     }
-    for (k = 0; k < n; k++) {
+    used = lv[0].count * set_bytes(w);
+    for (k = 0; k < n && !over; k++) {
         int pick = 0, best_w = -1;
         size_t best = NONE;
         /* columns still in play: the union of this level's sets */
@@ -276,7 +295,7 @@ static level *plan_levels(const view *v, gs_mgraph_order order)
                         rest[m++] = rows[t];
                 level_init(&trial);
                 if (expand(&trial, &lv[k], v, rows[i], rest, m, 0,
-                           best == NONE ? NONE : best, tmp)
+                           best == NONE ? NONE : best, NONE, tmp)
                     && (best == NONE || trial.count < best)) {
                     best = trial.count;
                     pick = i;
@@ -299,7 +318,11 @@ static level *plan_levels(const view *v, gs_mgraph_order order)
                     rest[m++] = rows[t];
             memcpy(rows, rest, (size_t)m * sizeof *rows);
             nrows = m;
-            expand(&lv[k + 1], &lv[k], v, r, rows, nrows, 1, NONE, tmp);
+            over = !expand(&lv[k + 1], &lv[k], v, r, rows, nrows, 1, NONE,
+                           max_bytes == NONE ? NONE
+                           : used < max_bytes ? max_bytes - used : 0, tmp);
+            used += lv[k + 1].count * set_bytes(w)
+                    + lv[k].nedges * EDGE_BYTES;
         }
     }
     gs_free(rows);
@@ -307,6 +330,12 @@ static level *plan_levels(const view *v, gs_mgraph_order order)
     gs_free(tmp);
     gs_free(full);
     gs_free(live);
+    if (over) {
+        for (k = 0; k <= n; k++)
+            level_clear(&lv[k]);
+        gs_free(lv);
+        return NULL;
+    }
     return lv;
 }
 
@@ -444,10 +473,10 @@ static void assemble(gs_mgraph *g, level *lv, const view *v,
 }
 
 int gs_mgraph_build(gs_mgraph *g, const gs_mna *m, gs_mgraph_order order,
-                    const gs_polyctx *ctx)
+                    size_t max_bytes, const gs_polyctx *ctx)
 {
     gs_mgraph cand[2];
-    int t, n = m->n, pick;
+    int t, n = m->n, pick, built[2] = {0, 0};
     for (t = 0; t < 2; t++) {
         view v;
         level *lv;
@@ -459,17 +488,36 @@ int gs_mgraph_build(gs_mgraph *g, const gs_mna *m, gs_mgraph_order order,
         gs_rat_init(&cand[t].scale);
         gs_rat_set(&cand[t].scale, &m->scale);
         view_init(&v, m, t);
-        lv = plan_levels(&v, order);
-        assemble(&cand[t], lv, &v, m);
-        for (k = 0; k <= n; k++)
-            level_clear(&lv[k]);
-        gs_free(lv);
+        lv = plan_levels(&v, order, max_bytes ? max_bytes : NONE);
+        if (lv != NULL) {
+            assemble(&cand[t], lv, &v, m);
+            for (k = 0; k <= n; k++)
+                level_clear(&lv[k]);
+            gs_free(lv);
+            built[t] = 1;
+        }
         view_clear(&v);
     }
-    pick = cand[1].nedges < cand[0].nedges;
+    if (!built[0] && !built[1]) {
+        gs_mgraph_clear(&cand[1]);
+        *g = cand[0];
+        return GS_EBUDGET;
+    }
+    pick = !built[0] || (built[1] && cand[1].nedges < cand[0].nedges);
     *g = cand[pick];
     gs_mgraph_clear(&cand[!pick]);
     return g->root_d == NONE ? GS_ESINGULAR : GS_OK;
+}
+
+void gs_mgraph_refused(gs_diag *d, size_t max_bytes)
+{
+    gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
+                "a network in which most nodes connect to most others has "
+                "exponentially many minors: split it, or raise the budget "
+                "with --max-memory",
+                "memory budget exceeded building the graph of minors "
+                "(budget %zu bytes): the circuit's nodes are too densely "
+                "connected", max_bytes);
 }
 
 void gs_mgraph_clear(gs_mgraph *g)

@@ -30,6 +30,7 @@
 #include "algebra/int.h"
 #include "algebra/poly.h"
 #include "algebra/rat.h"
+#include "base/diag.h"
 
 /* Row orders the builder can use (docs/engine.md has the measurements). */
 typedef enum gs_mgraph_order {
@@ -57,10 +58,16 @@ typedef struct gs_mgraph {
 } gs_mgraph;
 
 /* Build the graph of m (which is not kept) with the given row order,
-   trying both orientations and keeping the one with fewer edges.
-   Returns GS_OK, or GS_ESINGULAR when det A is zero by structure. */
+   trying both orientations and keeping the one with fewer edges.  The
+   column sets held while it is built may take max_bytes (0: no limit):
+   a circuit's graph has hundreds to thousands of nodes, but a dense
+   matrix has exponentially many minors.  Returns GS_OK, GS_ESINGULAR
+   when det A is zero by structure, or GS_EBUDGET when both orientations
+   outgrow max_bytes; g is to be cleared in every case. */
 int gs_mgraph_build(gs_mgraph *g, const gs_mna *m, gs_mgraph_order order,
-                    const gs_polyctx *ctx);
+                    size_t max_bytes, const gs_polyctx *ctx);
+/* The error for a graph refused by its budget of max_bytes. */
+void gs_mgraph_refused(gs_diag *d, size_t max_bytes);
 void gs_mgraph_clear(gs_mgraph *g);
 
 /* The number of paths from `root` to the empty minor, counting an edge

@@ -752,7 +752,10 @@ static int graph_bordered(gs_poly *det_a, gs_poly *det_m, const gs_mna *m,
                           gs_minors_stats *st, gs_diag *d)
 {
     gs_mgraph g;
-    int rc = gs_mgraph_build(&g, m, GS_MGRAPH_ORDER_GREEDY, ctx);
+    int rc = gs_mgraph_build(&g, m, GS_MGRAPH_ORDER_GREEDY, o->max_bytes,
+                             ctx);
+    if (rc == GS_EBUDGET)
+        gs_mgraph_refused(d, o->max_bytes);
     if (rc == GS_OK) {
         st->minors = g.nnodes;
         st->products = g.nedges;

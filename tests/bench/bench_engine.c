@@ -140,7 +140,7 @@ int main(int argc, char **argv)
                (int)(dot ? dot - base : (long)strlen(base)), base);
         for (k = 0; k < 3; k++) {
             double ts = now();
-            gs_mgraph_build(&g, &m, (gs_mgraph_order)k, j.ctx);
+            gs_mgraph_build(&g, &m, (gs_mgraph_order)k, 0, j.ctx);
             printf(" %s=%zu/%zu/%.4fs", names[k], g.nnodes, g.nedges,
                    now() - ts);
             gs_mgraph_clear(&g);
@@ -154,7 +154,7 @@ int main(int argc, char **argv)
     t0 = now();
     memset(&m, 0, sizeof m);
     if (gs_mna_build(&m, j.c, 0, j.ctx, &d) != GS_OK
-        || gs_mgraph_build(&g, &m, GS_MGRAPH_ORDER_GREEDY, j.ctx) != GS_OK)
+        || gs_mgraph_build(&g, &m, GS_MGRAPH_ORDER_GREEDY, 0, j.ctx) != GS_OK)
         return 1;
     t1 = now();
     nv = j.ctx->nvars;
