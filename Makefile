@@ -77,7 +77,7 @@ $(BUILD)/bench/%: tests/bench/%.c $(LIB)
 
 # several threads deriving at once (tests/thread), for check-thread
 THREAD_BIN := $(BUILD)/tests/thread_derive
-$(THREAD_BIN): tests/thread/thread_derive.c tests/check.h $(LIB)
+$(THREAD_BIN): tests/thread/thread_derive.c tests/check.h tests/testapi.h $(LIB)
 	@mkdir -p $(dir $@)
 	$(CC) $(CPPFLAGS_ALL) -Itests $(CFLAGS_ALL) -pthread -MMD -MP -o $@ $< \
 	    $(LIB) $(LDLIBS_ALL)

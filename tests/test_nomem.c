@@ -11,6 +11,7 @@
 #include "check.h"
 #include "gainsmith.h"
 #include "base/mem.h"
+#include "testapi.h"
 
 #include <stdint.h>
 #include <stdio.h>
@@ -56,24 +57,6 @@ static int inject(void *arg, size_t bytes)
     return in->fail_at != 0 && in->asked == in->fail_at;
 }
 
-/* All outputs' texts of a result, one per line. */
-static char *all_text(const gs_result *r)
-{
-    size_t i, len = 0;
-    char *all = calloc(1, 1);
-    for (i = 0; i < gs_result_count(r); i++) {
-        char *t = gs_result_text(r, i);
-        size_t n = strlen(t);
-        all = realloc(all, len + n + 2);
-        memcpy(all + len, t, n);
-        all[len + n] = '\n';
-        all[len + n + 1] = '\0';
-        len += n + 1;
-        free(t);
-    }
-    return all;
-}
-
 static int derive_with(gs_result **r, const char *path, const char *text,
                        gs_method method, injector *in, char **messages)
 {
@@ -104,7 +87,7 @@ static void fail_every_allocation(const char *what, const char *path,
     free(messages);
     if (rc != GS_OK)
         return;
-    expected = all_text(r);
+    expected = test_result_texts(r);
     gs_result_free(r);
     total = in.asked;
     /* a derivation allocates at every stage: parse, MNA, minors, gcd */
@@ -132,7 +115,7 @@ static void fail_every_allocation(const char *what, const char *path,
                   what, rc, in.asked);
         free(messages);
         if (rc == GS_OK) {
-            got = all_text(r);
+            got = test_result_texts(r);
             CHECK_MSG(strcmp(got, expected) == 0, "%s: %s", what, got);
             free(got);
         }

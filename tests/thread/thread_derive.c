@@ -8,6 +8,7 @@
  */
 #include "check.h"
 #include "gainsmith.h"
+#include "testapi.h"
 
 #include <pthread.h>
 #include <stdlib.h>
@@ -37,22 +38,12 @@ static char *derive_all(const char *path, gs_method method)
 {
     gs_result *r = NULL;
     gs_options o;
-    char *all = NULL;
-    size_t len = 0, i;
+    char *all;
     gs_options_init(&o);
     o.method = method;
     if (gs_derive_file_opts(&r, path, &o, NULL) != GS_OK)
         return NULL;
-    for (i = 0; i < gs_result_count(r); i++) {
-        char *t = gs_result_text(r, i);
-        size_t n = strlen(t);
-        all = realloc(all, len + n + 2);
-        memcpy(all + len, t, n);
-        all[len + n] = '\n';
-        all[len + n + 1] = '\0';
-        len += n + 1;
-        free(t);
-    }
+    all = test_result_texts(r);
     gs_result_free(r);
     return all;
 }
