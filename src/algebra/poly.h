@@ -170,6 +170,7 @@ size_t gs_poly_storage(const gs_poly *a, const gs_polyctx *ctx);
 int gs_poly_is_one(const gs_poly *a, const gs_polyctx *ctx);
 int gs_poly_is_const(const gs_poly *a, const gs_polyctx *ctx);
 int gs_poly_equal(const gs_poly *a, const gs_poly *b, const gs_polyctx *ctx);
+/* equal polynomials hash equal; a sample of at most 64 terms is read */
 uint64_t gs_poly_hash(const gs_poly *a, const gs_polyctx *ctx);
 /* sign of the leading coefficient (0 for the zero polynomial) */
 int gs_poly_sgn(const gs_poly *a);

@@ -292,28 +292,46 @@ static void gcd_core(gs_poly *g, const gs_poly *a, const gs_poly *b,
 
 /* gcd of nonzero a and b, primitive with positive leading coefficient;
    g may alias a or b. */
+/* a with its integer and monomial content taken out: a itself when both
+   are trivial (derive.c has taken them out already, and a copy of a
+   large determinant cost 5 % of a derivation), else a reduced copy in
+   *buf.  mono gets a's monomial content. */
+static const gs_poly *reduced(gs_poly *buf, uint64_t *mono, const gs_poly *a,
+                              const gs_polyctx *ctx)
+{
+    gs_int c;
+    int unit;
+    gs_int_init(&c);
+    gs_poly_content(&c, a);
+    unit = gs_int_cmp_si(&c, 1) == 0 || gs_int_cmp_si(&c, -1) == 0;
+    gs_int_clear(&c);
+    gs_poly_monomial_content(mono, a, ctx);
+    if (unit && mono_is_one(mono, ctx->nwords))
+        return a;           /* the sign does not matter to a gcd */
+    gs_poly_primitive(buf, a, ctx);
+    gs_poly_div_monomial(buf, buf, mono, ctx);
+    return buf;
+}
+
 void gs_pgcd_nonzero(gs_poly *g, const gs_poly *a, const gs_poly *b,
                      const gs_polyctx *ctx, gs_rng *rng)
 {
     size_t nw = (size_t)ctx->nwords;
     uint64_t *ma = gs_malloc(3 * nw * sizeof *ma), *mb = ma + nw;
     uint64_t *mg = mb + nw;
+    const gs_poly *pa, *pb;
     gs_poly A, B;
     gs_poly_init(&A);
     gs_poly_init(&B);
-    gs_poly_primitive(&A, a, ctx);
-    gs_poly_primitive(&B, b, ctx);
-    gs_poly_monomial_content(ma, &A, ctx);
-    gs_poly_monomial_content(mb, &B, ctx);
+    pa = reduced(&A, ma, a, ctx);
+    pb = reduced(&B, mb, b, ctx);
     mono_min(mg, ma, mb, ctx->nwords);
-    gs_poly_div_monomial(&A, &A, ma, ctx);
-    gs_poly_div_monomial(&B, &B, mb, ctx);
-    if (gs_poly_is_const(&A, ctx) || gs_poly_is_const(&B, ctx))
+    if (gs_poly_is_const(pa, ctx) || gs_poly_is_const(pb, ctx))
         gs_poly_set_si(g, 1, ctx);
-    else if (gs_poly_equal(&A, &B, ctx))
-        gs_poly_swap(g, &A);
+    else if (gs_poly_equal(pa, pb, ctx))
+        gs_poly_set(g, pa, ctx);
     else
-        gcd_core(g, &A, &B, ctx, rng);
+        gcd_core(g, pa, pb, ctx, rng);
     if (!mono_is_one(mg, ctx->nwords))
         gs_poly_mul_monomial(g, g, mg, ctx);
     if (gs_poly_sgn(g) < 0)
