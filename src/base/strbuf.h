@@ -5,6 +5,7 @@
 #define GS_STRBUF_H
 
 #include <stddef.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -42,6 +43,19 @@ static inline void gs_strbuf_addn(gs_strbuf *b, const char *s, size_t n)
 static inline void gs_strbuf_add(gs_strbuf *b, const char *s)
 {
     gs_strbuf_addn(b, s, strlen(s));
+}
+
+/* Append v in decimal ("0", "42"), without printf: a printer writes
+   millions of small coefficients and exponents. */
+static inline void gs_strbuf_add_u64(gs_strbuf *b, uint64_t v)
+{
+    char d[20];             /* 2^64 - 1 has 20 digits */
+    size_t n = sizeof d;
+    do {
+        d[--n] = (char)('0' + v % 10);
+        v /= 10;
+    } while (v != 0);
+    gs_strbuf_addn(b, d + n, sizeof d - n);
 }
 
 #endif
