@@ -12,8 +12,10 @@
 #include "testlib.h"
 #include "gainsmith.h"
 #include "base/mem.h"
+#include "base/strbuf.h"
 #include "analysis/tf.h"
 
+#include <inttypes.h>
 #include <math.h>
 #include <stdint.h>
 #include <stdlib.h>
@@ -883,12 +885,47 @@ static void test_stream_long(fix *f)
     gs_tf_clear(&tf);
 }
 
+/* The printers' decimal writer against the C library's "%" PRIu64 (C11
+   7.21.6.1): the ends of the range, each power of ten and its
+   predecessor, and random values of every width, appended one after the
+   other into one string. */
+static void test_decimal(uint64_t seed)
+{
+    gs_strbuf b;
+    char want[64 * 22 + 22 * 45], *w = want;
+    uint64_t p = 1;
+    gs_rng x;
+    int i;
+    gs_rng_seed(&x, seed);
+    gs_strbuf_init(&b);
+#define ONE(v)                                                          \
+    do {                                                                \
+        uint64_t v_ = (v);                                              \
+        gs_strbuf_add_u64(&b, v_);                                      \
+        gs_strbuf_addn(&b, ",", 1);                                     \
+        w += sprintf(w, "%" PRIu64 ",", v_);                            \
+    } while (0)
+    ONE(0);
+    ONE(UINT64_MAX);
+    for (i = 0; i < 19; i++, p *= 10) {
+        ONE(p);
+        ONE(p * 10 - 1);
+    }
+    for (i = 0; i < 64; i++)
+        ONE(next(&x) >> i);
+#undef ONE
+    CHECK_MSG(strcmp(b.p, want) == 0, "seed %llu:\n%s\n%s",
+              (unsigned long long)seed, b.p, want);
+    gs_strbuf_clear(&b);
+}
+
 int main(int argc, char **argv)
 {
     uint64_t seed = argc > 1 ? strtoull(argv[1], NULL, 10) : 20240601u;
     fix f;
     fix_init(&f, argv[0]);
     test_tf_lifetime(&f);
+    test_decimal(seed);
     test_goldens(&f);
     test_json_golden(&f);
     test_json_structure(&f);
