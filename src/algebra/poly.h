@@ -319,7 +319,8 @@ char *gs_poly_get_str(const gs_poly *a, const gs_polyctx *ctx);
 void gs_poly_print(FILE *out, const gs_poly *a, const gs_polyctx *ctx);
 /* poly_print.c: the factors of term i, variables increasing: x_vars[j]
    ^ exps[j] for j < the count returned, every exponent nonzero (vars
-   and exps have room for nvars).  The packed words are read directly and
+   and exps have room for nvars + 1: one entry past the count is
+   scratch).  The packed words are read directly and
    a zero word is skipped whole, so the cost follows the factors a term
    has rather than the variables of the context: for printers, whose
    terms in a large result hold a few of many symbols. */

@@ -24,14 +24,16 @@ int gs_poly_term_factors(int *vars, unsigned *exps, const gs_poly *a,
         uint64_t x = e[w];
         if (x == 0)
             continue;
+        /* every field is stored and the count moves on past the
+           nonzero ones only: no branch on the exponents, whose pattern
+           a branch predictor cannot learn */
         for (f = 0; f < GS_POLY_VARS_PER_WORD; f++) {
             int v = w * GS_POLY_VARS_PER_WORD + f;
             unsigned k = (unsigned)((x >> gs_poly_field_shift(v))
                                     & GS_POLY_FIELD_MASK);
-            if (k != 0) {
-                vars[n] = v;
-                exps[n++] = k;
-            }
+            vars[n] = v;
+            exps[n] = k;
+            n += k != 0;
         }
     }
     return n;

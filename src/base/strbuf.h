@@ -45,9 +45,10 @@ static inline void gs_strbuf_add(gs_strbuf *b, const char *s)
     gs_strbuf_addn(b, s, strlen(s));
 }
 
-/* Append v in decimal ("0", "42"), without printf: a printer writes
-   millions of small coefficients and exponents. */
-static inline void gs_strbuf_add_u64(gs_strbuf *b, uint64_t v)
+/* v in decimal at out, without printf (a printer writes millions of
+   small coefficients and exponents): 20 bytes at most, no NUL; the count
+   written. */
+static inline size_t gs_fmt_u64(char *out, uint64_t v)
 {
     char d[20];             /* 2^64 - 1 has 20 digits */
     size_t n = sizeof d;
@@ -55,7 +56,17 @@ static inline void gs_strbuf_add_u64(gs_strbuf *b, uint64_t v)
         d[--n] = (char)('0' + v % 10);
         v /= 10;
     } while (v != 0);
-    gs_strbuf_addn(b, d + n, sizeof d - n);
+    memcpy(out, d + n, sizeof d - n);
+    return sizeof d - n;
+}
+
+/* Append v in decimal ("0", "42"). */
+static inline void gs_strbuf_add_u64(gs_strbuf *b, uint64_t v)
+{
+    if (b->n + 21 > b->cap)
+        gs_strbuf_reserve(b, 20);
+    b->n += gs_fmt_u64(b->p + b->n, v);
+    b->p[b->n] = '\0';
 }
 
 #endif

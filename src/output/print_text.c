@@ -34,10 +34,11 @@ typedef struct style {
                                parentheses, which may hold a line break */
     char **names;           /* per variable, owned; NULL until needed */
     size_t *lens;           /* their lengths */
-    const char *mul;        /* the product sign, and its length */
+    const char *mul;        /* the product sign (2 bytes or more with its
+                               NUL, copied 2 at once), its length */
     size_t mul_len;
     int *vars;              /* a term's factors (gs_poly_term_factors): */
-    unsigned *exps;         /* scratch, room for nvars */
+    unsigned *exps;         /* scratch, room for nvars + 1 */
     const gs_polyctx *ctx;
 } style;
 
@@ -180,11 +181,20 @@ static void style_clear(style *st)
     gs_free(st->exps);
 }
 
+/* Every name is stored with this many bytes of zeros after it, so
+   that a name of up to NAME_PAD bytes is copied as one block of fixed
+   size (a few moves, no call), the bytes past it overwritten next. */
+#define NAME_PAD 16
+
 static const char *name_of(style *st, int id)
 {
     if (st->names[id] == NULL) {
-        st->names[id] = var_name(st, id);
-        st->lens[id] = strlen(st->names[id]);
+        char *name = var_name(st, id);
+        size_t n = strlen(name);
+        st->names[id] = gs_calloc(n + NAME_PAD, 1);
+        memcpy(st->names[id], name, n);
+        st->lens[id] = n;
+        gs_free(name);
     }
     return st->names[id];
 }
@@ -211,15 +221,51 @@ static void put_mul(sbuf *b, const style *st)
     sb_putn(b, st->mul, st->mul_len);
 }
 
-/* The n factors in st->vars, st->exps. */
+static char *copy_name(char *p, const char *name, size_t len)
+{
+    if (len <= NAME_PAD)
+        memcpy(p, name, NAME_PAD);
+    else
+        memcpy(p, name, len);
+    return p + len;
+}
+
+/* The n factors in st->vars, st->exps, written through a pointer after
+   one reservation: the factors of the many terms of a large result are
+   most of its text, and appending each piece checked for room cost
+   more than making them.  A factor takes at most its name, the product
+   sign before it (2 bytes) and "^{" 5 digits "}" (8). */
 static void put_monomial(sbuf *b, style *st, int n)
 {
+    size_t room = NAME_PAD;
+    char *p;
     int j;
     for (j = 0; j < n; j++) {
-        if (j > 0)
-            put_mul(b, st);
-        put_power(b, st, st->vars[j], st->exps[j]);
+        name_of(st, st->vars[j]);
+        room += st->lens[st->vars[j]] + 10;
     }
+    if (b->s.n + room + 1 > b->s.cap)
+        gs_strbuf_reserve(&b->s, room);
+    p = b->s.p + b->s.n;
+    for (j = 0; j < n; j++) {
+        int v = st->vars[j];
+        unsigned k = st->exps[j];
+        if (j > 0) {
+            memcpy(p, st->mul, 2);
+            p += st->mul_len;
+        }
+        p = copy_name(p, st->names[v], st->lens[v]);
+        if (k > 1) {
+            *p++ = '^';
+            if (st->latex)
+                *p++ = '{';
+            p += gs_fmt_u64(p, k);
+            if (st->latex)
+                *p++ = '}';
+        }
+    }
+    *p = '\0';
+    b->s.n = (size_t)(p - b->s.p);
 }
 
 /* Sign and unit tests of a coefficient read a small value where it lies
