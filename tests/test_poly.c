@@ -1368,9 +1368,10 @@ static void loop_shapes(const env *e, uint64_t seed0, int n)
 }
 
 /* gs_poly_term_factors lists what gs_poly_get_term_exps unpacks, less
-   the zeros: a known term, then random sparse terms over 39 variables
-   (ten words, the last one part full, whole zero words common) with
-   exponents up to GS_POLY_MAX_EXP, against the unpacked exponents. */
+   the zeros and the variable skipped: known terms, then random sparse
+   terms over 39 variables (ten words, the last one part full, whole zero
+   words common) with exponents up to GS_POLY_MAX_EXP, each variable
+   skipped in turn, against the unpacked exponents. */
 static void test_term_factors(const env *e, uint64_t seed)
 {
     gs_symtab *st = gs_symtab_new();
@@ -1384,11 +1385,15 @@ static void test_term_factors(const env *e, uint64_t seed)
     gs_poly_init(&p);
     /* x*gm*(1/R)^2 in c11: x is variable 0, gm 8, 1/R 10 (env_init) */
     parse(&p, "gm*(1/R)^2*x", e->c11);
-    n = gs_poly_term_factors(vars, got_e, &p, 0, e->c11);
+    n = gs_poly_term_factors(vars, got_e, &p, 0, -1, e->c11);
     CHECK(n == 3 && vars[0] == 0 && vars[1] == 8 && vars[2] == 10
           && got_e[0] == 1 && got_e[1] == 1 && got_e[2] == 2);
     parse(&p, "7", e->c11);
-    CHECK(gs_poly_term_factors(vars, got_e, &p, 0, e->c11) == 0);
+    CHECK(gs_poly_term_factors(vars, got_e, &p, 0, -1, e->c11) == 0);
+    parse(&p, "gm*(1/R)^2*x", e->c11);      /* less gm: x*(1/R)^2 */
+    n = gs_poly_term_factors(vars, got_e, &p, 0, 8, e->c11);
+    CHECK(n == 2 && vars[0] == 0 && vars[1] == 10 && got_e[0] == 1
+          && got_e[1] == 2);
     renew(&p);
     for (v = 0; v < nv; v++) {
         char name[8];
@@ -1408,9 +1413,11 @@ static void test_term_factors(const env *e, uint64_t seed)
     }
     gs_poly_canonicalise(&p, ctx);
     for (t = 0; t < p.length; t++) {
-        int j = 0;
+        int j = 0, skip = (int)t % (nv + 1) - 1;   /* -1: none */
         gs_poly_get_term_exps(exps, &p, t, ctx);
-        n = gs_poly_term_factors(vars, got_e, &p, t, ctx);
+        if (skip >= 0)
+            exps[skip] = 0;
+        n = gs_poly_term_factors(vars, got_e, &p, t, skip, ctx);
         for (v = 0; v < nv; v++) {
             if (exps[v] == 0)
                 continue;

@@ -16,7 +16,7 @@
 #include <string.h>
 
 int gs_poly_term_factors(int *vars, unsigned *exps, const gs_poly *a,
-                         size_t i, const gs_polyctx *ctx)
+                         size_t i, int skip, const gs_polyctx *ctx)
 {
     const uint64_t *e = a->exps + i * (size_t)ctx->nwords;
     int w, f, n = 0;
@@ -33,7 +33,7 @@ int gs_poly_term_factors(int *vars, unsigned *exps, const gs_poly *a,
                                     & GS_POLY_FIELD_MASK);
             vars[n] = v;
             exps[n] = k;
-            n += k != 0;
+            n += k != 0 && v != skip;
         }
     }
     return n;
@@ -86,7 +86,7 @@ char *gs_poly_get_str(const gs_poly *a, const gs_polyctx *ctx)
     for (i = 0; i < a->length; i++) {
         const gs_int *c = &a->coeffs[i];
         int neg = gs_int_sgn(c) < 0;
-        int n = gs_poly_term_factors(vars, exps, a, i, ctx);
+        int n = gs_poly_term_factors(vars, exps, a, i, -1, ctx);
         if (i == 0)
             gs_strbuf_add(&b, neg ? "-" : "");
         else

@@ -32,8 +32,9 @@ typedef struct sbuf {
 typedef struct style {
     int latex;              /* 0 text; 1 LaTeX; 2 LaTeX with plain
                                parentheses, which may hold a line break */
-    char **names;           /* per variable, owned; NULL until needed */
+    char **names;           /* per variable, owned, NAME_PAD zeros after */
     size_t *lens;           /* their lengths */
+    size_t longest;         /* the longest */
     const char *mul;        /* the product sign (2 bytes or more with its
                                NUL, copied 2 at once), its length */
     size_t mul_len;
@@ -158,12 +159,31 @@ static char *var_name(const style *st, int id)
     return out;
 }
 
+/* Every name is stored with this many bytes of zeros after it, so
+   that a name of up to NAME_PAD bytes is copied as one block of fixed
+   size (a few moves, no call), the bytes past it overwritten next. */
+#define NAME_PAD 16
+
+/* Every name is made at the start, so that writing a factor needs no
+   test, and the longest bounds the room a term takes. */
 static void style_init(style *st, const gs_polyctx *ctx, int latex)
 {
+    int i;
     st->latex = latex;
     st->ctx = ctx;
     st->names = gs_calloc((size_t)ctx->nvars + 1, sizeof *st->names);
     st->lens = gs_calloc((size_t)ctx->nvars + 1, sizeof *st->lens);
+    st->longest = 0;
+    for (i = 0; i < ctx->nvars; i++) {
+        char *name = var_name(st, i);
+        size_t n = strlen(name);
+        st->names[i] = gs_calloc(n + NAME_PAD, 1);
+        memcpy(st->names[i], name, n);
+        st->lens[i] = n;
+        if (n > st->longest)
+            st->longest = n;
+        gs_free(name);
+    }
     st->mul = latex ? "\\," : "*";
     st->mul_len = strlen(st->mul);
     st->vars = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *st->vars);
@@ -181,29 +201,10 @@ static void style_clear(style *st)
     gs_free(st->exps);
 }
 
-/* Every name is stored with this many bytes of zeros after it, so
-   that a name of up to NAME_PAD bytes is copied as one block of fixed
-   size (a few moves, no call), the bytes past it overwritten next. */
-#define NAME_PAD 16
-
-static const char *name_of(style *st, int id)
-{
-    if (st->names[id] == NULL) {
-        char *name = var_name(st, id);
-        size_t n = strlen(name);
-        st->names[id] = gs_calloc(n + NAME_PAD, 1);
-        memcpy(st->names[id], name, n);
-        st->lens[id] = n;
-        gs_free(name);
-    }
-    return st->names[id];
-}
-
 /* x_var^k; k >= 1 */
 static void put_power(sbuf *b, style *st, int var, unsigned k)
 {
-    const char *name = name_of(st, var);
-    sb_putn(b, name, st->lens[var]);
+    sb_putn(b, st->names[var], st->lens[var]);
     if (k == 1)
         return;
     if (st->latex) {
@@ -237,13 +238,9 @@ static char *copy_name(char *p, const char *name, size_t len)
    sign before it (2 bytes) and "^{" 5 digits "}" (8). */
 static void put_monomial(sbuf *b, style *st, int n)
 {
-    size_t room = NAME_PAD;
+    size_t room = NAME_PAD + (size_t)n * (st->longest + 10);
     char *p;
     int j;
-    for (j = 0; j < n; j++) {
-        name_of(st, st->vars[j]);
-        room += st->lens[st->vars[j]] + 10;
-    }
     if (b->s.n + room + 1 > b->s.cap)
         gs_strbuf_reserve(&b->s, room);
     p = b->s.p + b->s.n;
@@ -336,17 +333,8 @@ static size_t view_at(const view *v, size_t i)
    their count. */
 static int view_factors(style *st, const view *v, size_t i)
 {
-    int n = gs_poly_term_factors(st->vars, st->exps, v->a, view_at(v, i),
-                                 st->ctx);
-    int j, k = 0;
-    if (v->drop < 0)
-        return n;
-    for (j = 0; j < n; j++)
-        if (st->vars[j] != v->drop) {
-            st->vars[k] = st->vars[j];
-            st->exps[k++] = st->exps[j];
-        }
-    return k;
+    return gs_poly_term_factors(st->vars, st->exps, v->a, view_at(v, i),
+                                v->drop, st->ctx);
 }
 
 /* The terms of v, one after the other; flip negates each sign. */
