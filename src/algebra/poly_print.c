@@ -19,21 +19,24 @@ int gs_poly_term_factors(int *vars, unsigned *exps, const gs_poly *a,
                          size_t i, int skip, const gs_polyctx *ctx)
 {
     const uint64_t *e = a->exps + i * (size_t)ctx->nwords;
-    int w, f, n = 0;
-    for (w = 0; w < ctx->nwords; w++) {
-        uint64_t x = e[w];
+    int w, f, n = 0, nw = ctx->nwords;  /* a local: vars may alias ctx */
+    int skip_w = skip >= 0 ? skip / GS_POLY_VARS_PER_WORD : -1;
+    uint64_t keep = skip >= 0
+        ? ~(GS_POLY_FIELD_MASK << gs_poly_field_shift(skip)) : ~UINT64_C(0);
+    for (w = 0; w < nw; w++) {
+        uint64_t x = w == skip_w ? e[w] & keep : e[w];
         if (x == 0)
             continue;
         /* every field is stored and the count moves on past the
            nonzero ones only: no branch on the exponents, whose pattern
            a branch predictor cannot learn */
         for (f = 0; f < GS_POLY_VARS_PER_WORD; f++) {
-            int v = w * GS_POLY_VARS_PER_WORD + f;
-            unsigned k = (unsigned)((x >> gs_poly_field_shift(v))
+            unsigned k = (unsigned)((x >> (GS_POLY_FIELD_BITS
+                                           * (GS_POLY_VARS_PER_WORD - 1 - f)))
                                     & GS_POLY_FIELD_MASK);
-            vars[n] = v;
+            vars[n] = w * GS_POLY_VARS_PER_WORD + f;
             exps[n] = k;
-            n += k != 0 && v != skip;
+            n += k != 0;
         }
     }
     return n;

@@ -13,6 +13,7 @@
 #include "base/strbuf.h"
 
 #include <ctype.h>
+#include <stdint.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -238,6 +239,14 @@ static char *copy_name(char *p, const char *name, size_t len)
    sign before it (2 bytes) and "^{" 5 digits "}" (8). */
 static void put_monomial(sbuf *b, style *st, int n)
 {
+    /* read into locals once: the stores through p may alias st */
+    char *const *names = st->names;
+    const size_t *lens = st->lens;
+    const int *vars = st->vars;
+    const unsigned *exps = st->exps;
+    const char *mul = st->mul;
+    size_t mul_len = st->mul_len;
+    int latex = st->latex;
     size_t room = NAME_PAD + (size_t)n * (st->longest + 10);
     char *p;
     int j;
@@ -245,19 +254,19 @@ static void put_monomial(sbuf *b, style *st, int n)
         gs_strbuf_reserve(&b->s, room);
     p = b->s.p + b->s.n;
     for (j = 0; j < n; j++) {
-        int v = st->vars[j];
-        unsigned k = st->exps[j];
+        int v = vars[j];
+        unsigned k = exps[j];
         if (j > 0) {
-            memcpy(p, st->mul, 2);
-            p += st->mul_len;
+            memcpy(p, mul, 2);
+            p += mul_len;
         }
-        p = copy_name(p, st->names[v], st->lens[v]);
+        p = copy_name(p, names[v], lens[v]);
         if (k > 1) {
             *p++ = '^';
-            if (st->latex)
+            if (latex)
                 *p++ = '{';
             p += gs_fmt_u64(p, k);
-            if (st->latex)
+            if (latex)
                 *p++ = '}';
         }
     }
@@ -399,12 +408,18 @@ static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
         size_t nw = (size_t)ctx->nwords;
         size_t *start = gs_calloc(n + 1, sizeof *start);
         size_t *idx = gs_malloc(a->length * sizeof *idx);
-        for (i = 0; i < a->length; i++)
-            start[gs_poly_exp_get(a->exps + i * nw, var) + 1]++;
+        /* each term's power, read once: the second pass then runs over
+           two bytes a term instead of the term's exponent words */
+        uint16_t *pw = gs_malloc(a->length * sizeof *pw);
+        for (i = 0; i < a->length; i++) {
+            pw[i] = (uint16_t)gs_poly_exp_get(a->exps + i * nw, var);
+            start[pw[i] + 1]++;
+        }
         for (i = 0; i < n; i++)
             start[i + 1] += start[i];
         for (i = 0; i < a->length; i++)
-            idx[start[gs_poly_exp_get(a->exps + i * nw, var)]++] = i;
+            idx[start[pw[i]]++] = i;
+        gs_free(pw);
         /* start[k] is now the end of power k's run, start[k - 1] its
            beginning */
         v.drop = var;
