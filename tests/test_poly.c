@@ -1396,7 +1396,7 @@ static void test_term_factors(const env *e, uint64_t seed)
           && got_e[1] == 2);
     renew(&p);
     for (v = 0; v < nv; v++) {
-        char name[8];
+        char name[16];
         snprintf(name, sizeof name, "q%d", v);
         gs_symtab_intern(st, name);
     }
