@@ -1367,6 +1367,73 @@ static void loop_shapes(const env *e, uint64_t seed0, int n)
     gs_poly_clear(&q);
 }
 
+/* gs_poly_term_factors lists what gs_poly_get_term_exps unpacks, less
+   the zeros and the variable skipped: known terms, then random sparse
+   terms over 39 variables (ten words, the last one part full, whole zero
+   words common) with exponents up to GS_POLY_MAX_EXP, each variable
+   skipped in turn, against the unpacked exponents. */
+static void test_term_factors(const env *e, uint64_t seed)
+{
+    gs_symtab *st = gs_symtab_new();
+    gs_polyctx *ctx;
+    gs_poly p;
+    gs_int c;
+    unsigned exps[39], got_e[40];
+    int vars[40], nv = 39, v, n, k, ok = 1;
+    size_t t;
+    rng r = { seed };
+    gs_poly_init(&p);
+    /* x*gm*(1/R)^2 in c11: x is variable 0, gm 8, 1/R 10 (env_init) */
+    parse(&p, "gm*(1/R)^2*x", e->c11);
+    n = gs_poly_term_factors(vars, got_e, &p, 0, -1, e->c11);
+    CHECK(n == 3 && vars[0] == 0 && vars[1] == 8 && vars[2] == 10
+          && got_e[0] == 1 && got_e[1] == 1 && got_e[2] == 2);
+    parse(&p, "7", e->c11);
+    CHECK(gs_poly_term_factors(vars, got_e, &p, 0, -1, e->c11) == 0);
+    parse(&p, "gm*(1/R)^2*x", e->c11);      /* less gm: x*(1/R)^2 */
+    n = gs_poly_term_factors(vars, got_e, &p, 0, 8, e->c11);
+    CHECK(n == 2 && vars[0] == 0 && vars[1] == 10 && got_e[0] == 1
+          && got_e[1] == 2);
+    renew(&p);
+    for (v = 0; v < nv; v++) {
+        char name[16];
+        snprintf(name, sizeof name, "q%d", v);
+        gs_symtab_intern(st, name);
+    }
+    ctx = gs_polyctx_new(st, nv);
+    gs_int_init(&c);
+    for (k = 0; k < 400; k++) {
+        for (v = 0; v < nv; v++) {
+            unsigned roll = rbelow(&r, 16);
+            exps[v] = roll == 0 ? GS_POLY_MAX_EXP - rbelow(&r, 3)
+                      : roll < 3 ? 1 + rbelow(&r, 9) : 0;
+        }
+        gs_int_set_si(&c, 1 + (int64_t)rbelow(&r, 5));
+        gs_poly_push_term(&p, &c, exps, ctx);
+    }
+    gs_poly_canonicalise(&p, ctx);
+    for (t = 0; t < p.length; t++) {
+        int j = 0, skip = (int)t % (nv + 1) - 1;   /* -1: none */
+        gs_poly_get_term_exps(exps, &p, t, ctx);
+        if (skip >= 0)
+            exps[skip] = 0;
+        n = gs_poly_term_factors(vars, got_e, &p, t, skip, ctx);
+        for (v = 0; v < nv; v++) {
+            if (exps[v] == 0)
+                continue;
+            ok &= j < n && vars[j] == v && got_e[j] == exps[v];
+            j++;
+        }
+        ok &= j == n;
+    }
+    CHECK_MSG(ok && p.length > 300, "term factors, seed %llu",
+              (unsigned long long)seed);
+    gs_int_clear(&c);
+    gs_poly_clear(&p);
+    gs_polyctx_free(ctx);
+    gs_symtab_free(st);
+}
+
 /* The capped product: (1+x+y+z)^3 * (1+x+y+z)^3 has C(6+3, 3) = 84
    terms (the monomials of degree <= 6 in three variables, a counting
    fact).  Under a cap of 84 or more it is the full product; under 83 it
@@ -1400,6 +1467,7 @@ int main(int argc, char **argv)
     uint64_t seed = argc > 1 ? strtoull(argv[1], NULL, 10) : 20261201;
     env_init(&e);
     test_text(&e);
+    test_term_factors(&e, seed + 15000);
     test_mul_cap(&e);
     test_binomial(&e);
     test_small_identities(&e);

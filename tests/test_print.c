@@ -12,8 +12,10 @@
 #include "testlib.h"
 #include "gainsmith.h"
 #include "base/mem.h"
+#include "base/strbuf.h"
 #include "analysis/tf.h"
 
+#include <inttypes.h>
 #include <math.h>
 #include <stdint.h>
 #include <stdlib.h>
@@ -883,12 +885,122 @@ static void test_stream_long(fix *f)
     gs_tf_clear(&tf);
 }
 
+/* Names longer than the block the text printers copy a short name in
+   (16 bytes), a reciprocal of one, exponents past 9 and coefficients
+   past 2^64: the text reads back as the polynomials it came from (the
+   reader of algebra/poly_print.c), and with no collecting variable N is
+   the text gs_poly_get_str writes (its own loop over the terms); the
+   lines of the 2-D form join back to it. */
+static void test_long_names(uint64_t seed)
+{
+    static const char *const nm[] = {
+        "s", "Rload_of_the_second_stage", "C1",
+        "gm_input_pair_transconductance", "x"
+    };
+    enum { NV = 6, CASES = 60 };
+    fix g;
+    gs_rng x;
+    int k, v;
+    gs_rng_seed(&x, seed);
+    g.st = gs_symtab_new();
+    for (v = 0; v < NV - 1; v++)
+        gs_symtab_intern(g.st, nm[v]);
+    gs_symtab_recip(g.st, 1);                  /* "1/Rload_of_..." */
+    g.ctx = gs_polyctx_new(g.st, gs_symtab_count(g.st));
+    g.s = 0;
+    g.tex = NULL;
+    for (k = 0; k < CASES; k++) {
+        gs_tf tf;
+        gs_poly *side[2];
+        unsigned exps[NV];
+        int cv = k % 2 ? -1 : 0, j, t;
+        char *text, *pretty, *num, *den, *plain;
+        gs_int c;
+        gs_int_init(&c);
+        tf_from(&tf, &g, "Hn", "1", "1");
+        side[0] = &tf.num;
+        side[1] = &tf.den;
+        for (j = 0; j < 2; j++) {
+            gs_poly_zero(side[j]);
+            for (t = 0; t < 1 + (int)(next(&x) % 20); t++) {
+                for (v = 0; v < NV; v++)
+                    exps[v] = next(&x) % 3 == 0 ? (unsigned)(next(&x) % 14)
+                                                : 0;
+                gs_int_set_si(&c, (int64_t)(next(&x) % 2001) - 1000);
+                if (next(&x) % 8 == 0)
+                    gs_int_mul_2exp(&c, &c, 80);
+                gs_poly_push_term(side[j], &c, exps, g.ctx);
+            }
+            gs_poly_canonicalise(side[j], g.ctx);
+            if (gs_poly_is_zero(side[j]))
+                gs_poly_set_si(side[j], 3, g.ctx);
+        }
+        text = capture(gs_print_text, &tf, cv);
+        pretty = capture(gs_print_pretty, &tf, cv);
+        num = text_num(text);
+        den = text_den(text);
+        plain = gs_poly_get_str(&tf.num, g.ctx);
+        CHECK_MSG(reads_back(num, &tf.num, &g) && reads_back(den, &tf.den, &g),
+                  "seed %llu case %d: %s", (unsigned long long)seed, k, text);
+        CHECK_MSG(cv == 0 || strcmp(num, plain) == 0,
+                  "seed %llu case %d:\n%s\n%s", (unsigned long long)seed, k,
+                  num, plain);
+        if (strcmp(den, "1") != 0)      /* a term past 79 columns has
+                                           a line of its own: no width */
+            CHECK_MSG(pretty_ok(pretty, "Hn", num, (size_t)1 << 20),
+                      "seed %llu case %d:\n%s", (unsigned long long)seed, k,
+                      pretty);
+        free(text), free(pretty), free(num), free(den);
+        gs_free(plain);
+        gs_int_clear(&c);
+        gs_tf_clear(&tf);
+    }
+    gs_polyctx_free(g.ctx);
+    gs_symtab_free(g.st);
+}
+
+/* The printers' decimal writer against the C library's "%" PRIu64 (C11
+   7.21.6.1): the ends of the range, each power of ten and its
+   predecessor, and random values of every width, appended one after the
+   other into one string. */
+static void test_decimal(uint64_t seed)
+{
+    gs_strbuf b;
+    char want[64 * 22 + 22 * 45], *w = want;
+    uint64_t p = 1;
+    gs_rng x;
+    int i;
+    gs_rng_seed(&x, seed);
+    gs_strbuf_init(&b);
+#define ONE(v)                                                          \
+    do {                                                                \
+        uint64_t v_ = (v);                                              \
+        gs_strbuf_add_u64(&b, v_);                                      \
+        gs_strbuf_addn(&b, ",", 1);                                     \
+        w += sprintf(w, "%" PRIu64 ",", v_);                            \
+    } while (0)
+    ONE(0);
+    ONE(UINT64_MAX);
+    for (i = 0; i < 19; i++, p *= 10) {
+        ONE(p);
+        ONE(p * 10 - 1);
+    }
+    for (i = 0; i < 64; i++)
+        ONE(next(&x) >> i);
+#undef ONE
+    CHECK_MSG(strcmp(b.p, want) == 0, "seed %llu:\n%s\n%s",
+              (unsigned long long)seed, b.p, want);
+    gs_strbuf_clear(&b);
+}
+
 int main(int argc, char **argv)
 {
     uint64_t seed = argc > 1 ? strtoull(argv[1], NULL, 10) : 20240601u;
     fix f;
     fix_init(&f, argv[0]);
     test_tf_lifetime(&f);
+    test_decimal(seed);
+    test_long_names(seed + 1);
     test_goldens(&f);
     test_json_golden(&f);
     test_json_structure(&f);

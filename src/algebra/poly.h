@@ -318,6 +318,16 @@ long double complex gs_poly_eval_lc(const gs_poly *a,
    reciprocal symbol prints as "(1/R)".  A new string the caller frees. */
 char *gs_poly_get_str(const gs_poly *a, const gs_polyctx *ctx);
 void gs_poly_print(FILE *out, const gs_poly *a, const gs_polyctx *ctx);
+/* poly_print.c: the factors of term i but the one of variable skip (-1:
+   none), variables increasing: x_vars[j]^exps[j] for j < the count
+   returned, every exponent nonzero (vars and exps have room for nvars +
+   1: one entry past the count is scratch).  The packed words are read
+   directly and a zero word is skipped whole, so the cost follows the
+   factors a term has rather than the variables of the context: for
+   printers, whose terms in a large result hold a few of many symbols
+   (and which print a coefficient of s^k as the terms without s). */
+int gs_poly_term_factors(int *vars, unsigned *exps, const gs_poly *a,
+                         size_t i, int skip, const gs_polyctx *ctx);
 /* Parse the syntax gs_poly_get_str prints (integers, symbol names of the
    context, + - * ^ and parentheses with integer powers) for tests and
    tools.  Unknown names are GS_EINVAL; malformed text GS_ESYNTAX. */

@@ -15,66 +15,94 @@
 #include <stdlib.h>
 #include <string.h>
 
-static void put_monomial(gs_strbuf *b, const uint64_t *e, const gs_polyctx *ctx)
+int gs_poly_term_factors(int *vars, unsigned *exps, const gs_poly *a,
+                         size_t i, int skip, const gs_polyctx *ctx)
 {
-    int v, first = 1;
-    char num[16];
-    for (v = 0; v < ctx->nvars; v++) {
-        unsigned k = gs_poly_exp_get(e, v);
-        const char *name;
-        if (k == 0)
+    const uint64_t *e = a->exps + i * (size_t)ctx->nwords;
+    int w, f, n = 0, nw = ctx->nwords;  /* a local: vars may alias ctx */
+    int skip_w = skip >= 0 ? skip / GS_POLY_VARS_PER_WORD : -1;
+    uint64_t keep = skip >= 0
+        ? ~(GS_POLY_FIELD_MASK << gs_poly_field_shift(skip)) : ~UINT64_C(0);
+    for (w = 0; w < nw; w++) {
+        uint64_t x = w == skip_w ? e[w] & keep : e[w];
+        if (x == 0)
             continue;
-        if (!first)
-            gs_strbuf_add(b, "*");
-        first = 0;
-        name = gs_symtab_name(ctx->syms, v);
-        if (gs_symtab_is_recip(ctx->syms, v)) {
-            gs_strbuf_add(b, "(");
+        /* every field is stored and the count moves on past the
+           nonzero ones only: no branch on the exponents, whose pattern
+           a branch predictor cannot learn */
+        for (f = 0; f < GS_POLY_VARS_PER_WORD; f++) {
+            unsigned k = (unsigned)((x >> (GS_POLY_FIELD_BITS
+                                           * (GS_POLY_VARS_PER_WORD - 1 - f)))
+                                    & GS_POLY_FIELD_MASK);
+            vars[n] = w * GS_POLY_VARS_PER_WORD + f;
+            exps[n] = k;
+            n += k != 0;
+        }
+    }
+    return n;
+}
+
+/* The n factors of a term, "x^2*(1/R)*y". */
+static void put_monomial(gs_strbuf *b, const int *vars, const unsigned *exps,
+                         int n, const gs_polyctx *ctx)
+{
+    int j;
+    for (j = 0; j < n; j++) {
+        const char *name = gs_symtab_name(ctx->syms, vars[j]);
+        if (j > 0)
+            gs_strbuf_addn(b, "*", 1);
+        if (gs_symtab_is_recip(ctx->syms, vars[j])) {
+            gs_strbuf_addn(b, "(", 1);
             gs_strbuf_add(b, name);
-            gs_strbuf_add(b, ")");
+            gs_strbuf_addn(b, ")", 1);
         } else {
             gs_strbuf_add(b, name);
         }
-        if (k > 1) {
-            snprintf(num, sizeof num, "^%u", k);
-            gs_strbuf_add(b, num);
+        if (exps[j] > 1) {
+            gs_strbuf_addn(b, "^", 1);
+            gs_strbuf_add_u64(b, exps[j]);
         }
     }
 }
 
-static int exps_zero(const uint64_t *e, int nw)
+/* |c| in decimal; a coefficient that fits a word without an allocation */
+static void put_abs(gs_strbuf *b, const gs_int *c)
 {
-    int w;
-    for (w = 0; w < nw; w++)
-        if (e[w] != 0)
-            return 0;
-    return 1;
+    if (gs_int_is_small(c)) {
+        int64_t v = c->u.v;
+        gs_strbuf_add_u64(b, v < 0 ? 0 - (uint64_t)v : (uint64_t)v);
+    } else {
+        char *digits = gs_int_get_str(c);
+        gs_strbuf_add(b, digits + (digits[0] == '-'));
+        gs_free(digits);
+    }
 }
 
 char *gs_poly_get_str(const gs_poly *a, const gs_polyctx *ctx)
 {
     gs_strbuf b;
-    size_t i;
+    size_t i, room = (size_t)ctx->nvars + 1;
+    int *vars = gs_malloc(room * sizeof *vars);
+    unsigned *exps = gs_malloc(room * sizeof *exps);
     gs_strbuf_init(&b);
     gs_strbuf_add(&b, a->length == 0 ? "0" : "");
     for (i = 0; i < a->length; i++) {
-        const uint64_t *e = a->exps + i * (size_t)ctx->nwords;
         const gs_int *c = &a->coeffs[i];
-        int neg = gs_int_sgn(c) < 0, mono = !exps_zero(e, ctx->nwords);
+        int neg = gs_int_sgn(c) < 0;
+        int n = gs_poly_term_factors(vars, exps, a, i, -1, ctx);
         if (i == 0)
             gs_strbuf_add(&b, neg ? "-" : "");
         else
             gs_strbuf_add(&b, neg ? " - " : " + ");
-        if (!mono || !(gs_int_is_one(c) || gs_int_cmp_si(c, -1) == 0)) {
-            char *digits = gs_int_get_str(c);
-            gs_strbuf_add(&b, digits + (digits[0] == '-'));
-            gs_free(digits);
-            if (mono)
-                gs_strbuf_add(&b, "*");
+        if (n == 0 || !(gs_int_is_one(c) || gs_int_cmp_si(c, -1) == 0)) {
+            put_abs(&b, c);
+            if (n > 0)
+                gs_strbuf_addn(&b, "*", 1);
         }
-        if (mono)
-            put_monomial(&b, e, ctx);
+        put_monomial(&b, vars, exps, n, ctx);
     }
+    gs_free(vars);
+    gs_free(exps);
     return b.p;
 }
 

@@ -5,6 +5,7 @@
 #define GS_STRBUF_H
 
 #include <stddef.h>
+#include <stdint.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -42,6 +43,30 @@ static inline void gs_strbuf_addn(gs_strbuf *b, const char *s, size_t n)
 static inline void gs_strbuf_add(gs_strbuf *b, const char *s)
 {
     gs_strbuf_addn(b, s, strlen(s));
+}
+
+/* v in decimal at out, without printf (a printer writes millions of
+   small coefficients and exponents): 20 bytes at most, no NUL; the count
+   written. */
+static inline size_t gs_fmt_u64(char *out, uint64_t v)
+{
+    char d[20];             /* 2^64 - 1 has 20 digits */
+    size_t n = sizeof d;
+    do {
+        d[--n] = (char)('0' + v % 10);
+        v /= 10;
+    } while (v != 0);
+    memcpy(out, d + n, sizeof d - n);
+    return sizeof d - n;
+}
+
+/* Append v in decimal ("0", "42"). */
+static inline void gs_strbuf_add_u64(gs_strbuf *b, uint64_t v)
+{
+    if (b->n + 21 > b->cap)
+        gs_strbuf_reserve(b, 20);
+    b->n += gs_fmt_u64(b->p + b->n, v);
+    b->p[b->n] = '\0';
 }
 
 #endif

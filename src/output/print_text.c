@@ -13,6 +13,7 @@
 #include "base/strbuf.h"
 
 #include <ctype.h>
+#include <stdint.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -32,8 +33,14 @@ typedef struct sbuf {
 typedef struct style {
     int latex;              /* 0 text; 1 LaTeX; 2 LaTeX with plain
                                parentheses, which may hold a line break */
-    char **names;           /* per variable, owned; NULL until needed */
+    char **names;           /* per variable, owned, NAME_PAD zeros after */
     size_t *lens;           /* their lengths */
+    size_t longest;         /* the longest */
+    const char *mul;        /* the product sign (2 bytes or more with its
+                               NUL, copied 2 at once), its length */
+    size_t mul_len;
+    int *vars;              /* a term's factors (gs_poly_term_factors): */
+    unsigned *exps;         /* scratch, room for nvars + 1 */
     const gs_polyctx *ctx;
 } style;
 
@@ -153,12 +160,35 @@ static char *var_name(const style *st, int id)
     return out;
 }
 
+/* Every name is stored with this many bytes of zeros after it, so
+   that a name of up to NAME_PAD bytes is copied as one block of fixed
+   size (a few moves, no call), the bytes past it overwritten next. */
+#define NAME_PAD 16
+
+/* Every name is made at the start, so that writing a factor needs no
+   test, and the longest bounds the room a term takes. */
 static void style_init(style *st, const gs_polyctx *ctx, int latex)
 {
+    int i;
     st->latex = latex;
     st->ctx = ctx;
     st->names = gs_calloc((size_t)ctx->nvars + 1, sizeof *st->names);
     st->lens = gs_calloc((size_t)ctx->nvars + 1, sizeof *st->lens);
+    st->longest = 0;
+    for (i = 0; i < ctx->nvars; i++) {
+        char *name = var_name(st, i);
+        size_t n = strlen(name);
+        st->names[i] = gs_calloc(n + NAME_PAD, 1);
+        memcpy(st->names[i], name, n);
+        st->lens[i] = n;
+        if (n > st->longest)
+            st->longest = n;
+        gs_free(name);
+    }
+    st->mul = latex ? "\\," : "*";
+    st->mul_len = strlen(st->mul);
+    st->vars = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *st->vars);
+    st->exps = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *st->exps);
 }
 
 static void style_clear(style *st)
@@ -168,80 +198,116 @@ static void style_clear(style *st)
         gs_free(st->names[i]);
     gs_free(st->names);
     gs_free(st->lens);
-}
-
-static const char *name_of(style *st, int id)
-{
-    if (st->names[id] == NULL) {
-        st->names[id] = var_name(st, id);
-        st->lens[id] = strlen(st->names[id]);
-    }
-    return st->names[id];
+    gs_free(st->vars);
+    gs_free(st->exps);
 }
 
 /* x_var^k; k >= 1 */
 static void put_power(sbuf *b, style *st, int var, unsigned k)
 {
-    char num[32];
-    const char *name = name_of(st, var);
-    sb_putn(b, name, st->lens[var]);
-    if (k > 1 && k < 10 && !st->latex) {    /* the common case, no printf */
-        num[0] = '^';
-        num[1] = (char)('0' + k);
-        sb_putn(b, num, 2);
-    } else if (k > 1) {
-        snprintf(num, sizeof num, st->latex ? "^{%u}" : "^%u", k);
-        sb_puts(b, num);
+    sb_putn(b, st->names[var], st->lens[var]);
+    if (k == 1)
+        return;
+    if (st->latex) {
+        sb_putn(b, "^{", 2);
+        gs_strbuf_add_u64(&b->s, k);
+        sb_putn(b, "}", 1);
+    } else {
+        sb_putn(b, "^", 1);
+        gs_strbuf_add_u64(&b->s, k);
     }
 }
 
-static const char *mul_sign(const style *st)
+static void put_mul(sbuf *b, const style *st)
 {
-    return st->latex ? "\\," : "*";
+    sb_putn(b, st->mul, st->mul_len);
 }
 
-/* The monomial of exps (every variable but skip); 0 when it is 1. */
-static int put_monomial(sbuf *b, style *st, const unsigned *exps, int skip)
+static char *copy_name(char *p, const char *name, size_t len)
 {
-    int i, count = 0;
-    for (i = 0; i < st->ctx->nvars; i++) {
-        if (i == skip || exps[i] == 0)
-            continue;
-        if (count++ > 0)
-            sb_puts(b, mul_sign(st));
-        put_power(b, st, i, exps[i]);
+    if (len <= NAME_PAD)
+        memcpy(p, name, NAME_PAD);
+    else
+        memcpy(p, name, len);
+    return p + len;
+}
+
+/* The n factors in st->vars, st->exps, written through a pointer after
+   one reservation: the factors of the many terms of a large result are
+   most of its text, and appending each piece checked for room cost
+   more than making them.  A factor takes at most its name, the product
+   sign before it (2 bytes) and "^{" 5 digits "}" (8). */
+static void put_monomial(sbuf *b, style *st, int n)
+{
+    /* read into locals once: the stores through p may alias st */
+    char *const *names = st->names;
+    const size_t *lens = st->lens;
+    const int *vars = st->vars;
+    const unsigned *exps = st->exps;
+    const char *mul = st->mul;
+    size_t mul_len = st->mul_len;
+    int latex = st->latex;
+    size_t room = NAME_PAD + (size_t)n * (st->longest + 10);
+    char *p;
+    int j;
+    if (b->s.n + room + 1 > b->s.cap)
+        gs_strbuf_reserve(&b->s, room);
+    p = b->s.p + b->s.n;
+    for (j = 0; j < n; j++) {
+        int v = vars[j];
+        unsigned k = exps[j];
+        if (j > 0) {
+            memcpy(p, mul, 2);
+            p += mul_len;
+        }
+        p = copy_name(p, names[v], lens[v]);
+        if (k > 1) {
+            *p++ = '^';
+            if (latex)
+                *p++ = '{';
+            p += gs_fmt_u64(p, k);
+            if (latex)
+                *p++ = '}';
+        }
     }
-    return count;
+    *p = '\0';
+    b->s.n = (size_t)(p - b->s.p);
 }
 
-static int monomial_is_one(const unsigned *exps, int nvars)
+/* Sign and unit tests of a coefficient read a small value where it lies
+   (int.h: a value that fits a word is never kept in limbs). */
+static int is_negative(const gs_int *c)
 {
-    int i;
-    for (i = 0; i < nvars; i++)
-        if (exps[i] != 0)
-            return 0;
-    return 1;
+    return gs_int_is_small(c) ? c->u.v < 0 : gs_int_sgn(c) < 0;
 }
 
 static int is_unit(const gs_int *c)
 {
-    return gs_int_is_one(c) || gs_int_cmp_si(c, -1) == 0;
+    return gs_int_is_small(c) && (c->u.v == 1 || c->u.v == -1);
 }
 
-/* |c| times the monomial; "1" for the constant term +-1. */
-static void put_term(sbuf *b, style *st, const gs_int *c,
-                     const unsigned *exps)
+/* |c| in decimal: a coefficient that fits a word without an allocation */
+static void put_abs(sbuf *b, const gs_int *c)
 {
-    int one = monomial_is_one(exps, st->ctx->nvars);
-    if (one || !is_unit(c)) {
+    if (gs_int_is_small(c)) {
+        int64_t v = c->u.v;
+        gs_strbuf_add_u64(&b->s, v < 0 ? 0 - (uint64_t)v : (uint64_t)v);
+    } else {
         char *digits = gs_int_get_str(c);
         sb_puts(b, digits[0] == '-' ? digits + 1 : digits);
         gs_free(digits);
-        if (!one)
-            sb_puts(b, mul_sign(st));
     }
-    if (!one)
-        put_monomial(b, st, exps, -1);
+}
+
+/* |c| times the n factors of st; "1" for the constant term +-1. */
+static void put_term(sbuf *b, style *st, const gs_int *c, int n)
+{
+    if (n == 0 || !is_unit(c)) {
+        put_abs(b, c);
+        if (n > 0)
+            put_mul(b, st);
+    }
+    put_monomial(b, st, n);
 }
 
 /* The sign before a term: nothing or "-" first, " + " or " - " after. */
@@ -249,11 +315,11 @@ static void put_sign(sbuf *b, int negative, int first)
 {
     if (first) {
         if (negative)
-            sb_puts(b, "-");
+            sb_putn(b, "-", 1);
         return;
     }
     sb_mark_break(b);
-    sb_puts(b, negative ? " - " : " + ");
+    sb_putn(b, negative ? " - " : " + ", 3);
 }
 
 /* Some terms of a polynomial, in its order: a's terms idx[0 .. n), with
@@ -272,25 +338,25 @@ static size_t view_at(const view *v, size_t i)
     return v->idx ? v->idx[i] : i;
 }
 
-static void view_exps(unsigned *exps, const view *v, size_t i,
-                      const gs_polyctx *ctx)
+/* Term i's factors into st->vars and st->exps, less the factor of drop;
+   their count. */
+static int view_factors(style *st, const view *v, size_t i)
 {
-    gs_poly_get_term_exps(exps, v->a, view_at(v, i), ctx);
-    if (v->drop >= 0)
-        exps[v->drop] = 0;
+    return gs_poly_term_factors(st->vars, st->exps, v->a, view_at(v, i),
+                                v->drop, st->ctx);
 }
 
 /* The terms of v, one after the other; flip negates each sign. */
 static void put_terms(sbuf *b, style *st, const view *v, int first,
-                      int flip, unsigned *exps)
+                      int flip)
 {
     size_t i;
     for (i = 0; i < v->n; i++) {
         const gs_int *c = &v->a->coeffs[view_at(v, i)];
-        int neg = (gs_int_sgn(c) < 0) != (flip != 0);
-        view_exps(exps, v, i, st->ctx);
+        int neg = is_negative(c) != (flip != 0);
+        int n = view_factors(st, v, i);
         put_sign(b, neg, first && i == 0);
-        put_term(b, st, c, exps);
+        put_term(b, st, c, n);
     }
 }
 
@@ -298,20 +364,20 @@ static void put_terms(sbuf *b, style *st, const view *v, int first,
    dropped) nonzero.  A coefficient of several terms goes in parentheses,
    its leading sign outside. */
 static void put_group(sbuf *b, style *st, const view *c, int var,
-                      unsigned k, int first, unsigned *exps)
+                      unsigned k, int first)
 {
     const gs_int *c0 = &c->a->coeffs[view_at(c, 0)];
-    int neg = gs_int_sgn(c0) < 0;
+    int neg = is_negative(c0);
     put_sign(b, neg, first);
     if (c->n == 1) {
-        view_exps(exps, c, 0, st->ctx);
-        if (!monomial_is_one(exps, st->ctx->nvars) || !is_unit(c0)) {
-            put_term(b, st, c0, exps);
-            sb_puts(b, mul_sign(st));
+        int n = view_factors(st, c, 0);
+        if (n > 0 || !is_unit(c0)) {
+            put_term(b, st, c0, n);
+            put_mul(b, st);
         }
     } else {
         sb_puts(b, st->latex == 1 ? "\\left( " : "(");
-        put_terms(b, st, c, 1, neg, exps);
+        put_terms(b, st, c, 1, neg);
         sb_puts(b, st->latex == 1 ? " \\right) "
                    : st->latex ? ")\\," : ")*");
     }
@@ -325,7 +391,6 @@ static void put_group(sbuf *b, style *st, const view *c, int var,
 static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
 {
     const gs_polyctx *ctx = st->ctx;
-    unsigned *exps = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *exps);
     view v;
     long k;
     int first = 1;
@@ -337,21 +402,24 @@ static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
     if (gs_poly_is_zero(a)) {
         sb_puts(b, "0");
     } else if (var < 0 || var >= ctx->nvars) {
-        put_terms(b, st, &v, 1, 0, exps);
+        put_terms(b, st, &v, 1, 0);
     } else {
         size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i;
+        size_t nw = (size_t)ctx->nwords;
         size_t *start = gs_calloc(n + 1, sizeof *start);
         size_t *idx = gs_malloc(a->length * sizeof *idx);
+        /* each term's power, read once: the second pass then runs over
+           two bytes a term instead of the term's exponent words */
+        uint16_t *pw = gs_malloc(a->length * sizeof *pw);
         for (i = 0; i < a->length; i++) {
-            gs_poly_get_term_exps(exps, a, i, ctx);
-            start[exps[var] + 1]++;
+            pw[i] = (uint16_t)gs_poly_exp_get(a->exps + i * nw, var);
+            start[pw[i] + 1]++;
         }
         for (i = 0; i < n; i++)
             start[i + 1] += start[i];
-        for (i = 0; i < a->length; i++) {
-            gs_poly_get_term_exps(exps, a, i, ctx);
-            idx[start[exps[var]]++] = i;
-        }
+        for (i = 0; i < a->length; i++)
+            idx[start[pw[i]]++] = i;
+        gs_free(pw);
         /* start[k] is now the end of power k's run, start[k - 1] its
            beginning */
         v.drop = var;
@@ -362,15 +430,14 @@ static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
             v.idx = idx + lo;
             v.n = hi - lo;
             if (k == 0)
-                put_terms(b, st, &v, first, 0, exps);
+                put_terms(b, st, &v, first, 0);
             else
-                put_group(b, st, &v, var, (unsigned)k, first, exps);
+                put_group(b, st, &v, var, (unsigned)k, first);
             first = 0;
         }
         gs_free(idx);
         gs_free(start);
     }
-    gs_free(exps);
 }
 
 /* a in the style latex, with its break points. */
