@@ -313,11 +313,10 @@ static void merge_sorted(gs_poly *r, const gs_polyctx *ctx)
     r->length = w;
 }
 
-void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
+/* The comparison sort: any monomials, n log n comparisons of the words. */
+static void sort_compare(gs_poly *r, const gs_polyctx *ctx)
 {
     size_t n = r->length, i, *perm, *tmp;
-    if (is_canonical(r, ctx))
-        return;
     perm = gs_malloc((n + 1) * sizeof *perm);
     tmp = gs_malloc((n + 1) * sizeof *tmp);
     for (i = 0; i < n; i++)
@@ -326,6 +325,172 @@ void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
     gs_free(tmp);
     apply_perm(r, perm, ctx);
     gs_free(perm);
+}
+
+/* Number of bits of x (0 for 0). */
+static unsigned bit_length(uint64_t x)
+{
+    unsigned b = 0;
+    while (x) {
+        b++;
+        x >>= 1;
+    }
+    return b;
+}
+
+/* Below this many terms the comparison sort is as quick and needs no
+   bucket counts. */
+#define PACKED_MIN_TERMS 1024
+/* Radix digits of at most this many bits: 2^11 counts fit a cache. */
+#define PACKED_DIGIT_BITS 11
+
+/* Stable LSD radix sort of x[0 .. n-1] by bits [lo, lo + bits), into
+   decreasing order (Knuth, TAOCP vol. 3, sec. 5.2.5, from memory); tmp
+   has room for n.  A pass whose digit is the same in every word is
+   skipped.  Returns the array that holds the result (x or tmp). */
+static uint64_t *radix_desc(uint64_t *x, uint64_t *tmp, size_t n,
+                            unsigned lo, unsigned bits)
+{
+    size_t count[1u << PACKED_DIGIT_BITS], i, at;
+    unsigned passes = (bits + PACKED_DIGIT_BITS - 1) / PACKED_DIGIT_BITS;
+    unsigned d = passes ? (bits + passes - 1) / passes : 0, p, k, nb;
+    for (p = 0; p < passes; p++) {
+        unsigned sh = lo + p * d, dd = bits - p * d < d ? bits - p * d : d;
+        uint64_t mask = (UINT64_C(1) << dd) - 1, *t;
+        nb = 1u << dd;
+        memset(count, 0, nb * sizeof *count);
+        for (i = 0; i < n; i++)
+            count[(x[i] >> sh) & mask]++;
+        if (count[(x[0] >> sh) & mask] == n)
+            continue;
+        at = 0;                         /* the largest digit first */
+        for (k = nb; k-- > 0;) {
+            size_t c = count[k];
+            count[k] = at;
+            at += c;
+        }
+        for (i = 0; i < n; i++)
+            tmp[count[(x[i] >> sh) & mask]++] = x[i];
+        t = x;
+        x = tmp;
+        tmp = t;
+    }
+    return x;
+}
+
+/* Monomials packed into one word with the term's index: each variable
+   that may occur gets as many bits as its largest exponent needs,
+   variable 0 highest, so the packed keys compare as the exponent vectors
+   do (lexicographically), and the index below them keeps the keys
+   distinct and the sort stable. */
+typedef struct keyplan {
+    int n;              /* variables in the key */
+    int *var;           /* which, in increasing order */
+    unsigned *wid;      /* bits of each */
+    unsigned bits;      /* their sum */
+    unsigned ib;        /* bits of the index */
+} keyplan;
+
+/* The plan for n terms whose exponents are at most bound[v]; 0 when the
+   keys would not fit a word (k is then cleared already). */
+static int keyplan_init(keyplan *k, const unsigned *bound, size_t n,
+                        const gs_polyctx *ctx)
+{
+    int v;
+    k->var = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *k->var);
+    k->wid = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *k->wid);
+    k->n = 0;
+    k->bits = 0;
+    k->ib = bit_length(n - 1);
+    for (v = 0; v < ctx->nvars; v++) {
+        unsigned b = bit_length(bound[v]);
+        if (b == 0)
+            continue;
+        k->var[k->n] = v;
+        k->wid[k->n++] = b;
+        k->bits += b;
+    }
+    if (k->bits + k->ib <= 64)
+        return 1;
+    gs_free(k->var);
+    gs_free(k->wid);
+    return 0;
+}
+
+static void keyplan_clear(keyplan *k)
+{
+    gs_free(k->var);
+    gs_free(k->wid);
+}
+
+static uint64_t pack_key(const uint64_t *e, size_t i, const keyplan *k)
+{
+    uint64_t key = 0;
+    int j;
+    for (j = 0; j < k->n; j++)
+        key = key << k->wid[j] | gs_poly_exp_get(e, k->var[j]);
+    return key << k->ib | i;
+}
+
+/* Put r's terms in the order of their keys x (x is freed): radix sort,
+   so linear in the terms whatever order they come in.  Returns nonzero
+   when two terms have the same monomial (merge_sorted must follow). */
+static int sort_keys(gs_poly *r, uint64_t *x, const keyplan *k,
+                     const gs_polyctx *ctx)
+{
+    size_t n = r->length, i, *perm;
+    uint64_t *tmp = gs_malloc(n * sizeof *tmp), *sorted;
+    uint64_t low = (UINT64_C(1) << k->ib) - 1;
+    int same = 0;
+    sorted = radix_desc(x, tmp, n, k->ib, k->bits);
+    gs_free(sorted == x ? tmp : x);
+    perm = gs_malloc(n * sizeof *perm);
+    for (i = 0; i < n; i++) {
+        perm[i] = (size_t)(sorted[i] & low);
+        same |= i > 0 && (sorted[i] >> k->ib) == (sorted[i - 1] >> k->ib);
+    }
+    gs_free(sorted);
+    apply_perm(r, perm, ctx);
+    gs_free(perm);
+    return same;
+}
+
+/* The order of sort_compare by packed keys; 0, doing nothing, when they
+   do not fit.  One pass finds the largest exponents, one packs. */
+static int sort_packed(gs_poly *r, const gs_polyctx *ctx)
+{
+    size_t n = r->length, i;
+    unsigned *deg = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *deg);
+    uint64_t *x;
+    keyplan k;
+    int fits;
+    gs_poly_degrees(deg, r, ctx);
+    fits = keyplan_init(&k, deg, n, ctx);
+    gs_free(deg);
+    if (!fits)
+        return 0;
+    x = gs_malloc(n * sizeof *x);
+    for (i = 0; i < n; i++)
+        x[i] = pack_key(term_exps(r, i, ctx), i, &k);
+    sort_keys(r, x, &k, ctx);
+    keyplan_clear(&k);
+    return 1;
+}
+
+void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
+{
+    if (is_canonical(r, ctx))
+        return;
+    if (r->length < PACKED_MIN_TERMS || !sort_packed(r, ctx))
+        sort_compare(r, ctx);
+    merge_sorted(r, ctx);
+}
+
+void gs_poly_canonicalise_compare(gs_poly *r, const gs_polyctx *ctx)
+{
+    if (is_canonical(r, ctx))
+        return;
+    sort_compare(r, ctx);
     merge_sorted(r, ctx);
 }
 
@@ -335,26 +500,64 @@ static void put_exp(uint64_t *e, int var, unsigned x)
     e[w] = (e[w] & ~((uint64_t)GS_POLY_FIELD_MASK << sh)) | (uint64_t)x << sh;
 }
 
+/* One term: x_v^k -> x_to[v]^(top[v] - k) for the flipped v, in order. */
+static void flip_term(uint64_t *e, const int *fv, int nf, const int *to,
+                      const unsigned *top)
+{
+    int j;
+    for (j = 0; j < nf; j++) {
+        int v = fv[j];
+        unsigned k = gs_poly_exp_get(e, v);
+        assert(k <= top[v]);
+        put_exp(e, v, 0);
+        put_exp(e, to[v], gs_poly_exp_get(e, to[v]) + top[v] - k);
+    }
+}
+
+/* The flip reverses the order in each flipped variable and moves its
+   exponents to another place in the order, so the flipped terms come in
+   many short sorted runs.  The bounds of the exponents after the flip
+   follow from the degrees before it, so the keys of the packed sort are
+   made in the same pass as the flip. */
 void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
                        const unsigned *top, const gs_polyctx *ctx)
 {
-    size_t i, nw = (size_t)ctx->nwords;
-    int v;
+    size_t i, n;
+    int *fv = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *fv);
+    unsigned *bound = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *bound);
+    int v, nf = 0, fits = 0;
+    keyplan k;
     if (r != a)
         gs_poly_set(r, a, ctx);
-    for (i = 0; i < r->length; i++) {
-        uint64_t *e = r->exps + i * nw;
-        for (v = 0; v < ctx->nvars; v++) {
-            unsigned k;
-            if (top[v] == 0)
-                continue;
-            k = gs_poly_exp_get(e, v);
-            assert(k <= top[v]);
-            put_exp(e, v, 0);
-            put_exp(e, to[v], gs_poly_exp_get(e, to[v]) + top[v] - k);
+    n = r->length;
+    for (v = 0; v < ctx->nvars; v++)        /* the flipped ones, in order */
+        if (top[v] > 0)
+            fv[nf++] = v;
+    if (n >= PACKED_MIN_TERMS) {
+        gs_poly_degrees(bound, r, ctx);
+        for (v = 0; v < nf; v++) {
+            bound[to[fv[v]]] += top[fv[v]];
+            bound[fv[v]] = 0;
         }
+        fits = keyplan_init(&k, bound, n, ctx);
     }
-    gs_poly_canonicalise(r, ctx);
+    gs_free(bound);
+    if (fits) {
+        uint64_t *x = gs_malloc(n * sizeof *x);
+        for (i = 0; i < n; i++) {
+            uint64_t *e = r->exps + i * (size_t)ctx->nwords;
+            flip_term(e, fv, nf, to, top);
+            x[i] = pack_key(e, i, &k);
+        }
+        if (sort_keys(r, x, &k, ctx))
+            merge_sorted(r, ctx);
+        keyplan_clear(&k);
+    } else {
+        for (i = 0; i < n; i++)
+            flip_term(r->exps + i * (size_t)ctx->nwords, fv, nf, to, top);
+        gs_poly_canonicalise(r, ctx);
+    }
+    gs_free(fv);
 }
 
 void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,

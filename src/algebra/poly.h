@@ -130,6 +130,10 @@ void gs_poly_set_term(gs_poly *r, const gs_int *c, const unsigned *exps,
 void gs_poly_push_term(gs_poly *r, const gs_int *c, const unsigned *exps,
                        const gs_polyctx *ctx);
 void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx);
+/* The same by comparisons of the exponent words alone, whatever the
+   size: the reference that gs_poly_canonicalise's linear-time sort of
+   packed keys (large polynomials, small exponents) is tested against. */
+void gs_poly_canonicalise_compare(gs_poly *r, const gs_polyctx *ctx);
 /* Reserve room for n terms; the value of r is unchanged. */
 void gs_poly_fit(gs_poly *r, size_t n, const gs_polyctx *ctx);
 /* Give back the room past r's terms when it is over a quarter of them
