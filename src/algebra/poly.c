@@ -381,24 +381,41 @@ static uint64_t *radix_desc(uint64_t *x, uint64_t *tmp, size_t n,
 /* Monomials packed into one word with the term's index: each variable
    that may occur gets as many bits as its largest exponent needs,
    variable 0 highest, so the packed keys compare as the exponent vectors
-   do (lexicographically), and the index below them keeps the keys
-   distinct and the sort stable. */
+   do (lexicographically), the index below them keeps the keys distinct
+   and the sort stable, and a key gives its monomial back. */
 typedef struct keyplan {
     int n;              /* variables in the key */
     int *var;           /* which, in increasing order */
+    unsigned *pos;      /* the lowest bit of each in the key */
     unsigned *wid;      /* bits of each */
+    int *word;          /* the word of each in a monomial */
+    unsigned *shift;    /* and its field's shift there */
     unsigned bits;      /* their sum */
     unsigned ib;        /* bits of the index */
 } keyplan;
+
+static void keyplan_clear(keyplan *k)
+{
+    gs_free(k->var);
+    gs_free(k->pos);
+    gs_free(k->wid);
+    gs_free(k->word);
+    gs_free(k->shift);
+}
 
 /* The plan for n terms whose exponents are at most bound[v]; 0 when the
    keys would not fit a word (k is then cleared already). */
 static int keyplan_init(keyplan *k, const unsigned *bound, size_t n,
                         const gs_polyctx *ctx)
 {
-    int v;
-    k->var = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *k->var);
-    k->wid = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *k->wid);
+    size_t nv = (size_t)ctx->nvars + 1;
+    unsigned at;
+    int v, j;
+    k->var = gs_malloc(nv * sizeof *k->var);
+    k->pos = gs_malloc(nv * sizeof *k->pos);
+    k->wid = gs_malloc(nv * sizeof *k->wid);
+    k->word = gs_malloc(nv * sizeof *k->word);
+    k->shift = gs_malloc(nv * sizeof *k->shift);
     k->n = 0;
     k->bits = 0;
     k->ib = bit_length(n - 1);
@@ -407,51 +424,79 @@ static int keyplan_init(keyplan *k, const unsigned *bound, size_t n,
         if (b == 0)
             continue;
         k->var[k->n] = v;
+        k->word[k->n] = v / GS_POLY_VARS_PER_WORD;
+        k->shift[k->n] = (unsigned)gs_poly_field_shift(v);
         k->wid[k->n++] = b;
         k->bits += b;
     }
-    if (k->bits + k->ib <= 64)
-        return 1;
-    gs_free(k->var);
-    gs_free(k->wid);
-    return 0;
-}
-
-static void keyplan_clear(keyplan *k)
-{
-    gs_free(k->var);
-    gs_free(k->wid);
+    if (k->bits + k->ib > 64) {
+        keyplan_clear(k);
+        return 0;
+    }
+    at = k->ib;
+    for (j = k->n; j-- > 0;) {
+        k->pos[j] = at;
+        at += k->wid[j];
+    }
+    return 1;
 }
 
 static uint64_t pack_key(const uint64_t *e, size_t i, const keyplan *k)
 {
-    uint64_t key = 0;
+    uint64_t key = i;
     int j;
     for (j = 0; j < k->n; j++)
-        key = key << k->wid[j] | gs_poly_exp_get(e, k->var[j]);
-    return key << k->ib | i;
+        key += ((e[k->word[j]] >> k->shift[j]) & GS_POLY_FIELD_MASK)
+               << k->pos[j];
+    return key;
+}
+
+/* The monomial of a key, into e (nwords words). */
+static void unpack_key(uint64_t *e, uint64_t key, const keyplan *k,
+                       const gs_polyctx *ctx)
+{
+    int j;
+    memset(e, 0, (size_t)ctx->nwords * sizeof *e);
+    for (j = 0; j < k->n; j++) {
+        uint64_t f = (key >> k->pos[j]) & ((UINT64_C(1) << k->wid[j]) - 1);
+        e[k->word[j]] |= f << k->shift[j];
+    }
 }
 
 /* Put r's terms in the order of their keys x (x is freed): radix sort,
-   so linear in the terms whatever order they come in.  Returns nonzero
-   when two terms have the same monomial (merge_sorted must follow). */
+   so linear in the terms whatever order they come in.  Only the
+   coefficients are moved (in place, cycle by cycle as in apply_perm,
+   the index bits of x marking a slot done); the monomials are written
+   again from the keys, in order, so the large exponent array is never
+   read at random.  Returns nonzero when two terms have the same monomial
+   (merge_sorted must follow). */
 static int sort_keys(gs_poly *r, uint64_t *x, const keyplan *k,
                      const gs_polyctx *ctx)
 {
-    size_t n = r->length, i, *perm;
-    uint64_t *tmp = gs_malloc(n * sizeof *tmp), *sorted;
+    size_t n = r->length, nw = (size_t)ctx->nwords, i, j, t;
+    uint64_t *tmp = gs_malloc(n * sizeof *tmp);
     uint64_t low = (UINT64_C(1) << k->ib) - 1;
+    uint64_t *y = radix_desc(x, tmp, n, k->ib, k->bits);
     int same = 0;
-    sorted = radix_desc(x, tmp, n, k->ib, k->bits);
-    gs_free(sorted == x ? tmp : x);
-    perm = gs_malloc(n * sizeof *perm);
+    gs_int c;
+    gs_free(y == x ? tmp : x);
+    x = y;
     for (i = 0; i < n; i++) {
-        perm[i] = (size_t)(sorted[i] & low);
-        same |= i > 0 && (sorted[i] >> k->ib) == (sorted[i - 1] >> k->ib);
+        if ((x[i] & low) == i)
+            continue;
+        c = r->coeffs[i];
+        for (j = i; (t = (size_t)(x[j] & low)) != i; j = t) {
+            r->coeffs[j] = r->coeffs[t];
+            x[j] = (x[j] & ~low) | j;
+        }
+        r->coeffs[j] = c;
+        x[j] = (x[j] & ~low) | j;
     }
-    gs_free(sorted);
-    apply_perm(r, perm, ctx);
-    gs_free(perm);
+    for (i = 0; i < n; i++) {
+        unpack_key(r->exps + i * nw, x[i], k, ctx);
+        same |= i > 0 && (x[i] >> k->ib) == (x[i - 1] >> k->ib);
+    }
+    gs_free(x);
     return same;
 }
 
@@ -514,50 +559,129 @@ static void flip_term(uint64_t *e, const int *fv, int nf, const int *to,
     }
 }
 
+/* The key of the flipped term straight from the term before the flip:
+   the fields that stay, plus top - k for each flipped x_v^k in the
+   field of to[v] (key = kept + add - sum of k << pos, no field
+   overflowing since each result fits its width). */
+typedef struct keyfield {
+    int word;           /* a field of the monomial before the flip */
+    unsigned shift;
+    unsigned pos;       /* and where it lands in the key */
+} keyfield;
+
+typedef struct flipkey {
+    keyplan k;
+    int nkeep, nflip;
+    keyfield *keep, *flip;  /* fields that stay; the flipped ones */
+    uint64_t add;           /* the sum of top << pos */
+} flipkey;
+
+static keyfield key_field(int v, unsigned pos)
+{
+    keyfield f;
+    f.word = v / GS_POLY_VARS_PER_WORD;
+    f.shift = (unsigned)gs_poly_field_shift(v);
+    f.pos = pos;
+    return f;
+}
+
+/* 0 when the keys do not fit, or when a variable flips into another
+   flipped one (the flips then depend on their order). */
+static int flipkey_init(flipkey *f, const gs_poly *a, const int *to,
+                        const unsigned *top, const gs_polyctx *ctx)
+{
+    size_t nv = (size_t)ctx->nvars + 1;
+    unsigned *deg = gs_malloc(nv * sizeof *deg);
+    unsigned *bound = gs_malloc(nv * sizeof *bound);
+    unsigned *at = gs_calloc(nv, sizeof *at);
+    int v, j, ok = 1;
+    gs_poly_degrees(deg, a, ctx);
+    memcpy(bound, deg, (nv - 1) * sizeof *bound);
+    for (v = 0; v < ctx->nvars; v++)
+        if (top[v] > 0) {
+            ok &= top[to[v]] == 0 && deg[v] <= top[v];
+            bound[to[v]] += top[v];
+            bound[v] = 0;
+        }
+    ok = ok && keyplan_init(&f->k, bound, a->length, ctx);
+    gs_free(bound);
+    if (!ok) {
+        gs_free(deg);
+        gs_free(at);
+        return 0;
+    }
+    for (j = 0; j < f->k.n; j++)
+        at[f->k.var[j]] = f->k.pos[j];
+    f->keep = gs_malloc(nv * sizeof *f->keep);
+    f->flip = gs_malloc(nv * sizeof *f->flip);
+    f->nkeep = f->nflip = 0;
+    f->add = 0;
+    for (v = 0; v < ctx->nvars; v++) {
+        if (top[v] > 0) {
+            f->flip[f->nflip++] = key_field(v, at[to[v]]);
+            f->add += (uint64_t)top[v] << at[to[v]];
+        } else if (deg[v] > 0) {
+            f->keep[f->nkeep++] = key_field(v, at[v]);
+        }
+    }
+    gs_free(deg);
+    gs_free(at);
+    return 1;
+}
+
+static void flipkey_clear(flipkey *f)
+{
+    keyplan_clear(&f->k);
+    gs_free(f->keep);
+    gs_free(f->flip);
+}
+
+static uint64_t flip_key(const uint64_t *e, size_t i, const flipkey *f)
+{
+    uint64_t key = i + f->add;
+    int j;
+    for (j = 0; j < f->nkeep; j++)
+        key += ((e[f->keep[j].word] >> f->keep[j].shift) & GS_POLY_FIELD_MASK)
+               << f->keep[j].pos;
+    for (j = 0; j < f->nflip; j++)
+        key -= ((e[f->flip[j].word] >> f->flip[j].shift) & GS_POLY_FIELD_MASK)
+               << f->flip[j].pos;
+    return key;
+}
+
 /* The flip reverses the order in each flipped variable and moves its
    exponents to another place in the order, so the flipped terms come in
-   many short sorted runs.  The bounds of the exponents after the flip
-   follow from the degrees before it, so the keys of the packed sort are
-   made in the same pass as the flip. */
+   many short sorted runs.  The exponents after the flip are bounded by
+   the degrees before it, so a large polynomial's keys for the packed
+   sort are made straight from its terms, and the sort writes the
+   flipped monomials. */
 void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
                        const unsigned *top, const gs_polyctx *ctx)
 {
     size_t i, n;
     int *fv = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *fv);
-    unsigned *bound = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *bound);
-    int v, nf = 0, fits = 0;
-    keyplan k;
+    int v, nf = 0;
+    flipkey f;
     if (r != a)
         gs_poly_set(r, a, ctx);
     n = r->length;
+    if (n >= PACKED_MIN_TERMS && flipkey_init(&f, r, to, top, ctx)) {
+        uint64_t *x = gs_malloc(n * sizeof *x);
+        for (i = 0; i < n; i++)
+            x[i] = flip_key(term_exps(r, i, ctx), i, &f);
+        if (sort_keys(r, x, &f.k, ctx))
+            merge_sorted(r, ctx);
+        flipkey_clear(&f);
+        gs_free(fv);
+        return;
+    }
     for (v = 0; v < ctx->nvars; v++)        /* the flipped ones, in order */
         if (top[v] > 0)
             fv[nf++] = v;
-    if (n >= PACKED_MIN_TERMS) {
-        gs_poly_degrees(bound, r, ctx);
-        for (v = 0; v < nf; v++) {
-            bound[to[fv[v]]] += top[fv[v]];
-            bound[fv[v]] = 0;
-        }
-        fits = keyplan_init(&k, bound, n, ctx);
-    }
-    gs_free(bound);
-    if (fits) {
-        uint64_t *x = gs_malloc(n * sizeof *x);
-        for (i = 0; i < n; i++) {
-            uint64_t *e = r->exps + i * (size_t)ctx->nwords;
-            flip_term(e, fv, nf, to, top);
-            x[i] = pack_key(e, i, &k);
-        }
-        if (sort_keys(r, x, &k, ctx))
-            merge_sorted(r, ctx);
-        keyplan_clear(&k);
-    } else {
-        for (i = 0; i < n; i++)
-            flip_term(r->exps + i * (size_t)ctx->nwords, fv, nf, to, top);
-        gs_poly_canonicalise(r, ctx);
-    }
+    for (i = 0; i < n; i++)
+        flip_term(r->exps + i * (size_t)ctx->nwords, fv, nf, to, top);
     gs_free(fv);
+    gs_poly_canonicalise(r, ctx);
 }
 
 void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
