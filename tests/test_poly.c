@@ -1445,6 +1445,53 @@ static void loop_flip_packed(const env *e, uint64_t seed0, int n)
     gs_poly_clear(&want);
 }
 
+/* gs_poly_remap and gs_poly_remap_take with random strictly increasing
+   maps of the 4 variables into the 11, against the renaming done term
+   by term here: the monomials are the same, renamed, in the same order
+   (an increasing renaming keeps the lexicographic order). */
+static void loop_remap_maps(const env *e, uint64_t seed0, int n)
+{
+    gs_poly a, m, t, want;
+    unsigned ex[16], ey[16];
+    int map[4], k, v;
+    gs_poly_init(&a);
+    gs_poly_init(&m);
+    gs_poly_init(&t);
+    gs_poly_init(&want);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        size_t i;
+        int at = 0, ok;
+        for (v = 0; v < 4; v++) {       /* increasing, room left for the rest */
+            map[v] = at + (int)rbelow(&r, (unsigned)(11 - at - (3 - v)));
+            at = map[v] + 1;
+        }
+        rand_poly(&a, &r, 1 + rbelow(&r, 60), 4, 1 + rbelow(&r, 40), 30,
+                  e->c4);
+        gs_poly_zero(&want);
+        for (i = 0; i < a.length; i++) {
+            gs_poly_get_term_exps(ex, &a, i, e->c4);
+            memset(ey, 0, sizeof ey);
+            for (v = 0; v < 4; v++)
+                ey[map[v]] = ex[v];
+            gs_poly_push_term(&want, &a.coeffs[i], ey, e->c11);
+        }
+        gs_poly_canonicalise_compare(&want, e->c11);
+        renew(&m);
+        renew(&t);
+        gs_poly_remap(&m, &a, map, e->c4, e->c11);
+        ok = canonical(&m, e->c11) && gs_poly_equal(&m, &want, e->c11);
+        gs_poly_remap_take(&t, &a, map, e->c4, e->c11);
+        ok &= gs_poly_is_zero(&a) && gs_poly_equal(&t, &want, e->c11);
+        CHECK_MSG(ok, "remap maps: seed %llu", (unsigned long long)seed);
+    }
+    gs_poly_clear(&a);
+    gs_poly_clear(&m);
+    gs_poly_clear(&t);
+    gs_poly_clear(&want);
+}
+
 /* Dense shapes that pick the block method by themselves, and sparse
    ones in many variables that pick the heap: all methods agree. */
 static void loop_shapes(const env *e, uint64_t seed0, int n)
@@ -1558,6 +1605,7 @@ int main(int argc, char **argv)
     loop_shapes(&e, seed + 10000, 40);
     loop_flip_remap(&e, seed + 11000, 300);
     loop_packed_sort(&e, seed + 15000, 120);
+    loop_remap_maps(&e, seed + 17000, 200);
     loop_flip_packed(&e, seed + 16000, 80);
     loop_sum_of_products(e.c4, seed + 12000, 300);
     loop_coeffs_var(e.c11, seed + 14000, 200);

@@ -684,28 +684,71 @@ void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
     gs_poly_canonicalise(r, ctx);
 }
 
+/* Renaming variables moves exponent fields between words.  The fields
+   that go from the same word to the same word by the same distance in
+   bits move together, under one mask: a run of variables renamed to a
+   run (the conductances of a circuit, say) moves a word at a time. */
+typedef struct fieldmove {
+    int from, to;       /* words */
+    unsigned left, right;   /* the shift, one of them 0 */
+    uint64_t mask;      /* the fields, in the from word */
+} fieldmove;
+
+/* The moves for map (from->nvars of them at most) into mv; their count. */
+static int plan_moves(fieldmove *mv, const int *map, const gs_polyctx *from)
+{
+    int v, j, n = 0;
+    for (v = 0; v < from->nvars; v++) {
+        int fw = v / GS_POLY_VARS_PER_WORD, tw = map[v] / GS_POLY_VARS_PER_WORD;
+        int fs = gs_poly_field_shift(v), ts = gs_poly_field_shift(map[v]);
+        unsigned left = ts > fs ? (unsigned)(ts - fs) : 0;
+        unsigned right = fs > ts ? (unsigned)(fs - ts) : 0;
+        for (j = 0; j < n; j++)
+            if (mv[j].from == fw && mv[j].to == tw && mv[j].left == left
+                && mv[j].right == right)
+                break;
+        if (j == n) {
+            mv[n].from = fw;
+            mv[n].to = tw;
+            mv[n].left = left;
+            mv[n].right = right;
+            mv[n++].mask = 0;
+        }
+        mv[j].mask |= GS_POLY_FIELD_MASK << fs;
+    }
+    return n;
+}
+
+/* f (nt words) = the monomial e with its fields moved */
+static void apply_moves(uint64_t *f, size_t nt, const uint64_t *e,
+                        const fieldmove *mv, int n)
+{
+    int j;
+    memset(f, 0, nt * sizeof *f);
+    for (j = 0; j < n; j++)
+        f[mv[j].to] |= ((e[mv[j].from] & mv[j].mask) << mv[j].left)
+                       >> mv[j].right;
+}
+
 void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
                    const gs_polyctx *from, const gs_polyctx *to)
 {
     size_t i, nf = (size_t)from->nwords, nt = (size_t)to->nwords;
-    int v;
+    fieldmove *mv;
+    int nmv;
     assert(r != a);
     gs_poly_zero(r);
     if (a->length == 0)
         return;
+    mv = gs_malloc(((size_t)from->nvars + 1) * sizeof *mv);
+    nmv = plan_moves(mv, map, from);
     gs_poly_fit(r, a->length, to);
-    memset(r->exps, 0, a->length * nt * sizeof *r->exps);
     for (i = 0; i < a->length; i++) {
-        const uint64_t *e = a->exps + i * nf;
-        uint64_t *f = r->exps + i * nt;
-        for (v = 0; v < from->nvars; v++) {
-            unsigned x = gs_poly_exp_get(e, v);
-            if (x)
-                put_exp(f, map[v], x);
-        }
+        apply_moves(r->exps + i * nt, nt, a->exps + i * nf, mv, nmv);
         gs_int_init(&r->coeffs[i]);
         gs_int_set(&r->coeffs[i], &a->coeffs[i]);
     }
+    gs_free(mv);
     r->length = a->length;
 }
 
@@ -714,27 +757,24 @@ void gs_poly_remap_take(gs_poly *r, gs_poly *a, const int *map,
 {
     size_t n = a->length, i, nf = (size_t)from->nwords;
     size_t nt = (size_t)to->nwords, step = n / 16 > 65536 ? n / 16 : 65536;
-    int v;
+    fieldmove *mv;
+    int nmv;
     assert(r != a);
     gs_poly_zero(r);
     if (n == 0)
         return;
+    mv = gs_malloc(((size_t)from->nvars + 1) * sizeof *mv);
+    nmv = plan_moves(mv, map, from);
     gs_poly_fit(r, n, to);
     for (i = n; i-- > 0;) {
-        const uint64_t *e = a->exps + i * nf;
-        uint64_t *f = r->exps + i * nt;
-        memset(f, 0, nt * sizeof *f);
-        for (v = 0; v < from->nvars; v++) {
-            unsigned x = gs_poly_exp_get(e, v);
-            if (x)
-                put_exp(f, map[v], x);
-        }
+        apply_moves(r->exps + i * nt, nt, a->exps + i * nf, mv, nmv);
         r->coeffs[i] = a->coeffs[i];        /* moved, not copied */
         if (i % step == 0 && i > 0) {
             a->length = i;                  /* the moved ones are r's */
             gs_poly_shrink(a, from);
         }
     }
+    gs_free(mv);
     r->length = n;
     a->length = 0;
     gs_poly_clear(a);
