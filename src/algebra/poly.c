@@ -455,12 +455,19 @@ static uint64_t pack_key(const uint64_t *e, size_t i, const keyplan *k)
 static void unpack_key(uint64_t *e, uint64_t key, const keyplan *k,
                        const gs_polyctx *ctx)
 {
-    int j;
+    uint64_t cur = 0;
+    int j, w = k->n ? k->word[0] : 0;
     memset(e, 0, (size_t)ctx->nwords * sizeof *e);
-    for (j = 0; j < k->n; j++) {
-        uint64_t f = (key >> k->pos[j]) & ((UINT64_C(1) << k->wid[j]) - 1);
-        e[k->word[j]] |= f << k->shift[j];
+    for (j = 0; j < k->n; j++) {     /* words in increasing order */
+        if (k->word[j] != w) {
+            e[w] = cur;
+            cur = 0;
+            w = k->word[j];
+        }
+        cur |= ((key >> k->pos[j]) & ((UINT64_C(1) << k->wid[j]) - 1))
+               << k->shift[j];
     }
+    e[w] = cur;
 }
 
 /* Put r's terms in the order of their keys x (x is freed): radix sort,
@@ -588,14 +595,18 @@ static keyfield key_field(int v, unsigned pos)
 /* 0 when the keys do not fit, or when a variable flips into another
    flipped one (the flips then depend on their order). */
 static int flipkey_init(flipkey *f, const gs_poly *a, const int *to,
-                        const unsigned *top, const gs_polyctx *ctx)
+                        const unsigned *top, const unsigned *degs,
+                        const gs_polyctx *ctx)
 {
     size_t nv = (size_t)ctx->nvars + 1;
     unsigned *deg = gs_malloc(nv * sizeof *deg);
     unsigned *bound = gs_malloc(nv * sizeof *bound);
     unsigned *at = gs_calloc(nv, sizeof *at);
     int v, j, ok = 1;
-    gs_poly_degrees(deg, a, ctx);
+    if (degs)
+        memcpy(deg, degs, (nv - 1) * sizeof *deg);
+    else
+        gs_poly_degrees(deg, a, ctx);
     memcpy(bound, deg, (nv - 1) * sizeof *bound);
     for (v = 0; v < ctx->nvars; v++)
         if (top[v] > 0) {
@@ -656,7 +667,8 @@ static uint64_t flip_key(const uint64_t *e, size_t i, const flipkey *f)
    sort are made straight from its terms, and the sort writes the
    flipped monomials. */
 void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
-                       const unsigned *top, const gs_polyctx *ctx)
+                       const unsigned *top, const unsigned *degs,
+                       const gs_polyctx *ctx)
 {
     size_t i, n;
     int *fv = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *fv);
@@ -665,7 +677,7 @@ void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
     if (r != a)
         gs_poly_set(r, a, ctx);
     n = r->length;
-    if (n >= PACKED_MIN_TERMS && flipkey_init(&f, r, to, top, ctx)) {
+    if (n >= PACKED_MIN_TERMS && flipkey_init(&f, r, to, top, degs, ctx)) {
         uint64_t *x = gs_malloc(n * sizeof *x);
         for (i = 0; i < n; i++)
             x[i] = flip_key(term_exps(r, i, ctx), i, &f);
@@ -1090,9 +1102,15 @@ void gs_poly_monomial_content(uint64_t *exps, const gs_poly *a,
         return;
     }
     memcpy(exps, a->exps, nw * 8);
-    for (i = 1; i < a->length; i++)
-        for (w = 0; w < nw; w++)
+    for (i = 1; i < a->length; i++) {
+        uint64_t any = 0;
+        for (w = 0; w < nw; w++) {
             exps[w] = gs_poly_fields_min(exps[w], a->exps[i * nw + w]);
+            any |= exps[w];
+        }
+        if (any == 0)       /* the usual end: no variable divides all */
+            return;
+    }
 }
 
 void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx)

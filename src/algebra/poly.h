@@ -146,9 +146,11 @@ void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx);
    every v with top[v] > 0: x_v^k becomes x_to[v]^(top[v] - k), multiplied
    into what x_to[v] had (to[v] != v, k <= top[v]).  For clearing a
    reciprocal symbol r = 1/B: multiplying by B^e turns r^k into B^(e-k).
-   to and top have nvars entries. */
+   to and top have nvars entries; degs is a's gs_poly_degrees when the
+   caller has them (NULL: found here). */
 void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
-                       const unsigned *top, const gs_polyctx *ctx);
+                       const unsigned *top, const unsigned *degs,
+                       const gs_polyctx *ctx);
 /* r (in context to) = a (in context from) with variable v of from renamed
    map[v] of to; map must be strictly increasing, so that the term order
    is kept.  r must not alias a. */
