@@ -1101,8 +1101,11 @@ void gs_poly_monomial_content(uint64_t *exps, const gs_poly *a,
         memset(exps, 0, nw * 8);
         return;
     }
-    memcpy(exps, a->exps, nw * 8);
-    for (i = 1; i < a->length; i++) {
+    /* The last term is the least in lex order: start from it, so that
+       the usual answer (none) comes at once, whichever variable is
+       first. */
+    memcpy(exps, a->exps + (a->length - 1) * nw, nw * 8);
+    for (i = 0; i + 1 < a->length; i++) {
         uint64_t any = 0;
         for (w = 0; w < nw; w++) {
             exps[w] = gs_poly_fields_min(exps[w], a->exps[i * nw + w]);
