@@ -330,12 +330,13 @@ static void sort_compare(gs_poly *r, const gs_polyctx *ctx)
 /* Number of bits of x (0 for 0). */
 static unsigned bit_length(uint64_t x)
 {
-    unsigned b = 0;
-    while (x) {
-        b++;
-        x >>= 1;
-    }
-    return b;
+    unsigned b = 0, h;
+    for (h = 32; h > 0; h >>= 1)        /* binary search for the top bit */
+        if (x >> h) {
+            b += h;
+            x >>= h;
+        }
+    return b + (unsigned)x;
 }
 
 /* Below this many terms the comparison sort is as quick and needs no
@@ -390,6 +391,8 @@ typedef struct keyplan {
     unsigned *wid;      /* bits of each */
     int *word;          /* the word of each in a monomial */
     unsigned *shift;    /* and its field's shift there */
+    int *first;         /* the first variable of the key in that word */
+    int at_bit[64];     /* the variable of the key holding each key bit */
     unsigned bits;      /* their sum */
     unsigned ib;        /* bits of the index */
 } keyplan;
@@ -401,6 +404,7 @@ static void keyplan_clear(keyplan *k)
     gs_free(k->wid);
     gs_free(k->word);
     gs_free(k->shift);
+    gs_free(k->first);
 }
 
 /* The plan for n terms whose exponents are at most bound[v]; 0 when the
@@ -416,6 +420,7 @@ static int keyplan_init(keyplan *k, const unsigned *bound, size_t n,
     k->wid = gs_malloc(nv * sizeof *k->wid);
     k->word = gs_malloc(nv * sizeof *k->word);
     k->shift = gs_malloc(nv * sizeof *k->shift);
+    k->first = gs_malloc(nv * sizeof *k->first);
     k->n = 0;
     k->bits = 0;
     k->ib = bit_length(n - 1);
@@ -435,9 +440,15 @@ static int keyplan_init(keyplan *k, const unsigned *bound, size_t n,
     }
     at = k->ib;
     for (j = k->n; j-- > 0;) {
+        unsigned b;
         k->pos[j] = at;
+        for (b = 0; b < k->wid[j]; b++)
+            k->at_bit[at + b] = j;
         at += k->wid[j];
     }
+    for (j = 0; j < k->n; j++)
+        k->first[j] = j > 0 && k->word[j - 1] == k->word[j] ? k->first[j - 1]
+                                                            : j;
     return 1;
 }
 
@@ -451,14 +462,20 @@ static uint64_t pack_key(const uint64_t *e, size_t i, const keyplan *k)
     return key;
 }
 
-/* The monomial of a key, into e (nwords words). */
-static void unpack_key(uint64_t *e, uint64_t key, const keyplan *k,
-                       const gs_polyctx *ctx)
+/* The monomial of a key into e (nw words), from the word of the key's
+   variable j0 on: the words before it are the caller's. */
+static void unpack_key(uint64_t *e, size_t nw, uint64_t key,
+                       const keyplan *k, int j0)
 {
     uint64_t cur = 0;
-    int j, w = k->n ? k->word[0] : 0;
-    memset(e, 0, (size_t)ctx->nwords * sizeof *e);
-    for (j = 0; j < k->n; j++) {     /* words in increasing order */
+    int j, w;
+    if (j0 >= k->n) {
+        memset(e, 0, nw * sizeof *e);
+        return;
+    }
+    w = k->word[j0];
+    memset(e + w, 0, (nw - (size_t)w) * sizeof *e);
+    for (j = j0; j < k->n; j++) {    /* words in increasing order */
         if (k->word[j] != w) {
             e[w] = cur;
             cur = 0;
@@ -499,9 +516,21 @@ static int sort_keys(gs_poly *r, uint64_t *x, const keyplan *k,
         r->coeffs[j] = c;
         x[j] = (x[j] & ~low) | j;
     }
-    for (i = 0; i < n; i++) {
-        unpack_key(r->exps + i * nw, x[i], k, ctx);
-        same |= i > 0 && (x[i] >> k->ib) == (x[i - 1] >> k->ib);
+    unpack_key(r->exps, nw, x[0], k, 0);
+    for (i = 1; i < n; i++) {
+        /* Sorted keys share long prefixes: the words wholly above the
+           highest bit that differs from the previous key are copied. */
+        uint64_t d = (x[i] ^ x[i - 1]) >> k->ib;
+        uint64_t *e = r->exps + i * nw;
+        int j0;
+        if (d == 0) {
+            same = 1;
+            memcpy(e, e - nw, nw * sizeof *e);
+            continue;
+        }
+        j0 = k->first[k->at_bit[k->ib + bit_length(d) - 1]];
+        memcpy(e, e - nw, (size_t)k->word[j0] * sizeof *e);
+        unpack_key(e, nw, x[i], k, j0);
     }
     gs_free(x);
     return same;
