@@ -2,14 +2,16 @@
  * See LICENSE.
  *
  * The polynomial is the node determinant of an RC ladder of n sections
- * (default 16; the first argument sets it) in the variables the
- * derivation has at that point: s, R1, C1, ..., Rn, Cn, then the
- * conductances G1 = 1/R1, ..., Gn = 1/Rn, the order in which a circuit
- * file interns them.  The admittance matrix is tridiagonal (diagonal
- * Gk + Gk+1 + s Ck, the last Gn + s Cn; off the diagonal -Gk+1), so its
- * determinant is the continuant f_k = a_k f_k-1 - Gk^2 f_k-2, and it has
- * F(2n+1) terms (Fibonacci; the matrix-tree theorem: the ladder's
- * spanning forests), which is checked.
+ * in the variables the derivation has at that point: s, R1, C1, ...,
+ * Rn, Cn, then the conductances G1 = 1/R1, ..., Gn = 1/Rn, the order in
+ * which a circuit file interns them.  n is 14 (514,229 terms, 172 MB in
+ * all) unless the first argument says otherwise; 16 gives the 3,524,578
+ * terms of docs/engine.md and takes 1.2 GB to build.  The admittance
+ * matrix is tridiagonal (diagonal Gk + Gk+1 + s Ck, the last Gn + s Cn;
+ * off the diagonal -Gk+1), so its determinant is a continuant, made from
+ * the far end: f_k = a_k f_k+1 - Gk+1^2 f_k+2.  It has F(2n+1) terms
+ * (Fibonacci; by the matrix-tree theorem, as tests/bench/README.md
+ * notes for the ladders' denominators), which is checked.
  *
  * Timed, each the median of RUNS: gs_poly_flip_vars from G to R (the
  * step that clears the reciprocals) and back, against the same flip of
@@ -121,7 +123,7 @@ static unsigned long fib(int k)
 
 int main(int argc, char **argv)
 {
-    int n = argc > 1 ? atoi(argv[1]) : 16, k, run, ok = 1;
+    int n = argc > 1 ? atoi(argv[1]) : 14, k, run, ok = 1;
     gs_symtab *st = gs_symtab_new();
     gs_polyctx *ctx;
     gs_poly d;
