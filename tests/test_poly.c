@@ -1320,12 +1320,13 @@ static void loop_flip_remap(const env *e, uint64_t seed0, int n)
    bits each) never fit, and take the comparison sort.  Both must give
    the same result as the comparison sort (merge sort: Knuth, TAOCP
    vol. 3, sec. 5.2.4, from memory) and canonical() (written here, apart
-   from the library) must hold. */
+   from the library) must hold.  gs_poly_degree_bounds against the
+   degrees on the same polynomials. */
 static void loop_packed_sort(const env *e, uint64_t seed0, int n)
 {
     const gs_polyctx *ctx = e->c11;
     gs_poly p, q;
-    unsigned ex[16];
+    unsigned ex[16], deg[16], bound[16];
     gs_int c;
     int k, v;
     gs_poly_init(&p);
@@ -1360,6 +1361,13 @@ static void loop_packed_sort(const env *e, uint64_t seed0, int n)
         gs_poly_canonicalise(&p, ctx);
         gs_poly_canonicalise_compare(&q, ctx);
         ok = canonical(&p, ctx) && gs_poly_equal(&p, &q, ctx);
+        /* the OR of numbers up to d is at least their largest and has
+           no more bits than d: d <= bound < 2d (and 0 for d = 0) */
+        gs_poly_degrees(deg, &p, ctx);
+        gs_poly_degree_bounds(bound, &p, ctx);
+        for (v = 0; v < 11; v++)
+            ok &= bound[v] >= deg[v] && (deg[v] == 0 ? bound[v] == 0
+                                                     : bound[v] < 2 * deg[v]);
         CHECK_MSG(ok, "packed sort: seed %llu", (unsigned long long)seed);
     }
     gs_int_clear(&c);

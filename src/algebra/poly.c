@@ -1158,6 +1158,20 @@ void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx)
     gs_free(m);
 }
 
+void gs_poly_degree_bounds(unsigned *bounds, const gs_poly *a,
+                           const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords, w;
+    uint64_t *m = gs_calloc(nw, 8);
+    int v;
+    for (i = 0; i < a->length; i++)
+        for (w = 0; w < nw; w++)
+            m[w] |= a->exps[i * nw + w];
+    for (v = 0; v < ctx->nvars; v++)
+        bounds[v] = gs_poly_exp_get(m, v);
+    gs_free(m);
+}
+
 long gs_poly_degree(const gs_poly *a, int var, const gs_polyctx *ctx)
 {
     size_t i;

@@ -141,6 +141,11 @@ void gs_poly_fit(gs_poly *r, size_t n, const gs_polyctx *ctx);
 void gs_poly_shrink(gs_poly *r, const gs_polyctx *ctx);
 /* degs[v] = degree of a in variable v for v < nvars (all 0 for a = 0). */
 void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx);
+/* bounds[v] >= the degree in v with the same number of bits (the OR of
+   the exponents, so below twice the degree): for checks that need only
+   the size, at one OR a word instead of gs_poly_degrees' field maxima. */
+void gs_poly_degree_bounds(unsigned *bounds, const gs_poly *a,
+                           const gs_polyctx *ctx);
 
 /* r = a with variable v replaced by a monomial in variable to[v] for
    every v with top[v] > 0: x_v^k becomes x_to[v]^(top[v] - k), multiplied
