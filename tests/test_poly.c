@@ -1271,7 +1271,7 @@ static void loop_flip_remap(const env *e, uint64_t seed0, int n)
         for (v = 0; v < 4; v++)
             vals[v] = (long double)(1 << rbelow(&r, 3))
                       * (rnext(&r) & 1 ? -1 : 1);
-        gs_poly_flip_vars(&f, &a, to, top, c4);
+        gs_poly_flip_vars(&f, &a, to, top, NULL, c4);
         ok &= canonical(&f, c4) && gs_poly_degree(&f, x, c4) <= 0;
         want = gs_poly_eval_ld(&f, vals, c4);
         vals[x] = 1 / vals[y];
@@ -1311,6 +1311,193 @@ static void loop_flip_remap(const env *e, uint64_t seed0, int n)
     gs_poly_clear(&a);
     gs_poly_clear(&f);
     gs_poly_clear(&m);
+}
+
+/* Terms in any order, with repeats and zero coefficients: up to 4000
+   terms in the 11 variables.  With exponents below 4 (2 bits each, 22
+   in all, and 12 of index) the keys fit a word and a polynomial of 1024
+   terms or more takes the packed radix sort; exponents up to 2000 (11
+   bits each) never fit, and take the comparison sort.  Both must give
+   the same result as the comparison sort (merge sort: Knuth, TAOCP
+   vol. 3, sec. 5.2.4, from memory) and canonical() (written here, apart
+   from the library) must hold.  gs_poly_degree_bounds against the
+   degrees on the same polynomials. */
+static void loop_packed_sort(const env *e, uint64_t seed0, int n)
+{
+    const gs_polyctx *ctx = e->c11;
+    gs_poly p, q;
+    unsigned ex[16], deg[16], bound[16];
+    gs_int c;
+    int k, v;
+    gs_poly_init(&p);
+    gs_poly_init(&q);
+    gs_int_init(&c);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        unsigned nt = k % 4 == 0 ? 1 + rbelow(&r, 1100) : 900 + rbelow(&r, 3100);
+        unsigned maxe = k % 5 == 4 ? 2000 : 1 + rbelow(&r, 3), t;
+        int nv = 1 + (int)rbelow(&r, 11), ok;
+        gs_poly_zero(&p);
+        gs_poly_zero(&q);
+        for (t = 0; t < nt; t++) {
+            memset(ex, 0, sizeof ex);
+            for (v = 0; v < nv; v++)
+                if (rnext(&r) & 1)
+                    ex[v] = rbelow(&r, maxe + 1);
+            if (rbelow(&r, 8) == 0)
+                gs_int_set_si(&c, 0);
+            else
+                rand_int(&c, &r, 1 + rbelow(&r, 90));
+            gs_poly_push_term(&p, &c, ex, ctx);
+            gs_poly_push_term(&q, &c, ex, ctx);
+            if (rbelow(&r, 6) == 0) {          /* a repeat, maybe cancelling */
+                if (rnext(&r) & 1)
+                    gs_int_neg(&c, &c);
+                gs_poly_push_term(&p, &c, ex, ctx);
+                gs_poly_push_term(&q, &c, ex, ctx);
+            }
+        }
+        gs_poly_canonicalise(&p, ctx);
+        gs_poly_canonicalise_compare(&q, ctx);
+        ok = canonical(&p, ctx) && gs_poly_equal(&p, &q, ctx);
+        /* the OR of numbers up to d is at least their largest and has
+           no more bits than d: d <= bound < 2d (and 0 for d = 0) */
+        gs_poly_degrees(deg, &p, ctx);
+        gs_poly_degree_bounds(bound, &p, ctx);
+        for (v = 0; v < 11; v++)
+            ok &= bound[v] >= deg[v] && (deg[v] == 0 ? bound[v] == 0
+                                                     : bound[v] < 2 * deg[v]);
+        CHECK_MSG(ok, "packed sort: seed %llu", (unsigned long long)seed);
+    }
+    gs_int_clear(&c);
+    gs_poly_clear(&p);
+    gs_poly_clear(&q);
+}
+
+/* gs_poly_flip_vars on large polynomials with random flipped sets, some
+   targets occurring in a (so that flipped terms meet and add up), top
+   at least the degree: against the definition done term by term here
+   and sorted by the comparison sort alone.  Most cases fit the packed
+   keys; top up to 1500 in several variables does not. */
+static void loop_flip_packed(const env *e, uint64_t seed0, int n)
+{
+    const gs_polyctx *ctx = e->c11;
+    gs_poly a, f, want;
+    unsigned degs[16], top[16], ex[16];
+    int to[16], flipped[16], k, v;
+    gs_poly_init(&a);
+    gs_poly_init(&f);
+    gs_poly_init(&want);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        unsigned maxe = k % 6 == 5 ? 700 : 1 + rbelow(&r, 3);
+        size_t i;
+        int nf = 0, nkept = 0, kept[16], ok;
+        rand_poly(&a, &r, 600 + rbelow(&r, 3000), 11, maxe,
+                  1 + rbelow(&r, 70), ctx);
+        gs_poly_degrees(degs, &a, ctx);
+        for (v = 0; v < 11; v++) {
+            flipped[v] = v > 0 && rbelow(&r, 3) == 0;
+            nf += flipped[v];
+            if (!flipped[v])
+                kept[nkept++] = v;
+        }
+        memset(top, 0, sizeof top);
+        memset(to, 0, sizeof to);
+        for (v = 0; v < 11; v++)
+            if (flipped[v]) {       /* into a variable that is not flipped */
+                to[v] = kept[rbelow(&r, (unsigned)nkept)];
+                top[v] = degs[v] + rbelow(&r, 2);
+                if (top[v] == 0)
+                    top[v] = 1;
+            }
+        gs_poly_zero(&want);
+        for (i = 0; i < a.length; i++) {
+            gs_poly_get_term_exps(ex, &a, i, ctx);
+            for (v = 0; v < 11; v++)
+                if (flipped[v]) {
+                    ex[to[v]] += top[v] - ex[v];
+                    ex[v] = 0;
+                }
+            gs_poly_push_term(&want, &a.coeffs[i], ex, ctx);
+        }
+        gs_poly_canonicalise_compare(&want, ctx);
+        gs_poly_flip_vars(&f, &a, to, top, degs, ctx);
+        ok = canonical(&f, ctx) && gs_poly_equal(&f, &want, ctx);
+        gs_poly_flip_vars(&a, &a, to, top, NULL, ctx);      /* aliased */
+        ok &= gs_poly_equal(&a, &want, ctx);
+        CHECK_MSG(ok, "flip, packed: seed %llu (%d flipped)",
+                  (unsigned long long)seed, nf);
+    }
+    /* x^n f(1/x) is the reciprocal polynomial (a fact of algebra): for
+       f = (1 + x + z + t)^20, of C(23, 3) = 1771 terms (stars and bars),
+       flipping x into y with top 20 gives (y + 1 + y z + y t)^20. */
+    renew(&a);
+    renew(&f);
+    renew(&want);
+    parse(&a, "1 + x + z + t", e->c4);
+    gs_poly_pow_ui(&a, &a, 20, e->c4);
+    CHECK(a.length == 1771);
+    memset(top, 0, sizeof top);
+    memset(to, 0, sizeof to);
+    to[0] = 1;
+    top[0] = 20;
+    gs_poly_flip_vars(&f, &a, to, top, NULL, e->c4);
+    parse(&want, "y + 1 + y*z + y*t", e->c4);
+    gs_poly_pow_ui(&want, &want, 20, e->c4);
+    CHECK(canonical(&f, e->c4) && gs_poly_equal(&f, &want, e->c4));
+    gs_poly_clear(&a);
+    gs_poly_clear(&f);
+    gs_poly_clear(&want);
+}
+
+/* gs_poly_remap and gs_poly_remap_take with random strictly increasing
+   maps of the 4 variables into the 11, against the renaming done term
+   by term here: the monomials are the same, renamed, in the same order
+   (an increasing renaming keeps the lexicographic order). */
+static void loop_remap_maps(const env *e, uint64_t seed0, int n)
+{
+    gs_poly a, m, t, want;
+    unsigned ex[16], ey[16];
+    int map[4], k, v;
+    gs_poly_init(&a);
+    gs_poly_init(&m);
+    gs_poly_init(&t);
+    gs_poly_init(&want);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        size_t i;
+        int at = 0, ok;
+        for (v = 0; v < 4; v++) {       /* increasing, room left for the rest */
+            map[v] = at + (int)rbelow(&r, (unsigned)(11 - at - (3 - v)));
+            at = map[v] + 1;
+        }
+        rand_poly(&a, &r, 1 + rbelow(&r, 60), 4, 1 + rbelow(&r, 40), 30,
+                  e->c4);
+        gs_poly_zero(&want);
+        for (i = 0; i < a.length; i++) {
+            gs_poly_get_term_exps(ex, &a, i, e->c4);
+            memset(ey, 0, sizeof ey);
+            for (v = 0; v < 4; v++)
+                ey[map[v]] = ex[v];
+            gs_poly_push_term(&want, &a.coeffs[i], ey, e->c11);
+        }
+        gs_poly_canonicalise_compare(&want, e->c11);
+        renew(&m);
+        renew(&t);
+        gs_poly_remap(&m, &a, map, e->c4, e->c11);
+        ok = canonical(&m, e->c11) && gs_poly_equal(&m, &want, e->c11);
+        gs_poly_remap_take(&t, &a, map, e->c4, e->c11);
+        ok &= gs_poly_is_zero(&a) && gs_poly_equal(&t, &want, e->c11);
+        CHECK_MSG(ok, "remap maps: seed %llu", (unsigned long long)seed);
+    }
+    gs_poly_clear(&a);
+    gs_poly_clear(&m);
+    gs_poly_clear(&t);
+    gs_poly_clear(&want);
 }
 
 /* Dense shapes that pick the block method by themselves, and sparse
@@ -1493,6 +1680,9 @@ int main(int argc, char **argv)
     loop_subst_eval(e.c11, seed + 9000, 200);
     loop_shapes(&e, seed + 10000, 40);
     loop_flip_remap(&e, seed + 11000, 300);
+    loop_packed_sort(&e, seed + 15000, 120);
+    loop_remap_maps(&e, seed + 17000, 200);
+    loop_flip_packed(&e, seed + 16000, 80);
     loop_sum_of_products(e.c4, seed + 12000, 300);
     loop_coeffs_var(e.c11, seed + 14000, 200);
     loop_sum_of_products(e.c11, seed + 13000, 300);

@@ -313,11 +313,10 @@ static void merge_sorted(gs_poly *r, const gs_polyctx *ctx)
     r->length = w;
 }
 
-void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
+/* The comparison sort: any monomials, n log n comparisons of the words. */
+static void sort_compare(gs_poly *r, const gs_polyctx *ctx)
 {
     size_t n = r->length, i, *perm, *tmp;
-    if (is_canonical(r, ctx))
-        return;
     perm = gs_malloc((n + 1) * sizeof *perm);
     tmp = gs_malloc((n + 1) * sizeof *tmp);
     for (i = 0; i < n; i++)
@@ -326,6 +325,253 @@ void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
     gs_free(tmp);
     apply_perm(r, perm, ctx);
     gs_free(perm);
+}
+
+/* Number of bits of x (0 for 0). */
+static unsigned bit_length(uint64_t x)
+{
+    unsigned b = 0, h;
+    for (h = 32; h > 0; h >>= 1)        /* binary search for the top bit */
+        if (x >> h) {
+            b += h;
+            x >>= h;
+        }
+    return b + (unsigned)x;
+}
+
+/* Below this many terms the comparison sort is as quick and needs no
+   bucket counts. */
+#define PACKED_MIN_TERMS 1024
+/* Radix digits of at most this many bits: 2^11 counts fit a cache. */
+#define PACKED_DIGIT_BITS 11
+
+/* Stable LSD radix sort of x[0 .. n-1] by bits [lo, lo + bits), into
+   decreasing order (Knuth, TAOCP vol. 3, sec. 5.2.5, from memory); tmp
+   has room for n.  A pass whose digit is the same in every word is
+   skipped.  Returns the array that holds the result (x or tmp). */
+static uint64_t *radix_desc(uint64_t *x, uint64_t *tmp, size_t n,
+                            unsigned lo, unsigned bits)
+{
+    size_t count[1u << PACKED_DIGIT_BITS], i, at;
+    unsigned passes = (bits + PACKED_DIGIT_BITS - 1) / PACKED_DIGIT_BITS;
+    unsigned d = passes ? (bits + passes - 1) / passes : 0, p, k, nb;
+    for (p = 0; p < passes; p++) {
+        unsigned sh = lo + p * d, dd = bits - p * d < d ? bits - p * d : d;
+        uint64_t mask = (UINT64_C(1) << dd) - 1, *t;
+        nb = 1u << dd;
+        memset(count, 0, nb * sizeof *count);
+        for (i = 0; i < n; i++)
+            count[(x[i] >> sh) & mask]++;
+        if (count[(x[0] >> sh) & mask] == n)
+            continue;
+        at = 0;                         /* the largest digit first */
+        for (k = nb; k-- > 0;) {
+            size_t c = count[k];
+            count[k] = at;
+            at += c;
+        }
+        for (i = 0; i < n; i++)
+            tmp[count[(x[i] >> sh) & mask]++] = x[i];
+        t = x;
+        x = tmp;
+        tmp = t;
+    }
+    return x;
+}
+
+/* Monomials packed into one word with the term's index: each variable
+   that may occur gets as many bits as its largest exponent needs,
+   variable 0 highest, so the packed keys compare as the exponent vectors
+   do (lexicographically), the index below them keeps the keys distinct
+   and the sort stable, and a key gives its monomial back. */
+typedef struct keyplan {
+    int n;              /* variables in the key */
+    int *var;           /* which, in increasing order */
+    unsigned *pos;      /* the lowest bit of each in the key */
+    unsigned *wid;      /* bits of each */
+    int *word;          /* the word of each in a monomial */
+    unsigned *shift;    /* and its field's shift there */
+    int *first;         /* the first variable of the key in that word */
+    int at_bit[64];     /* the variable of the key holding each key bit */
+    unsigned bits;      /* their sum */
+    unsigned ib;        /* bits of the index */
+} keyplan;
+
+static void keyplan_clear(keyplan *k)
+{
+    gs_free(k->var);
+    gs_free(k->pos);
+    gs_free(k->wid);
+    gs_free(k->word);
+    gs_free(k->shift);
+    gs_free(k->first);
+}
+
+/* The plan for n terms whose exponents are at most bound[v]; 0 when the
+   keys would not fit a word (k is then cleared already). */
+static int keyplan_init(keyplan *k, const unsigned *bound, size_t n,
+                        const gs_polyctx *ctx)
+{
+    size_t nv = (size_t)ctx->nvars + 1;
+    unsigned at;
+    int v, j;
+    k->var = gs_malloc(nv * sizeof *k->var);
+    k->pos = gs_malloc(nv * sizeof *k->pos);
+    k->wid = gs_malloc(nv * sizeof *k->wid);
+    k->word = gs_malloc(nv * sizeof *k->word);
+    k->shift = gs_malloc(nv * sizeof *k->shift);
+    k->first = gs_malloc(nv * sizeof *k->first);
+    k->n = 0;
+    k->bits = 0;
+    k->ib = bit_length(n - 1);
+    for (v = 0; v < ctx->nvars; v++) {
+        unsigned b = bit_length(bound[v]);
+        if (b == 0)
+            continue;
+        k->var[k->n] = v;
+        k->word[k->n] = v / GS_POLY_VARS_PER_WORD;
+        k->shift[k->n] = (unsigned)gs_poly_field_shift(v);
+        k->wid[k->n++] = b;
+        k->bits += b;
+    }
+    if (k->bits + k->ib > 64) {
+        keyplan_clear(k);
+        return 0;
+    }
+    at = k->ib;
+    for (j = k->n; j-- > 0;) {
+        unsigned b;
+        k->pos[j] = at;
+        for (b = 0; b < k->wid[j]; b++)
+            k->at_bit[at + b] = j;
+        at += k->wid[j];
+    }
+    for (j = 0; j < k->n; j++)
+        k->first[j] = j > 0 && k->word[j - 1] == k->word[j] ? k->first[j - 1]
+                                                            : j;
+    return 1;
+}
+
+static uint64_t pack_key(const uint64_t *e, size_t i, const keyplan *k)
+{
+    uint64_t key = i;
+    int j;
+    for (j = 0; j < k->n; j++)
+        key += ((e[k->word[j]] >> k->shift[j]) & GS_POLY_FIELD_MASK)
+               << k->pos[j];
+    return key;
+}
+
+/* The monomial of a key into e (nw words), from the word of the key's
+   variable j0 on: the words before it are the caller's. */
+static void unpack_key(uint64_t *e, size_t nw, uint64_t key,
+                       const keyplan *k, int j0)
+{
+    uint64_t cur = 0;
+    int j, w;
+    if (j0 >= k->n) {
+        memset(e, 0, nw * sizeof *e);
+        return;
+    }
+    w = k->word[j0];
+    memset(e + w, 0, (nw - (size_t)w) * sizeof *e);
+    for (j = j0; j < k->n; j++) {    /* words in increasing order */
+        if (k->word[j] != w) {
+            e[w] = cur;
+            cur = 0;
+            w = k->word[j];
+        }
+        cur |= ((key >> k->pos[j]) & ((UINT64_C(1) << k->wid[j]) - 1))
+               << k->shift[j];
+    }
+    e[w] = cur;
+}
+
+/* Put r's terms in the order of their keys x (x is freed): radix sort,
+   so linear in the terms whatever order they come in.  Only the
+   coefficients are moved (in place, cycle by cycle as in apply_perm,
+   the index bits of x marking a slot done); the monomials are written
+   again from the keys, in order, so the large exponent array is never
+   read at random.  Returns nonzero when two terms have the same monomial
+   (merge_sorted must follow). */
+static int sort_keys(gs_poly *r, uint64_t *x, const keyplan *k,
+                     const gs_polyctx *ctx)
+{
+    size_t n = r->length, nw = (size_t)ctx->nwords, i, j, t;
+    uint64_t *tmp = gs_malloc(n * sizeof *tmp);
+    uint64_t low = (UINT64_C(1) << k->ib) - 1;
+    uint64_t *y = radix_desc(x, tmp, n, k->ib, k->bits);
+    int same = 0;
+    gs_int c;
+    gs_free(y == x ? tmp : x);
+    x = y;
+    for (i = 0; i < n; i++) {
+        if ((x[i] & low) == i)
+            continue;
+        c = r->coeffs[i];
+        for (j = i; (t = (size_t)(x[j] & low)) != i; j = t) {
+            r->coeffs[j] = r->coeffs[t];
+            x[j] = (x[j] & ~low) | j;
+        }
+        r->coeffs[j] = c;
+        x[j] = (x[j] & ~low) | j;
+    }
+    unpack_key(r->exps, nw, x[0], k, 0);
+    for (i = 1; i < n; i++) {
+        /* Sorted keys share long prefixes: the words wholly above the
+           highest bit that differs from the previous key are copied. */
+        uint64_t d = (x[i] ^ x[i - 1]) >> k->ib;
+        uint64_t *e = r->exps + i * nw;
+        int j0;
+        if (d == 0) {
+            same = 1;
+            memcpy(e, e - nw, nw * sizeof *e);
+            continue;
+        }
+        j0 = k->first[k->at_bit[k->ib + bit_length(d) - 1]];
+        memcpy(e, e - nw, (size_t)k->word[j0] * sizeof *e);
+        unpack_key(e, nw, x[i], k, j0);
+    }
+    gs_free(x);
+    return same;
+}
+
+/* The order of sort_compare by packed keys; 0, doing nothing, when they
+   do not fit.  One pass finds the largest exponents, one packs. */
+static int sort_packed(gs_poly *r, const gs_polyctx *ctx)
+{
+    size_t n = r->length, i;
+    unsigned *deg = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *deg);
+    uint64_t *x;
+    keyplan k;
+    int fits;
+    gs_poly_degrees(deg, r, ctx);
+    fits = keyplan_init(&k, deg, n, ctx);
+    gs_free(deg);
+    if (!fits)
+        return 0;
+    x = gs_malloc(n * sizeof *x);
+    for (i = 0; i < n; i++)
+        x[i] = pack_key(term_exps(r, i, ctx), i, &k);
+    sort_keys(r, x, &k, ctx);
+    keyplan_clear(&k);
+    return 1;
+}
+
+void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx)
+{
+    if (is_canonical(r, ctx))
+        return;
+    if (r->length < PACKED_MIN_TERMS || !sort_packed(r, ctx))
+        sort_compare(r, ctx);
+    merge_sorted(r, ctx);
+}
+
+void gs_poly_canonicalise_compare(gs_poly *r, const gs_polyctx *ctx)
+{
+    if (is_canonical(r, ctx))
+        return;
+    sort_compare(r, ctx);
     merge_sorted(r, ctx);
 }
 
@@ -335,50 +581,215 @@ static void put_exp(uint64_t *e, int var, unsigned x)
     e[w] = (e[w] & ~((uint64_t)GS_POLY_FIELD_MASK << sh)) | (uint64_t)x << sh;
 }
 
-void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
-                       const unsigned *top, const gs_polyctx *ctx)
+/* One term: x_v^k -> x_to[v]^(top[v] - k) for the flipped v, in order. */
+static void flip_term(uint64_t *e, const int *fv, int nf, const int *to,
+                      const unsigned *top)
 {
-    size_t i, nw = (size_t)ctx->nwords;
-    int v;
-    if (r != a)
-        gs_poly_set(r, a, ctx);
-    for (i = 0; i < r->length; i++) {
-        uint64_t *e = r->exps + i * nw;
-        for (v = 0; v < ctx->nvars; v++) {
-            unsigned k;
-            if (top[v] == 0)
-                continue;
-            k = gs_poly_exp_get(e, v);
-            assert(k <= top[v]);
-            put_exp(e, v, 0);
-            put_exp(e, to[v], gs_poly_exp_get(e, to[v]) + top[v] - k);
+    int j;
+    for (j = 0; j < nf; j++) {
+        int v = fv[j];
+        unsigned k = gs_poly_exp_get(e, v);
+        assert(k <= top[v]);
+        put_exp(e, v, 0);
+        put_exp(e, to[v], gs_poly_exp_get(e, to[v]) + top[v] - k);
+    }
+}
+
+/* The key of the flipped term straight from the term before the flip:
+   the fields that stay, plus top - k for each flipped x_v^k in the
+   field of to[v] (key = kept + add - sum of k << pos, no field
+   overflowing since each result fits its width). */
+typedef struct keyfield {
+    int word;           /* a field of the monomial before the flip */
+    unsigned shift;
+    unsigned pos;       /* and where it lands in the key */
+} keyfield;
+
+typedef struct flipkey {
+    keyplan k;
+    int nkeep, nflip;
+    keyfield *keep, *flip;  /* fields that stay; the flipped ones */
+    uint64_t add;           /* the sum of top << pos */
+} flipkey;
+
+static keyfield key_field(int v, unsigned pos)
+{
+    keyfield f;
+    f.word = v / GS_POLY_VARS_PER_WORD;
+    f.shift = (unsigned)gs_poly_field_shift(v);
+    f.pos = pos;
+    return f;
+}
+
+/* 0 when the keys do not fit, or when a variable flips into another
+   flipped one (the flips then depend on their order). */
+static int flipkey_init(flipkey *f, const gs_poly *a, const int *to,
+                        const unsigned *top, const unsigned *degs,
+                        const gs_polyctx *ctx)
+{
+    size_t nv = (size_t)ctx->nvars + 1;
+    unsigned *deg = gs_malloc(nv * sizeof *deg);
+    unsigned *bound = gs_malloc(nv * sizeof *bound);
+    unsigned *at = gs_calloc(nv, sizeof *at);
+    int v, j, ok = 1;
+    if (degs)
+        memcpy(deg, degs, (nv - 1) * sizeof *deg);
+    else
+        gs_poly_degrees(deg, a, ctx);
+    memcpy(bound, deg, (nv - 1) * sizeof *bound);
+    for (v = 0; v < ctx->nvars; v++)
+        if (top[v] > 0) {
+            ok &= top[to[v]] == 0 && deg[v] <= top[v];
+            bound[to[v]] += top[v];
+            bound[v] = 0;
+        }
+    ok = ok && keyplan_init(&f->k, bound, a->length, ctx);
+    gs_free(bound);
+    if (!ok) {
+        gs_free(deg);
+        gs_free(at);
+        return 0;
+    }
+    for (j = 0; j < f->k.n; j++)
+        at[f->k.var[j]] = f->k.pos[j];
+    f->keep = gs_malloc(nv * sizeof *f->keep);
+    f->flip = gs_malloc(nv * sizeof *f->flip);
+    f->nkeep = f->nflip = 0;
+    f->add = 0;
+    for (v = 0; v < ctx->nvars; v++) {
+        if (top[v] > 0) {
+            f->flip[f->nflip++] = key_field(v, at[to[v]]);
+            f->add += (uint64_t)top[v] << at[to[v]];
+        } else if (deg[v] > 0) {
+            f->keep[f->nkeep++] = key_field(v, at[v]);
         }
     }
+    gs_free(deg);
+    gs_free(at);
+    return 1;
+}
+
+static void flipkey_clear(flipkey *f)
+{
+    keyplan_clear(&f->k);
+    gs_free(f->keep);
+    gs_free(f->flip);
+}
+
+static uint64_t flip_key(const uint64_t *e, size_t i, const flipkey *f)
+{
+    uint64_t key = i + f->add;
+    int j;
+    for (j = 0; j < f->nkeep; j++)
+        key += ((e[f->keep[j].word] >> f->keep[j].shift) & GS_POLY_FIELD_MASK)
+               << f->keep[j].pos;
+    for (j = 0; j < f->nflip; j++)
+        key -= ((e[f->flip[j].word] >> f->flip[j].shift) & GS_POLY_FIELD_MASK)
+               << f->flip[j].pos;
+    return key;
+}
+
+/* The flip reverses the order in each flipped variable and moves its
+   exponents to another place in the order, so the flipped terms come in
+   many short sorted runs.  The exponents after the flip are bounded by
+   the degrees before it, so a large polynomial's keys for the packed
+   sort are made straight from its terms, and the sort writes the
+   flipped monomials. */
+void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
+                       const unsigned *top, const unsigned *degs,
+                       const gs_polyctx *ctx)
+{
+    size_t i, n;
+    int *fv = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *fv);
+    int v, nf = 0;
+    flipkey f;
+    if (r != a)
+        gs_poly_set(r, a, ctx);
+    n = r->length;
+    if (n >= PACKED_MIN_TERMS && flipkey_init(&f, r, to, top, degs, ctx)) {
+        uint64_t *x = gs_malloc(n * sizeof *x);
+        for (i = 0; i < n; i++)
+            x[i] = flip_key(term_exps(r, i, ctx), i, &f);
+        if (sort_keys(r, x, &f.k, ctx))
+            merge_sorted(r, ctx);
+        flipkey_clear(&f);
+        gs_free(fv);
+        return;
+    }
+    for (v = 0; v < ctx->nvars; v++)        /* the flipped ones, in order */
+        if (top[v] > 0)
+            fv[nf++] = v;
+    for (i = 0; i < n; i++)
+        flip_term(r->exps + i * (size_t)ctx->nwords, fv, nf, to, top);
+    gs_free(fv);
     gs_poly_canonicalise(r, ctx);
+}
+
+/* Renaming variables moves exponent fields between words.  The fields
+   that go from the same word to the same word by the same distance in
+   bits move together, under one mask: a run of variables renamed to a
+   run (the conductances of a circuit, say) moves a word at a time. */
+typedef struct fieldmove {
+    int from, to;       /* words */
+    unsigned left, right;   /* the shift, one of them 0 */
+    uint64_t mask;      /* the fields, in the from word */
+} fieldmove;
+
+/* The moves for map (from->nvars of them at most) into mv; their count. */
+static int plan_moves(fieldmove *mv, const int *map, const gs_polyctx *from)
+{
+    int v, j, n = 0;
+    for (v = 0; v < from->nvars; v++) {
+        int fw = v / GS_POLY_VARS_PER_WORD, tw = map[v] / GS_POLY_VARS_PER_WORD;
+        int fs = gs_poly_field_shift(v), ts = gs_poly_field_shift(map[v]);
+        unsigned left = ts > fs ? (unsigned)(ts - fs) : 0;
+        unsigned right = fs > ts ? (unsigned)(fs - ts) : 0;
+        for (j = 0; j < n; j++)
+            if (mv[j].from == fw && mv[j].to == tw && mv[j].left == left
+                && mv[j].right == right)
+                break;
+        if (j == n) {
+            mv[n].from = fw;
+            mv[n].to = tw;
+            mv[n].left = left;
+            mv[n].right = right;
+            mv[n++].mask = 0;
+        }
+        mv[j].mask |= GS_POLY_FIELD_MASK << fs;
+    }
+    return n;
+}
+
+/* f (nt words) = the monomial e with its fields moved */
+static void apply_moves(uint64_t *f, size_t nt, const uint64_t *e,
+                        const fieldmove *mv, int n)
+{
+    int j;
+    memset(f, 0, nt * sizeof *f);
+    for (j = 0; j < n; j++)
+        f[mv[j].to] |= ((e[mv[j].from] & mv[j].mask) << mv[j].left)
+                       >> mv[j].right;
 }
 
 void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
                    const gs_polyctx *from, const gs_polyctx *to)
 {
     size_t i, nf = (size_t)from->nwords, nt = (size_t)to->nwords;
-    int v;
+    fieldmove *mv;
+    int nmv;
     assert(r != a);
     gs_poly_zero(r);
     if (a->length == 0)
         return;
+    mv = gs_malloc(((size_t)from->nvars + 1) * sizeof *mv);
+    nmv = plan_moves(mv, map, from);
     gs_poly_fit(r, a->length, to);
-    memset(r->exps, 0, a->length * nt * sizeof *r->exps);
     for (i = 0; i < a->length; i++) {
-        const uint64_t *e = a->exps + i * nf;
-        uint64_t *f = r->exps + i * nt;
-        for (v = 0; v < from->nvars; v++) {
-            unsigned x = gs_poly_exp_get(e, v);
-            if (x)
-                put_exp(f, map[v], x);
-        }
+        apply_moves(r->exps + i * nt, nt, a->exps + i * nf, mv, nmv);
         gs_int_init(&r->coeffs[i]);
         gs_int_set(&r->coeffs[i], &a->coeffs[i]);
     }
+    gs_free(mv);
     r->length = a->length;
 }
 
@@ -387,27 +798,24 @@ void gs_poly_remap_take(gs_poly *r, gs_poly *a, const int *map,
 {
     size_t n = a->length, i, nf = (size_t)from->nwords;
     size_t nt = (size_t)to->nwords, step = n / 16 > 65536 ? n / 16 : 65536;
-    int v;
+    fieldmove *mv;
+    int nmv;
     assert(r != a);
     gs_poly_zero(r);
     if (n == 0)
         return;
+    mv = gs_malloc(((size_t)from->nvars + 1) * sizeof *mv);
+    nmv = plan_moves(mv, map, from);
     gs_poly_fit(r, n, to);
     for (i = n; i-- > 0;) {
-        const uint64_t *e = a->exps + i * nf;
-        uint64_t *f = r->exps + i * nt;
-        memset(f, 0, nt * sizeof *f);
-        for (v = 0; v < from->nvars; v++) {
-            unsigned x = gs_poly_exp_get(e, v);
-            if (x)
-                put_exp(f, map[v], x);
-        }
+        apply_moves(r->exps + i * nt, nt, a->exps + i * nf, mv, nmv);
         r->coeffs[i] = a->coeffs[i];        /* moved, not copied */
         if (i % step == 0 && i > 0) {
             a->length = i;                  /* the moved ones are r's */
             gs_poly_shrink(a, from);
         }
     }
+    gs_free(mv);
     r->length = n;
     a->length = 0;
     gs_poly_clear(a);
@@ -725,10 +1133,19 @@ void gs_poly_monomial_content(uint64_t *exps, const gs_poly *a,
         memset(exps, 0, nw * 8);
         return;
     }
-    memcpy(exps, a->exps, nw * 8);
-    for (i = 1; i < a->length; i++)
-        for (w = 0; w < nw; w++)
+    /* The last term is the least in lex order: start from it, so that
+       the usual answer (none) comes at once, whichever variable is
+       first. */
+    memcpy(exps, a->exps + (a->length - 1) * nw, nw * 8);
+    for (i = 0; i + 1 < a->length; i++) {
+        uint64_t any = 0;
+        for (w = 0; w < nw; w++) {
             exps[w] = gs_poly_fields_min(exps[w], a->exps[i * nw + w]);
+            any |= exps[w];
+        }
+        if (any == 0)       /* the usual end: no variable divides all */
+            return;
+    }
 }
 
 void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx)
@@ -741,6 +1158,20 @@ void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx)
             m[w] = gs_poly_fields_max(m[w], a->exps[i * nw + w]);
     for (v = 0; v < ctx->nvars; v++)
         degs[v] = gs_poly_exp_get(m, v);
+    gs_free(m);
+}
+
+void gs_poly_degree_bounds(unsigned *bounds, const gs_poly *a,
+                           const gs_polyctx *ctx)
+{
+    size_t i, nw = (size_t)ctx->nwords, w;
+    uint64_t *m = gs_calloc(nw, 8);
+    int v;
+    for (i = 0; i < a->length; i++)
+        for (w = 0; w < nw; w++)
+            m[w] |= a->exps[i * nw + w];
+    for (v = 0; v < ctx->nvars; v++)
+        bounds[v] = gs_poly_exp_get(m, v);
     gs_free(m);
 }
 

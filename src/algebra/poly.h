@@ -130,6 +130,10 @@ void gs_poly_set_term(gs_poly *r, const gs_int *c, const unsigned *exps,
 void gs_poly_push_term(gs_poly *r, const gs_int *c, const unsigned *exps,
                        const gs_polyctx *ctx);
 void gs_poly_canonicalise(gs_poly *r, const gs_polyctx *ctx);
+/* The same by comparisons of the exponent words alone, whatever the
+   size: the reference that gs_poly_canonicalise's linear-time sort of
+   packed keys (large polynomials, small exponents) is tested against. */
+void gs_poly_canonicalise_compare(gs_poly *r, const gs_polyctx *ctx);
 /* Reserve room for n terms; the value of r is unchanged. */
 void gs_poly_fit(gs_poly *r, size_t n, const gs_polyctx *ctx);
 /* Give back the room past r's terms when it is over a quarter of them
@@ -137,14 +141,21 @@ void gs_poly_fit(gs_poly *r, size_t n, const gs_polyctx *ctx);
 void gs_poly_shrink(gs_poly *r, const gs_polyctx *ctx);
 /* degs[v] = degree of a in variable v for v < nvars (all 0 for a = 0). */
 void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx);
+/* bounds[v] >= the degree in v with the same number of bits (the OR of
+   the exponents, so below twice the degree): for checks that need only
+   the size, at one OR a word instead of gs_poly_degrees' field maxima. */
+void gs_poly_degree_bounds(unsigned *bounds, const gs_poly *a,
+                           const gs_polyctx *ctx);
 
 /* r = a with variable v replaced by a monomial in variable to[v] for
    every v with top[v] > 0: x_v^k becomes x_to[v]^(top[v] - k), multiplied
    into what x_to[v] had (to[v] != v, k <= top[v]).  For clearing a
    reciprocal symbol r = 1/B: multiplying by B^e turns r^k into B^(e-k).
-   to and top have nvars entries. */
+   to and top have nvars entries; degs is a's gs_poly_degrees when the
+   caller has them (NULL: found here). */
 void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
-                       const unsigned *top, const gs_polyctx *ctx);
+                       const unsigned *top, const unsigned *degs,
+                       const gs_polyctx *ctx);
 /* r (in context to) = a (in context from) with variable v of from renamed
    map[v] of to; map must be strictly increasing, so that the term order
    is kept.  r must not alias a. */

@@ -30,26 +30,25 @@ static void clear_reciprocals(gs_poly *a, gs_poly *b, const gs_symtab *st,
 {
     int nv = ctx->nvars, v, any = 0;
     unsigned *top = gs_calloc((size_t)nv + 1, sizeof *top);
+    unsigned *da = gs_calloc((size_t)nv + 1, sizeof *da);
     unsigned *db = gs_calloc((size_t)nv + 1, sizeof *db);
     int *to = gs_calloc((size_t)nv + 1, sizeof *to);
 
-    gs_poly_degrees(top, a, ctx);
+    gs_poly_degrees(da, a, ctx);
     gs_poly_degrees(db, b, ctx);
     for (v = 0; v < nv; v++) {
-        if (!gs_symtab_is_recip(st, v)) {
-            top[v] = 0;
+        if (!gs_symtab_is_recip(st, v))
             continue;
-        }
-        if (db[v] > top[v])
-            top[v] = db[v];
+        top[v] = da[v] > db[v] ? da[v] : db[v];
         to[v] = gs_symtab_base(st, v);
         any |= top[v] > 0;
     }
-    if (any) {
-        gs_poly_flip_vars(a, a, to, top, ctx);
-        gs_poly_flip_vars(b, b, to, top, ctx);
+    if (any) {          /* the degrees save the flips a pass each */
+        gs_poly_flip_vars(a, a, to, top, da, ctx);
+        gs_poly_flip_vars(b, b, to, top, db, ctx);
     }
     gs_free(top);
+    gs_free(da);
     gs_free(db);
     gs_free(to);
 }

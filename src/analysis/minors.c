@@ -301,9 +301,11 @@ static void watch_start(watch *w, const gs_minors_opts *o)
 
 /* Does every product of a row entry and a minor of the level below fit
    the exponent fields?  A cheap bound first: the row's highest powers plus
-   the level's, one pass over each.  Only when that bound fails is each
-   product checked on its own (in eval_level), so a circuit whose powers
-   come near the limit without passing it is never refused. */
+   the level's, one pass over each, each power bounded by the OR of its
+   exponents (below twice it; a pass as quick as reading the memory).
+   Only when that bound fails is each product checked on its own (in
+   eval_level), so a circuit whose powers come near the limit without
+   passing it is never refused. */
 static int level_fits(const view *v, int r, const gs_poly *next,
                       size_t count, const gs_polyctx *ctx)
 {
@@ -313,14 +315,14 @@ static int level_fits(const view *v, int r, const gs_poly *next,
     unsigned *row = gs_calloc(nv, sizeof *row);
     int j, var, ok = 1;
     for (j = 0; j <= v->n; j++) {
-        gs_poly_degrees(deg, v->x[(size_t)r * ((size_t)v->n + 1)
-                                  + (size_t)j], ctx);
+        gs_poly_degree_bounds(deg, v->x[(size_t)r * ((size_t)v->n + 1)
+                                        + (size_t)j], ctx);
         for (var = 0; var < ctx->nvars; var++)
             if (deg[var] > row[var])
                 row[var] = deg[var];
     }
     for (i = 0; i < count; i++) {
-        gs_poly_degrees(deg, &next[i], ctx);
+        gs_poly_degree_bounds(deg, &next[i], ctx);
         for (var = 0; var < ctx->nvars; var++)
             if (deg[var] > top[var])
                 top[var] = deg[var];
