@@ -12,6 +12,7 @@
 #include "gainsmith.h"
 #include "analysis/job.h"
 #include "base/mem.h"
+#include "base/strbuf.h"
 
 #include <stdatomic.h>
 #include <stdio.h>
@@ -26,7 +27,7 @@ typedef struct view {
     gs_term *terms;
     const char **syms;      /* all terms' symbol names, one block */
     unsigned *exps;         /* all terms' exponents, one block */
-    char **nums;            /* per term, the coefficient's digits */
+    char *digits;           /* every term's coefficient, NUL after each */
     size_t nterms;
 } view;
 
@@ -127,36 +128,58 @@ static char *nomem_text(size_t bytes)
 
 static void view_clear(view *v)
 {
-    size_t k;
-    for (k = 0; k < v->nterms; k++)
-        gs_free(v->nums[k]);
-    gs_free(v->nums);
+    gs_free(v->digits);
     gs_free(v->syms);
     gs_free(v->exps);
     gs_free(v->terms);
     gs_free(v->coeffs);
 }
 
+/* Term k's coefficient in decimal, appended with its NUL to b; a
+   machine-word value without an allocation of its own. */
+static void add_digits(gs_strbuf *b, const gs_int *c)
+{
+    if (gs_int_is_small(c)) {
+        int64_t x = gs_int_get_si(c);
+        if (x < 0)
+            gs_strbuf_add(b, "-");
+        /* |x| <= INT64_MAX for a small value (int.h) */
+        gs_strbuf_add_u64(b, x < 0 ? (uint64_t)-x : (uint64_t)x);
+    } else {
+        char *t = gs_int_get_str(c);
+        gs_strbuf_add(b, t);
+        gs_free(t);
+    }
+    gs_strbuf_addn(b, "", 1);
+}
+
 /* v = p grouped by powers of s: the terms of each power keep the
    canonical order, and each term's symbols are those of nonzero
-   exponent other than s, in symbol order. */
+   exponent other than s, in symbol order.  The coefficients' digits go
+   into one block, each term's factors come straight from the packed
+   words (gs_poly_term_factors): a view of a 75,000-term result took
+   0.039 s with a string and a full unpacking a term. */
 static void view_make(view *v, const gs_poly *p, const gs_job *j)
 {
     const gs_polyctx *ctx = j->ctx;
-    int s = j->c->s_sym, nv = ctx->nvars, x;
+    int s = j->c->s_sym, nv = ctx->nvars, f, nfac;
     long deg = gs_poly_degree(p, s, ctx), pw;
-    size_t n = p->length, k, nf = 0, *count, *start, nc = 0;
-    unsigned *e = gs_calloc((size_t)nv, sizeof *e);
+    size_t n = p->length, k, nf = 0, *count, *start, *at, nc = 0;
+    int *vars = gs_malloc(((size_t)nv + 1) * sizeof *vars);
+    unsigned *ex = gs_malloc(((size_t)nv + 1) * sizeof *ex);
+    gs_strbuf digits;
     memset(v, 0, sizeof *v);
     v->nterms = n;
     v->poly.degree = deg;
     count = gs_calloc((size_t)(deg + 1 > 0 ? deg + 1 : 1), sizeof *count);
     start = gs_calloc((size_t)(deg + 2 > 0 ? deg + 2 : 1), sizeof *start);
+    at = gs_malloc((n ? n : 1) * sizeof *at);
+    gs_strbuf_init(&digits);
     for (k = 0; k < n; k++) {
-        gs_poly_get_term_exps(e, p, k, ctx);
-        count[e[s]]++;
-        for (x = 0; x < nv; x++)
-            nf += x != s && e[x] != 0;
+        count[gs_poly_exp_get(p->exps + k * (size_t)ctx->nwords, s)]++;
+        nf += (size_t)gs_poly_term_factors(vars, ex, p, k, s, ctx);
+        at[k] = digits.n;
+        add_digits(&digits, &p->coeffs[k]);
     }
     for (pw = 0; pw <= deg; pw++) {
         start[pw + 1] = start[pw] + count[pw];
@@ -166,7 +189,7 @@ static void view_make(view *v, const gs_poly *p, const gs_job *j)
     v->terms = gs_calloc(n, sizeof *v->terms);
     v->syms = gs_calloc(nf, sizeof *v->syms);
     v->exps = gs_calloc(nf, sizeof *v->exps);
-    v->nums = gs_calloc(n, sizeof *v->nums);
+    v->digits = digits.p;       /* taken: it moves no more */
     nc = 0;
     for (pw = 0; pw <= deg; pw++) {
         if (count[pw] == 0)
@@ -178,27 +201,26 @@ static void view_make(view *v, const gs_poly *p, const gs_job *j)
     }
     nf = 0;
     for (k = 0; k < n; k++) {
-        gs_term *t;
-        gs_poly_get_term_exps(e, p, k, ctx);
-        t = &v->terms[start[e[s]]++];
-        v->nums[k] = gs_int_get_str(&p->coeffs[k]);
-        t->num = v->nums[k];
+        unsigned ps = gs_poly_exp_get(p->exps + k * (size_t)ctx->nwords, s);
+        gs_term *t = &v->terms[start[ps]++];
+        t->num = v->digits + at[k];
         t->den = one;
         t->symbols = v->syms + nf;
         t->exps = v->exps + nf;
-        for (x = 0; x < nv; x++) {
-            if (x == s || e[x] == 0)
-                continue;
-            v->syms[nf] = gs_symtab_name(j->c->syms, x);
-            v->exps[nf++] = e[x];
-            t->nfactors++;
+        nfac = gs_poly_term_factors(vars, ex, p, k, s, ctx);
+        for (f = 0; f < nfac; f++) {
+            v->syms[nf] = gs_symtab_name(j->c->syms, vars[f]);
+            v->exps[nf++] = ex[f];
         }
+        t->nfactors = (size_t)nfac;
     }
     v->poly.ncoeffs = nc;
     v->poly.coeffs = v->coeffs;
+    gs_free(at);
     gs_free(start);
     gs_free(count);
-    gs_free(e);
+    gs_free(vars);
+    gs_free(ex);
 }
 
 /* The options in the engine's terms; the limits' symbols looked up. */
