@@ -535,7 +535,12 @@ static void latex_broken(FILE *out, const gs_tf *tf, const gs_poly *a,
 
 static size_t text_len(const gs_tf *tf, const gs_poly *a, int collect_var)
 {
-    char *t = poly_str(tf, a, collect_var, 0);
+    char *t;
+    /* every term prints at least one character: no need to make the text
+       of a long side to know that it is long */
+    if (a->length > LATEX_COLS)
+        return a->length;
+    t = poly_str(tf, a, collect_var, 0);
     size_t n = strlen(t);
     gs_free(t);
     return n;
