@@ -5,6 +5,7 @@
  */
 #include "analysis/tf.h"
 #include "base/mem.h"
+#include "base/strbuf.h"
 #include "output/json.h"
 
 #include <stdlib.h>
@@ -39,30 +40,70 @@ static void put_symbols(FILE *out, const gs_tf *tf)
     gs_free(used);
 }
 
-/* {"power": k, "terms": [{"coeff": "-2", "exps": {"gm": 1}}, ...]} */
-static void put_group(FILE *out, const gs_poly *c, long power,
-                      const gs_polyctx *ctx, unsigned *exps)
+/* A name that JSON takes as it is (printable ASCII but '"' and '\\'),
+   appended without the string writer; any other name goes through
+   gs_json_string after the buffer is written out, so the order holds. */
+static void put_name(gs_strbuf *b, const char *name)
 {
-    size_t i;
-    int v, first;
-    fprintf(out, "{\"power\": %ld, \"terms\": [", power);
-    for (i = 0; i < c->length; i++) {
-        char *digits = gs_int_get_str(&c->coeffs[i]);
-        fprintf(out, "%s{\"coeff\": \"%s\", \"exps\": {", i ? ", " : "",
-                digits);
-        gs_free(digits);
-        gs_poly_get_term_exps(exps, c, i, ctx);
-        for (v = 0, first = 1; v < ctx->nvars; v++) {
-            if (exps[v] == 0)
-                continue;
-            fputs(first ? "" : ", ", out);
-            gs_json_string(out, gs_symtab_name(ctx->syms, v));
-            fprintf(out, ": %u", exps[v]);
-            first = 0;
-        }
-        fputs("}}", out);
+    const unsigned char *p = (const unsigned char *)name;
+    while (*p >= 0x20 && *p < 0x7F && *p != '"' && *p != '\\')
+        p++;
+    if (*p == '\0') {
+        gs_strbuf_addn(b, "\"", 1);
+        gs_strbuf_add(b, name);
+        gs_strbuf_addn(b, "\"", 1);
+    } else {
+        gs_strbuf_flush(b);
+        gs_json_string(b->sink, name);
     }
-    fputs("]}", out);
+}
+
+/* c in decimal; a coefficient that fits a word without an allocation */
+static void put_coeff(gs_strbuf *b, const gs_int *c)
+{
+    if (gs_int_is_small(c)) {
+        int64_t v = c->u.v;
+        if (v < 0)
+            gs_strbuf_addn(b, "-", 1);
+        gs_strbuf_add_u64(b, v < 0 ? 0 - (uint64_t)v : (uint64_t)v);
+    } else {
+        char *digits = gs_int_get_str(c);
+        gs_strbuf_add(b, digits);
+        gs_free(digits);
+    }
+}
+
+/* {"power": k, "terms": [{"coeff": "-2", "exps": {"gm": 1}}, ...]},
+   streamed, each term's factors read from the packed words */
+static void put_group(FILE *out, const gs_poly *c, long power,
+                      const gs_polyctx *ctx, int *vars, unsigned *exps)
+{
+    gs_strbuf b;
+    size_t i;
+    int j, n;
+    gs_strbuf_init_sink(&b, out);
+    gs_strbuf_add(&b, "{\"power\": ");
+    if (power < 0)
+        gs_strbuf_addn(&b, "-", 1);
+    gs_strbuf_add_u64(&b, power < 0 ? 0 - (uint64_t)power : (uint64_t)power);
+    gs_strbuf_add(&b, ", \"terms\": [");
+    for (i = 0; i < c->length; i++) {
+        gs_strbuf_add(&b, i ? ", {\"coeff\": \"" : "{\"coeff\": \"");
+        put_coeff(&b, &c->coeffs[i]);
+        gs_strbuf_add(&b, "\", \"exps\": {");
+        n = gs_poly_term_factors(vars, exps, c, i, -1, ctx);
+        for (j = 0; j < n; j++) {
+            if (j > 0)
+                gs_strbuf_addn(&b, ", ", 2);
+            put_name(&b, gs_symtab_name(ctx->syms, vars[j]));
+            gs_strbuf_addn(&b, ": ", 2);
+            gs_strbuf_add_u64(&b, exps[j]);
+        }
+        gs_strbuf_addn(&b, "}}", 2);
+    }
+    gs_strbuf_addn(&b, "]}", 2);
+    gs_strbuf_flush(&b);
+    gs_strbuf_clear(&b);
 }
 
 /* The groups of a by descending power of var (one group when var < 0). */
@@ -70,11 +111,12 @@ static void put_poly(FILE *out, const gs_poly *a, int var,
                      const gs_polyctx *ctx)
 {
     unsigned *exps = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *exps);
+    int *vars = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *vars);
     int first = 1;
     fputc('[', out);
     if (var < 0 || var >= ctx->nvars) {
         if (!gs_poly_is_zero(a))
-            put_group(out, a, 0, ctx, exps);
+            put_group(out, a, 0, ctx, vars, exps);
     } else if (!gs_poly_is_zero(a)) {
         size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i;
         gs_poly *c = gs_malloc(n * sizeof *c);
@@ -85,7 +127,7 @@ static void put_poly(FILE *out, const gs_poly *a, int var,
             if (gs_poly_is_zero(&c[i]))
                 continue;
             fputs(first ? "" : ", ", out);
-            put_group(out, &c[i], (long)i, ctx, exps);
+            put_group(out, &c[i], (long)i, ctx, vars, exps);
             first = 0;
         }
         for (i = 0; i < n; i++)
@@ -93,6 +135,7 @@ static void put_poly(FILE *out, const gs_poly *a, int var,
         gs_free(c);
     }
     fputc(']', out);
+    gs_free(vars);
     gs_free(exps);
 }
 
