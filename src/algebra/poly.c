@@ -1161,15 +1161,23 @@ void gs_poly_degrees(unsigned *degs, const gs_poly *a, const gs_polyctx *ctx)
     gs_free(m);
 }
 
-void gs_poly_degree_bounds(unsigned *bounds, const gs_poly *a,
-                           const gs_polyctx *ctx)
+/* The OR of every term's exponent words, in a new array: per variable at
+   least its degree, with as many bits, and nonzero where it occurs. */
+static uint64_t *exps_or(const gs_poly *a, const gs_polyctx *ctx)
 {
     size_t i, nw = (size_t)ctx->nwords, w;
     uint64_t *m = gs_calloc(nw, 8);
-    int v;
     for (i = 0; i < a->length; i++)
         for (w = 0; w < nw; w++)
             m[w] |= a->exps[i * nw + w];
+    return m;
+}
+
+void gs_poly_degree_bounds(unsigned *bounds, const gs_poly *a,
+                           const gs_polyctx *ctx)
+{
+    uint64_t *m = exps_or(a, ctx);
+    int v;
     for (v = 0; v < ctx->nvars; v++)
         bounds[v] = gs_poly_exp_get(m, v);
     gs_free(m);
@@ -1232,12 +1240,8 @@ long gs_poly_total_degree(const gs_poly *a, const gs_polyctx *ctx)
 void gs_poly_used_vars(unsigned char *used, const gs_poly *a,
                        const gs_polyctx *ctx)
 {
-    size_t i, nw = (size_t)ctx->nwords, w;
-    uint64_t *m = gs_calloc(nw, 8);
+    uint64_t *m = exps_or(a, ctx);
     int v;
-    for (i = 0; i < a->length; i++)
-        for (w = 0; w < nw; w++)
-            m[w] |= a->exps[i * nw + w];
     for (v = 0; v < ctx->nvars; v++)
         used[v] = gs_poly_exp_get(m, v) != 0;
     gs_free(m);
