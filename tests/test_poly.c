@@ -1336,8 +1336,12 @@ static void loop_packed_sort(const env *e, uint64_t seed0, int n)
         uint64_t seed = seed0 + (uint64_t)k;
         rng r = { seed };
         unsigned nt = k % 4 == 0 ? 1 + rbelow(&r, 1100) : 900 + rbelow(&r, 3100);
-        unsigned maxe = k % 5 == 4 ? 2000 : 1 + rbelow(&r, 3), t;
-        int nv = 1 + (int)rbelow(&r, 11), ok;
+        /* k % 5 == 3: 54 to 60 bits of monomial, 10 to 12 of index, so
+           the index goes beside the keys (the split plan) */
+        unsigned maxe = k % 5 == 4 ? 2000 : k % 5 == 3 ? 63
+                        : 1 + rbelow(&r, 3), t;
+        int nv = maxe == 63 ? 9 + (int)rbelow(&r, 2)
+                 : 1 + (int)rbelow(&r, 11), ok;
         gs_poly_zero(&p);
         gs_poly_zero(&q);
         for (t = 0; t < nt; t++) {
@@ -1379,7 +1383,8 @@ static void loop_packed_sort(const env *e, uint64_t seed0, int n)
    targets occurring in a (so that flipped terms meet and add up), top
    at least the degree: against the definition done term by term here
    and sorted by the comparison sort alone.  Most cases fit the packed
-   keys; top up to 1500 in several variables does not. */
+   keys, some only with the index apart; top up to 1500 in several
+   variables does not. */
 static void loop_flip_packed(const env *e, uint64_t seed0, int n)
 {
     const gs_polyctx *ctx = e->c11;
@@ -1392,14 +1397,17 @@ static void loop_flip_packed(const env *e, uint64_t seed0, int n)
     for (k = 0; k < n; k++) {
         uint64_t seed = seed0 + (uint64_t)k;
         rng r = { seed };
-        unsigned maxe = k % 6 == 5 ? 700 : 1 + rbelow(&r, 3);
+        /* k % 6 == 3: the last variable alone flipped into the first,
+           6 bits for each of nine, 7 for that one, 12 or so of index:
+           the index goes beside the keys (the split plan of poly.c) */
+        unsigned maxe = k % 6 == 5 ? 700 : k % 6 == 3 ? 40 : 1 + rbelow(&r, 3);
         size_t i;
         int nf = 0, nkept = 0, kept[16], ok;
         rand_poly(&a, &r, 600 + rbelow(&r, 3000), 11, maxe,
                   1 + rbelow(&r, 70), ctx);
         gs_poly_degrees(degs, &a, ctx);
         for (v = 0; v < 11; v++) {
-            flipped[v] = v > 0 && rbelow(&r, 3) == 0;
+            flipped[v] = k % 6 == 3 ? v == 10 : v > 0 && rbelow(&r, 3) == 0;
             nf += flipped[v];
             if (!flipped[v])
                 kept[nkept++] = v;
@@ -1408,7 +1416,7 @@ static void loop_flip_packed(const env *e, uint64_t seed0, int n)
         memset(to, 0, sizeof to);
         for (v = 0; v < 11; v++)
             if (flipped[v]) {       /* into a variable that is not flipped */
-                to[v] = kept[rbelow(&r, (unsigned)nkept)];
+                to[v] = k % 6 == 3 ? 0 : kept[rbelow(&r, (unsigned)nkept)];
                 top[v] = degs[v] + rbelow(&r, 2);
                 if (top[v] == 0)
                     top[v] = 1;

@@ -161,9 +161,11 @@ void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
    is kept.  r must not alias a. */
 void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
                    const gs_polyctx *from, const gs_polyctx *to);
-/* The same, taking a's terms (a is left zero): the terms move from the
-   last, and a's storage is given back a sixteenth at a time, so that the
-   two copies of a large polynomial are never resident at once. */
+/* The same, taking a's terms (a is left zero).  Into a context of as
+   many words or more, a's storage becomes r's, grown in place; into a
+   narrower one the terms move from the last, and a's storage is given
+   back a sixteenth at a time.  Either way the two copies of a large
+   polynomial are never resident at once. */
 void gs_poly_remap_take(gs_poly *r, gs_poly *a, const int *map,
                         const gs_polyctx *from, const gs_polyctx *to);
 
