@@ -1508,6 +1508,75 @@ static void loop_remap_maps(const env *e, uint64_t seed0, int n)
     gs_poly_clear(&want);
 }
 
+/* gs_poly_remap_flip_take against its definition done term by term:
+   random increasing maps of the 4 variables into the 11, some of their
+   images flipped into other variables of the 11 (which may be images
+   too, so that exponents add up), top at least the degree.  Sizes from
+   a few terms (the two-step path) to over 1024 (the keys), exponents up
+   to 3 (the keys fit a word, index and all) and up to 2000 (they do
+   not: the two-step path again). */
+static void loop_remap_flip(const env *e, uint64_t seed0, int n)
+{
+    gs_poly a, t, want;
+    unsigned ex[16], ey[16], degs[16], top[16];
+    int map[4], to[16], flipped[16], k, v;
+    gs_poly_init(&a);
+    gs_poly_init(&t);
+    gs_poly_init(&want);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        unsigned maxe = k % 7 == 6 ? 2000 : 1 + rbelow(&r, 3);
+        unsigned nt = k % 3 == 0 ? 1 + rbelow(&r, 200) : 1100 + rbelow(&r, 2500);
+        size_t i;
+        int at = 0, ok, d;
+        memset(top, 0, sizeof top);
+        memset(to, 0, sizeof to);
+        memset(flipped, 0, sizeof flipped);
+        for (v = 0; v < 4; v++) {
+            map[v] = at + (int)rbelow(&r, (unsigned)(11 - at - (3 - v)));
+            at = map[v] + 1;
+        }
+        rand_poly(&a, &r, nt, 4, maxe, 40, e->c4);
+        gs_poly_degrees(degs, &a, e->c4);
+        for (v = 0; v < 4; v++)
+            flipped[map[v]] = rbelow(&r, 2) == 0;
+        for (v = 0; v < 4; v++) {
+            d = map[v];
+            if (!flipped[d])
+                continue;
+            do                          /* never into a flipped one */
+                to[d] = (int)rbelow(&r, 11);
+            while (to[d] == d || flipped[to[d]]);
+            top[d] = degs[v] + rbelow(&r, 3);
+            if (top[d] == 0)
+                top[d] = 1;
+        }
+        gs_poly_zero(&want);
+        for (i = 0; i < a.length; i++) {
+            gs_poly_get_term_exps(ex, &a, i, e->c4);
+            memset(ey, 0, sizeof ey);
+            for (v = 0; v < 4; v++) {
+                d = map[v];
+                if (flipped[d])
+                    ey[to[d]] += top[d] - ex[v];
+                else
+                    ey[d] += ex[v];
+            }
+            gs_poly_push_term(&want, &a.coeffs[i], ey, e->c11);
+        }
+        gs_poly_canonicalise_compare(&want, e->c11);
+        renew(&t);
+        gs_poly_remap_flip_take(&t, &a, map, to, top, e->c4, e->c11);
+        ok = gs_poly_is_zero(&a) && canonical(&t, e->c11)
+             && gs_poly_equal(&t, &want, e->c11);
+        CHECK_MSG(ok, "remap and flip: seed %llu", (unsigned long long)seed);
+    }
+    gs_poly_clear(&a);
+    gs_poly_clear(&t);
+    gs_poly_clear(&want);
+}
+
 /* Dense shapes that pick the block method by themselves, and sparse
    ones in many variables that pick the heap: all methods agree. */
 static void loop_shapes(const env *e, uint64_t seed0, int n)
@@ -1690,6 +1759,7 @@ int main(int argc, char **argv)
     loop_flip_remap(&e, seed + 11000, 300);
     loop_packed_sort(&e, seed + 15000, 120);
     loop_remap_maps(&e, seed + 17000, 200);
+    loop_remap_flip(&e, seed + 17500, 120);
     loop_flip_packed(&e, seed + 16000, 80);
     loop_sum_of_products(e.c4, seed + 12000, 300);
     loop_coeffs_var(e.c11, seed + 14000, 200);

@@ -540,15 +540,13 @@ static void permute_coeffs_split(gs_poly *r, uint32_t *from)
    again from the keys, in order, so the large exponent array is never
    read at random.  Returns nonzero when two terms have the same monomial
    (merge_sorted must follow). */
-static int sort_keys(gs_poly *r, uint64_t *x, const keyplan *k,
-                     const gs_polyctx *ctx)
+static uint64_t *order_keys(gs_poly *r, uint64_t *x, const keyplan *k)
 {
-    size_t n = r->length, nw = (size_t)ctx->nwords, i, j, t;
+    size_t n = r->length, i, j, t;
     uint64_t *tmp = gs_malloc(n * sizeof *tmp);
     uint64_t low = (UINT64_C(1) << k->ib) - 1;
     uint32_t *xi = NULL, *ti = NULL, *yi = NULL;
     uint64_t *y;
-    int same = 0;
     gs_int c;
     if (k->split) {
         xi = gs_malloc(n * sizeof *xi);
@@ -575,6 +573,17 @@ static int sort_keys(gs_poly *r, uint64_t *x, const keyplan *k,
         r->coeffs[j] = c;
         x[j] = (x[j] & ~low) | j;
     }
+    return x;
+}
+
+/* r's monomials written from the sorted keys x (x is freed).  Returns
+   nonzero when two are the same. */
+static int write_keys(gs_poly *r, uint64_t *x, const keyplan *k,
+                      const gs_polyctx *ctx)
+{
+    size_t n = r->length, nw = (size_t)ctx->nwords, i;
+    int same = 0;
+    memset(r->exps, 0, nw * sizeof *r->exps);   /* words before the key's */
     unpack_key(r->exps, nw, x[0], k, 0);
     for (i = 1; i < n; i++) {
         /* Sorted keys share long prefixes: the words wholly above the
@@ -593,6 +602,12 @@ static int sort_keys(gs_poly *r, uint64_t *x, const keyplan *k,
     }
     gs_free(x);
     return same;
+}
+
+static int sort_keys(gs_poly *r, uint64_t *x, const keyplan *k,
+                     const gs_polyctx *ctx)
+{
+    return write_keys(r, order_keys(r, x, k), k, ctx);
 }
 
 /* The order of sort_compare by packed keys; 0, doing nothing, when they
@@ -680,29 +695,31 @@ static keyfield key_field(int v, unsigned pos)
     return f;
 }
 
-/* 0 when the keys do not fit, or when a variable flips into another
-   flipped one (the flips then depend on their order). */
-static int flipkey_init(flipkey *f, const gs_poly *a, const int *to,
+/* The keys of a (in context from) renamed into context dst: variable v
+   becomes dst's map[v], x_v^k for a flipped v (top[v] > 0) becomes
+   x_map[v]^(top[v] - k), and the exponents landing in one variable of
+   dst add up.  0 when the keys do not fit, or, within one context, when
+   a variable flips into another flipped one (the flips then depend on
+   their order). */
+static int flipkey_init(flipkey *f, const gs_poly *a, const int *map,
                         const unsigned *top, const unsigned *degs,
-                        const gs_polyctx *ctx)
+                        const gs_polyctx *from, const gs_polyctx *dst)
 {
-    size_t nv = (size_t)ctx->nvars + 1;
+    size_t nv = (size_t)from->nvars + 1, nd = (size_t)dst->nvars + 1;
     unsigned *deg = gs_malloc(nv * sizeof *deg);
-    unsigned *bound = gs_malloc(nv * sizeof *bound);
-    unsigned *at = gs_calloc(nv, sizeof *at);
+    unsigned *bound = gs_calloc(nd, sizeof *bound);
+    unsigned *at = gs_calloc(nd, sizeof *at);
     int v, j, ok = 1;
     if (degs)
         memcpy(deg, degs, (nv - 1) * sizeof *deg);
     else
-        gs_poly_degrees(deg, a, ctx);
-    memcpy(bound, deg, (nv - 1) * sizeof *bound);
-    for (v = 0; v < ctx->nvars; v++)
-        if (top[v] > 0) {
-            ok &= top[to[v]] == 0 && deg[v] <= top[v];
-            bound[to[v]] += top[v];
-            bound[v] = 0;
-        }
-    ok = ok && keyplan_init(&f->k, bound, a->length, ctx);
+        gs_poly_degrees(deg, a, from);
+    for (v = 0; v < from->nvars; v++) {
+        if (top[v] > 0)
+            ok &= (from != dst || top[map[v]] == 0) && deg[v] <= top[v];
+        bound[map[v]] += top[v] > 0 ? top[v] : deg[v];
+    }
+    ok = ok && keyplan_init(&f->k, bound, a->length, dst);
     gs_free(bound);
     if (!ok) {
         gs_free(deg);
@@ -715,12 +732,12 @@ static int flipkey_init(flipkey *f, const gs_poly *a, const int *to,
     f->flip = gs_malloc(nv * sizeof *f->flip);
     f->nkeep = f->nflip = 0;
     f->add = 0;
-    for (v = 0; v < ctx->nvars; v++) {
+    for (v = 0; v < from->nvars; v++) {
         if (top[v] > 0) {
-            f->flip[f->nflip++] = key_field(v, at[to[v]]);
-            f->add += (uint64_t)top[v] << at[to[v]];
+            f->flip[f->nflip++] = key_field(v, at[map[v]]);
+            f->add += (uint64_t)top[v] << at[map[v]];
         } else if (deg[v] > 0) {
-            f->keep[f->nkeep++] = key_field(v, at[v]);
+            f->keep[f->nkeep++] = key_field(v, at[map[v]]);
         }
     }
     gs_free(deg);
@@ -765,7 +782,10 @@ void gs_poly_flip_vars(gs_poly *r, const gs_poly *a, const int *to,
     if (r != a)
         gs_poly_set(r, a, ctx);
     n = r->length;
-    if (n >= PACKED_MIN_TERMS && flipkey_init(&f, r, to, top, degs, ctx)) {
+    for (v = 0; v < ctx->nvars; v++)        /* where each variable goes */
+        fv[v] = top[v] > 0 ? to[v] : v;
+    if (n >= PACKED_MIN_TERMS
+        && flipkey_init(&f, r, fv, top, degs, ctx, ctx)) {
         uint64_t *x = gs_malloc(n * sizeof *x);
         for (i = 0; i < n; i++)
             x[i] = flip_key(term_exps(r, i, ctx), i, &f);
@@ -906,6 +926,49 @@ void gs_poly_remap_take(gs_poly *r, gs_poly *a, const int *map,
     a->length = 0;
     gs_poly_clear(a);
     gs_poly_init(a);
+}
+
+/* The keys hold the whole renamed and flipped monomial, so once they are
+   made the old exponents are not read again: the block is resized to the
+   new width (keeping the pages already touched) and written from the
+   sorted keys. */
+void gs_poly_remap_flip_take(gs_poly *r, gs_poly *a, const int *map,
+                             const int *to, const unsigned *top,
+                             const gs_polyctx *from, const gs_polyctx *dst)
+{
+    size_t n = a->length, i, nv = (size_t)from->nvars + 1;
+    int *where = gs_malloc(nv * sizeof *where);
+    unsigned *ftop = gs_calloc(nv, sizeof *ftop);
+    int v, any = 0;
+    flipkey f;
+    for (v = 0; v < from->nvars; v++) {
+        int d = map[v];
+        ftop[v] = top[d];
+        where[v] = top[d] > 0 ? to[d] : d;
+        any |= top[d] > 0;
+    }
+    if (n >= PACKED_MIN_TERMS
+        && flipkey_init(&f, a, where, ftop, NULL, from, dst)) {
+        uint64_t *x = gs_malloc(n * sizeof *x);
+        for (i = 0; i < n; i++)
+            x[i] = flip_key(term_exps(a, i, from), i, &f);
+        x = order_keys(a, x, &f.k);     /* its scratch freed before: */
+        a->coeffs = gs_reallocarray(a->coeffs, n, sizeof *a->coeffs);
+        a->exps = gs_reallocarray(a->exps, n,
+                                  (size_t)dst->nwords * sizeof *a->exps);
+        a->alloc = n;
+        gs_poly_zero(r);
+        gs_poly_swap(r, a);
+        if (write_keys(r, x, &f.k, dst))
+            merge_sorted(r, dst);
+        flipkey_clear(&f);
+    } else {
+        gs_poly_remap_take(r, a, map, from, dst);
+        if (any)
+            gs_poly_flip_vars(r, r, to, top, NULL, dst);
+    }
+    gs_free(where);
+    gs_free(ftop);
 }
 
 void gs_poly_get_term_exps(unsigned *exps, const gs_poly *a, size_t i,

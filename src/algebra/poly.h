@@ -168,6 +168,13 @@ void gs_poly_remap(gs_poly *r, const gs_poly *a, const int *map,
    polynomial are never resident at once. */
 void gs_poly_remap_take(gs_poly *r, gs_poly *a, const int *map,
                         const gs_polyctx *from, const gs_polyctx *to);
+/* gs_poly_remap_take into dst, then gs_poly_flip_vars there with to and
+   top (indexed by dst's variables), in one pass: a's storage is resized
+   in place and written once, from the sorted keys.  r must not alias a;
+   a is left zero. */
+void gs_poly_remap_flip_take(gs_poly *r, gs_poly *a, const int *map,
+                             const int *to, const unsigned *top,
+                             const gs_polyctx *from, const gs_polyctx *dst);
 
 /* Unpack term i's exponents into exps[0 .. nvars-1]. */
 void gs_poly_get_term_exps(unsigned *exps, const gs_poly *a, size_t i,

@@ -348,6 +348,41 @@ static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
     return rc;
 }
 
+/* det A and det M back into the full context, their conductances 1/R
+   cleared on the way (gs_poly_remap_flip_take): both multiplied by the
+   same prod R^top, top the larger degree of 1/R in the two, which the
+   ratio H = (c0 det A - det M) / det A does not see.  The reduction that
+   follows clears what c0 brings and divides out any common monomial, so
+   the result is the one clearing them after the assembly gives, and the
+   largest polynomials of the run are written once in the full context
+   instead of twice. */
+static void remap_back(gs_poly *det_a, gs_poly *det_m, gs_poly *sa,
+                       gs_poly *sm, const int *back, const gs_polyctx *small,
+                       const gs_polyctx *ctx)
+{
+    size_t nv = (size_t)ctx->nvars + 1;
+    unsigned *da = gs_calloc((size_t)small->nvars + 1, sizeof *da);
+    unsigned *dm = gs_calloc((size_t)small->nvars + 1, sizeof *dm);
+    unsigned *top = gs_calloc(nv, sizeof *top);
+    int *to = gs_calloc(nv, sizeof *to);
+    int v;
+    gs_poly_degrees(da, sa, small);
+    gs_poly_degrees(dm, sm, small);
+    for (v = 0; v < small->nvars; v++) {
+        int b = back[v];
+        if (!gs_symtab_is_recip(ctx->syms, b))
+            continue;
+        top[b] = da[v] > dm[v] ? da[v] : dm[v];
+        to[b] = gs_symtab_base(ctx->syms, b);
+    }
+    gs_poly_remap_flip_take(det_a, sa, back, to, top, small, ctx);
+    gs_poly_remap_flip_take(det_m, sm, back, to, top, small, ctx);
+    gs_free(da);
+    gs_free(dm);
+    gs_free(top);
+    gs_free(to);
+}
+
 /* The determinants only ever hold the symbols that occur in M: the
    conductances 1/R but not R, no symbol of another output.  In a context
    of those alone every monomial packs into fewer words, and the products
@@ -398,10 +433,8 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
         gs_poly_init(&sa);
         gs_poly_init(&sm);
         rc = determinants_in(&sa, &sm, &ms, small, o, stats, d);
-        if (rc == GS_OK) {
-            gs_poly_remap_take(det_a, &sa, back, small, ctx);
-            gs_poly_remap_take(det_m, &sm, back, small, ctx);
-        }
+        if (rc == GS_OK)
+            remap_back(det_a, det_m, &sa, &sm, back, small, ctx);
         gs_poly_clear(&sa);
         gs_poly_clear(&sm);
         for (k = 0; k < cells; k++)
