@@ -9,6 +9,7 @@
  */
 #include "analysis/tf.h"
 #include "base/mem.h"
+#include "base/strbuf.h"
 
 #include <ctype.h>
 #include <stdlib.h>
@@ -124,131 +125,183 @@ static int comment_safe(const char *s)
     return 1;
 }
 
-/* Output that wraps before a piece that would pass C_COLS. */
+/* Output that wraps before a piece that would pass C_COLS, streamed
+   through a buffer (a result of millions of terms needs no string of
+   its size), and the scratch one term is written in. */
 typedef struct cout {
-    FILE *f;
+    gs_strbuf b;            /* sink: the output */
+    gs_strbuf term;
     size_t col;
+    const params *ps;
+    const gs_polyctx *ctx;
+    int s_var;
+    int *vars;              /* nvars + 1 each: gs_poly_term_factors */
+    unsigned *exps;
 } cout;
 
-static void cout_piece(cout *o, const char *sep, const char *piece)
+static void cout_init(cout *o, FILE *out, const params *ps,
+                      const gs_polyctx *ctx, int s_var)
 {
-    size_t ns = strlen(sep), np = strlen(piece);
+    gs_strbuf_init_sink(&o->b, out);
+    gs_strbuf_init(&o->term);
+    o->col = 0;
+    o->ps = ps;
+    o->ctx = ctx;
+    o->s_var = s_var;
+    o->vars = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *o->vars);
+    o->exps = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *o->exps);
+}
+
+static void cout_clear(cout *o)
+{
+    gs_strbuf_flush(&o->b);
+    gs_strbuf_clear(&o->b);
+    gs_strbuf_clear(&o->term);
+    gs_free(o->vars);
+    gs_free(o->exps);
+}
+
+static void cout_text(cout *o, const char *text)
+{
+    gs_strbuf_add(&o->b, text);
+}
+
+static void cout_piece(cout *o, const char *sep, const char *piece,
+                       size_t np)
+{
+    size_t ns = strlen(sep);
     if (o->col + ns + np > C_COLS && o->col > 8) {
         while (ns > 0 && *sep == ' ') {
             sep++;
             ns--;
         }
-        fputs("\n        ", o->f);
+        gs_strbuf_addn(&o->b, "\n        ", 9);
         o->col = 8;
     }
-    fputs(sep, o->f);
-    fputs(piece, o->f);
+    gs_strbuf_addn(&o->b, sep, ns);
+    gs_strbuf_addn(&o->b, piece, np);
     o->col += ns + np;
 }
 
-/* One term as C: "2.0*p->gm*p->RD", "p->gm", "1.0" (sign separate). */
-static char *term_c(const params *ps, const gs_int *c, const unsigned *exps)
+/* Term i of a as C into o->term: "2.0*p->gm*p->RD", "p->gm", "1.0"
+   (sign separate), its power of s left out.  The factors come straight
+   from the packed words and small coefficients need no string. */
+static void term_c(cout *o, const gs_poly *a, size_t i)
 {
-    char *digits = gs_int_get_str(c), *t;
-    const char *mag = digits[0] == '-' ? digits + 1 : digits;
-    size_t len = 0, cap = strlen(mag) + 8;
-    int i, any = 0;
+    const gs_int *c = &a->coeffs[i];
+    gs_strbuf *t = &o->term;
+    int n = gs_poly_term_factors(o->vars, o->exps, a, i, o->s_var, o->ctx);
+    int j, unit = gs_int_is_small(c) && (c->u.v == 1 || c->u.v == -1);
     unsigned e;
-    t = gs_malloc(cap);
-    t[0] = '\0';
-    for (i = 0; i < ps->nvars; i++)
-        any |= exps[i] != 0 && ps->cname[i] != NULL;
-    if (!any || strcmp(mag, "1") != 0)
-        len += (size_t)sprintf(t, "%s.0", mag);
-    for (i = 0; i < ps->nvars; i++) {
-        if (ps->cname[i] == NULL)
-            continue;
-        for (e = 0; e < exps[i]; e++) {
-            size_t need = len + strlen(ps->cname[i]) + 5;
-            if (need > cap) {
-                cap = 2 * need;
-                t = gs_realloc(t, cap);
-            }
-            len += (size_t)sprintf(t + len, "%sp->%s", len ? "*" : "",
-                                   ps->cname[i]);
+    t->n = 0;
+    t->p[0] = '\0';
+    if (n == 0 || !unit) {
+        if (gs_int_is_small(c)) {
+            int64_t v = c->u.v;
+            gs_strbuf_add_u64(t, v < 0 ? 0 - (uint64_t)v : (uint64_t)v);
+        } else {
+            char *digits = gs_int_get_str(c);
+            gs_strbuf_add(t, digits[0] == '-' ? digits + 1 : digits);
+            gs_free(digits);
+        }
+        gs_strbuf_addn(t, ".0", 2);
+    }
+    for (j = 0; j < n; j++) {
+        const char *name = o->ps->cname[o->vars[j]];
+        size_t len = strlen(name);
+        for (e = 0; e < o->exps[j]; e++) {
+            if (t->n > 0)
+                gs_strbuf_addn(t, "*", 1);
+            gs_strbuf_addn(t, "p->", 3);
+            gs_strbuf_addn(t, name, len);
         }
     }
-    gs_free(digits);
-    return t;
 }
 
-/* Does some coefficient need more than a double's 53 bits? */
-static int has_big(const gs_poly *c)
+/* Does some coefficient of the group need more than a double's 53
+   bits? */
+static int has_big(const gs_poly *a, const size_t *idx, size_t n)
 {
     size_t i;
-    for (i = 0; i < c->length; i++)
-        if (gs_int_bits(&c->coeffs[i]) > 53)
+    for (i = 0; i < n; i++)
+        if (gs_int_bits(&a->coeffs[idx[i]]) > 53)
             return 1;
     return 0;
 }
 
-/* The sum of c's terms, continuing a line of o ("first": no leading +). */
-static void put_sum(cout *o, const params *ps, const gs_poly *c, int first,
-                    const gs_polyctx *ctx)
+/* The sum of a's terms idx[0 .. n), continuing a line of o ("first": no
+   leading +). */
+static void put_sum(cout *o, const gs_poly *a, const size_t *idx, size_t n,
+                    int first)
 {
-    unsigned *exps = gs_malloc(((size_t)ctx->nvars + 1) * sizeof *exps);
     size_t i;
-    for (i = 0; i < c->length; i++) {
-        int neg = gs_int_sgn(&c->coeffs[i]) < 0;
-        char *t;
-        gs_poly_get_term_exps(exps, c, i, ctx);
-        t = term_c(ps, &c->coeffs[i], exps);
+    for (i = 0; i < n; i++) {
+        int neg = gs_int_sgn(&a->coeffs[idx[i]]) < 0;
+        term_c(o, a, idx[i]);
         if (first && i == 0)
-            cout_piece(o, neg ? "-" : "", t);
+            cout_piece(o, neg ? "-" : "", o->term.p, o->term.n);
         else
-            cout_piece(o, neg ? " - " : " + ", t);
-        gs_free(t);
+            cout_piece(o, neg ? " - " : " + ", o->term.p, o->term.n);
     }
-    gs_free(exps);
 }
 
-/* One Horner step: "v = C;" at the top, then "v = v*s + C;". */
-static void horner_step(FILE *out, const params *ps, const gs_poly *c,
-                        char v, int top, const gs_polyctx *ctx)
+/* One Horner step over the terms idx[0 .. n) of a: "v = C;" at the top,
+   then "v = v*s + C;". */
+static void horner_step(cout *o, const gs_poly *a, const size_t *idx,
+                        size_t n, char v, int top)
 {
-    cout o;
     char lead[16];
-    o.f = out;
-    o.col = 0;
-    if (has_big(c))
-        fputs("    /* coefficients of 2^53 or more round to double */\n",
-              out);
+    o->col = 0;
+    if (has_big(a, idx, n))
+        cout_text(o, "    /* coefficients of 2^53 or more round to double */\n");
     if (top)
         snprintf(lead, sizeof lead, "    %c = ", v);
     else
         snprintf(lead, sizeof lead, "    %c = %c*s", v, v);
-    cout_piece(&o, "", lead);
-    if (top && gs_poly_is_zero(c))
-        cout_piece(&o, "", "0.0");
+    cout_piece(o, "", lead, strlen(lead));
+    if (top && n == 0)
+        cout_piece(o, "", "0.0", 3);
     else
-        put_sum(&o, ps, c, top, ctx);
-    fputs(";\n", out);
+        put_sum(o, a, idx, n, top);
+    cout_text(o, ";\n");
 }
 
-static void put_horner(FILE *out, const params *ps, const gs_poly *a, char v,
-                       int s_var, const gs_polyctx *ctx)
+/* a by Horner's rule in s: its terms sorted by their power of s, stably,
+   so that each power's terms keep a's order, which is the order of that
+   coefficient polynomial (s dropped from a lexicographic order). */
+static void put_horner(cout *o, const gs_poly *a, char v)
 {
-    size_t n, i;
-    gs_poly *c;
-    if (s_var < 0 || s_var >= ctx->nvars || gs_poly_is_zero(a)) {
-        horner_step(out, ps, a, v, 1, ctx);
+    const gs_polyctx *ctx = o->ctx;
+    size_t n = 1, i, k, nt = a->length, nw = (size_t)ctx->nwords;
+    size_t *idx = gs_malloc((nt + 1) * sizeof *idx), *start;
+    unsigned *pw;
+    int s_var = o->s_var;
+    if (s_var < 0 || s_var >= ctx->nvars || nt == 0) {
+        for (i = 0; i < nt; i++)
+            idx[i] = i;
+        horner_step(o, a, idx, nt, v, 1);
+        gs_free(idx);
         return;
     }
     n = (size_t)gs_poly_degree(a, s_var, ctx) + 1;
-    c = gs_malloc(n * sizeof *c);
-    for (i = 0; i < n; i++)
-        gs_poly_init(&c[i]);
-    gs_poly_coeffs_var(c, n, a, s_var, ctx);
-    for (i = n; i-- > 0;)
-        horner_step(out, ps, &c[i], v, i == n - 1, ctx);
-    for (i = 0; i < n; i++)
-        gs_poly_clear(&c[i]);
-    gs_free(c);
+    start = gs_calloc(n + 1, sizeof *start);
+    pw = gs_malloc(nt * sizeof *pw);
+    for (i = 0; i < nt; i++) {
+        pw[i] = gs_poly_exp_get(a->exps + i * nw, s_var);
+        start[pw[i] + 1]++;
+    }
+    for (k = 0; k < n; k++)
+        start[k + 1] += start[k];
+    for (i = 0; i < nt; i++)
+        idx[start[pw[i]]++] = i;
+    gs_free(pw);
+    /* start[k] is now the end of power k's run, start[k - 1] its start */
+    for (k = n; k-- > 0;) {
+        size_t lo = k ? start[k - 1] : 0;
+        horner_step(o, a, idx + lo, start[k] - lo, v, k == n - 1);
+    }
+    gs_free(start);
+    gs_free(idx);
 }
 
 static void put_struct(FILE *out, const params *ps, const char *fn,
@@ -303,6 +356,7 @@ void gs_print_c(FILE *out, const gs_tf *tf)
 {
     char *fn = c_ident(gs_tf_name(tf), 1);
     params ps;
+    cout o;
     int i, any = 0;
 
     params_init(&ps, tf);
@@ -321,14 +375,14 @@ void gs_print_c(FILE *out, const gs_tf *tf)
         fputs("    (void)s;\n", out);
     if (!any)
         fputs("    (void)p;\n", out);
-    put_horner(out, &ps, &tf->num, 'n', tf->s_var, tf->ctx);
-    if (poly) {
-        /* D = 1: H is the polynomial N */
-        fputs("    return n;\n}\n", out);
-    } else {
-        put_horner(out, &ps, &tf->den, 'd', tf->s_var, tf->ctx);
-        fputs("    return n / d;\n}\n", out);
-    }
+    fflush(out);
+    cout_init(&o, out, &ps, tf->ctx, tf->s_var);
+    put_horner(&o, &tf->num, 'n');
+    if (!poly)
+        put_horner(&o, &tf->den, 'd');
+    cout_clear(&o);
+    /* D = 1: H is the polynomial N */
+    fputs(poly ? "    return n;\n}\n" : "    return n / d;\n}\n", out);
     params_clear(&ps);
     gs_free(fn);
 }
