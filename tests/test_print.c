@@ -14,6 +14,7 @@
 #include "base/mem.h"
 #include "base/strbuf.h"
 #include "analysis/tf.h"
+#include "output/json.h"
 
 #include <inttypes.h>
 #include <math.h>
@@ -486,6 +487,48 @@ static void test_json_escape(fix *f)
     CHECK(json_valid("[1, -0.5e+3, true, null, {\"k\": []}]"));
     free(j);
     gs_tf_clear(&tf);
+}
+
+/* The "text" field is written as it is made, in 64 KiB pieces through
+   the escaping writer: it must be gs_json_string of gs_tf_get_str, for
+   a name that needs escapes and for a side of 6,435 terms (C(15, 8),
+   the monomials of degree 8 in 8 symbols: stars and bars), whose text
+   spans several pieces. */
+static void test_json_text_streamed(fix *f)
+{
+    static const char *const cases[][3] = {
+        { "a\"b\x01\xce\xbc\xff", "gm*RD", "1 + s*C*RD" },
+        { "Hbig", "(s + gm + Cgd + CL + C + RD + RS + C1)^8", "1 + s*C1" },
+    };
+    size_t i;
+    for (i = 0; i < sizeof cases / sizeof cases[0]; i++) {
+        gs_tf tf;
+        char *j, *line, *want, *field;
+        FILE *m = tmpfile();
+        long len;
+        gs_tf_init(&tf, f->ctx, f->s);
+        gs_tf_set_name(&tf, cases[i][0]);
+        CHECK(gs_poly_set_str(&tf.num, cases[i][1], f->ctx) == GS_OK);
+        CHECK(gs_poly_set_str(&tf.den, cases[i][2], f->ctx) == GS_OK);
+        j = capture(gs_print_json, &tf, f->s);
+        line = gs_tf_get_str(&tf, f->s);
+        fputs(", \"text\": ", m);
+        gs_json_string(m, line);
+        fputc('}', m);
+        len = ftell(m);
+        rewind(m);
+        want = calloc((size_t)len + 1, 1);
+        CHECK(fread(want, 1, (size_t)len, m) == (size_t)len);
+        fclose(m);
+        field = strstr(j, ", \"text\": ");
+        CHECK_MSG(field != NULL && strcmp(field, want) == 0
+                  && json_valid(j), "case %zu", i);
+        CHECK_MSG(i == 0 || strlen(line) > 2 * 65536, "%zu", strlen(line));
+        free(want);
+        free(line);
+        free(j);
+        gs_tf_clear(&tf);
+    }
 }
 
 /* ---- C output ---- */
@@ -1005,6 +1048,7 @@ int main(int argc, char **argv)
     test_json_golden(&f);
     test_json_structure(&f);
     test_json_escape(&f);
+    test_json_text_streamed(&f);
     test_c_golden(&f);
     test_c_names(&f);
     test_c_compiles(&f);

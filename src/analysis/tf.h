@@ -43,6 +43,9 @@ const char *gs_tf_name(const gs_tf *tf);
    that sympy's sympify reads back (implicit multiplication never used,
    powers as ^, a group as (coef)*s^k). */
 void gs_print_text(FILE *out, const gs_tf *tf, int collect_var);
+/* That line, without the newline, as a JSON string (gs_json_string's
+   escapes), written as it is made. */
+void gs_print_text_json(FILE *out, const gs_tf *tf, int collect_var);
 /* The same line as gs_print_text without the newline: a new string the
    caller frees. */
 char *gs_tf_get_str(const gs_tf *tf, int collect_var);

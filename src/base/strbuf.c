@@ -11,6 +11,7 @@ void gs_strbuf_init(gs_strbuf *b)
     b->p[0] = '\0';
     b->n = 0;
     b->sink = NULL;
+    b->put = NULL;
 }
 
 void gs_strbuf_init_sink(gs_strbuf *b, FILE *sink)
@@ -20,12 +21,16 @@ void gs_strbuf_init_sink(gs_strbuf *b, FILE *sink)
     b->p[0] = '\0';
     b->n = 0;
     b->sink = sink;
+    b->put = NULL;
 }
 
 void gs_strbuf_flush(gs_strbuf *b)
 {
     if (b->sink && b->n) {
-        fwrite(b->p, 1, b->n, b->sink);
+        if (b->put)
+            b->put(b->sink, b->p, b->n);
+        else
+            fwrite(b->p, 1, b->n, b->sink);
         b->n = 0;
         b->p[0] = '\0';
     }

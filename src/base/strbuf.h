@@ -18,6 +18,10 @@ typedef struct gs_strbuf {
     char *p;
     size_t n, cap;
     FILE *sink;             /* NULL: the whole text is kept */
+    /* how a piece reaches the sink; NULL: as it is (fwrite).  A piece
+       is what came since the last one, and never splits what one
+       gs_strbuf_addn appended when it fits the buffer. */
+    void (*put)(FILE *sink, const char *p, size_t n);
 } gs_strbuf;
 
 void gs_strbuf_init(gs_strbuf *b);          /* the empty string */

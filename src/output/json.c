@@ -1,8 +1,11 @@
 /* json.c - JSON strings (RFC 8259). See LICENSE. */
 #include "output/json.h"
 
-/* Length of the valid UTF-8 sequence at s (RFC 3629, section 4), or 0. */
-static size_t utf8_len(const unsigned char *s)
+#include <string.h>
+
+/* Length of the valid UTF-8 sequence at s, of avail bytes (RFC 3629,
+   section 4), or 0. */
+static size_t utf8_len(const unsigned char *s, size_t avail)
 {
     size_t n, i;
     unsigned char lo = 0x80, hi = 0xBF;
@@ -13,6 +16,8 @@ static size_t utf8_len(const unsigned char *s)
     else if (s[0] >= 0xF0 && s[0] <= 0xF4)
         n = 4;
     else
+        return 0;
+    if (n > avail)
         return 0;
     if (s[0] == 0xE0)
         lo = 0xA0;
@@ -30,12 +35,18 @@ static size_t utf8_len(const unsigned char *s)
     return n;
 }
 
-void gs_json_string(FILE *out, const char *str)
+void gs_json_put_escaped(FILE *out, const char *str, size_t len)
 {
-    const unsigned char *s = (const unsigned char *)str;
-    fputc('"', out);
-    while (*s) {
+    const unsigned char *s = (const unsigned char *)str, *end = s + len;
+    while (s < end) {
+        const unsigned char *run = s;
         size_t n;
+        while (s < end && *s >= 0x20 && *s < 0x80 && *s != '"' && *s != '\\')
+            s++;
+        if (s > run)            /* the plain bytes at once */
+            fwrite(run, 1, (size_t)(s - run), out);
+        if (s == end)
+            break;
         if (*s == '"' || *s == '\\') {
             fputc('\\', out);
             fputc(*s++, out);
@@ -47,9 +58,7 @@ void gs_json_string(FILE *out, const char *str)
             s++;
         } else if (*s < 0x20) {
             fprintf(out, "\\u%04x", (unsigned)*s++);
-        } else if (*s < 0x80) {
-            fputc(*s++, out);
-        } else if ((n = utf8_len(s)) > 0) {
+        } else if ((n = utf8_len(s, (size_t)(end - s))) > 0) {
             fwrite(s, 1, n, out);
             s += n;
         } else {
@@ -57,5 +66,11 @@ void gs_json_string(FILE *out, const char *str)
             s++;
         }
     }
+}
+
+void gs_json_string(FILE *out, const char *str)
+{
+    fputc('"', out);
+    gs_json_put_escaped(out, str, strlen(str));
     fputc('"', out);
 }

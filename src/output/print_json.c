@@ -73,26 +73,29 @@ static void put_coeff(gs_strbuf *b, const gs_int *c)
     }
 }
 
-/* {"power": k, "terms": [{"coeff": "-2", "exps": {"gm": 1}}, ...]},
-   streamed, each term's factors read from the packed words */
-static void put_group(FILE *out, const gs_poly *c, long power,
-                      const gs_polyctx *ctx, int *vars, unsigned *exps)
+/* {"power": k, "terms": [{"coeff": "-2", "exps": {"gm": 1}}, ...]} for
+   the terms idx[0 .. n) of a, their power of x_skip left out (skip -1:
+   none), streamed, each term's factors read from the packed words */
+static void put_group(FILE *out, const gs_poly *a, const size_t *idx,
+                      size_t n, long power, int skip, const gs_polyctx *ctx,
+                      int *vars, unsigned *exps)
 {
     gs_strbuf b;
     size_t i;
-    int j, n;
+    int j, nf;
     gs_strbuf_init_sink(&b, out);
     gs_strbuf_add(&b, "{\"power\": ");
     if (power < 0)
         gs_strbuf_addn(&b, "-", 1);
     gs_strbuf_add_u64(&b, power < 0 ? 0 - (uint64_t)power : (uint64_t)power);
     gs_strbuf_add(&b, ", \"terms\": [");
-    for (i = 0; i < c->length; i++) {
+    for (i = 0; i < n; i++) {
+        size_t t = idx ? idx[i] : i;
         gs_strbuf_add(&b, i ? ", {\"coeff\": \"" : "{\"coeff\": \"");
-        put_coeff(&b, &c->coeffs[i]);
+        put_coeff(&b, &a->coeffs[t]);
         gs_strbuf_add(&b, "\", \"exps\": {");
-        n = gs_poly_term_factors(vars, exps, c, i, -1, ctx);
-        for (j = 0; j < n; j++) {
+        nf = gs_poly_term_factors(vars, exps, a, t, skip, ctx);
+        for (j = 0; j < nf; j++) {
             if (j > 0)
                 gs_strbuf_addn(&b, ", ", 2);
             put_name(&b, gs_symtab_name(ctx->syms, vars[j]));
@@ -106,7 +109,10 @@ static void put_group(FILE *out, const gs_poly *c, long power,
     gs_strbuf_clear(&b);
 }
 
-/* The groups of a by descending power of var (one group when var < 0). */
+/* The groups of a by descending power of var (one group when var < 0):
+   a's terms sorted by their power, stably, so that each power's terms
+   keep a's order, which is the order of that coefficient polynomial
+   (var dropped from a lexicographic order), without copying them. */
 static void put_poly(FILE *out, const gs_poly *a, int var,
                      const gs_polyctx *ctx)
 {
@@ -116,23 +122,35 @@ static void put_poly(FILE *out, const gs_poly *a, int var,
     fputc('[', out);
     if (var < 0 || var >= ctx->nvars) {
         if (!gs_poly_is_zero(a))
-            put_group(out, a, 0, ctx, vars, exps);
+            put_group(out, a, NULL, a->length, 0, -1, ctx, vars, exps);
     } else if (!gs_poly_is_zero(a)) {
-        size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i;
-        gs_poly *c = gs_malloc(n * sizeof *c);
-        for (i = 0; i < n; i++)
-            gs_poly_init(&c[i]);
-        gs_poly_coeffs_var(c, n, a, var, ctx);
-        for (i = n; i-- > 0;) {
-            if (gs_poly_is_zero(&c[i]))
+        size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i, k;
+        size_t nt = a->length, nw = (size_t)ctx->nwords;
+        size_t *start = gs_calloc(n + 1, sizeof *start);
+        size_t *idx = gs_malloc(nt * sizeof *idx);
+        unsigned *pw = gs_malloc(nt * sizeof *pw);
+        for (i = 0; i < nt; i++) {
+            pw[i] = gs_poly_exp_get(a->exps + i * nw, var);
+            start[pw[i] + 1]++;
+        }
+        for (k = 0; k < n; k++)
+            start[k + 1] += start[k];
+        for (i = 0; i < nt; i++)
+            idx[start[pw[i]]++] = i;
+        gs_free(pw);
+        /* start[k] is now the end of power k's run, start[k - 1] its
+           beginning */
+        for (k = n; k-- > 0;) {
+            size_t lo = k ? start[k - 1] : 0;
+            if (lo == start[k])
                 continue;
             fputs(first ? "" : ", ", out);
-            put_group(out, &c[i], (long)i, ctx, vars, exps);
+            put_group(out, a, idx + lo, start[k] - lo, (long)k, var, ctx,
+                      vars, exps);
             first = 0;
         }
-        for (i = 0; i < n; i++)
-            gs_poly_clear(&c[i]);
-        gs_free(c);
+        gs_free(idx);
+        gs_free(start);
     }
     fputc(']', out);
     gs_free(vars);
@@ -141,7 +159,6 @@ static void put_poly(FILE *out, const gs_poly *a, int var,
 
 void gs_print_json(FILE *out, const gs_tf *tf, int collect_var)
 {
-    char *text = gs_tf_get_str(tf, collect_var);
     fputs("{\"name\": ", out);
     gs_json_string(out, gs_tf_name(tf));
     fprintf(out, ", \"kind\": \"%s\", \"description\": ",
@@ -161,7 +178,6 @@ void gs_print_json(FILE *out, const gs_tf *tf, int collect_var)
     fputs(", \"den\": ", out);
     put_poly(out, &tf->den, collect_var, tf->ctx);
     fputs(", \"text\": ", out);
-    gs_json_string(out, text);
+    gs_print_text_json(out, tf, collect_var);
     fputc('}', out);
-    gs_free(text);
 }

@@ -11,6 +11,7 @@
 #include "analysis/tf.h"
 #include "base/mem.h"
 #include "base/strbuf.h"
+#include "output/json.h"
 
 #include <ctype.h>
 #include <stdint.h>
@@ -475,12 +476,15 @@ char *gs_tf_get_str(const gs_tf *tf, int collect_var)
 
 /* The same line as gs_tf_get_str, written to out as it is made: a result
    of millions of terms needs no string of its size (nor two). */
-void gs_print_text(FILE *out, const gs_tf *tf, int collect_var)
+static void print_line(FILE *out, const gs_tf *tf, int collect_var,
+                       void (*put)(FILE *, const char *, size_t),
+                       const char *end)
 {
     sbuf b;
     style st;
     int poly = gs_poly_is_one(&tf->den, tf->ctx);
     sb_init_stream(&b, out);
+    b.s.put = put;
     style_init(&st, tf->ctx, 0);
     sb_puts(&b, gs_tf_name(tf));
     sb_puts(&b, poly ? " = " : " = (");
@@ -490,10 +494,22 @@ void gs_print_text(FILE *out, const gs_tf *tf, int collect_var)
         put_poly(&b, &st, &tf->den, collect_var);
         sb_puts(&b, ")");
     }
-    sb_puts(&b, "\n");
+    sb_puts(&b, end);
     gs_strbuf_flush(&b.s);
     style_clear(&st);
     sb_free(&b);
+}
+
+void gs_print_text(FILE *out, const gs_tf *tf, int collect_var)
+{
+    print_line(out, tf, collect_var, NULL, "\n");
+}
+
+void gs_print_text_json(FILE *out, const gs_tf *tf, int collect_var)
+{
+    fputc('"', out);
+    print_line(out, tf, collect_var, gs_json_put_escaped, "");
+    fputc('"', out);
 }
 
 /* A LaTeX side longer than this many characters of its text form is
