@@ -12,6 +12,7 @@ void gs_strbuf_init(gs_strbuf *b)
     b->n = 0;
     b->sink = NULL;
     b->put = NULL;
+    b->put_arg = NULL;
 }
 
 void gs_strbuf_init_sink(gs_strbuf *b, FILE *sink)
@@ -22,13 +23,23 @@ void gs_strbuf_init_sink(gs_strbuf *b, FILE *sink)
     b->n = 0;
     b->sink = sink;
     b->put = NULL;
+    b->put_arg = NULL;
+}
+
+void gs_strbuf_init_put(gs_strbuf *b,
+                        void (*put)(void *put_arg, const char *p, size_t n),
+                        void *put_arg)
+{
+    gs_strbuf_init_sink(b, NULL);
+    b->put = put;
+    b->put_arg = put_arg;
 }
 
 void gs_strbuf_flush(gs_strbuf *b)
 {
-    if (b->sink && b->n) {
+    if ((b->sink || b->put) && b->n) {
         if (b->put)
-            b->put(b->sink, b->p, b->n);
+            b->put(b->put_arg, b->p, b->n);
         else
             fwrite(b->p, 1, b->n, b->sink);
         b->n = 0;

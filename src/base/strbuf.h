@@ -18,15 +18,20 @@ typedef struct gs_strbuf {
     char *p;
     size_t n, cap;
     FILE *sink;             /* NULL: the whole text is kept */
-    /* how a piece reaches the sink; NULL: as it is (fwrite).  A piece
-       is what came since the last one, and never splits what one
-       gs_strbuf_addn appended when it fits the buffer. */
-    void (*put)(FILE *sink, const char *p, size_t n);
+    /* Where the pieces go instead, when not NULL: put(put_arg, piece,
+       length).  A piece is what came since the last one, and never
+       splits what one gs_strbuf_addn appended when it fits the buffer. */
+    void (*put)(void *put_arg, const char *p, size_t n);
+    void *put_arg;
 } gs_strbuf;
 
 void gs_strbuf_init(gs_strbuf *b);          /* the empty string */
 /* The empty string streamed to sink; gs_strbuf_flush writes the rest. */
 void gs_strbuf_init_sink(gs_strbuf *b, FILE *sink);
+/* The empty string streamed to put (see above). */
+void gs_strbuf_init_put(gs_strbuf *b,
+                        void (*put)(void *put_arg, const char *p, size_t n),
+                        void *put_arg);
 void gs_strbuf_flush(gs_strbuf *b);
 void gs_strbuf_clear(gs_strbuf *b);
 /* room for `more` bytes after the text and its NUL (doubling; with a

@@ -375,7 +375,6 @@ void gs_print_c(FILE *out, const gs_tf *tf)
         fputs("    (void)s;\n", out);
     if (!any)
         fputs("    (void)p;\n", out);
-    fflush(out);
     cout_init(&o, out, &ps, tf->ctx, tf->s_var);
     put_horner(&o, &tf->num, 'n');
     if (!poly)

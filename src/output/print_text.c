@@ -28,6 +28,12 @@ typedef struct sbuf {
     size_t *brk;
     size_t nbrk, capbrk;
     int streamed;           /* 1: s has a sink, no breaks are kept */
+    int measured;           /* 1: the text is dropped, its breaks kept */
+    size_t given;           /* bytes of text already dropped */
+    /* Streamed with line breaks: cut[j] nonzero ends a line at break j
+       (NULL: none), nseen the breaks passed so far. */
+    const unsigned char *cut;
+    size_t nseen;
 } sbuf;
 
 /* How names, products, powers and groups are spelt. */
@@ -51,6 +57,10 @@ static void sb_init(sbuf *b)
     b->brk = NULL;
     b->nbrk = b->capbrk = 0;
     b->streamed = 0;
+    b->measured = 0;
+    b->given = 0;
+    b->cut = NULL;
+    b->nseen = 0;
 }
 
 /* Text written to out as it is made, in 64 KiB pieces. */
@@ -60,6 +70,28 @@ static void sb_init_stream(sbuf *b, FILE *out)
     gs_strbuf_clear(&b->s);
     gs_strbuf_init_sink(&b->s, out);
     b->streamed = 1;
+}
+
+static void count_piece(void *given, const char *p, size_t n)
+{
+    (void)p;
+    *(size_t *)given += n;
+}
+
+/* Text only measured: its break points are kept (as offsets in the
+   whole text), the text itself is dropped 64 KiB at a time. */
+static void sb_init_measure(sbuf *b)
+{
+    sb_init(b);
+    gs_strbuf_clear(&b->s);
+    gs_strbuf_init_put(&b->s, count_piece, &b->given);
+    b->measured = 1;
+}
+
+/* The length of the text so far. */
+static size_t sb_length(const sbuf *b)
+{
+    return b->given + b->s.n;
 }
 
 static void sb_free(sbuf *b)
@@ -78,15 +110,18 @@ static void sb_puts(sbuf *b, const char *s)
     gs_strbuf_add(&b->s, s);
 }
 
-static void sb_mark_break(sbuf *b)
+/* A place where the line may break; nonzero when b's cut list ends the
+   line here. */
+static int sb_mark_break(sbuf *b)
 {
-    if (b->streamed)
-        return;
+    if (b->streamed && !b->measured)
+        return b->cut != NULL && b->cut[b->nseen++];
     if (b->nbrk == b->capbrk) {
         b->capbrk = b->capbrk ? 2 * b->capbrk : 16;
         b->brk = gs_reallocarray(b->brk, b->capbrk, sizeof *b->brk);
     }
-    b->brk[b->nbrk++] = b->s.n;
+    b->brk[b->nbrk++] = sb_length(b);
+    return 0;
 }
 
 static int is_identifier(const char *s)
@@ -319,7 +354,11 @@ static void put_sign(sbuf *b, int negative, int first)
             sb_putn(b, "-", 1);
         return;
     }
-    sb_mark_break(b);
+    if (sb_mark_break(b)) {     /* multline's break, then "+ term" */
+        sb_puts(b, " \\displaybreak[0]\\\\\n");
+        sb_putn(b, negative ? "- " : "+ ", 2);
+        return;
+    }
     sb_putn(b, negative ? " - " : " + ", 3);
 }
 
@@ -441,15 +480,21 @@ static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
     }
 }
 
-/* a in the style latex, with its break points. */
-static void poly_sbuf(sbuf *b, const gs_tf *tf, const gs_poly *a,
+/* a in the style latex, with its break points (b initialised, empty). */
+static void poly_into(sbuf *b, const gs_tf *tf, const gs_poly *a,
                       int collect_var, int latex)
 {
     style st;
-    sb_init(b);
     style_init(&st, tf->ctx, latex);
     put_poly(b, &st, a, collect_var);
     style_clear(&st);
+}
+
+static void poly_sbuf(sbuf *b, const gs_tf *tf, const gs_poly *a,
+                      int collect_var, int latex)
+{
+    sb_init(b);
+    poly_into(b, tf, a, collect_var, latex);
 }
 
 static char *poly_str(const gs_tf *tf, const gs_poly *a, int collect_var,
@@ -477,7 +522,7 @@ char *gs_tf_get_str(const gs_tf *tf, int collect_var)
 /* The same line as gs_tf_get_str, written to out as it is made: a result
    of millions of terms needs no string of its size (nor two). */
 static void print_line(FILE *out, const gs_tf *tf, int collect_var,
-                       void (*put)(FILE *, const char *, size_t),
+                       void (*put)(void *, const char *, size_t),
                        const char *end)
 {
     sbuf b;
@@ -485,6 +530,7 @@ static void print_line(FILE *out, const gs_tf *tf, int collect_var,
     int poly = gs_poly_is_one(&tf->den, tf->ctx);
     sb_init_stream(&b, out);
     b.s.put = put;
+    b.s.put_arg = out;
     style_init(&st, tf->ctx, 0);
     sb_puts(&b, gs_tf_name(tf));
     sb_puts(&b, poly ? " = " : " = (");
@@ -505,10 +551,15 @@ void gs_print_text(FILE *out, const gs_tf *tf, int collect_var)
     print_line(out, tf, collect_var, NULL, "\n");
 }
 
+static void json_piece(void *out, const char *p, size_t n)
+{
+    gs_json_put_escaped(out, p, n);
+}
+
 void gs_print_text_json(FILE *out, const gs_tf *tf, int collect_var)
 {
     fputc('"', out);
-    print_line(out, tf, collect_var, gs_json_put_escaped, "");
+    print_line(out, tf, collect_var, json_piece, "");
     fputc('"', out);
 }
 
@@ -521,32 +572,36 @@ void gs_print_text_json(FILE *out, const gs_tf *tf, int collect_var)
    in the same order, so the same break points) measures each line, and
    a line ends where the next term would pass LATEX_COLS.  The breaks
    are multline's "\\", each allowing a page break (\displaybreak[0]),
-   so even a result of hundreds of terms is set. */
+   so even a result of hundreds of terms is set.  Two walks, neither
+   kept whole: the text's only counts where its breaks fall, which
+   decides the lines; the LaTeX is then written as it is made, ending a
+   line at each break so chosen. */
 static void latex_broken(FILE *out, const gs_tf *tf, const gs_poly *a,
                          int collect_var)
 {
     sbuf tx, lx;
-    size_t j, start = 0, cut = 0, lstart = 0, lcut = 0, bp;
+    size_t j, start = 0, cut = 0, bp;
+    unsigned char *ends;
     int have_cut = 0;
-    poly_sbuf(&tx, tf, a, collect_var, 0);
-    poly_sbuf(&lx, tf, a, collect_var, 2);
-    for (j = 0; j <= tx.nbrk && tx.nbrk == lx.nbrk; j++) {
-        bp = j < tx.nbrk ? tx.brk[j] : tx.s.n;
+    sb_init_measure(&tx);
+    poly_into(&tx, tf, a, collect_var, 0);
+    ends = gs_calloc(tx.nbrk + 1, 1);
+    for (j = 0; j <= tx.nbrk; j++) {
+        bp = j < tx.nbrk ? tx.brk[j] : sb_length(&tx);
         if (bp - start > LATEX_COLS && have_cut && cut > start) {
-            fwrite(lx.s.p + lstart, 1, lcut - lstart, out);
-            fputs(" \\displaybreak[0]\\\\\n", out);
+            ends[j - 1] = 1;        /* the line before break j - 1 */
             start = cut + 1;        /* the line goes on with "+ term" */
-            lstart = lcut + 1;
         }
         cut = bp;
-        lcut = j < lx.nbrk ? lx.brk[j] : lx.s.n;
         have_cut = 1;
     }
-    if (tx.nbrk != lx.nbrk)         /* cannot happen: one walk for both */
-        lstart = 0;
-    fputs(lx.s.p + lstart, out);
     sb_free(&tx);
+    sb_init_stream(&lx, out);
+    lx.cut = ends;
+    poly_into(&lx, tf, a, collect_var, 2);
+    gs_strbuf_flush(&lx.s);
     sb_free(&lx);
+    gs_free(ends);
 }
 
 static size_t text_len(const gs_tf *tf, const gs_poly *a, int collect_var)
