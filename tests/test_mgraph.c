@@ -590,6 +590,77 @@ static void test_dense_budget(void)
     gs_job_clear(&j);
 }
 
+/* A full mesh of 12 nodes (gnd one of them), whose expansion no budget
+   of the default kind holds: the derivation's size gate refuses it and
+   hands over the graph it built (gs_derive_opts.graph_out), and that
+   graph is the one built from the MNA afresh (the same nodes, edges and
+   exact path counts).  A job asked for numbers keeps that graph, without
+   building a second. */
+static void test_gate_hands_graph(void)
+{
+    char text[16384];
+    size_t at = 0;
+    int a, b, k = 0;
+    gs_job j;
+    gs_diag d;
+    gs_mna m;
+    gs_mgraph fresh, *given = NULL;
+    gs_tf tf;
+    gs_derive_opts o;
+    gs_derive_stats st;
+    gs_int p1, p2;
+    for (a = 0; a < 12; a++)
+        for (b = a + 1; b < 12; b++) {
+            k++;
+            at += (size_t)snprintf(text + at, sizeof text - at,
+                                   a == 0 ? "resistor R%d gnd p%d\n"
+                                          : "resistor R%d p%d p%d\n",
+                                   k, a == 0 ? b : a, b);
+        }
+    snprintf(text + at, sizeof text - at, "impedance Z = p1, gnd\n");
+    gs_job_init(&j);
+    gs_diag_init(&d);
+    CHECK(gs_job_load_string(&j, "k12.gsc", text, &d) == GS_OK);
+    gs_derive_opts_default(&o);
+    o.graph_out = &given;
+    memset(&st, 0, sizeof st);
+    gs_tf_init(&tf, j.ctx, j.c->s_sym);
+    CHECK(gs_derive(&tf, j.c, 0, j.ctx, &o, &st, &d) == GS_EBUDGET);
+    CHECK(given != NULL && !st.graph_refused);
+    memset(&m, 0, sizeof m);
+    CHECK(gs_mna_build(&m, j.c, 0, j.ctx, &d) == GS_OK);
+    CHECK(gs_mgraph_build(&fresh, &m, GS_MGRAPH_ORDER_GREEDY, 0, j.ctx)
+          == GS_OK);
+    gs_int_init(&p1);
+    gs_int_init(&p2);
+    if (given != NULL) {
+        CHECK(given->nnodes == fresh.nnodes && given->nedges == fresh.nedges
+              && st.graph_nodes == fresh.nnodes && given->ctx == j.ctx);
+        gs_mgraph_count_paths(&p1, given, given->root_d);
+        gs_mgraph_count_paths(&p2, &fresh, fresh.root_d);
+        CHECK(gs_int_cmp(&p1, &p2) == 0 && gs_int_cmp_si(&p1, 2000000) > 0);
+        gs_mgraph_count_paths(&p1, given, given->root_n);
+        gs_mgraph_count_paths(&p2, &fresh, fresh.root_n);
+        CHECK(gs_int_cmp(&p1, &p2) == 0);
+        gs_mgraph_clear(given);
+        free(given);
+    }
+    gs_int_clear(&p1);
+    gs_int_clear(&p2);
+    gs_mgraph_clear(&fresh);
+    gs_mna_clear(&m);
+    gs_tf_clear(&tf);
+    gs_diag_clear(&d);
+    gs_diag_init(&d);
+    j.graph_ok = 1;
+    o.graph_out = NULL;         /* the job asks for it itself */
+    CHECK(gs_job_derive(&j, NULL, &o, &d) == GS_OK);
+    CHECK(j.ntf == 1 && j.graph != NULL && j.graph[0] != NULL
+          && j.graph[0]->nnodes == j.stats[0].graph_nodes);
+    gs_diag_clear(&d);
+    gs_job_clear(&j);
+}
+
 int main(void)
 {
     static const char *const files[] = {
@@ -604,6 +675,7 @@ int main(void)
     };
     int i;
     test_dense_budget();
+    test_gate_hands_graph();
     for (i = 0; files[i]; i++)
         check_circuit(files[i]);
     {

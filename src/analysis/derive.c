@@ -17,6 +17,7 @@ void gs_derive_opts_default(gs_derive_opts *o)
     o->elim.max_terms = GS_DEFAULT_MAX_TERMS;
     o->elim.max_bytes = GS_DEFAULT_MAX_BYTES;
     o->terms_given = 0;
+    o->graph_out = NULL;
     o->limits = NULL;
     o->nlimits = 0;
     o->no_gcd = 0;
@@ -244,8 +245,11 @@ static double degree_bound(const gs_mna *m, int k, const gs_polyctx *ctx)
     return bound;
 }
 
+/* The graph is handed to *out (when not NULL) on a refusal by its
+   paths, for the caller's numbers. */
 static int size_gate(const gs_mna *m, const gs_polyctx *ctx,
-                     size_t max_bytes, gs_derive_stats *stats, gs_diag *d)
+                     size_t max_bytes, gs_derive_stats *stats, gs_diag *d,
+                     gs_mgraph **out)
 {
     gs_mgraph g;
     gs_int c;
@@ -253,8 +257,10 @@ static int size_gate(const gs_mna *m, const gs_polyctx *ctx,
     int rc = gs_mgraph_build(&g, m, GS_MGRAPH_ORDER_GREEDY, max_bytes, ctx);
     if (rc != GS_OK) {
         gs_mgraph_clear(&g);
-        if (rc == GS_EBUDGET)
+        if (rc == GS_EBUDGET) {
             gs_mgraph_refused(d, max_bytes);
+            stats->graph_refused = 1;
+        }
         /* singular: elimination says why */
         return rc == GS_EBUDGET ? GS_EBUDGET : GS_OK;
     }
@@ -266,14 +272,21 @@ static int size_gate(const gs_mna *m, const gs_polyctx *ctx,
     gs_mgraph_count_paths(&c, &g, g.root_d);
     stats->graph_paths_d = (double)gs_int_get_d(&c);
     gs_int_clear(&c);
-    gs_mgraph_clear(&g);
     bd = degree_bound(m, m->n, ctx);
     /* N is c0 det A - det M */
     bn = degree_bound(m, m->n + 1, ctx) + (m->c0.length ? bd : 0);
     bn = bn < stats->graph_paths_n ? bn : stats->graph_paths_n;
     bd = bd < stats->graph_paths_d ? bd : stats->graph_paths_d;
-    if (bn <= GS_DERIVE_MAX_PATHS && bd <= GS_DERIVE_MAX_PATHS)
+    if (bn <= GS_DERIVE_MAX_PATHS && bd <= GS_DERIVE_MAX_PATHS) {
+        gs_mgraph_clear(&g);
         return GS_OK;
+    }
+    if (out) {
+        *out = gs_malloc(sizeof **out);
+        **out = g;              /* moved: its storage is the caller's */
+    } else {
+        gs_mgraph_clear(&g);
+    }
     gs_diag_add(d, GS_SEV_ERROR, NULL, 0, 0,
                 "eval, bode, poles and check compute from the graph, approx "
                 "gives the dominant terms; --max-terms N expands anyway",
@@ -316,23 +329,19 @@ static int expand(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
    can be far too many (a resistor chain, whose det is one product, has
    10^24 paths at 64 resistors), so a refusal is tried once: the
    expansion within GS_DERIVE_TRY_TERMS terms an entry.  Only when that
-   outgrows its budget does the gate's message stand. */
+   outgrows its budget does the gate's message stand (determinants, at
+   the end of this part, runs the gate).  Here: the expansion, or with
+   the gate's refusal in gate (not NULL) the trial, gate's message
+   standing if the trial fails; gate is cleared. */
 static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
                            const gs_polyctx *ctx, const gs_derive_opts *o,
-                           gs_derive_stats *stats, gs_diag *d)
+                           gs_derive_stats *stats, gs_diag *d, gs_diag *gate)
 {
     gs_derive_opts tried;
-    gs_diag gate, trial;
+    gs_diag trial;
     int rc;
-    if (o->method != GS_DET_AUTO || o->terms_given)
+    if (gate == NULL)
         return expand(det_a, det_m, m, ctx, o, stats, d);
-    gs_diag_init(&gate);
-    rc = size_gate(m, ctx, o->elim.max_bytes, stats, &gate);
-    if (rc != GS_EBUDGET) {
-        gs_diag_append(d, &gate);
-        gs_diag_clear(&gate);
-        return rc != GS_OK ? rc : expand(det_a, det_m, m, ctx, o, stats, d);
-    }
     tried = *o;
     if (tried.elim.max_terms == 0 || tried.elim.max_terms > GS_DERIVE_TRY_TERMS)
         tried.elim.max_terms = GS_DERIVE_TRY_TERMS;
@@ -342,9 +351,9 @@ static int determinants_in(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
        outgrew its budget or its exponents, and the graph holds it */
     if (rc != GS_OK)
         rc = GS_EBUDGET;
-    gs_diag_append(d, rc == GS_EBUDGET ? &gate : &trial);
+    gs_diag_append(d, rc == GS_EBUDGET ? gate : &trial);
     gs_diag_clear(&trial);
-    gs_diag_clear(&gate);
+    gs_diag_clear(gate);
     return rc;
 }
 
@@ -388,9 +397,10 @@ static void remap_back(gs_poly *det_a, gs_poly *det_m, gs_poly *sa,
    of those alone every monomial packs into fewer words, and the products
    move less memory.  The small context's symbols are the used ones in
    their order, so mapping back keeps the term order. */
-static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
-                        const gs_polyctx *ctx, const gs_derive_opts *o,
-                        gs_derive_stats *stats, gs_diag *d)
+static int determinants_small(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
+                              const gs_polyctx *ctx, const gs_derive_opts *o,
+                              gs_derive_stats *stats, gs_diag *d,
+                              gs_diag *refused)
 {
     size_t k, cells = (size_t)(m->n + 1) * (size_t)(m->n + 1);
     unsigned char *used = gs_calloc((size_t)ctx->nvars + 1, 1);
@@ -422,7 +432,7 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
     gs_free(here);
     small = gs_polyctx_new(st, nsmall);
     if (small->nwords >= ctx->nwords) {
-        rc = determinants_in(det_a, det_m, m, ctx, o, stats, d);
+        rc = determinants_in(det_a, det_m, m, ctx, o, stats, d, refused);
     } else {
         ms = *m;        /* names and scale borrowed, entries new */
         ms.m = gs_malloc(cells * sizeof *ms.m);
@@ -432,7 +442,7 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
         }
         gs_poly_init(&sa);
         gs_poly_init(&sm);
-        rc = determinants_in(&sa, &sm, &ms, small, o, stats, d);
+        rc = determinants_in(&sa, &sm, &ms, small, o, stats, d, refused);
         if (rc == GS_OK)
             remap_back(det_a, det_m, &sa, &sm, back, small, ctx);
         gs_poly_clear(&sa);
@@ -446,6 +456,27 @@ static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
     gs_free(fwd);
     gs_free(back);
     return rc;
+}
+
+/* Under AUTO with the default budget the gate runs first, on the MNA as
+   it is, so that a graph it hands out (o->graph_out) is in the caller's
+   context. */
+static int determinants(gs_poly *det_a, gs_poly *det_m, gs_mna *m,
+                        const gs_polyctx *ctx, const gs_derive_opts *o,
+                        gs_derive_stats *stats, gs_diag *d)
+{
+    gs_diag gate;
+    int rc;
+    if (o->method != GS_DET_AUTO || o->terms_given)
+        return determinants_small(det_a, det_m, m, ctx, o, stats, d, NULL);
+    gs_diag_init(&gate);
+    rc = size_gate(m, ctx, o->elim.max_bytes, stats, &gate, o->graph_out);
+    if (rc == GS_EBUDGET)       /* the trial, and gate's message if not */
+        return determinants_small(det_a, det_m, m, ctx, o, stats, d, &gate);
+    gs_diag_append(d, &gate);
+    gs_diag_clear(&gate);
+    return rc != GS_OK ? rc
+           : determinants_small(det_a, det_m, m, ctx, o, stats, d, NULL);
 }
 
 /* ---- figures: rational functions of other outputs ---- */

@@ -34,6 +34,11 @@ typedef struct gs_derive_opts {
                                 graph counts; 0: the default budget, and
                                 AUTO first refuses a graph counting more
                                 than GS_DERIVE_MAX_PATHS paths */
+    struct gs_mgraph **graph_out;   /* not NULL: where the graph of minors
+                                built by that refusal goes (the caller
+                                then owns it, and frees it when the
+                                result came anyway), so that the numbers
+                                need not build it again */
 } gs_derive_opts;
 
 typedef struct gs_derive_stats {
@@ -46,6 +51,7 @@ typedef struct gs_derive_stats {
     size_t graph_edges;      /* (mgraph.h); 0 otherwise */
     double graph_paths_n;    /* its path counts: the terms N and D would */
     double graph_paths_d;    /* have before equal monomials combine */
+    int graph_refused;       /* 1: the graph passed the memory budget */
     int no_limit;            /* 1: GS_ERANGE because a limit of o is
                                 infinite (not an exponent overflow) */
 } gs_derive_stats;

@@ -279,6 +279,8 @@ static int derive_one_raw(gs_job *j, size_t k, const gs_derive_opts *o,
 {
     gs_tf *tf;
     gs_diag here;
+    gs_derive_opts given;
+    gs_mgraph *g = NULL;
     int rc;
     j->graph = gs_reallocarray(j->graph, j->ntf + 1, sizeof *j->graph);
     j->graph[j->ntf] = NULL;
@@ -291,13 +293,26 @@ static int derive_one_raw(gs_job *j, size_t k, const gs_derive_opts *o,
     j->out_index[j->ntf] = k;
     if (!j->graph_ok || o->nlimits)
         return gs_derive(tf, j->c, k, j->ctx, o, &j->stats[j->ntf++], d);
-    /* an expansion over the budget: the numbers come from the graph */
+    /* an expansion over the budget: the numbers come from the graph,
+       the one the derivation's size gate built when it refused */
     gs_diag_init(&here);
-    rc = gs_derive(tf, j->c, k, j->ctx, o, &j->stats[j->ntf++], &here);
-    if (rc == GS_EBUDGET) {
+    given = *o;
+    given.graph_out = &g;
+    rc = gs_derive(tf, j->c, k, j->ctx, &given, &j->stats[j->ntf++], &here);
+    if (rc == GS_EBUDGET && g != NULL) {
+        gs_diag_clear(&here);
+        gs_diag_init(&here);
+        j->graph[j->ntf - 1] = g;
+        g = NULL;
+        rc = GS_OK;
+    } else if (rc == GS_EBUDGET && !j->stats[j->ntf - 1].graph_refused) {
         gs_diag_clear(&here);
         gs_diag_init(&here);
         rc = keep_graph(j, k, o->elim.max_bytes, &here);
+    }
+    if (g != NULL) {            /* the trial expanded it after all */
+        gs_mgraph_clear(g);
+        gs_free(g);
     }
     gs_diag_append(d, &here);
     gs_diag_clear(&here);
