@@ -130,6 +130,62 @@ static int xterm_cmp(const void *pa, const void *pb)
     return 0;
 }
 
+/* Every term of t is the expansion's term of its monomial (cf, x: the
+   coefficient of s^p, its terms), coefficient and all, in decreasing
+   |value|; rest is the total less their sum.  Sets *sum. */
+static int terms_exact(const gs_mgraph_terms *t, const gs_poly *cf,
+                       const xterm *x, int s, int p, const gs_polyctx *ctx)
+{
+    int nv = ctx->nvars, ok = 1;
+    unsigned *ex = malloc(((size_t)nv + 1) * sizeof *ex);
+    long double sum = 0;
+    size_t i, m;
+    for (i = 0; i < t->count && ok; i++) {
+        gs_poly_get_term_exps(ex, &t->term[i], 0, ctx);
+        ok = (int)ex[s] == p;
+        ex[s] = 0;
+        for (m = 0; m < cf->length; m++)
+            if (memcmp(ex, x[m].exps, (size_t)nv * sizeof *ex) == 0)
+                break;
+        ok = ok && m < cf->length
+             && gs_int_cmp(&cf->coeffs[x[m].at], &t->term[i].coeffs[0]) == 0
+             && (i == 0 || fabsl(t->value[i]) <= fabsl(t->value[i - 1]));
+        sum += t->value[i];
+    }
+    free(ex);
+    return ok && fabsl(t->rest - (t->total - sum))
+                 <= 1e-9L * (fabsl(t->total) + fabsl(sum)) + 1e-300L;
+}
+
+/* A search stopped by its memory budget (16 and 128 KiB of states here)
+   keeps only terms whose coefficients were final: terms_exact holds. */
+static int budget_stops;
+
+/* Set while a circuit whose elements share symbols is checked: there a
+   monomial collects several paths, whose sum can pass a kept term's
+   value after that term was kept, so the prefix is exact term by term
+   but not always the k largest. */
+static int shared_symbols;
+
+static void check_within_budget(const gs_mgraph *g, const gs_poly *cf,
+                                const xterm *x, int s, int p,
+                                const long double *vals, const char *path)
+{
+    static const size_t budgets[] = {16384, 131072};
+    size_t bi;
+    for (bi = 0; bi < sizeof budgets / sizeof budgets[0]; bi++) {
+        gs_mgraph_terms t;
+        gs_mgraph_dominant_within(&t, g, g->root_d, s, p, vals, 0, 0,
+                                  budgets[bi]);
+        budget_stops += t.budget && t.count > 0;
+        CHECK_MSG(terms_exact(&t, cf, x, s, p, g->ctx)
+                  && (t.budget || t.count == cf->length),
+                  "%s s^%d within %zu bytes: %zu terms, budget %d", path, p,
+                  budgets[bi], t.count, t.budget);
+        gs_mgraph_terms_clear(&t);
+    }
+}
+
 /* At the circuit's own values: the terms generated first are exactly the
    largest terms of the expanded coefficient, monomial and exact
    coefficient, in the same order, for the whole list (tol 0) and for a
@@ -177,6 +233,12 @@ static void check_nominal_order(const gs_mgraph *g, const gs_poly *det,
                               * (1 + 1e-9L) + 1e-300L,
                           "%s s^%d: rest %Lg of %Lg", path, p, t.rest,
                           t.total);
+            if (shared_symbols) {
+                CHECK_MSG(terms_exact(&t, &cf, x, s, p, ctx),
+                          "%s s^%d tol %Lg: terms not exact", path, p,
+                          tols[ti]);
+                ok = 0;
+            }
             for (i = 0; i < t.count && i < cf.length && ok; i++) {
                 gs_int c;
                 gs_poly_get_term_exps(ex, &t.term[i], 0, ctx);
@@ -194,6 +256,7 @@ static void check_nominal_order(const gs_mgraph *g, const gs_poly *det,
             }
             gs_mgraph_terms_clear(&t);
         }
+        check_within_budget(g, &cf, x, s, p, vals, path);
         for (i = 0; i < cf.length; i++)
             free(x[i].exps);
         free(x);
@@ -678,6 +741,9 @@ int main(void)
     test_gate_hands_graph();
     for (i = 0; files[i]; i++)
         check_circuit(files[i]);
+    shared_symbols = 1;
+    check_circuit("tests/bench/engine/miller_matched.gsc");
+    shared_symbols = 0;
     {
         /* an RC ladder of 8 sections with distinct values (the engine
            bench's rc_ladder with fewer sections) */
@@ -700,6 +766,8 @@ int main(void)
        cdb, the two-stage op-amp, the ladder above */
     CHECK_MSG(nominal_cases >= 7, "%d circuits at their values",
               nominal_cases);
+    CHECK_MSG(budget_stops >= 5, "%d searches stopped by the budget",
+              budget_stops);
     /* Fibonacci numbers F(n+1) (F(1) = F(2) = 1), a math fact; F(101)
        = 573147844013817084101 */
     check_fibonacci(5, "8");

@@ -135,7 +135,19 @@ typedef struct gs_mgraph_terms {
     int overflow;           /* 0; or 1 + a symbol whose power in a term
                                passes GS_POLY_MAX_EXP: the search stopped
                                there and count is 0 */
+    int budget;             /* 1: the search's states passed
+                               GS_MGRAPH_SEARCH_BYTES and it stopped; the
+                               terms kept are the ones whose coefficients
+                               were final by then (rest as always) */
 } gs_mgraph_terms;
+
+/* The memory of one dominant-term search's states: paths that cancel
+   numerically but not by the rules below (equal values of different
+   symbols, a symbol shared by two elements) can make the frontier grow
+   without bound.  128 MiB holds 1.3 million states with 192 degree-one
+   variables, three times what the largest bench case takes (458,466,
+   rc_ladder_50). */
+#define GS_MGRAPH_SEARCH_BYTES ((size_t)128 << 20)
 
 /* lin[v] = 1 (v < nvars) when the root's polynomial has degree at most 1
    in variable v by the rank-one rule of mgraph_terms.c: every entry of
@@ -153,6 +165,12 @@ void gs_mgraph_linear_vars(unsigned char *lin, const gs_mgraph *g,
 void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
                         int s_var, int power, const long double *vals,
                         long double tol, size_t max_terms);
+/* The same with the states' memory bounded by max_bytes instead of
+   GS_MGRAPH_SEARCH_BYTES (for tests). */
+void gs_mgraph_dominant_within(gs_mgraph_terms *t, const gs_mgraph *g,
+                               size_t root, int s_var, int power,
+                               const long double *vals, long double tol,
+                               size_t max_terms, size_t max_bytes);
 void gs_mgraph_terms_clear(gs_mgraph_terms *t);
 
 #endif

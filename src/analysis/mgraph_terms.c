@@ -404,6 +404,15 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
                         int s_var, int power, const long double *vals,
                         long double tol, size_t max_terms)
 {
+    gs_mgraph_dominant_within(t, g, root, s_var, power, vals, tol, max_terms,
+                              GS_MGRAPH_SEARCH_BYTES);
+}
+
+void gs_mgraph_dominant_within(gs_mgraph_terms *t, const gs_mgraph *g,
+                               size_t root, int s_var, int power,
+                               const long double *vals, long double tol,
+                               size_t max_terms, size_t max_bytes)
+{
     const gs_polyctx *ctx = g->ctx;
     int nv = ctx->nvars;
     size_t *toff, *eoff = gs_malloc((g->nentries + 1) * sizeof *eoff);
@@ -422,6 +431,7 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
     uint64_t *tmask, *nu;
     int *inc[4], *uf, *uf2, *tl;
     size_t nlin = 0, wd, slot = 0, *tloff, c0cell = g->nentries - 1;
+    size_t max_states;
     index ix = {NULL, 0};
 
     memset(t, 0, sizeof *t);
@@ -514,9 +524,23 @@ void gs_mgraph_dominant(gs_mgraph_terms *t, const gs_mgraph *g, size_t root,
         s0.key = best[off[root] + (size_t)power];
         push(&q, &s0, nu);
     }
+    max_states = max_bytes
+                 / (sizeof *q.st + sizeof *q.heap + wd * sizeof *q.used);
     while (q.nheap) {
         size_t id;
         state s;
+        if (q.nst > max_states) {
+            /* Past the search's budget: keep the monomials no path still
+               in the heap can reach (a path's bound is at least its
+               value, and its value at least its monomial's unit), whose
+               coefficients are final; the others may be partial. */
+            long double top = q.st[q.heap[0]].key;
+            for (i = 0; i < nk; i++)
+                if (fabsl(k[i].unit) * (1 - 1e-12L) <= top)
+                    gs_int_set_si(&k[i].coef, 0);
+            t->budget = 1;
+            break;
+        }
         if (finishing && q.st[q.heap[0]].key < min_unit * (1 - 1e-12L)) {
             /* the kept coefficients are final; stop if they still meet
                the tolerance (later paths can move the sum back) */
