@@ -1577,6 +1577,55 @@ static void loop_remap_flip(const env *e, uint64_t seed0, int n)
     gs_poly_clear(&want);
 }
 
+/* gs_poly_group_by_var against gs_poly_coeffs_var, which copies the
+   coefficient of each power out: power k's run holds, in order, exactly
+   the terms of that coefficient (times x_var^k), on random polynomials
+   with each variable as var in turn. */
+static void loop_group_by_var(const env *e, uint64_t seed0, int n)
+{
+    const gs_polyctx *ctx = e->c11;
+    gs_poly a, c[64];
+    unsigned ex[16], ey[16];
+    int k, var, j;
+    gs_poly_init(&a);
+    for (j = 0; j < 64; j++)
+        gs_poly_init(&c[j]);
+    for (k = 0; k < n; k++) {
+        uint64_t seed = seed0 + (uint64_t)k;
+        rng r = { seed };
+        int ok = 1;
+        rand_poly(&a, &r, 1 + rbelow(&r, 400), 11, 1 + rbelow(&r, 12), 20,
+                  ctx);
+        for (var = 0; var < 11 && ok; var++) {
+            size_t *idx, *ends, np, p, i;
+            np = gs_poly_group_by_var(&idx, &ends, &a, var, ctx);
+            ok = np == (size_t)gs_poly_degree(&a, var, ctx) + 1 && np <= 64
+                 && ends[np - 1] == a.length;
+            if (ok)
+                gs_poly_coeffs_var(c, np, &a, var, ctx);
+            for (p = 0; p < np && ok; p++) {
+                size_t lo = p ? ends[p - 1] : 0;
+                ok = ends[p] - lo == c[p].length;
+                for (i = 0; i < c[p].length && ok; i++) {
+                    gs_poly_get_term_exps(ex, &a, idx[lo + i], ctx);
+                    gs_poly_get_term_exps(ey, &c[p], i, ctx);
+                    ok = ex[var] == p;
+                    ex[var] = 0;
+                    ok = ok && memcmp(ex, ey, 11 * sizeof *ex) == 0
+                         && gs_int_cmp(&a.coeffs[idx[lo + i]],
+                                       &c[p].coeffs[i]) == 0;
+                }
+            }
+            free(idx);
+            free(ends);
+        }
+        CHECK_MSG(ok, "group by var: seed %llu", (unsigned long long)seed);
+    }
+    gs_poly_clear(&a);
+    for (j = 0; j < 64; j++)
+        gs_poly_clear(&c[j]);
+}
+
 /* Dense shapes that pick the block method by themselves, and sparse
    ones in many variables that pick the heap: all methods agree. */
 static void loop_shapes(const env *e, uint64_t seed0, int n)
@@ -1760,6 +1809,7 @@ int main(int argc, char **argv)
     loop_packed_sort(&e, seed + 15000, 120);
     loop_remap_maps(&e, seed + 17000, 200);
     loop_remap_flip(&e, seed + 17500, 120);
+    loop_group_by_var(&e, seed + 17800, 60);
     loop_flip_packed(&e, seed + 16000, 80);
     loop_sum_of_products(e.c4, seed + 12000, 300);
     loop_coeffs_var(e.c11, seed + 14000, 200);

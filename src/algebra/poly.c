@@ -971,6 +971,31 @@ void gs_poly_remap_flip_take(gs_poly *r, gs_poly *a, const int *map,
     gs_free(ftop);
 }
 
+/* A stable counting sort by the power; each term's power is read once,
+   so the second pass runs over two bytes a term instead of its exponent
+   words. */
+size_t gs_poly_group_by_var(size_t **idx, size_t **ends, const gs_poly *a,
+                            int var, const gs_polyctx *ctx)
+{
+    size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i, k;
+    size_t nt = a->length, nw = (size_t)ctx->nwords;
+    size_t *end = gs_calloc(n + 1, sizeof *end);
+    size_t *at = gs_malloc((nt ? nt : 1) * sizeof *at);
+    uint16_t *pw = gs_malloc((nt ? nt : 1) * sizeof *pw);
+    for (i = 0; i < nt; i++) {
+        pw[i] = (uint16_t)gs_poly_exp_get(a->exps + i * nw, var);
+        end[pw[i] + 1]++;
+    }
+    for (k = 0; k < n; k++)
+        end[k + 1] += end[k];
+    for (i = 0; i < nt; i++)
+        at[end[pw[i]]++] = i;
+    gs_free(pw);
+    *idx = at;
+    *ends = end;        /* end[k] is now where power k's run ends */
+    return n;
+}
+
 void gs_poly_get_term_exps(unsigned *exps, const gs_poly *a, size_t i,
                            const gs_polyctx *ctx)
 {

@@ -176,6 +176,17 @@ void gs_poly_remap_flip_take(gs_poly *r, gs_poly *a, const int *map,
                              const int *to, const unsigned *top,
                              const gs_polyctx *from, const gs_polyctx *dst);
 
+/* a's terms grouped by their power of var (a nonzero, 0 <= var <
+   nvars), stably: *idx gets the a->length term indices, power 0's first,
+   each power's in a's order (which is the order of that coefficient
+   once var is dropped), and *ends the end of each power's run in idx
+   (power k runs from k ? ends[k - 1] : 0 to ends[k]).  Both are new
+   arrays (gs_free); returns the number of powers, the degree + 1.  For
+   printers, which write a coefficient of s^k at a time without copying
+   it out. */
+size_t gs_poly_group_by_var(size_t **idx, size_t **ends, const gs_poly *a,
+                            int var, const gs_polyctx *ctx);
+
 /* Unpack term i's exponents into exps[0 .. nvars-1]. */
 void gs_poly_get_term_exps(unsigned *exps, const gs_poly *a, size_t i,
                            const gs_polyctx *ctx);

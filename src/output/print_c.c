@@ -266,36 +266,22 @@ static void horner_step(cout *o, const gs_poly *a, const size_t *idx,
     cout_text(o, ";\n");
 }
 
-/* a by Horner's rule in s: its terms sorted by their power of s, stably,
-   so that each power's terms keep a's order, which is the order of that
-   coefficient polynomial (s dropped from a lexicographic order). */
+/* a by Horner's rule in s: its terms grouped by their power of s
+   (gs_poly_group_by_var), each coefficient read in place. */
 static void put_horner(cout *o, const gs_poly *a, char v)
 {
     const gs_polyctx *ctx = o->ctx;
-    size_t n = 1, i, k, nt = a->length, nw = (size_t)ctx->nwords;
-    size_t *idx = gs_malloc((nt + 1) * sizeof *idx), *start;
-    unsigned *pw;
+    size_t n, i, k, nt = a->length, *idx, *start;
     int s_var = o->s_var;
     if (s_var < 0 || s_var >= ctx->nvars || nt == 0) {
+        idx = gs_malloc((nt + 1) * sizeof *idx);
         for (i = 0; i < nt; i++)
             idx[i] = i;
         horner_step(o, a, idx, nt, v, 1);
         gs_free(idx);
         return;
     }
-    n = (size_t)gs_poly_degree(a, s_var, ctx) + 1;
-    start = gs_calloc(n + 1, sizeof *start);
-    pw = gs_malloc(nt * sizeof *pw);
-    for (i = 0; i < nt; i++) {
-        pw[i] = gs_poly_exp_get(a->exps + i * nw, s_var);
-        start[pw[i] + 1]++;
-    }
-    for (k = 0; k < n; k++)
-        start[k + 1] += start[k];
-    for (i = 0; i < nt; i++)
-        idx[start[pw[i]]++] = i;
-    gs_free(pw);
-    /* start[k] is now the end of power k's run, start[k - 1] its start */
+    n = gs_poly_group_by_var(&idx, &start, a, s_var, ctx);
     for (k = n; k-- > 0;) {
         size_t lo = k ? start[k - 1] : 0;
         horner_step(o, a, idx + lo, start[k] - lo, v, k == n - 1);

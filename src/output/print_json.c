@@ -109,10 +109,8 @@ static void put_group(FILE *out, const gs_poly *a, const size_t *idx,
     gs_strbuf_clear(&b);
 }
 
-/* The groups of a by descending power of var (one group when var < 0):
-   a's terms sorted by their power, stably, so that each power's terms
-   keep a's order, which is the order of that coefficient polynomial
-   (var dropped from a lexicographic order), without copying them. */
+/* The groups of a by descending power of var (one group when var < 0),
+   each read in place (gs_poly_group_by_var). */
 static void put_poly(FILE *out, const gs_poly *a, int var,
                      const gs_polyctx *ctx)
 {
@@ -124,22 +122,8 @@ static void put_poly(FILE *out, const gs_poly *a, int var,
         if (!gs_poly_is_zero(a))
             put_group(out, a, NULL, a->length, 0, -1, ctx, vars, exps);
     } else if (!gs_poly_is_zero(a)) {
-        size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i, k;
-        size_t nt = a->length, nw = (size_t)ctx->nwords;
-        size_t *start = gs_calloc(n + 1, sizeof *start);
-        size_t *idx = gs_malloc(nt * sizeof *idx);
-        unsigned *pw = gs_malloc(nt * sizeof *pw);
-        for (i = 0; i < nt; i++) {
-            pw[i] = gs_poly_exp_get(a->exps + i * nw, var);
-            start[pw[i] + 1]++;
-        }
-        for (k = 0; k < n; k++)
-            start[k + 1] += start[k];
-        for (i = 0; i < nt; i++)
-            idx[start[pw[i]]++] = i;
-        gs_free(pw);
-        /* start[k] is now the end of power k's run, start[k - 1] its
-           beginning */
+        size_t *start, *idx, k;
+        size_t n = gs_poly_group_by_var(&idx, &start, a, var, ctx);
         for (k = n; k-- > 0;) {
             size_t lo = k ? start[k - 1] : 0;
             if (lo == start[k])

@@ -425,9 +425,8 @@ static void put_group(sbuf *b, style *st, const view *c, int var,
 }
 
 /* a written as a sum over the powers of x_var (var < 0: as it is), the
-   powers highest first: a's terms sorted by their power of x_var,
-   stably, so each power's terms keep a's order (which is the order of
-   the coefficient polynomial once x_var is dropped). */
+   powers highest first, each coefficient read in place
+   (gs_poly_group_by_var). */
 static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
 {
     const gs_polyctx *ctx = st->ctx;
@@ -444,24 +443,8 @@ static void put_poly(sbuf *b, style *st, const gs_poly *a, int var)
     } else if (var < 0 || var >= ctx->nvars) {
         put_terms(b, st, &v, 1, 0);
     } else {
-        size_t n = (size_t)gs_poly_degree(a, var, ctx) + 1, i;
-        size_t nw = (size_t)ctx->nwords;
-        size_t *start = gs_calloc(n + 1, sizeof *start);
-        size_t *idx = gs_malloc(a->length * sizeof *idx);
-        /* each term's power, read once: the second pass then runs over
-           two bytes a term instead of the term's exponent words */
-        uint16_t *pw = gs_malloc(a->length * sizeof *pw);
-        for (i = 0; i < a->length; i++) {
-            pw[i] = (uint16_t)gs_poly_exp_get(a->exps + i * nw, var);
-            start[pw[i] + 1]++;
-        }
-        for (i = 0; i < n; i++)
-            start[i + 1] += start[i];
-        for (i = 0; i < a->length; i++)
-            idx[start[pw[i]]++] = i;
-        gs_free(pw);
-        /* start[k] is now the end of power k's run, start[k - 1] its
-           beginning */
+        size_t *start, *idx;
+        size_t n = gs_poly_group_by_var(&idx, &start, a, var, ctx);
         v.drop = var;
         for (k = (long)n - 1; k >= 0; k--) {
             size_t lo = k ? start[k - 1] : 0, hi = start[k];
