@@ -603,6 +603,25 @@ static void check_matrix_tree(int trial)
     gs_symtab_free(st);
 }
 
+/* A complete graph K_n of resistors, gnd one of its nodes, and the
+   impedance at p1. */
+static void mesh_text(char *text, size_t cap, int n)
+{
+    size_t at = 0;
+    int a, b, k = 0;
+    for (a = 0; a < n; a++)
+        for (b = a + 1; b < n; b++) {
+            k++;
+            if (a == 0)
+                at += (size_t)snprintf(text + at, cap - at,
+                                       "resistor R%d gnd p%d\n", k, b);
+            else
+                at += (size_t)snprintf(text + at, cap - at,
+                                       "resistor R%d p%d p%d\n", k, a, b);
+        }
+    snprintf(text + at, cap - at, "impedance Z = p1, gnd\n");
+}
+
 /* A complete graph K_7 of resistors (gnd one of its nodes): det A, the
    nodal determinant, has one term per spanning tree, 7^5 = 16807 of them
    (matrix-tree theorem with Cayley's formula n^(n-2); Bollobas, Modern
@@ -611,24 +630,12 @@ static void check_matrix_tree(int trial)
 static void test_dense_budget(void)
 {
     char text[4096];
-    size_t at = 0;
-    int a, b, k = 0;
     gs_job j;
     gs_diag d;
     gs_mna m;
     gs_mgraph g;
     gs_poly det;
-    for (a = 0; a < 7; a++)
-        for (b = a + 1; b < 7; b++) {
-            k++;
-            if (a == 0)
-                at += (size_t)snprintf(text + at, sizeof text - at,
-                                       "resistor R%d gnd p%d\n", k, b);
-            else
-                at += (size_t)snprintf(text + at, sizeof text - at,
-                                       "resistor R%d p%d p%d\n", k, a, b);
-        }
-    snprintf(text + at, sizeof text - at, "impedance Z = p1, gnd\n");
+    mesh_text(text, sizeof text, 7);
     gs_job_init(&j);
     gs_diag_init(&d);
     CHECK(gs_job_load_string(&j, "k7.gsc", text, &d) == GS_OK);
@@ -662,8 +669,6 @@ static void test_dense_budget(void)
 static void test_gate_hands_graph(void)
 {
     char text[16384];
-    size_t at = 0;
-    int a, b, k = 0;
     gs_job j;
     gs_diag d;
     gs_mna m;
@@ -672,15 +677,7 @@ static void test_gate_hands_graph(void)
     gs_derive_opts o;
     gs_derive_stats st;
     gs_int p1, p2;
-    for (a = 0; a < 12; a++)
-        for (b = a + 1; b < 12; b++) {
-            k++;
-            at += (size_t)snprintf(text + at, sizeof text - at,
-                                   a == 0 ? "resistor R%d gnd p%d\n"
-                                          : "resistor R%d p%d p%d\n",
-                                   k, a == 0 ? b : a, b);
-        }
-    snprintf(text + at, sizeof text - at, "impedance Z = p1, gnd\n");
+    mesh_text(text, sizeof text, 12);
     gs_job_init(&j);
     gs_diag_init(&d);
     CHECK(gs_job_load_string(&j, "k12.gsc", text, &d) == GS_OK);
