@@ -158,7 +158,7 @@ static int fill_from_graph(gs_approx_coeff *c, const gs_mgraph *g,
                            size_t root, int s_var, int power,
                            const long double *vals, long double gen_tol,
                            size_t max_terms, const gs_int *mul,
-                           int *overflow)
+                           int *overflow, int *budget)
 {
     const gs_polyctx *ctx = g->ctx;
     gs_mgraph_terms mt;
@@ -170,6 +170,7 @@ static int fill_from_graph(gs_approx_coeff *c, const gs_mgraph *g,
     gs_mgraph_dominant(&mt, g, root, s_var, power, vals, gen_tol, max_terms);
     if (mt.overflow && !*overflow)
         *overflow = mt.overflow;
+    *budget |= mt.budget;
     gs_int_init(&cf);
     c->nterms = mt.count;
     c->terms = gs_calloc(mt.count ? mt.count : 1, sizeof *c->terms);
@@ -224,7 +225,8 @@ void gs_approx_terms_from_graph(gs_approx_terms *t, const gs_mgraph *g,
             tk = sh > 0 ? gen_tol / sh : 1;
             complete &= fill_from_graph(&t->c[w][k], g, root, s_var,
                                         k + low, vals, tk < 1 ? tk : 1,
-                                        max_terms, &mul[w], &t->overflow);
+                                        max_terms, &mul[w], &t->overflow,
+                                        &t->budget);
         }
         if (deg < 0) {
             t->c[w][0].terms = gs_calloc(1, sizeof *t->c[w][0].terms);
@@ -1224,7 +1226,8 @@ static int run_graph(gs_approx_result *r, const gs_job *j, size_t i,
                             : gs_approx_run_terms(r, &t, j->ctx, s_var, vals,
                                                   used, o, d);
             r->gen_tol = gen_tol;
-            if (rc != GS_OK || r->met || t.complete || capped(&t))
+            if (rc != GS_OK || r->met || t.complete || capped(&t)
+                || t.budget)
                 break;
             gen_tol /= 100;
         }

@@ -78,6 +78,9 @@ typedef struct gs_approx_terms {
     int overflow;           /* 0; or 1 + a symbol whose power in a term of
                                the graph passes GS_POLY_MAX_EXP (that
                                coefficient's terms are missing) */
+    int budget;             /* 1: a search of the graph stopped at its
+                               memory bound (mgraph.h), so a smaller
+                               tolerance would find no more terms */
 } gs_approx_terms;
 
 void gs_approx_terms_init(gs_approx_terms *t);

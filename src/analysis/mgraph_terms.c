@@ -431,7 +431,9 @@ void gs_mgraph_dominant_within(gs_mgraph_terms *t, const gs_mgraph *g,
     uint64_t *tmask, *nu;
     int *inc[4], *uf, *uf2, *tl;
     size_t nlin = 0, wd, slot = 0, *tloff, c0cell = g->nentries - 1;
-    size_t max_states;
+    size_t max_states, *foff;
+    int *fv;
+    unsigned *fe;
     index ix = {NULL, 0};
 
     memset(t, 0, sizeof *t);
@@ -471,6 +473,12 @@ void gs_mgraph_dominant_within(gs_mgraph_terms *t, const gs_mgraph *g,
     tmask = gs_calloc((eoff[g->nentries] + 1) * wd + 1, sizeof *tmask);
     tloff = gs_calloc(eoff[g->nentries] + 2, sizeof *tloff);
     tl = gs_malloc(((size_t)nv + 1) * (eoff[g->nentries] + 1) * sizeof *tl);
+    /* every term's factors, (variable, exponent) pairs from foff[j] on:
+       a complete path's monomial is then the sum of a few lists instead
+       of one unpacking over every variable for each of its edges */
+    foff = gs_calloc(eoff[g->nentries] + 2, sizeof *foff);
+    fv = gs_malloc(((size_t)nv + 1) * (eoff[g->nentries] + 1) * sizeof *fv);
+    fe = gs_malloc(((size_t)nv + 1) * (eoff[g->nentries] + 1) * sizeof *fe);
     for (i = 0; i < g->nentries; i++) {
         size_t j;
         for (j = 0; j < g->entries[i].length; j++) {
@@ -480,6 +488,13 @@ void gs_mgraph_dominant_within(gs_mgraph_terms *t, const gs_mgraph *g,
                                     * monomial_value(ex, vals, nv, s_var));
             tdeg[eoff[i] + j] = s_var >= 0 ? (int)ex[s_var] : 0;
             tloff[eoff[i] + j + 1] = tloff[eoff[i] + j];
+            foff[eoff[i] + j + 1] = foff[eoff[i] + j];
+            for (w2 = 0; w2 < nv; w2++)
+                if (ex[w2]) {
+                    size_t f = foff[eoff[i] + j + 1]++;
+                    fv[f] = w2;
+                    fe[f] = ex[w2];
+                }
             for (w2 = 0; w2 < nv; w2++)
                 if (bit[w2] >= 0 && ex[w2]) {
                     tmask[(eoff[i] + j) * wd + (size_t)bit[w2] / 64] |=
@@ -558,13 +573,11 @@ void gs_mgraph_dominant_within(gs_mgraph_terms *t, const gs_mgraph *g,
             memset(acc, 0, (size_t)nv * sizeof *acc);
             gs_int_set_si(&c, 1);
             for (; q.st[p].parent != NONE; p = q.st[p].parent) {
-                const state *x = &q.st[q.st[p].parent];
                 uint32_t ed = q.st[p].edge, tm = q.st[p].term;
                 const gs_poly *en = &g->entries[g->entry[ed]];
-                (void)x;
-                gs_poly_get_term_exps(ex, en, tm, ctx);
-                for (w = 0; w < nv; w++)
-                    acc[w] += ex[w];
+                size_t tj = q.st[p].tj, f;
+                for (f = foff[tj]; f < foff[tj + 1]; f++)
+                    acc[fv[f]] += fe[f];
                 gs_int_mul(&c, &c, &en->coeffs[tm]);
                 neg ^= g->neg[ed];
             }
@@ -708,6 +721,9 @@ void gs_mgraph_dominant_within(gs_mgraph_terms *t, const gs_mgraph *g,
     gs_free(uf2);
     gs_free(tl);
     gs_free(tloff);
+    gs_free(foff);
+    gs_free(fv);
+    gs_free(fe);
     gs_free(nu);
     gs_free(tmask);
     gs_free(bit);
