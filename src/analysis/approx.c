@@ -1226,6 +1226,7 @@ static int run_graph(gs_approx_result *r, const gs_job *j, size_t i,
                             : gs_approx_run_terms(r, &t, j->ctx, s_var, vals,
                                                   used, o, d);
             r->gen_tol = gen_tol;
+            r->search_bounded = t.budget;
             if (rc != GS_OK || r->met || t.complete || capped(&t)
                 || t.budget)
                 break;

@@ -162,6 +162,8 @@ typedef struct gs_approx_result {
     const char *path;       /* from the terms table */
     long double gen_tol;    /* graph path: each coefficient's terms were
                                generated to this remainder; 0 exact */
+    int search_bounded;     /* graph path: a search stopped at its memory
+                               bound (gs_approx_terms.budget) */
     /* low-frequency gain ~ (dcn/dcd) s^dc_order */
     gs_poly dcn, dcd;
     int dc_order;

@@ -145,8 +145,9 @@ int gs_cmd_approx(int argc, char **argv, FILE *out, FILE *err)
                    graph's size */
                 if (j.graph && j.graph[i])
                     fprintf(err, " gen_tol=%.3Lg graph_nodes=%zu "
-                            "graph_edges=%zu", r.gen_tol,
-                            j.graph[i]->nnodes, j.graph[i]->nedges);
+                            "graph_edges=%zu%s", r.gen_tol,
+                            j.graph[i]->nnodes, j.graph[i]->nedges,
+                            r.search_bounded ? " search_bounded=1" : "");
                 fputc('\n', err);
             }
         }
