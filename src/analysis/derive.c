@@ -637,6 +637,7 @@ int gs_derive_figure_part(gs_tf *tf, const gs_circuit *c, size_t out,
     ratfn r;
     int rc;
     plain.nlimits = 0;          /* limits apply to the whole figure */
+    plain.graph_out = NULL;     /* a part's graph is not the figure's */
     if (op->kind == GS_OUT_LOOP)
         return derive_loop(tf, c, out, ctx, &plain, NULL, d);
     if (op->kind != GS_OUT_FIGURE)
@@ -694,6 +695,7 @@ static int derive_loop_part(gs_tf *tf, gs_circuit *c, size_t out,
     if (op->loop_of < 0)
         return GS_EINVAL;
     plain.nlimits = 0;
+    plain.graph_out = NULL;     /* the parts' graphs are not the output's */
     gs_tf_init(&a, ctx, c->s_sym);
     gs_tf_init(&t, ctx, c->s_sym);
     gs_tf_init(&dd, ctx, c->s_sym);
@@ -758,6 +760,8 @@ static int derive_loop(gs_tf *tf, const gs_circuit *cc, size_t out,
     gs_poly g, t;
     char *desc;
     int rc, i;
+
+    plain.graph_out = NULL;     /* its graph would be H's, not T = -g H */
 
     if (op->loop_part != 0)
         return derive_loop_part(tf, c, out, ctx, o, stats, d);

@@ -274,6 +274,15 @@ static int derive_one(gs_job *j, size_t k, const gs_derive_opts *o,
     return rc;
 }
 
+/* A transfer or an impedance: an output whose numbers the graph of
+   minors of its MNA gives (a loop gain or a figure derives other
+   circuits or outputs first and combines them). */
+static int plain_output(const gs_circuit *c, size_t k)
+{
+    return c->outputs[k].kind == GS_OUT_TRANSFER
+           || c->outputs[k].kind == GS_OUT_IMPEDANCE;
+}
+
 static int derive_one_raw(gs_job *j, size_t k, const gs_derive_opts *o,
                           gs_diag *d)
 {
@@ -305,6 +314,17 @@ static int derive_one_raw(gs_job *j, size_t k, const gs_derive_opts *o,
         j->graph[j->ntf - 1] = g;
         g = NULL;
         rc = GS_OK;
+    } else if (rc == GS_EBUDGET && !plain_output(j->c, k)) {
+        /* the graph of minors is one circuit's, one output's: a figure
+           or a return ratio is not read off it (its numbers were zero) */
+        gs_diag_add(&here, GS_SEV_ERROR, NULL, 0, 0,
+                    "raise --max-terms to expand it, or leave it out with "
+                    "--only",
+                    "the numbers of a %s need its exact expansion: the "
+                    "graph of minors gives those of transfers and "
+                    "impedances",
+                    j->c->outputs[k].kind == GS_OUT_LOOP ? "loopgain"
+                                                         : "figure");
     } else if (rc == GS_EBUDGET && !j->stats[j->ntf - 1].graph_refused) {
         gs_diag_clear(&here);
         gs_diag_init(&here);
