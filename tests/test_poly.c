@@ -1527,7 +1527,8 @@ static void loop_remap_flip(const env *e, uint64_t seed0, int n)
         uint64_t seed = seed0 + (uint64_t)k;
         rng r = { seed };
         unsigned maxe = k % 7 == 6 ? 2000 : 1 + rbelow(&r, 3);
-        unsigned nt = k % 3 == 0 ? 1 + rbelow(&r, 200) : 1100 + rbelow(&r, 2500);
+        unsigned nt = k % 3 == 0 ? 1 + rbelow(&r, 200)
+                                 : 1100 + rbelow(&r, 2500);
         size_t i;
         int at = 0, ok, d;
         memset(top, 0, sizeof top);

@@ -536,9 +536,9 @@ static void permute_coeffs_split(gs_poly *r, uint32_t *from)
 /* Put r's terms in the order of their keys x (x is freed): radix sort,
    so linear in the terms whatever order they come in.  Only the
    coefficients are moved (in place, cycle by cycle as in apply_perm,
-   the index bits of x, or the split index, marking a slot done); the monomials are written
-   again from the keys, in order, so the large exponent array is never
-   read at random.  Returns nonzero when two terms have the same monomial
+   the index bits of x, or the split index, marking a slot done); the
+   monomials are written again from the keys, in order, so the large
+   exponent array is never read at random.  Returns nonzero when two terms have the same monomial
    (merge_sorted must follow). */
 static uint64_t *order_keys(gs_poly *r, uint64_t *x, const keyplan *k)
 {

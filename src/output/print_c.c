@@ -253,7 +253,8 @@ static void horner_step(cout *o, const gs_poly *a, const size_t *idx,
     char lead[16];
     o->col = 0;
     if (has_big(a, idx, n))
-        cout_text(o, "    /* coefficients of 2^53 or more round to double */\n");
+        cout_text(o, "    /* coefficients of 2^53 or more round to "
+                     "double */\n");
     if (top)
         snprintf(lead, sizeof lead, "    %c = ", v);
     else
