@@ -18,41 +18,23 @@
 
 #include "analysis/job.h"
 #include "gainsmith.h"
+#include "benchlib.h"
 
 #define RUNS 5
-
-static double now(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return (double)ts.tv_sec + (double)ts.tv_nsec * 1e-9;
-}
-
-static int cmp_double(const void *a, const void *b)
-{
-    double x = *(const double *)a, y = *(const double *)b;
-    return (x > y) - (x < y);
-}
-
-static double median(double *v)
-{
-    qsort(v, RUNS, sizeof *v, cmp_double);
-    return v[RUNS / 2];
-}
 
 static double engine_once(const char *path)
 {
     gs_job j;
     gs_diag d;
     gs_derive_opts o;
-    double t0 = now(), t;
+    double t0 = bench_now(), t;
     gs_diag_init(&d);
     gs_job_init(&j);
     gs_derive_opts_default(&o);
     if (gs_job_load(&j, path, &d) != GS_OK
         || gs_job_derive(&j, NULL, &o, &d) != GS_OK)
         fprintf(stderr, "bench_api: %s: derivation failed\n", path);
-    t = now() - t0;
+    t = bench_now() - t0;
     gs_job_clear(&j);
     gs_diag_clear(&d);
     return t;
@@ -61,13 +43,13 @@ static double engine_once(const char *path)
 static double api_once(const char *path, size_t *terms, double *tv)
 {
     gs_result *r = NULL;
-    double t0 = now(), t, t1;
+    double t0 = bench_now(), t, t1;
     size_t i, c;
     int part;
     if (gs_derive_file(&r, path, NULL, NULL) != GS_OK)
         fprintf(stderr, "bench_api: %s: derivation failed\n", path);
-    t = now() - t0;
-    t1 = now();
+    t = bench_now() - t0;
+    t1 = bench_now();
     *terms = 0;
     for (i = 0; i < gs_result_count(r); i++)
         for (part = GS_NUMERATOR; part <= GS_DENOMINATOR; part++) {
@@ -75,7 +57,7 @@ static double api_once(const char *path, size_t *terms, double *tv)
             for (c = 0; p && c < p->ncoeffs; c++)
                 *terms += p->coeffs[c].nterms;
         }
-    *tv = now() - t1;
+    *tv = bench_now() - t1;
     gs_result_free(r);
     return t;
 }
@@ -95,11 +77,12 @@ int main(void)
             e[run] = engine_once(path);
             a[run] = api_once(path, &terms, &v[run]);
         }
-        em = median(e);
-        am = median(a);
+        em = bench_median(e, RUNS);
+        am = bench_median(a, RUNS);
         printf("bench api-%s terms=%zu engine_seconds=%.6f "
                "api_seconds=%.6f overhead=%.3f views_seconds=%.6f\n",
-               names[k], terms, em, am, em > 0 ? am / em : 0.0, median(v));
+               names[k], terms, em, am, em > 0 ? am / em : 0.0,
+               bench_median(v, RUNS));
     }
     return 0;
 }

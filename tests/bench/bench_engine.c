@@ -33,13 +33,7 @@
 #include <string.h>
 #include <sys/resource.h>
 #include <time.h>
-
-static double now(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return (double)ts.tv_sec + 1e-9 * (double)ts.tv_nsec;
-}
+#include "benchlib.h"
 
 /* approx on the graph path: the job derives with a budget of one term,
    so every output is held as its graph, as over the real budget. */
@@ -51,7 +45,7 @@ static void bench_approx(const char *path, double *seconds, double *err_db,
     gs_derive_opts o;
     gs_approx_opts ao;
     gs_approx_result r;
-    double t0 = now();
+    double t0 = bench_now();
     *seconds = *err_db = -1;
     *kept = 0;
     *met = 0;
@@ -85,7 +79,7 @@ static void bench_approx(const char *path, double *seconds, double *err_db,
         }
         gs_approx_result_init(&r);
         if (gs_approx_run(&r, &j, 0, &ao, &d) == GS_OK) {
-            *seconds = now() - t0;
+            *seconds = bench_now() - t0;
             *err_db = (double)(r.err_db > r.spread_db ? r.err_db
                                                       : r.spread_db);
             *kept = r.terms_kept;
@@ -139,10 +133,10 @@ int main(int argc, char **argv)
         printf("bench engine-order-%.*s",
                (int)(dot ? dot - base : (long)strlen(base)), base);
         for (k = 0; k < 3; k++) {
-            double ts = now();
+            double ts = bench_now();
             gs_mgraph_build(&g, &m, (gs_mgraph_order)k, 0, j.ctx);
             printf(" %s=%zu/%zu/%.4fs", names[k], g.nnodes, g.nedges,
-                   now() - ts);
+                   bench_now() - ts);
             gs_mgraph_clear(&g);
         }
         printf("\n");
@@ -151,12 +145,12 @@ int main(int argc, char **argv)
         gs_job_clear(&j);
         return 0;
     }
-    t0 = now();
+    t0 = bench_now();
     memset(&m, 0, sizeof m);
     if (gs_mna_build(&m, j.c, 0, j.ctx, &d) != GS_OK
         || gs_mgraph_build(&g, &m, GS_MGRAPH_ORDER_GREEDY, 0, j.ctx) != GS_OK)
         return 1;
-    t1 = now();
+    t1 = bench_now();
     nv = j.ctx->nvars;
     lv = calloc((size_t)nv + 1, sizeof *lv);
     vals = calloc((size_t)nv + 1, sizeof *vals);
@@ -184,14 +178,14 @@ int main(int argc, char **argv)
     }
     (void)num;
     (void)den;
-    t2 = now();
+    t2 = bench_now();
     /* the dominant terms of D's s^1 coefficient to 1 %, at most 10000 */
     {
         gs_mgraph_terms dt;
-        double td = now();
+        double td = bench_now();
         gs_mgraph_dominant(&dt, &g, g.root_d, j.c->s_sym, 1, lv, 0.01L,
                            10000);
-        dom_seconds = now() - td;
+        dom_seconds = bench_now() - td;
         dom_terms = dt.count;
         dom_rest = dt.total != 0 ? (double)fabsl(dt.rest / dt.total) : 0;
         gs_mgraph_terms_clear(&dt);

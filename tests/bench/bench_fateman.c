@@ -20,13 +20,7 @@
 #include <stdlib.h>
 #include <sys/resource.h>
 #include <time.h>
-
-static double now(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return (double)ts.tv_sec + 1e-9 * (double)ts.tv_nsec;
-}
+#include "benchlib.h"
 
 /* n! */
 static void factorial(gs_int *r, unsigned n)
@@ -176,9 +170,9 @@ static int run(unsigned n, const gs_polyctx *ctx)
     gs_poly_set_si(&g, 1, ctx);
     gs_poly_add(&g, &f, &g, ctx);
     for (k = 0; k < 3; k++) {
-        double t0 = now();
+        double t0 = bench_now();
         gs_poly_mul(&p, &f, &g, ctx);
-        t[k] = now() - t0;
+        t[k] = bench_now() - t0;
         if (k < 2)
             gs_poly_zero(&p);
     }

@@ -28,22 +28,10 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <time.h>
+#include "benchlib.h"
 
 #define RUNS 3
 #define MAXN 30
-
-static double now(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return (double)ts.tv_sec + 1e-9 * (double)ts.tv_nsec;
-}
-
-static int cmp_double(const void *a, const void *b)
-{
-    double x = *(const double *)a, y = *(const double *)b;
-    return (x > y) - (x < y);
-}
 
 /* variable ids in the order described above */
 static int var_s(void) { return 0; }
@@ -166,25 +154,25 @@ int main(int argc, char **argv)
         tb[var_r(k)] = tf[var_g(k, n)];
     h0 = gs_poly_hash(&d, ctx);
     for (run = 0; run < RUNS; run++) {
-        t0 = now();
+        t0 = bench_now();
         flip_compare(&d, fwd, tf, ctx);
-        tc[run] = now() - t0;
+        tc[run] = bench_now() - t0;
         h1 = gs_poly_hash(&d, ctx);
-        t0 = now();
+        t0 = bench_now();
         flip_compare(&d, back, tb, ctx);
-        tc[run] = (tc[run] + now() - t0) / 2;
+        tc[run] = (tc[run] + bench_now() - t0) / 2;
         ok &= gs_poly_hash(&d, ctx) == h0;
-        t0 = now();
+        t0 = bench_now();
         gs_poly_flip_vars(&d, &d, fwd, tf, NULL, ctx);
-        tp[run] = now() - t0;
+        tp[run] = bench_now() - t0;
         ok &= gs_poly_hash(&d, ctx) == h1;
-        t0 = now();
+        t0 = bench_now();
         gs_poly_flip_vars(&d, &d, back, tb, NULL, ctx);
-        tp[run] = (tp[run] + now() - t0) / 2;
+        tp[run] = (tp[run] + bench_now() - t0) / 2;
         ok &= gs_poly_hash(&d, ctx) == h0;
     }
-    qsort(tp, RUNS, sizeof *tp, cmp_double);
-    qsort(tc, RUNS, sizeof *tc, cmp_double);
+    qsort(tp, RUNS, sizeof *tp, bench_cmp_double);
+    qsort(tc, RUNS, sizeof *tc, bench_cmp_double);
     printf("bench flip-rc%d terms=%zu packed_seconds=%.4f "
            "compare_seconds=%.4f check=%s\n", n, d.length, tp[RUNS / 2],
            tc[RUNS / 2], ok ? "ok" : "FAILED");

@@ -32,16 +32,10 @@
 #include <stdlib.h>
 #include <string.h>
 #include <time.h>
+#include "benchlib.h"
 
 #define RUNS 5
 #define MAXV 32
-
-static double now(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return (double)ts.tv_sec + 1e-9 * (double)ts.tv_nsec;
-}
 
 static void add_term(gs_poly *r, int64_t c, const unsigned *ex,
                      const gs_polyctx *ctx)
@@ -123,12 +117,6 @@ static void dump_poly(FILE *f, const char *tag, const gs_poly *a,
     }
 }
 
-static int cmp_double(const void *x, const void *y)
-{
-    double a = *(const double *)x, b = *(const double *)y;
-    return (a > b) - (a < b);
-}
-
 /* time gs_poly_gcd, print the line, dump if asked */
 static void run(const char *name, const gs_poly *a, const gs_poly *b,
                 const gs_polyctx *ctx, FILE *dump)
@@ -138,11 +126,11 @@ static void run(const char *name, const gs_poly *a, const gs_poly *b,
     int k;
     gs_poly_init(&g);
     for (k = 0; k < RUNS; k++) {
-        double t0 = now();
+        double t0 = bench_now();
         gs_poly_gcd(&g, a, b, ctx);
-        t[k] = now() - t0;
+        t[k] = bench_now() - t0;
     }
-    qsort(t, RUNS, sizeof *t, cmp_double);
+    qsort(t, RUNS, sizeof *t, bench_cmp_double);
     printf("bench gcd-%s terms_a=%zu terms_b=%zu terms_gcd=%zu seconds=%.6f\n",
            name, a->length, b->length, g.length, t[RUNS / 2]);
     fflush(stdout);

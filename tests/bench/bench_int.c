@@ -11,13 +11,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <time.h>
-
-static double now(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return (double)ts.tv_sec + 1e-9 * (double)ts.tv_nsec;
-}
+#include "benchlib.h"
 
 static uint64_t rng = 0x9e3779b97f4a7c15u;
 
@@ -102,9 +96,9 @@ static double best_of_3(void (*f)(job *), job *j)
     double best = 1e30;
     int k;
     for (k = 0; k < 3; k++) {
-        double t = now();
+        double t = bench_now();
         f(j);
-        t = now() - t;
+        t = bench_now() - t;
         if (t < best)
             best = t;
     }

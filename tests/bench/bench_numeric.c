@@ -23,18 +23,12 @@
 #include "gainsmith.h"
 #include "numeric/roots.h"
 #include "numeric/step.h"
+#include "benchlib.h"
 
 #define PI_L 3.141592653589793238462643383279502884L
 #define REPS 7
 
 typedef long double complex ldc;
-
-static double now(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return (double)ts.tv_sec + 1e-9 * (double)ts.tv_nsec;
-}
 
 /* Loop gain of a two-stage amplifier: DC gain 1e4, poles at 1 kHz, 20 MHz
    and 200 MHz, a right-half-plane zero at 500 MHz. */
@@ -76,11 +70,11 @@ static void bench_bode(const char *name, const long double *num, int nd,
     for (int r = 0; r < REPS; r++) {
         gs_tfn h;
         gs_sweep sw;
-        double t0 = now();
+        double t0 = bench_now();
         gs_tfn_init(&h, num, nd, den, dd);
         gs_sweep_init(&sw);
         gs_sweep_log(&sw, &h, f0, f1, points);
-        double t1 = now() - t0;
+        double t1 = bench_now() - t0;
         best = t1 < best ? t1 : best;
         gs_freq_margins(&m, &h);
         gs_sweep_clear(&sw);
@@ -102,9 +96,9 @@ static void bench_poles(const char *name, const long double *a, int n,
     gs_roots_info info;
     double best = INFINITY;
     for (int k = 0; k < REPS; k++) {
-        double t0 = now();
+        double t0 = bench_now();
         gs_roots(r, NULL, a, n, &info);
-        double t1 = now() - t0;
+        double t1 = bench_now() - t0;
         best = t1 < best ? t1 : best;
     }
     printf("bench poles-%s degree=%d seconds=%.6f max_rel_residual=%.2Lg",
@@ -144,11 +138,11 @@ static void bench_step(const char *name, const long double *num, int nd,
     for (int r = 0; r < REPS; r++) {
         gs_tfn h;
         gs_step s;
-        double t0 = now();
+        double t0 = bench_now();
         gs_tfn_init(&h, num, nd, den, dd);
         gs_step_init(&s, &h);
         gs_step_measure(&m, &s);
-        double t1 = now() - t0;
+        double t1 = bench_now() - t0;
         best = t1 < best ? t1 : best;
         gs_step_clear(&s);
         gs_tfn_clear(&h);

@@ -35,6 +35,7 @@
 #include <sys/wait.h>
 #include <time.h>
 #include <unistd.h>
+#include "benchlib.h"
 
 #define MAX_RUNS 101
 
@@ -59,13 +60,6 @@ typedef struct outcome {
 static void on_alarm(int sig)
 {
     (void)sig;
-}
-
-static double now_seconds(void)
-{
-    struct timespec ts;
-    clock_gettime(CLOCK_MONOTONIC, &ts);
-    return (double)ts.tv_sec + (double)ts.tv_nsec * 1e-9;
 }
 
 static void redirect(int fd, const char *path, int flags)
@@ -125,7 +119,7 @@ static int run_once(const options *o, outcome *r)
     double t0;
     memset(r, 0, sizeof *r);
     fflush(NULL);
-    t0 = now_seconds();
+    t0 = bench_now();
     pid = fork();
     if (pid < 0) {
         perror("fork");
@@ -140,23 +134,9 @@ static int run_once(const options *o, outcome *r)
         perror("wait4");
         return -1;
     }
-    r->seconds = now_seconds() - t0;
+    r->seconds = bench_now() - t0;
     alarm(0);
     return 0;
-}
-
-static int cmp_double(const void *a, const void *b)
-{
-    double x = *(const double *)a, y = *(const double *)b;
-    return (x > y) - (x < y);
-}
-
-static double median(double *v, int n)
-{
-    qsort(v, (size_t)n, sizeof v[0], cmp_double);
-    if (n % 2 == 1)
-        return v[n / 2];
-    return (v[n / 2 - 1] + v[n / 2]) / 2;
 }
 
 static void status_text(char *buf, size_t n, const outcome *r)
@@ -264,7 +244,7 @@ int main(int argc, char **argv)
         if (failed || (n == 1 && o.slow > 0 && r.seconds > o.slow))
             break;
     }
-    printf("runs=%d seconds=%.6f", n, median(secs, n));
+    printf("runs=%d seconds=%.6f", n, bench_median(secs, n));
     printf(" min=%.6f max=%.6f", secs[0], secs[n - 1]);
     printf(" peak_kib=%ld status=%s\n", peak, status);
     return failed ? 1 : 0;
